@@ -1,0 +1,218 @@
+/* Equipoise: the C API of the aqueous equilibrium engine. */
+/* SPDX-License-Identifier: MIT */
+#ifndef EQUIPOISE_H
+#define EQUIPOISE_H
+
+#include <stddef.h>
+#include "version.h"
+
+#ifdef __cplusplus
+extern "C" {
+#endif
+
+#if defined(__GNUC__)
+#define EQP_API __attribute__((visibility("default")))
+#else
+#define EQP_API
+#endif
+
+/*
+** Status codes. 0 is success, negative values are errors. Every failing call
+** also leaves a message in its context, read with eqp_ctx_errmsg().
+*/
+#define EQP_STATUS_LIST(X)                                              \
+  X(EQP_OK,         0,  "ok")                                           \
+  X(EQP_E_NOMEM,   -1,  "out of memory")                                \
+  X(EQP_E_ARG,     -2,  "invalid argument")                             \
+  X(EQP_E_INPUT,   -3,  "invalid input value")                          \
+  X(EQP_E_UNKNOWN, -4,  "unknown name")                                 \
+  X(EQP_E_DATA,    -5,  "malformed species data")                       \
+  X(EQP_E_IO,      -6,  "cannot read file")                             \
+  X(EQP_E_PLUGIN,  -7,  "plugin missing or refused")                    \
+  X(EQP_E_CONVERGE,-8,  "no convergence")                               \
+  X(EQP_E_VERIFY,  -9,  "balances do not close after the solve")
+
+typedef enum eqp_status {
+#define EQP_X_ENUM(name, value, text) name = value,
+  EQP_STATUS_LIST(EQP_X_ENUM)
+#undef EQP_X_ENUM
+} eqp_status;
+
+/* "EQP_E_INPUT" for EQP_E_INPUT; "EQP_UNKNOWN_STATUS" otherwise. Static. */
+EQP_API const char *eqp_status_name(int status);
+/* A short English description of a status. Static. */
+EQP_API const char *eqp_status_str(int status);
+
+/* Allocator with lua_Alloc's shape: nsize 0 frees, otherwise realloc. */
+typedef void *(*eqp_alloc_fn)(void *ud, void *ptr, size_t osize, size_t nsize);
+
+typedef struct eqp_ctx eqp_ctx;           /* allocator, species, plugins, errors */
+typedef struct eqp_solution eqp_solution; /* a composition being equilibrated */
+typedef struct eqp_result eqp_result;     /* an immutable snapshot of one solve */
+
+/* ------------------------------------------------------------------ ctx */
+
+/* New context. alloc NULL uses malloc/realloc/free. Returns NULL only when
+** memory is exhausted. Nothing is loaded yet. */
+EQP_API eqp_ctx *eqp_ctx_new(eqp_alloc_fn alloc, void *ud);
+/* Frees the context. All its solutions and results must be freed first.
+** NULL is a no-op. */
+EQP_API void eqp_ctx_free(eqp_ctx *ctx);
+/* The message of the last failing call on ctx or on anything it owns.
+** Borrowed; valid until the next call on the context. */
+EQP_API const char *eqp_ctx_errmsg(const eqp_ctx *ctx);
+/* The status of the last failing call (EQP_OK if none failed since the
+** last eqp_ctx_clear_error). */
+EQP_API int eqp_ctx_errcode(const eqp_ctx *ctx);
+EQP_API void eqp_ctx_clear_error(eqp_ctx *ctx);
+
+/* Load one species file (path) or every *.lua file in a folder, checking
+** the whole set before any of it becomes visible. On failure nothing of the
+** file or folder is kept and the message reads "file:line: what is wrong".
+** Returns EQP_OK, EQP_E_IO, EQP_E_DATA, EQP_E_NOMEM. */
+EQP_API int eqp_ctx_load_species_file(eqp_ctx *ctx, const char *path);
+EQP_API int eqp_ctx_load_species_dir(eqp_ctx *ctx, const char *dir);
+/* Load Lua species text (the same format) under the given source name. */
+EQP_API int eqp_ctx_load_species_text(eqp_ctx *ctx, const char *text,
+                                      size_t len, const char *source);
+/* Load the built-in library (EQUIPOISE_SPECIES_PATH, or the build or install
+** folder) plus the user's folder ($XDG_DATA_HOME/equipoise/species or
+** ~/.local/share/equipoise/species) when it exists. Idempotent. */
+EQP_API int eqp_ctx_load_default_library(eqp_ctx *ctx);
+
+/* Prepend a folder to the plugin search path (copied). The path is, in
+** order: folders added here, EQUIPOISE_PLUGIN_PATH (colon-separated), the
+** build tree's plugin folder, the install folder. */
+EQP_API int eqp_ctx_add_plugin_dir(eqp_ctx *ctx, const char *dir);
+
+/* Library contents, for listing. Indexes run from 0 to count-1. The strings
+** are borrowed from the context. */
+EQP_API size_t eqp_ctx_species_count(const eqp_ctx *ctx);
+EQP_API const char *eqp_ctx_species_name(const eqp_ctx *ctx, size_t i);
+EQP_API size_t eqp_ctx_reagent_count(const eqp_ctx *ctx);
+EQP_API const char *eqp_ctx_reagent_name(const eqp_ctx *ctx, size_t i);
+/* A human-readable description of a species or reagent by name: its
+** formula, reaction, constants and sources. Writes at most len bytes
+** (always terminated). EQP_E_UNKNOWN if no such name. */
+EQP_API int eqp_ctx_describe(eqp_ctx *ctx, const char *name, char *buf, size_t len);
+/* Hazard classes recorded for a reagent (name or alias): count, and the
+** i-th as a borrowed string. 0 / NULL for unknown names. */
+EQP_API size_t eqp_ctx_reagent_hazard_count(const eqp_ctx *ctx, const char *name);
+EQP_API const char *eqp_ctx_reagent_hazard(const eqp_ctx *ctx, const char *name, size_t i);
+/* Number of species files loaded and the path of the i-th. Borrowed. */
+EQP_API size_t eqp_ctx_source_count(const eqp_ctx *ctx);
+EQP_API const char *eqp_ctx_source_path(const eqp_ctx *ctx, size_t i);
+
+/* Plugin listing: every activity-model plugin found on the search path.
+** The callback gets name, version, summary and the file it came from, or
+** for a refused file name NULL and the reason in summary. */
+typedef void (*eqp_plugin_list_fn)(void *ud, const char *name, const char *version,
+                                   const char *summary, const char *path);
+EQP_API int eqp_ctx_list_plugins(eqp_ctx *ctx, eqp_plugin_list_fn fn, void *ud);
+
+/* -------------------------------------------------------------- units */
+
+/* What kind of quantity an amount string holds. */
+typedef enum eqp_quantity {
+  EQP_Q_NONE = 0,
+  EQP_Q_AMOUNT = 1 << 0,      /* mol */
+  EQP_Q_MASS = 1 << 1,        /* kg */
+  EQP_Q_MOLARITY = 1 << 2,    /* mol/L */
+  EQP_Q_MOLALITY = 1 << 3,    /* mol/kg of water */
+  EQP_Q_VOLUME = 1 << 4,      /* L */
+  EQP_Q_TEMPERATURE = 1 << 5  /* K */
+} eqp_quantity;
+
+/* Parse "12.5 mmol", "1.42 g", "25 mM", "10 mL", "37 C", ... into a value in
+** the base unit of its kind (mol, kg, mol/L, mol/kg, L, K). allowed is a mask
+** of eqp_quantity; a unit of another kind, a missing or unknown unit, a
+** negative, non-finite or malformed number is EQP_E_INPUT with a message
+** that quotes the string. */
+EQP_API int eqp_parse_quantity(eqp_ctx *ctx, const char *text, unsigned allowed,
+                               double *value, eqp_quantity *kind);
+
+/* Density of liquid water in kg/L at T (K) and 0.101325 MPa (Kell 1975). */
+EQP_API double eqp_water_density(double T);
+
+/* Molar mass in g/mol of a formula such as "Na2HPO4.7H2O" or "Ca(OH)2",
+** from the IUPAC standard atomic weights. EQP_E_INPUT on a bad formula. */
+EQP_API int eqp_formula_molar_mass(eqp_ctx *ctx, const char *formula, double *gmol);
+
+/* ----------------------------------------------------------- solution */
+
+typedef struct eqp_solution_opts {
+  double water_kg;          /* mass of water; > 0 */
+  double temperature_K;     /* 273.15 .. 373.15 */
+  const char *activity;     /* plugin name; NULL means "davies" */
+} eqp_solution_opts;
+
+/* New solution of pure water. Loads the default library if nothing is
+** loaded yet and the activity plugin named in opts. */
+EQP_API int eqp_solution_new(eqp_ctx *ctx, const eqp_solution_opts *opts,
+                             eqp_solution **out);
+EQP_API void eqp_solution_free(eqp_solution *s);
+/* A deep copy (composition, temperature, model, last solution as warm start). */
+EQP_API int eqp_solution_copy(const eqp_solution *s, eqp_solution **out);
+
+/* Add a reagent by name or formula. The quantity kinds accepted are amount
+** (mol), mass (kg), molarity (raises the concentration in the current volume,
+** approximated as the volume of the water) and molality. value is in the
+** base unit of kind. EQP_E_UNKNOWN for an unknown reagent, EQP_E_INPUT for a
+** negative or non-finite value. */
+EQP_API int eqp_solution_add(eqp_solution *s, const char *reagent, double value,
+                             eqp_quantity kind);
+/* Same, with an amount string such as "12.5 mmol". */
+EQP_API int eqp_solution_add_str(eqp_solution *s, const char *reagent, const char *amount);
+
+EQP_API double eqp_solution_water_kg(const eqp_solution *s);
+EQP_API double eqp_solution_temperature(const eqp_solution *s); /* K */
+/* Volume in L, approximated as the volume of its water at T (dilute). */
+EQP_API double eqp_solution_volume(const eqp_solution *s);
+
+/* Solve for equilibrium and verify every balance. On success *out is a new
+** result owned by the caller (eqp_result_free). EQP_E_CONVERGE or
+** EQP_E_VERIFY leave no result and a message naming the system and the last
+** residuals. */
+EQP_API int eqp_solution_equilibrate(eqp_solution *s, eqp_result **out);
+
+/* ------------------------------------------------------------- result */
+
+EQP_API void eqp_result_free(eqp_result *r);
+EQP_API double eqp_result_pH(const eqp_result *r);            /* -log10 a(H+) */
+EQP_API double eqp_result_ionic_strength(const eqp_result *r); /* mol/kg */
+EQP_API double eqp_result_temperature(const eqp_result *r);   /* K */
+EQP_API double eqp_result_water_kg(const eqp_result *r);
+EQP_API double eqp_result_water_density(const eqp_result *r); /* kg/L */
+/* Largest relative residual of the balances re-evaluated after the solve. */
+EQP_API double eqp_result_residual(const eqp_result *r);
+EQP_API long eqp_result_iterations(const eqp_result *r);
+EQP_API const char *eqp_result_activity_model(const eqp_result *r);
+
+/* Per-species values. A species of the library absent from the solution
+** reads 0 (gamma 1); a name not in the library is EQP_E_UNKNOWN. */
+EQP_API int eqp_result_molality(const eqp_result *r, const char *sp, double *out);
+EQP_API int eqp_result_molarity(const eqp_result *r, const char *sp, double *out);
+EQP_API int eqp_result_activity(const eqp_result *r, const char *sp, double *out);
+EQP_API int eqp_result_gamma(const eqp_result *r, const char *sp, double *out);
+
+/* Species present, by index: 0 .. count-1. Names borrowed from the context. */
+EQP_API size_t eqp_result_species_count(const eqp_result *r);
+EQP_API const char *eqp_result_species_name(const eqp_result *r, size_t i);
+EQP_API double eqp_result_species_molality(const eqp_result *r, size_t i);
+EQP_API double eqp_result_species_log_gamma(const eqp_result *r, size_t i);
+
+/* Warnings attached to the result (a model beyond its range, ...). */
+EQP_API size_t eqp_result_warning_count(const eqp_result *r);
+EQP_API const char *eqp_result_warning(const eqp_result *r, size_t i);
+
+/* ---------------------------------------------------------------- Lua */
+
+struct lua_State;
+/* Opens the "equipoise" Lua module: pushes its table. Creates a context
+** owned by the Lua state. This is also the entry point for require. */
+EQP_API int luaopen_equipoise(struct lua_State *L);
+
+#ifdef __cplusplus
+}
+#endif
+#endif

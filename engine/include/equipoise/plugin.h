@@ -1,0 +1,103 @@
+/* Equipoise plugin ABI: the only header a plugin includes. */
+/* SPDX-License-Identifier: MIT */
+#ifndef EQUIPOISE_PLUGIN_H
+#define EQUIPOISE_PLUGIN_H
+
+#include <stddef.h>
+#include <stdint.h>
+
+#ifdef __cplusplus
+extern "C" {
+#endif
+
+/*
+** Versioning. abi_version packs major (high 16 bits) and minor (low 16 bits).
+** Within one major version, structs only grow at their end; a reader checks
+** struct_size before touching a member added in a later minor version.
+*/
+#define EQP_PLUGIN_ABI_MAJOR 1
+#define EQP_PLUGIN_ABI_MINOR 0
+#define EQP_PLUGIN_ABI_VERSION \
+  ((uint32_t)EQP_PLUGIN_ABI_MAJOR << 16 | (uint32_t)EQP_PLUGIN_ABI_MINOR)
+
+/* Sizes of the engine's number and index types, checked on load. */
+#define EQP_PLUGIN_SIZES ((uint32_t)(sizeof(double) << 8 | sizeof(size_t)))
+
+#define EQP_PLUGIN_ENTRY "eqp_plugin_entry"
+
+#if defined(__GNUC__)
+#define EQP_PLUGIN_EXPORT __attribute__((visibility("default")))
+#else
+#define EQP_PLUGIN_EXPORT
+#endif
+
+/* What the host offers a plugin. Read-only; lives as long as the plugin. */
+typedef struct eqp_host_api {
+  uint32_t abi_version;
+  uint32_t struct_size;          /* sizeof(eqp_host_api) as the host built it */
+  /* 1.0 */
+  void *(*alloc)(size_t n);      /* host allocator; NULL on exhaustion */
+  void (*free)(void *p);         /* frees what alloc returned; NULL ok */
+  void (*log)(const char *msg);  /* diagnostic line, shown with --verbose */
+} eqp_host_api;
+
+typedef enum eqp_plugin_kind {
+  EQP_PLUGIN_ACTIVITY = 1
+} eqp_plugin_kind;
+
+/*
+** Input to an activity model for one evaluation. All arrays have n entries,
+** one per species in solution, borrowed for the duration of the call.
+*/
+typedef struct eqp_activity_in {
+  size_t n;
+  const double *charge;     /* z */
+  const double *size;       /* ion-size parameter, Angstrom; NaN if unknown */
+  const double *molality;   /* mol/kg, mass action at the current iterate with
+                               unit activity coefficients (see docs/plugin-abi.md) */
+  double ionic_strength;    /* mol/kg, the solver's current value */
+  double temperature;       /* K */
+  double A;                 /* Debye-Hueckel A, kg^1/2 mol^-1/2, log10 basis */
+  double B;                 /* Debye-Hueckel B, kg^1/2 mol^-1/2 per Angstrom */
+} eqp_activity_in;
+
+/* Operations of an activity model. Required members first. */
+typedef struct eqp_activity_ops {
+  uint32_t struct_size;     /* sizeof(eqp_activity_ops) as the plugin built it */
+  /* 1.0, required */
+  /* Make per-solution state (*state may stay NULL). Return 0, or non-zero
+  ** after writing a reason into err (errlen bytes, caller-owned). */
+  int (*create)(const eqp_host_api *host, void **state, char *err, size_t errlen);
+  void (*destroy)(const eqp_host_api *host, void *state);
+  /* Write log10 gamma of every species into lg[0..n-1]. Must be a smooth
+  ** deterministic function of its input. Return 0 or non-zero with err. */
+  int (*log_gamma)(void *state, const eqp_activity_in *in, double *lg,
+                   char *err, size_t errlen);
+  /* 1.0, optional (NULL: no parameters) */
+  /* Set a named parameter; return non-zero with err if unknown or bad. */
+  int (*set_param)(void *state, const char *name, double value, char *err, size_t errlen);
+} eqp_activity_ops;
+
+/* The descriptor a plugin's entry returns. Static and read-only. */
+typedef struct eqp_plugin_desc {
+  uint32_t abi_version;     /* EQP_PLUGIN_ABI_VERSION the plugin was built with */
+  uint32_t struct_size;     /* sizeof(eqp_plugin_desc) as the plugin built it */
+  uint32_t sizes;           /* EQP_PLUGIN_SIZES */
+  uint32_t kind;            /* eqp_plugin_kind */
+  const char *name;         /* script-visible name, e.g. "davies" */
+  const char *version;      /* the plugin's own version string */
+  const char *summary;      /* one line */
+  const void *ops;          /* eqp_activity_ops for EQP_PLUGIN_ACTIVITY */
+  /* 1.0: validity range of the model; beyond it results carry a warning */
+  double max_ionic_strength; /* mol/kg; 0 means no stated limit */
+} eqp_plugin_desc;
+
+/* The one symbol a plugin exports. Return the descriptor, or NULL after
+** writing a reason into err. */
+typedef const eqp_plugin_desc *(*eqp_plugin_entry_fn)(const eqp_host_api *host,
+                                                       char *err, size_t errlen);
+
+#ifdef __cplusplus
+}
+#endif
+#endif

@@ -1,0 +1,40 @@
+/* The equipoise command: shared declarations. */
+/* SPDX-License-Identifier: MIT */
+#ifndef EQP_CLI_IMPL_H
+#define EQP_CLI_IMPL_H
+
+#include <equipoise/equipoise.h>
+#include <lua.h>
+
+/* Documented exit codes (docs/equipoise.1, docs/user-guide.md). */
+enum {
+  EXIT_OK = 0,
+  EXIT_SCRIPT = 1,     /* Lua syntax or runtime error in the script */
+  EXIT_USAGE = 2,      /* bad command line, unreadable script */
+  EXIT_INPUT = 3,      /* bad value: unknown reagent or species, unit, amount */
+  EXIT_DATA = 4,       /* malformed or unreadable species data */
+  EXIT_CONVERGE = 5,   /* no convergence, or balances that did not close */
+  EXIT_PLUGIN = 6,     /* activity model missing or refused */
+  EXIT_NOMEM = 7
+};
+
+int cli_exit_code(int status);
+
+typedef struct cli_run {
+  const char *script;
+  int json;
+  int verbose;
+  const char **param_names, **param_values;
+  int nparams;
+} cli_run;
+
+int cli_run_script(const cli_run *run);
+/* Write the JSON document of a run (results in the registry log). */
+void cli_write_json(lua_State *L, const cli_run *run, int exit_code, const char *error,
+                    lua_State *printed);
+/* Print cautions and warnings of a finished run to stderr (text mode). */
+void cli_report_text(lua_State *L);
+/* Collect a standard caution for each hazardous reagent used; calls f. */
+void cli_each_caution(lua_State *L, void (*f)(void *, const char *), void *ud);
+
+#endif

@@ -1,0 +1,191 @@
+/* What a run leaves for its reader: JSON document, warnings, cautions. */
+/* SPDX-License-Identifier: MIT */
+#include "cli_impl.h"
+#include "../lua/lua_impl.h"
+#include <cjson/cJSON.h>
+#include <math.h>
+#include <stdio.h>
+#include <string.h>
+
+static const char general_caution[] =
+  "Results are model estimates: confirm the pH of every preparation with a calibrated "
+  "meter. For clinical, pharmaceutical or food use follow validated methods and local "
+  "regulations.";
+
+static void caution_for(char *buf, size_t len, const char *reagent, const char *hazard)
+{
+  if (strcmp(hazard, "corrosive") == 0)
+    snprintf(buf, len, "%s is corrosive: wear eye protection, gloves and a lab coat; add it "
+             "slowly to water, never water to it, as dissolving or diluting releases heat; "
+             "consult its safety data sheet.", reagent);
+  else if (strcmp(hazard, "oxidizer") == 0)
+    snprintf(buf, len, "%s is an oxidizer: keep it away from organic and combustible "
+             "material; consult its safety data sheet.", reagent);
+  else if (strcmp(hazard, "flammable") == 0)
+    snprintf(buf, len, "%s is flammable: keep it away from ignition sources and work in a "
+             "ventilated place; consult its safety data sheet.", reagent);
+  else if (strcmp(hazard, "toxic") == 0)
+    snprintf(buf, len, "%s is toxic: avoid ingestion, inhalation and skin contact; consult "
+             "its safety data sheet.", reagent);
+  else if (strcmp(hazard, "irritant") == 0)
+    snprintf(buf, len, "%s is an irritant: avoid contact with eyes and skin; consult its "
+             "safety data sheet.", reagent);
+  else
+    snprintf(buf, len, "%s: hazard '%s'; consult its safety data sheet.", reagent, hazard);
+}
+
+void cli_each_caution(lua_State *L, void (*f)(void *, const char *), void *ud)
+{
+  eqp_ctx *ctx = NULL;
+  if (lua_getfield(L, LUA_REGISTRYINDEX, EQPL_CTX ".ptr") == LUA_TLIGHTUSERDATA)
+    ctx = lua_touserdata(L, -1);
+  lua_pop(L, 1);
+  if (!ctx) return;
+  if (lua_getfield(L, LUA_REGISTRYINDEX, EQPL_USED) != LUA_TTABLE) {
+    lua_pop(L, 1);
+    return;
+  }
+  lua_pushnil(L);
+  while (lua_next(L, -2)) {
+    lua_pop(L, 1);
+    const char *name = lua_tostring(L, -1);
+    size_t n = eqp_ctx_reagent_hazard_count(ctx, name);
+    for (size_t i = 0; i < n; i++) {
+      char buf[512];
+      caution_for(buf, sizeof buf, name, eqp_ctx_reagent_hazard(ctx, name, i));
+      f(ud, buf);
+    }
+  }
+  lua_pop(L, 1);
+}
+
+static void print_caution(void *ud, const char *text)
+{
+  fprintf(stderr, "caution: %s\n", text);
+}
+
+/* Each distinct warning once, in order of appearance. */
+static void each_warning(lua_State *L, void (*f)(void *, const char *), void *ud)
+{
+  if (lua_getfield(L, LUA_REGISTRYINDEX, EQPL_LOG) != LUA_TTABLE) {
+    lua_pop(L, 1);
+    return;
+  }
+  lua_newtable(L);   /* seen */
+  lua_Integer n = (lua_Integer)lua_rawlen(L, -2);
+  for (lua_Integer i = 1; i <= n; i++) {
+    lua_rawgeti(L, -2, i);
+    eqpl_result *u = luaL_testudata(L, -1, EQPL_RESULT);
+    lua_pop(L, 1);
+    if (!u || !u->r) continue;
+    for (size_t w = 0; w < eqp_result_warning_count(u->r); w++) {
+      const char *text = eqp_result_warning(u->r, w);
+      if (lua_getfield(L, -1, text) == LUA_TNIL) {
+        lua_pushboolean(L, 1);
+        lua_setfield(L, -3, text);
+        f(ud, text);
+      }
+      lua_pop(L, 1);
+    }
+  }
+  lua_pop(L, 2);
+}
+
+static void print_warning(void *ud, const char *text)
+{
+  fprintf(stderr, "warning: %s\n", text);
+}
+
+void cli_report_text(lua_State *L)
+{
+  each_warning(L, print_warning, NULL);
+  cli_each_caution(L, print_caution, NULL);
+}
+
+static void add_string(void *ud, const char *text)
+{
+  cJSON_AddItemToArray(ud, cJSON_CreateString(text));
+}
+
+static cJSON *result_json(const eqp_result *r)
+{
+  cJSON *o = cJSON_CreateObject();
+  cJSON_AddNumberToObject(o, "pH", eqp_result_pH(r));
+  cJSON_AddNumberToObject(o, "ionic_strength", eqp_result_ionic_strength(r));
+  cJSON_AddNumberToObject(o, "temperature_C", eqp_result_temperature(r) - 273.15);
+  cJSON_AddNumberToObject(o, "water_kg", eqp_result_water_kg(r));
+  cJSON_AddStringToObject(o, "activity_model", eqp_result_activity_model(r));
+  cJSON_AddNumberToObject(o, "relative_residual", eqp_result_residual(r));
+  cJSON_AddNumberToObject(o, "iterations", (double)eqp_result_iterations(r));
+  cJSON_AddStringToObject(o, "concentration_scale",
+                          "molality (mol/kg water); molarity = molality x density of water");
+  cJSON *sp = cJSON_AddArrayToObject(o, "species");
+  for (size_t i = 0; i < eqp_result_species_count(r); i++) {
+    cJSON *e = cJSON_CreateObject();
+    cJSON_AddStringToObject(e, "name", eqp_result_species_name(r, i));
+    cJSON_AddNumberToObject(e, "molality", eqp_result_species_molality(r, i));
+    cJSON_AddNumberToObject(e, "gamma", pow(10.0, eqp_result_species_log_gamma(r, i)));
+    cJSON_AddItemToArray(sp, e);
+  }
+  cJSON *w = cJSON_AddArrayToObject(o, "warnings");
+  for (size_t i = 0; i < eqp_result_warning_count(r); i++)
+    cJSON_AddItemToArray(w, cJSON_CreateString(eqp_result_warning(r, i)));
+  return o;
+}
+
+void cli_write_json(lua_State *L, const cli_run *run, int exit_code, const char *error,
+                    lua_State *unused)
+{
+  cJSON *doc = cJSON_CreateObject();
+  cJSON_AddStringToObject(doc, "equipoise", EQP_VERSION_STRING);
+  cJSON_AddStringToObject(doc, "script", run->script);
+  cJSON *params = cJSON_AddObjectToObject(doc, "params");
+  for (int i = 0; i < run->nparams; i++)
+    cJSON_AddStringToObject(params, run->param_names[i], run->param_values[i]);
+  cJSON_AddStringToObject(doc, "status", exit_code == 0 ? "ok" : "error");
+  cJSON_AddNumberToObject(doc, "exit_code", exit_code);
+  if (error) cJSON_AddStringToObject(doc, "error", error);
+  else cJSON_AddNullToObject(doc, "error");
+  cJSON *results = cJSON_AddArrayToObject(doc, "results");
+  if (lua_getfield(L, LUA_REGISTRYINDEX, EQPL_LOG) == LUA_TTABLE) {
+    lua_Integer n = (lua_Integer)lua_rawlen(L, -1);
+    for (lua_Integer i = 1; i <= n; i++) {
+      lua_rawgeti(L, -1, i);
+      eqpl_result *u = luaL_testudata(L, -1, EQPL_RESULT);
+      if (u && u->r) cJSON_AddItemToArray(results, result_json(u->r));
+      lua_pop(L, 1);
+    }
+  }
+  lua_pop(L, 1);
+  cJSON *out = cJSON_AddArrayToObject(doc, "output");
+  if (lua_getfield(L, LUA_REGISTRYINDEX, "equipoise.output") == LUA_TTABLE) {
+    lua_Integer n = (lua_Integer)lua_rawlen(L, -1);
+    for (lua_Integer i = 1; i <= n; i++) {
+      lua_rawgeti(L, -1, i);
+      cJSON_AddItemToArray(out, cJSON_CreateString(lua_tostring(L, -1)));
+      lua_pop(L, 1);
+    }
+  }
+  lua_pop(L, 1);
+  each_warning(L, add_string, cJSON_AddArrayToObject(doc, "warnings"));
+  cJSON *cautions = cJSON_AddArrayToObject(doc, "cautions");
+  cJSON_AddItemToArray(cautions, cJSON_CreateString(general_caution));
+  cli_each_caution(L, add_string, cautions);
+  cJSON *prov = cJSON_AddObjectToObject(doc, "provenance");
+  cJSON *files = cJSON_AddArrayToObject(prov, "species_files");
+  eqp_ctx *ctx = NULL;
+  if (lua_getfield(L, LUA_REGISTRYINDEX, EQPL_CTX ".ptr") == LUA_TLIGHTUSERDATA)
+    ctx = lua_touserdata(L, -1);
+  lua_pop(L, 1);
+  for (size_t i = 0; ctx && i < eqp_ctx_source_count(ctx); i++)
+    cJSON_AddItemToArray(files, cJSON_CreateString(eqp_ctx_source_path(ctx, i)));
+  cJSON_AddStringToObject(prov, "water_properties",
+                          "density: Kell 1975; permittivity: Malmberg & Maryott 1956");
+  char *text = cJSON_Print(doc);
+  if (text) {
+    fputs(text, stdout);
+    fputc('\n', stdout);
+    cJSON_free(text);
+  }
+  cJSON_Delete(doc);
+}

@@ -1,0 +1,490 @@
+/* Commit a staged species load: resolve names, check every reaction's and
+** reagent's element and charge balance, resolve species onto components,
+** and append to the database only if the whole load is correct. */
+/* SPDX-License-Identifier: MIT */
+#include "stage_impl.h"
+#include <math.h>
+#include <stdio.h>
+#include <string.h>
+
+void eqpi_stage_error(eqpi_stage *st, const char *file, int line, const char *fmt, ...)
+{
+  st->nerr++;
+  if (st->errused + 2 >= sizeof st->err) return;
+  char *p = st->err + st->errused;
+  size_t left = sizeof st->err - st->errused;
+  int k = 0;
+  if (st->errused) k = snprintf(p, left, "\n");
+  if (file && line > 0) k += snprintf(p + k, left - (size_t)k, "%s:%d: ", file, line);
+  else if (file) k += snprintf(p + k, left - (size_t)k, "%s: ", file);
+  va_list ap;
+  va_start(ap, fmt);
+  if ((size_t)k < left) k += vsnprintf(p + k, left - (size_t)k, fmt, ap);
+  va_end(ap);
+  st->errused += (size_t)k < left ? (size_t)k : left - 1;
+}
+
+void *eqpi_stage_push(eqp_ctx *ctx, eqpi_stage *st, void **arr, int *n, int *cap, size_t elem)
+{
+  if (*n == *cap) {
+    int nc = *cap ? *cap * 2 : 16;
+    void *p = eqpi_realloc(ctx, *arr, elem * (size_t)*cap, elem * (size_t)nc);
+    if (!p) {
+      eqpi_stage_error(st, NULL, 0, "out of memory");
+      return NULL;
+    }
+    *arr = p;
+    *cap = nc;
+  }
+  void *e = (char *)*arr + elem * (size_t)(*n)++;
+  memset(e, 0, elem);
+  return e;
+}
+
+eqpi_stage *eqpi_stage_new(eqp_ctx *ctx)
+{
+  return eqpi_calloc(ctx, 1, sizeof(eqpi_stage));
+}
+
+void eqpi_stage_free(eqp_ctx *ctx, eqpi_stage *st)
+{
+  if (!st) return;
+  eqpi_arena_free(ctx, &st->arena);
+  eqpi_free(ctx, st->sp, sizeof *st->sp * (size_t)st->capsp);
+  eqpi_free(ctx, st->rx, sizeof *st->rx * (size_t)st->caprx);
+  eqpi_free(ctx, st->rg, sizeof *st->rg * (size_t)st->caprg);
+  eqpi_free(ctx, st->files, sizeof *st->files * (size_t)st->capfiles);
+  eqpi_free(ctx, st, sizeof *st);
+}
+
+/* --------------------------------------------------------------- commit */
+
+typedef struct committer {
+  eqp_ctx *ctx;
+  eqpi_db *db;
+  eqpi_stage *st;
+  eqpi_species *sp;   /* old + new */
+  int nsp;
+  eqpi_reaction *rx;
+  int nrx;
+  eqpi_reagent *rg;
+  int nrg, caprg;
+  int ncomp;
+  int *comp_species;
+  signed char *state; /* per species: 0 todo, 1 resolving, 2 done */
+} committer;
+
+static int find_species(const committer *c, const char *name)
+{
+  int i = eqpi_db_find_species(c->db, name);
+  if (i >= 0) return i;
+  for (int k = c->db->nsp; k < c->nsp; k++)
+    if (strcmp(c->sp[k].name, name) == 0) return k;
+  return -1;
+}
+
+static int find_reagent(const committer *c, const char *name, int upto)
+{
+  int i = eqpi_db_find_reagent(c->db, name);
+  if (i >= 0) return i;
+  for (int k = c->db->nrg; k < upto; k++) {
+    if (strcmp(c->rg[k].name, name) == 0) return k;
+    for (int a = 0; a < c->rg[k].naliases; a++)
+      if (strcmp(c->rg[k].aliases[a], name) == 0) return k;
+  }
+  return -1;
+}
+
+static void add_species(committer *c)
+{
+  eqpi_stage *st = c->st;
+  for (int k = 0; k < st->nsp; k++) {
+    const st_species *s = &st->sp[k];
+    if (!s->name) continue;
+    int prev = find_species(c, s->name);
+    if (prev >= 0) {
+      eqpi_stage_error(st, s->file, s->line, "duplicate species '%s' (first defined at %s:%d)",
+                       s->name, c->sp[prev].file, c->sp[prev].line);
+      continue;
+    }
+    eqpi_species *d = &c->sp[c->nsp];
+    char err[256];
+    double hyd;
+    memset(d, 0, sizeof *d);
+    if (eqpi_formula_parse(s->formula, &d->comp, &hyd, err, sizeof err) < 0) {
+      eqpi_stage_error(st, s->file, s->line, "species '%s': %s", s->name, err);
+      continue;
+    }
+    d->name = s->name;
+    d->formula = s->formula;
+    d->size = s->size;
+    d->size_source = s->size_source;
+    d->file = s->file;
+    d->line = s->line;
+    d->rxn = -1;
+    d->component = -1;
+    c->nsp++;
+  }
+}
+
+static void add_reactions(committer *c)
+{
+  eqpi_stage *st = c->st;
+  for (int k = 0; k < st->nrx; k++) {
+    const st_reaction *r = &st->rx[k];
+    if (!r->product) continue;
+    int p = find_species(c, r->product);
+    if (p < 0) {
+      eqpi_stage_error(st, r->file, r->line, "unknown species '%s' (declare it under 'species')",
+                       r->product);
+      continue;
+    }
+    if (p < c->db->nsp) {
+      eqpi_stage_error(st, r->file, r->line, "species '%s' of %s:%d cannot be given a new "
+                       "reaction here", r->product, c->sp[p].file, c->sp[p].line);
+      continue;
+    }
+    if (c->sp[p].rxn >= 0) {
+      const eqpi_reaction *o = &c->rx[c->sp[p].rxn];
+      eqpi_stage_error(st, r->file, r->line, "duplicate reaction for '%s' (first at %s:%d)",
+                       r->product, o->file, o->line);
+      continue;
+    }
+    eqpi_reaction *d = &c->rx[c->nrx];
+    memset(d, 0, sizeof *d);
+    d->reactant = eqpi_arena_alloc(c->ctx, &st->arena, sizeof(int) * (size_t)(r->n + 1));
+    d->nu = eqpi_arena_alloc(c->ctx, &st->arena, sizeof(double) * (size_t)(r->n + 1));
+    if (!d->reactant || !d->nu) {
+      eqpi_stage_error(st, NULL, 0, "out of memory");
+      return;
+    }
+    eqpi_comp sum = {0};
+    int bad = 0;
+    for (int j = 0; j < r->n; j++) {
+      int q = find_species(c, r->r[j].name);
+      if (q < 0) {
+        eqpi_stage_error(st, r->file, r->line, "reaction for '%s': unknown species '%s'",
+                         r->product, r->r[j].name);
+        bad = 1;
+        continue;
+      }
+      if (q == p) {
+        eqpi_stage_error(st, r->file, r->line, "reaction for '%s' uses '%s' itself",
+                         r->product, r->product);
+        bad = 1;
+        continue;
+      }
+      d->reactant[j] = q;
+      d->nu[j] = r->r[j].nu;
+      eqpi_comp_add(&sum, &c->sp[q].comp, r->r[j].nu);
+    }
+    if (bad) continue;
+    char diff[256];
+    if (eqpi_comp_diff(&c->sp[p].comp, &sum, diff, sizeof diff)) {
+      eqpi_stage_error(st, r->file, r->line, "unbalanced reaction for '%s' (%s minus "
+                       "reactants: %s)", r->product, c->sp[p].formula, diff);
+      continue;
+    }
+    d->product = p;
+    d->n = r->n;
+    d->logK = r->logK;
+    d->dH = r->dH;
+    d->dCp = r->dCp;
+    d->source = r->source;
+    d->file = r->file;
+    d->line = r->line;
+    c->sp[p].rxn = c->nrx++;
+  }
+}
+
+/* Express species i on components, and its log K on reactions. */
+static int resolve(committer *c, int i, int depth)
+{
+  eqpi_species *s = &c->sp[i];
+  if (c->state[i] == 2) return 0;
+  if (c->state[i] == 1 || depth > 64) {
+    eqpi_stage_error(c->st, s->file, s->line, "reactions form a cycle through '%s'", s->name);
+    return -1;
+  }
+  c->state[i] = 1;
+  int nterm = 0, nrx = 0;
+  int *tc = NULL, *ri = NULL;
+  double *tn = NULL, *rc = NULL;
+  double *acc = eqpi_calloc(c->ctx, (size_t)c->ncomp + 1, sizeof(double));
+  double *racc = eqpi_calloc(c->ctx, (size_t)c->nrx + 1, sizeof(double));
+  int rc_ = -1;
+  if (!acc || !racc) goto out;
+  if (s->rxn < 0) {
+    acc[s->component] = 1;
+  } else {
+    const eqpi_reaction *r = &c->rx[s->rxn];
+    racc[s->rxn] = 1;
+    for (int j = 0; j < r->n; j++) {
+      if (resolve(c, r->reactant[j], depth + 1) < 0) goto out;
+      const eqpi_species *q = &c->sp[r->reactant[j]];
+      for (int t = 0; t < q->nterm; t++) acc[q->term_comp[t]] += r->nu[j] * q->term_nu[t];
+      for (int t = 0; t < q->nrx; t++) racc[q->rx_idx[t]] += r->nu[j] * q->rx_c[t];
+    }
+  }
+  for (int t = 0; t < c->ncomp; t++) nterm += fabs(acc[t]) > 1e-12;
+  for (int t = 0; t < c->nrx; t++) nrx += fabs(racc[t]) > 1e-12;
+  tc = eqpi_arena_alloc(c->ctx, &c->st->arena, sizeof(int) * (size_t)(nterm + 1));
+  tn = eqpi_arena_alloc(c->ctx, &c->st->arena, sizeof(double) * (size_t)(nterm + 1));
+  ri = eqpi_arena_alloc(c->ctx, &c->st->arena, sizeof(int) * (size_t)(nrx + 1));
+  rc = eqpi_arena_alloc(c->ctx, &c->st->arena, sizeof(double) * (size_t)(nrx + 1));
+  if (!tc || !tn || !ri || !rc) goto out;
+  nterm = nrx = 0;
+  for (int t = 0; t < c->ncomp; t++)
+    if (fabs(acc[t]) > 1e-12) { tc[nterm] = t; tn[nterm++] = acc[t]; }
+  for (int t = 0; t < c->nrx; t++)
+    if (fabs(racc[t]) > 1e-12) { ri[nrx] = t; rc[nrx++] = racc[t]; }
+  s->term_comp = tc;
+  s->term_nu = tn;
+  s->nterm = nterm;
+  s->rx_idx = ri;
+  s->rx_c = rc;
+  s->nrx = nrx;
+  c->state[i] = 2;
+  rc_ = 0;
+out:
+  if (rc_ < 0 && (!acc || !racc || !tc || !tn || !ri || !rc))
+    eqpi_stage_error(c->st, NULL, 0, "out of memory");
+  eqpi_free(c->ctx, acc, sizeof(double) * ((size_t)c->ncomp + 1));
+  eqpi_free(c->ctx, racc, sizeof(double) * ((size_t)c->nrx + 1));
+  return rc_;
+}
+
+static int push_reagent(committer *c)
+{
+  if (c->nrg == c->caprg) {
+    int nc = c->caprg * 2 + 16;
+    eqpi_reagent *p = eqpi_realloc(c->ctx, c->rg, sizeof *p * (size_t)c->caprg,
+                                   sizeof *p * (size_t)nc);
+    if (!p) return -1;
+    c->rg = p;
+    c->caprg = nc;
+  }
+  memset(&c->rg[c->nrg], 0, sizeof c->rg[0]);
+  return c->nrg++;
+}
+
+/* Resolve a reagent's release onto components; check its balance. */
+static void finish_reagent(committer *c, eqpi_reagent *g, const st_pair *gives, int n)
+{
+  eqpi_stage *st = c->st;
+  eqpi_comp f, sum = {0};
+  char err[256];
+  int water = find_species(c, "H2O");
+  if (eqpi_formula_parse(g->formula, &f, &g->hydrate, err, sizeof err) < 0) {
+    eqpi_stage_error(st, g->file, g->line, "reagent '%s': %s", g->name, err);
+    return;
+  }
+  for (int i = 0; i < f.n; i++)
+    if (eqpi_atomic_weight(f.el[i]) == 0)
+      eqpi_stage_error(st, g->file, g->line, "reagent '%s': %s has no standard atomic weight",
+                       g->name, eqpi_element_symbol(f.el[i]));
+  g->molar_mass = eqpi_comp_mass(&f);
+  g->sp = eqpi_arena_alloc(c->ctx, &st->arena, sizeof(int) * (size_t)(n + 1));
+  g->nu = eqpi_arena_alloc(c->ctx, &st->arena, sizeof(double) * (size_t)(n + 1));
+  double *acc = eqpi_calloc(c->ctx, (size_t)c->ncomp + 1, sizeof(double));
+  if (!g->sp || !g->nu || !acc) {
+    eqpi_stage_error(st, NULL, 0, "out of memory");
+    eqpi_free(c->ctx, acc, sizeof(double) * ((size_t)c->ncomp + 1));
+    return;
+  }
+  int bad = 0;
+  for (int j = 0; j < n; j++) {
+    int q = find_species(c, gives[j].name);
+    if (q < 0) {
+      eqpi_stage_error(st, g->file, g->line, "reagent '%s' gives unknown species '%s'",
+                       g->name, gives[j].name);
+      bad = 1;
+      continue;
+    }
+    g->sp[j] = q;
+    g->nu[j] = gives[j].nu;
+    eqpi_comp_add(&sum, &c->sp[q].comp, gives[j].nu);
+    for (int t = 0; t < c->sp[q].nterm; t++)
+      acc[c->sp[q].term_comp[t]] += gives[j].nu * c->sp[q].term_nu[t];
+  }
+  g->n = n;
+  if (!bad && g->hydrate > 0) {
+    if (water < 0) eqpi_stage_error(st, g->file, g->line, "hydrate needs species 'H2O'");
+    else eqpi_comp_add(&sum, &c->sp[water].comp, g->hydrate);
+  }
+  char diff[256];
+  if (!bad && eqpi_comp_diff(&f, &sum, diff, sizeof diff))
+    eqpi_stage_error(st, g->file, g->line, "reagent '%s' is unbalanced (formula %s minus "
+                     "what it gives: %s)", g->name, g->formula, diff);
+  else if (!bad && fabs(f.charge) > 1e-9)
+    eqpi_stage_error(st, g->file, g->line, "reagent '%s' is charged; reagents are neutral",
+                     g->name);
+  int nterm = 0;
+  for (int t = 0; t < c->ncomp; t++) nterm += fabs(acc[t]) > 1e-12;
+  g->term_comp = eqpi_arena_alloc(c->ctx, &st->arena, sizeof(int) * (size_t)(nterm + 1));
+  g->term_nu = eqpi_arena_alloc(c->ctx, &st->arena, sizeof(double) * (size_t)(nterm + 1));
+  if (g->term_comp && g->term_nu) {
+    nterm = 0;
+    for (int t = 0; t < c->ncomp; t++)
+      if (fabs(acc[t]) > 1e-12) { g->term_comp[nterm] = t; g->term_nu[nterm++] = acc[t]; }
+    g->nterm = nterm;
+  }
+  eqpi_free(c->ctx, acc, sizeof(double) * ((size_t)c->ncomp + 1));
+}
+
+static void add_reagents(committer *c)
+{
+  eqpi_stage *st = c->st;
+  for (int k = 0; k < st->nrg; k++) {
+    const st_reagent *r = &st->rg[k];
+    if (!r->name) continue;
+    int prev = find_reagent(c, r->name, c->nrg);
+    if (prev >= 0) {
+      eqpi_stage_error(st, r->file, r->line, "duplicate reagent '%s' (first at %s:%d)",
+                       r->name, c->rg[prev].file, c->rg[prev].line);
+      continue;
+    }
+    for (int a = 0; a < r->naliases; a++)
+      if (r->aliases[a] && (prev = find_reagent(c, r->aliases[a], c->nrg)) >= 0)
+        eqpi_stage_error(st, r->file, r->line, "name '%s' is taken by reagent '%s' (%s:%d)",
+                         r->aliases[a], c->rg[prev].name, c->rg[prev].file, c->rg[prev].line);
+    int i = push_reagent(c);
+    if (i < 0) { eqpi_stage_error(st, NULL, 0, "out of memory"); return; }
+    eqpi_reagent *g = &c->rg[i];
+    g->name = r->name;
+    g->formula = r->formula;
+    g->aliases = r->aliases;
+    g->naliases = r->naliases;
+    g->density = r->density;
+    g->hazards = r->hazards;
+    g->nhazards = r->nhazards;
+    g->file = r->file;
+    g->line = r->line;
+    st_pair self = {r->name, 1};
+    if (r->n == 0) {
+      int q = find_species(c, r->name);
+      if (q < 0 || fabs(c->sp[q].comp.charge) > 1e-9) {
+        eqpi_stage_error(st, r->file, r->line, "reagent '%s' has no 'gives' and is not a "
+                         "neutral species", r->name);
+        continue;
+      }
+      g->formula = r->formula != r->name ? r->formula : c->sp[q].formula;
+      finish_reagent(c, g, &self, 1);
+    } else {
+      finish_reagent(c, g, r->gives, r->n);
+    }
+  }
+  /* Every new neutral solute is a reagent under its own name. */
+  for (int i = c->db->nsp; i < c->nsp; i++) {
+    const eqpi_species *s = &c->sp[i];
+    if (fabs(s->comp.charge) > 1e-9 || strcmp(s->name, "H2O") == 0) continue;
+    if (find_reagent(c, s->name, c->nrg) >= 0) continue;
+    int k = push_reagent(c);
+    if (k < 0) { eqpi_stage_error(st, NULL, 0, "out of memory"); return; }
+    eqpi_reagent *g = &c->rg[k];
+    g->name = s->name;
+    g->formula = s->formula;
+    g->density = NAN;
+    g->file = s->file;
+    g->line = s->line;
+    st_pair self = {s->name, 1};
+    finish_reagent(c, g, &self, 1);
+  }
+}
+
+static void committer_free(committer *c)
+{
+  eqp_ctx *ctx = c->ctx;
+  eqpi_free(ctx, c->sp, sizeof *c->sp * (size_t)(c->db->nsp + c->st->nsp + 1));
+  eqpi_free(ctx, c->rx, sizeof *c->rx * (size_t)(c->db->nrx + c->st->nrx + 1));
+  eqpi_free(ctx, c->rg, sizeof *c->rg * (size_t)c->caprg);
+  eqpi_free(ctx, c->comp_species, sizeof(int) * (size_t)(c->db->ncomp + c->st->nsp + 1));
+  eqpi_free(ctx, c->state, (size_t)(c->db->nsp + c->st->nsp + 1));
+}
+
+int eqpi_db_rebuild_index(eqp_ctx *ctx, eqpi_db *db);
+
+int eqpi_stage_commit(eqp_ctx *ctx, eqpi_stage *st)
+{
+  eqpi_db *db = &ctx->db;
+  committer c = {ctx, db, st, NULL, db->nsp, NULL, db->nrx, NULL, db->nrg, 0, db->ncomp,
+                 NULL, NULL};
+  int rc = EQP_E_DATA;
+  if (st->nerr) goto fail;
+  size_t maxsp = (size_t)(db->nsp + st->nsp + 1), maxrx = (size_t)(db->nrx + st->nrx + 1);
+  c.sp = eqpi_malloc(ctx, sizeof *c.sp * maxsp);
+  c.rx = eqpi_malloc(ctx, sizeof *c.rx * maxrx);
+  c.caprg = db->nrg + st->nrg * 2 + 16;
+  c.rg = eqpi_malloc(ctx, sizeof *c.rg * (size_t)c.caprg);
+  c.comp_species = eqpi_malloc(ctx, sizeof(int) * (size_t)(db->ncomp + st->nsp + 1));
+  c.state = eqpi_calloc(ctx, maxsp, 1);
+  if (!c.sp || !c.rx || !c.rg || !c.comp_species || !c.state) {
+    rc = EQP_E_NOMEM;
+    eqpi_stage_error(st, NULL, 0, "out of memory");
+    goto fail;
+  }
+  if (db->nsp) memcpy(c.sp, db->sp, sizeof *c.sp * (size_t)db->nsp);
+  if (db->nrx) memcpy(c.rx, db->rx, sizeof *c.rx * (size_t)db->nrx);
+  if (db->nrg) memcpy(c.rg, db->rg, sizeof *c.rg * (size_t)db->nrg);
+  if (db->ncomp) memcpy(c.comp_species, db->comp_species, sizeof(int) * (size_t)db->ncomp);
+  memset(c.state, 2, (size_t)db->nsp);
+  add_species(&c);
+  add_reactions(&c);
+  for (int i = db->nsp; i < c.nsp; i++)
+    if (c.sp[i].rxn < 0) {
+      c.sp[i].component = c.ncomp;
+      c.comp_species[c.ncomp++] = i;
+    }
+  if (st->nerr) goto fail;
+  for (int i = db->nsp; i < c.nsp; i++)
+    if (resolve(&c, i, 0) < 0) goto fail;
+  add_reagents(&c);
+  if (st->nerr) goto fail;
+  /* Success: nothing below can fail except the index, rebuilt on the
+  ** new arrays before the old ones are released. */
+  eqpi_db next = *db;
+  next.sp = c.sp; next.nsp = c.nsp; next.capsp = (int)maxsp;
+  next.rx = c.rx; next.nrx = c.nrx; next.caprx = (int)maxrx;
+  next.rg = c.rg; next.nrg = c.nrg; next.caprg = c.caprg;
+  next.comp_species = c.comp_species; next.ncomp = c.ncomp;
+  next.capcomp = db->ncomp + st->nsp + 1;
+  next.hash = NULL;
+  next.hashcap = 0;
+  if (eqpi_db_rebuild_index(ctx, &next) < 0) {
+    rc = EQP_E_NOMEM;
+    eqpi_stage_error(st, NULL, 0, "out of memory");
+    goto fail;
+  }
+  for (int f = 0; f < st->nfiles; f++) {
+    if (db->nfiles == db->capfiles) {
+      int nc = db->capfiles * 2 + 8;
+      const char **p = eqpi_realloc(ctx, db->files, sizeof *p * (size_t)db->capfiles,
+                                    sizeof *p * (size_t)nc);
+      if (!p) break;   /* the list of files is informational only */
+      db->files = p;
+      db->capfiles = nc;
+    }
+    db->files[db->nfiles++] = st->files[f];
+  }
+  next.files = db->files; next.nfiles = db->nfiles; next.capfiles = db->capfiles;
+  eqpi_free(ctx, db->sp, sizeof *db->sp * (size_t)db->capsp);
+  eqpi_free(ctx, db->rx, sizeof *db->rx * (size_t)db->caprx);
+  eqpi_free(ctx, db->rg, sizeof *db->rg * (size_t)db->caprg);
+  eqpi_free(ctx, db->comp_species, sizeof(int) * (size_t)db->capcomp);
+  eqpi_free(ctx, db->hash, sizeof(int) * (size_t)db->hashcap * 2);
+  eqpi_free(ctx, c.state, maxsp);
+  *db = next;
+  eqpi_arena_splice(&db->arena, &st->arena);
+  db->h_plus = eqpi_db_find_species(db, "H+");
+  db->water = eqpi_db_find_species(db, "H2O");
+  db->generation++;
+  return EQP_OK;
+fail:
+  committer_free(&c);
+  if (st->nerr > 1) {
+    char tail[64];
+    snprintf(tail, sizeof tail, "\n(%d problems)", st->nerr);
+    if (st->errused + strlen(tail) < sizeof st->err) strcat(st->err, tail);
+  }
+  return eqpi_fail(ctx, rc, "%s", st->err);
+}

@@ -1,0 +1,228 @@
+/* The species database: name index, temperature dependence of log K, and
+** the public listing calls. */
+/* SPDX-License-Identifier: MIT */
+#include "eqp_impl.h"
+#include <math.h>
+#include <stdio.h>
+#include <string.h>
+
+static unsigned hash_str(const char *s)
+{
+  unsigned h = 2166136261u;           /* FNV-1a */
+  while (*s) h = (h ^ (unsigned char)*s++) * 16777619u;
+  return h;
+}
+
+/* Two open-addressed tables in one array: species in [0, cap), reagent
+** names and aliases in [cap, 2 cap). Slots hold index + 1, 0 when empty. */
+static int hash_insert(int *tab, int cap, const char *key, int val,
+                       const char *(*name_of)(const eqpi_db *, int), const eqpi_db *db)
+{
+  unsigned i = hash_str(key) & (unsigned)(cap - 1);
+  while (tab[i]) {
+    if (strcmp(name_of(db, tab[i] - 1), key) == 0) return 0;  /* first wins */
+    i = (i + 1) & (unsigned)(cap - 1);
+  }
+  tab[i] = val + 1;
+  return 0;
+}
+
+static const char *species_key(const eqpi_db *db, int i) { return db->sp[i].name; }
+
+/* Reagent slots store (reagent << 5 | alias + 1) so aliases share the table. */
+static const char *reagent_key(const eqpi_db *db, int v)
+{
+  const eqpi_reagent *g = &db->rg[v >> 5];
+  int a = v & 31;
+  return a == 0 ? g->name : g->aliases[a - 1];
+}
+
+int eqpi_db_rebuild_index(eqp_ctx *ctx, eqpi_db *db);
+
+int eqpi_db_rebuild_index(eqp_ctx *ctx, eqpi_db *db)
+{
+  int need = db->nsp;
+  int nnames = 0;
+  for (int i = 0; i < db->nrg; i++) nnames += 1 + db->rg[i].naliases;
+  if (nnames > need) need = nnames;
+  int cap = 64;
+  while (cap < need * 2) cap *= 2;
+  int *tab = eqpi_calloc(ctx, (size_t)cap * 2, sizeof(int));
+  if (!tab) return -1;
+  for (int i = 0; i < db->nsp; i++)
+    hash_insert(tab, cap, db->sp[i].name, i, species_key, db);
+  for (int i = 0; i < db->nrg; i++) {
+    hash_insert(tab + cap, cap, db->rg[i].name, i << 5, reagent_key, db);
+    for (int a = 0; a < db->rg[i].naliases && a < 31; a++)
+      hash_insert(tab + cap, cap, db->rg[i].aliases[a], i << 5 | (a + 1), reagent_key, db);
+  }
+  eqpi_free(ctx, db->hash, sizeof(int) * (size_t)db->hashcap * 2);
+  db->hash = tab;
+  db->hashcap = cap;
+  return 0;
+}
+
+int eqpi_db_find_species(const eqpi_db *db, const char *name)
+{
+  if (!db->hash || !name) return -1;
+  unsigned i = hash_str(name) & (unsigned)(db->hashcap - 1);
+  while (db->hash[i]) {
+    if (strcmp(db->sp[db->hash[i] - 1].name, name) == 0) return db->hash[i] - 1;
+    i = (i + 1) & (unsigned)(db->hashcap - 1);
+  }
+  return -1;
+}
+
+int eqpi_db_find_reagent(const eqpi_db *db, const char *name)
+{
+  if (!db->hash || !name) return -1;
+  const int *tab = db->hash + db->hashcap;
+  unsigned i = hash_str(name) & (unsigned)(db->hashcap - 1);
+  while (tab[i]) {
+    if (strcmp(reagent_key(db, tab[i] - 1), name) == 0) return (tab[i] - 1) >> 5;
+    i = (i + 1) & (unsigned)(db->hashcap - 1);
+  }
+  return -1;
+}
+
+void eqpi_db_free(eqp_ctx *ctx, eqpi_db *db)
+{
+  eqpi_free(ctx, db->sp, sizeof *db->sp * (size_t)db->capsp);
+  eqpi_free(ctx, db->rx, sizeof *db->rx * (size_t)db->caprx);
+  eqpi_free(ctx, db->rg, sizeof *db->rg * (size_t)db->caprg);
+  eqpi_free(ctx, db->comp_species, sizeof(int) * (size_t)db->capcomp);
+  eqpi_free(ctx, db->files, sizeof *db->files * (size_t)db->capfiles);
+  eqpi_free(ctx, db->hash, sizeof(int) * (size_t)db->hashcap * 2);
+  eqpi_arena_free(ctx, &db->arena);
+  memset(db, 0, sizeof *db);
+  db->h_plus = db->water = -1;
+}
+
+/* Integrated van't Hoff equation with a constant heat capacity of reaction
+** (e.g. Goldberg, Kishore & Lennen, J. Phys. Chem. Ref. Data 31, 231 (2002),
+** eq. for pK(T)): log K(T) = log K(th) - dH/(R ln10) (1/T - 1/th)
+**                        + dCp/(R ln10) (th/T - 1 + ln(T/th)). */
+static double reaction_logK(const eqpi_reaction *r, double T, int *missing)
+{
+  if (fabs(T - EQPI_T25) < 1e-9) return r->logK;
+  double v = r->logK;
+  if (isnan(r->dH)) {
+    (*missing)++;
+    return v;
+  }
+  v -= r->dH * 1e3 / (EQPI_R * EQPI_LN10) * (1.0 / T - 1.0 / EQPI_T25);
+  if (!isnan(r->dCp))
+    v += r->dCp / (EQPI_R * EQPI_LN10) * (EQPI_T25 / T - 1.0 + log(T / EQPI_T25));
+  return v;
+}
+
+double eqpi_species_logK(const eqpi_db *db, int i, double T, int *missing)
+{
+  const eqpi_species *s = &db->sp[i];
+  double v = 0;
+  for (int k = 0; k < s->nrx; k++)
+    v += s->rx_c[k] * reaction_logK(&db->rx[s->rx_idx[k]], T, missing);
+  return v;
+}
+
+/* ------------------------------------------------------------ public */
+
+size_t eqp_ctx_species_count(const eqp_ctx *ctx) { return ctx ? (size_t)ctx->db.nsp : 0; }
+
+const char *eqp_ctx_species_name(const eqp_ctx *ctx, size_t i)
+{
+  return ctx && i < (size_t)ctx->db.nsp ? ctx->db.sp[i].name : NULL;
+}
+
+size_t eqp_ctx_reagent_count(const eqp_ctx *ctx) { return ctx ? (size_t)ctx->db.nrg : 0; }
+
+const char *eqp_ctx_reagent_name(const eqp_ctx *ctx, size_t i)
+{
+  return ctx && i < (size_t)ctx->db.nrg ? ctx->db.rg[i].name : NULL;
+}
+
+size_t eqp_ctx_source_count(const eqp_ctx *ctx) { return ctx ? (size_t)ctx->db.nfiles : 0; }
+
+const char *eqp_ctx_source_path(const eqp_ctx *ctx, size_t i)
+{
+  return ctx && i < (size_t)ctx->db.nfiles ? ctx->db.files[i] : NULL;
+}
+
+#define APPEND(...) do { if (used < len) \
+    used += (size_t)snprintf(buf + used, len - used, __VA_ARGS__); } while (0)
+
+static void describe_species(const eqpi_db *db, int i, char *buf, size_t len)
+{
+  const eqpi_species *s = &db->sp[i];
+  size_t used = 0;
+  APPEND("species %s\n  formula   %s (charge %+g)\n  defined   %s:%d\n", s->name, s->formula,
+         s->comp.charge, s->file, s->line);
+  if (!isnan(s->size)) APPEND("  ion size  %g A (%s)\n", s->size, s->size_source);
+  if (s->rxn < 0) {
+    APPEND("  basis species (a component)\n");
+    return;
+  }
+  const eqpi_reaction *r = &db->rx[s->rxn];
+  APPEND("  formed    %s =", s->name);
+  for (int j = 0; j < r->n; j++)
+    APPEND(" %s%g %s", j ? "+ " : "", r->nu[j], db->sp[r->reactant[j]].name);
+  APPEND("\n  log K     %.4f at 25 C", r->logK);
+  if (!isnan(r->dH)) APPEND(", dH %.2f kJ/mol", r->dH);
+  if (!isnan(r->dCp)) APPEND(", dCp %.0f J/(K mol)", r->dCp);
+  APPEND("\n  source    %s\n  overall   log K %.4f from components:", r->source,
+         eqpi_species_logK(db, i, EQPI_T25, &(int){0}));
+  for (int t = 0; t < s->nterm; t++)
+    APPEND(" %+g %s", s->term_nu[t], db->sp[db->comp_species[s->term_comp[t]]].name);
+  APPEND("\n");
+}
+
+static void describe_reagent(const eqpi_db *db, int i, char *buf, size_t len)
+{
+  const eqpi_reagent *g = &db->rg[i];
+  size_t used = 0;
+  APPEND("reagent %s\n  formula   %s, %.3f g/mol\n  defined   %s:%d\n", g->name, g->formula,
+         g->molar_mass, g->file, g->line);
+  if (g->naliases) {
+    APPEND("  names    ");
+    for (int a = 0; a < g->naliases; a++) APPEND(" '%s'", g->aliases[a]);
+    APPEND("\n");
+  }
+  APPEND("  gives    ");
+  for (int j = 0; j < g->n; j++) APPEND(" %g %s", g->nu[j], db->sp[g->sp[j]].name);
+  if (g->hydrate > 0) APPEND(" + %g H2O (water of crystallisation)", g->hydrate);
+  APPEND("\n");
+  if (!isnan(g->density)) APPEND("  density   %g g/mL\n", g->density);
+  if (g->nhazards) {
+    APPEND("  hazards  ");
+    for (int h = 0; h < g->nhazards; h++) APPEND(" %s", g->hazards[h]);
+    APPEND("\n");
+  }
+}
+
+int eqp_ctx_describe(eqp_ctx *ctx, const char *name, char *buf, size_t len)
+{
+  if (!ctx || !name || !buf || !len) return eqpi_fail(ctx, EQP_E_ARG, "NULL argument");
+  buf[0] = '\0';
+  int s = eqpi_db_find_species(&ctx->db, name);
+  int g = eqpi_db_find_reagent(&ctx->db, name);
+  if (s < 0 && g < 0) return eqpi_fail(ctx, EQP_E_UNKNOWN, "no species or reagent '%s'", name);
+  size_t used = 0;
+  if (s >= 0) {
+    describe_species(&ctx->db, s, buf, len);
+    used = strlen(buf);
+  }
+  if (g >= 0 && used + 1 < len) describe_reagent(&ctx->db, g, buf + used, len - used);
+  return EQP_OK;
+}
+
+size_t eqp_ctx_reagent_hazard_count(const eqp_ctx *ctx, const char *name)
+{
+  int g = ctx ? eqpi_db_find_reagent(&ctx->db, name) : -1;
+  return g < 0 ? 0 : (size_t)ctx->db.rg[g].nhazards;
+}
+
+const char *eqp_ctx_reagent_hazard(const eqp_ctx *ctx, const char *name, size_t i)
+{
+  int g = ctx ? eqpi_db_find_reagent(&ctx->db, name) : -1;
+  return g < 0 || i >= (size_t)ctx->db.rg[g].nhazards ? NULL : ctx->db.rg[g].hazards[i];
+}

@@ -1,0 +1,253 @@
+/* Internal declarations shared across the engine's source files. */
+/* SPDX-License-Identifier: MIT */
+#ifndef EQP_IMPL_H
+#define EQP_IMPL_H
+
+#include <equipoise/equipoise.h>
+#include <equipoise/plugin.h>
+#include <stdarg.h>
+#include <stdbool.h>
+#include <stddef.h>
+
+#define EQPI_ERRLEN 2048
+#define EQPI_LN10 2.302585092994045684
+#define EQPI_T25 298.15
+#define EQPI_R 8.314462618          /* J K^-1 mol^-1, CODATA 2018 */
+#define EQPI_M_WATER 18.015268      /* g/mol, IAPWS */
+#define EQPI_MAX_ELEM 16
+#define EQPI_VERIFY_TOL 1e-10       /* DESIGN s.4: max relative residual */
+
+#if defined(__GNUC__)
+#define EQPI_PRINTF(a, b) __attribute__((format(printf, a, b)))
+#else
+#define EQPI_PRINTF(a, b)
+#endif
+
+/* ---------------------------------------------------------- memory */
+
+void *eqpi_malloc(eqp_ctx *ctx, size_t n);
+void *eqpi_calloc(eqp_ctx *ctx, size_t count, size_t n);
+void *eqpi_realloc(eqp_ctx *ctx, void *p, size_t old, size_t n);
+void eqpi_free(eqp_ctx *ctx, void *p, size_t n);
+char *eqpi_strdup(eqp_ctx *ctx, const char *s);
+void eqpi_strfree(eqp_ctx *ctx, char *s);
+
+/* Bump allocator for the species data: freed all at once. */
+typedef struct eqpi_arena eqpi_arena;
+void *eqpi_arena_alloc(eqp_ctx *ctx, eqpi_arena **a, size_t n);
+char *eqpi_arena_strdup(eqp_ctx *ctx, eqpi_arena **a, const char *s);
+void eqpi_arena_free(eqp_ctx *ctx, eqpi_arena **a);
+void eqpi_arena_splice(eqpi_arena **dst, eqpi_arena **src);
+
+/* ---------------------------------------------------------- errors */
+
+/* Record a message and return status (always negative). */
+int eqpi_fail(eqp_ctx *ctx, int status, const char *fmt, ...) EQPI_PRINTF(3, 4);
+int eqpi_vfail(eqp_ctx *ctx, int status, const char *fmt, va_list ap);
+
+/* ---------------------------------------------------------- formulas */
+
+typedef struct eqpi_comp {
+  int n;                          /* distinct elements */
+  unsigned char el[EQPI_MAX_ELEM]; /* atomic number */
+  double cnt[EQPI_MAX_ELEM];
+  double charge;
+} eqpi_comp;
+
+/* Parse "Na2HPO4.7H2O", "Ca(OH)2", "HPO4-2", "NH4+". On error writes a
+** reason into err and returns -1. hydrate, if not NULL, receives the waters
+** of crystallisation after a '.' (0 if none). */
+int eqpi_formula_parse(const char *f, eqpi_comp *out, double *hydrate,
+                       char *err, size_t errlen);
+/* Add k times b into a. Returns -1 if too many elements. */
+int eqpi_comp_add(eqpi_comp *a, const eqpi_comp *b, double k);
+/* Standard atomic weight (g/mol) of element Z, 0 if not tabulated. */
+double eqpi_atomic_weight(int z);
+const char *eqpi_element_symbol(int z);
+int eqpi_element_lookup(const char *sym, size_t len);
+double eqpi_comp_mass(const eqpi_comp *c);
+/* "elements differ: C 2 vs 1; charge 0 vs -1" style description of a-b;
+** returns 0 if equal within 1e-9. */
+int eqpi_comp_diff(const eqpi_comp *a, const eqpi_comp *b, char *buf, size_t len);
+
+/* ---------------------------------------------------------- units */
+
+int eqpi_parse_quantity(const char *text, unsigned allowed, double *value,
+                        eqp_quantity *kind, char *err, size_t errlen);
+
+/* ---------------------------------------------------------- water */
+
+double eqpi_water_density(double T);     /* kg/L at 0.101325 MPa, Kell 1975 */
+double eqpi_water_permittivity(double T);/* Malmberg & Maryott 1956 */
+void eqpi_debye_huckel_AB(double T, double *A, double *B);
+
+/* ---------------------------------------------------------- database */
+
+typedef struct eqpi_reaction {
+  int product;          /* species index */
+  int n;
+  int *reactant;        /* species indexes */
+  double *nu;
+  double logK;          /* log10 K at 298.15 K of product = sum nu reactant */
+  double dH;            /* kJ/mol of the formation reaction; NaN if absent */
+  double dCp;           /* J/(K mol); NaN if absent */
+  const char *source;
+  const char *file;
+  int line;
+} eqpi_reaction;
+
+typedef struct eqpi_species {
+  const char *name;
+  const char *formula;
+  eqpi_comp comp;
+  double size;          /* Angstrom; NaN if unknown */
+  const char *size_source;
+  const char *file;
+  int line;
+  int rxn;              /* defining reaction, -1 for a basis species */
+  int component;        /* component index for a basis species, else -1 */
+  /* Resolved onto components: species = sum term_nu * component */
+  int nterm;
+  int *term_comp;
+  double *term_nu;
+  /* log K = sum rx_c * logK(reaction rx_idx) */
+  int nrx;
+  int *rx_idx;
+  double *rx_c;
+} eqpi_species;
+
+typedef struct eqpi_reagent {
+  const char *name;     /* formula or name used in s:add */
+  const char *formula;
+  const char **aliases;
+  int naliases;
+  double molar_mass;    /* g/mol */
+  double density;       /* g/mL for liquids; NaN otherwise */
+  double hydrate;       /* waters of crystallisation per formula unit */
+  int n;                /* species released (water of hydration excluded) */
+  int *sp;
+  double *nu;
+  /* resolved onto components */
+  int nterm;
+  int *term_comp;
+  double *term_nu;
+  const char **hazards;
+  int nhazards;
+  const char *file;
+  int line;
+} eqpi_reagent;
+
+typedef struct eqpi_source {
+  const char *path;
+} eqpi_source;
+
+typedef struct eqpi_db {
+  eqpi_arena *arena;
+  eqpi_species *sp;
+  int nsp, capsp;
+  eqpi_reaction *rx;
+  int nrx, caprx;
+  eqpi_reagent *rg;
+  int nrg, caprg;
+  int ncomp;
+  int *comp_species;    /* component -> species */
+  int capcomp;
+  const char **files;
+  int nfiles, capfiles;
+  /* name hash: species and reagents (reagent entries are ~index) */
+  int *hash;
+  int hashcap;
+  int h_plus, water;    /* species indexes, -1 until loaded */
+  unsigned generation;  /* bumps on every commit */
+} eqpi_db;
+
+int eqpi_db_find_species(const eqpi_db *db, const char *name);
+int eqpi_db_find_reagent(const eqpi_db *db, const char *name);
+void eqpi_db_free(eqp_ctx *ctx, eqpi_db *db);
+/* log10 K of species i at T (K) by the integrated van't Hoff equation;
+** *missing counts contributions lacking temperature data away from 25 C. */
+double eqpi_species_logK(const eqpi_db *db, int i, double T, int *missing);
+
+/* The staging area a load fills before commit (loader.c, db.c). */
+typedef struct eqpi_stage eqpi_stage;
+int eqpi_load_text(eqp_ctx *ctx, eqpi_stage *st, const char *text, size_t len,
+                   const char *source);
+eqpi_stage *eqpi_stage_new(eqp_ctx *ctx);
+void eqpi_stage_free(eqp_ctx *ctx, eqpi_stage *st);
+int eqpi_stage_commit(eqp_ctx *ctx, eqpi_stage *st);
+
+/* Line map of a Lua table constructor source (linemap.c). */
+typedef struct eqpi_linemap eqpi_linemap;
+eqpi_linemap *eqpi_linemap_build(eqp_ctx *ctx, const char *text, size_t len);
+void eqpi_linemap_free(eqp_ctx *ctx, eqpi_linemap *lm);
+/* Line of the field at path, e.g. {"species", "3", "size"}: the deepest
+** prefix found; 0 if none. */
+int eqpi_linemap_line(const eqpi_linemap *lm, const char *const *path, int depth);
+
+/* ---------------------------------------------------------- plugins */
+
+typedef struct eqpi_model {
+  const eqp_plugin_desc *desc;
+  const eqp_activity_ops *ops;
+  void *state;
+  void *handle;         /* borrowed from the registry */
+  const char *path;
+} eqpi_model;
+
+int eqpi_model_open(eqp_ctx *ctx, const char *name, eqpi_model *out);
+void eqpi_model_close(eqp_ctx *ctx, eqpi_model *m);
+void eqpi_plugins_free(eqp_ctx *ctx);
+/* Check a descriptor as loaded from path; 0 or an error message in err. */
+int eqpi_plugin_check(const eqp_plugin_desc *d, const char *path, char *err, size_t len);
+
+/* ---------------------------------------------------------- context */
+
+typedef struct eqpi_plugin_handle {
+  char *name;
+  char *path;
+  void *dl;
+  const eqp_plugin_desc *desc;
+} eqpi_plugin_handle;
+
+struct eqp_ctx {
+  eqp_alloc_fn alloc;
+  void *ud;
+  char errmsg[EQPI_ERRLEN];
+  int errcode;
+  eqpi_db db;
+  bool default_loaded;
+  char **plugin_dirs;
+  int nplugin_dirs;
+  eqpi_plugin_handle *plugins;
+  int nplugins, capplugins;
+  eqp_host_api host;
+};
+
+extern const eqp_host_api eqpi_host_template;
+
+/* ---------------------------------------------------------- solver */
+
+typedef struct eqpi_system eqpi_system;
+
+typedef struct eqpi_solve_stats {
+  long iterations;
+  double residual;      /* max relative balance residual after the solve */
+  int missing_T;        /* constants used at 25 C values away from 25 C */
+} eqpi_solve_stats;
+
+/* Build (or reuse) the active system for totals (mol/kg) at T and solve.
+** On success the system holds the molalities. */
+int eqpi_system_solve(eqp_ctx *ctx, eqpi_system **sysp, const double *totals,
+                      double T, eqpi_model *model, eqpi_solve_stats *stats);
+void eqpi_system_free(eqp_ctx *ctx, eqpi_system *sys);
+/* After a successful solve: species count, global index, molality, log10 g,
+** and the ionic strength. */
+int eqpi_system_nspecies(const eqpi_system *sys);
+int eqpi_system_species(const eqpi_system *sys, int i, double *m, double *lg);
+double eqpi_system_ionic_strength(const eqpi_system *sys);
+
+/* Small dense LU with partial pivoting: A is n x n row-major. */
+int eqpi_lu_factor(double *A, int *piv, int n);
+void eqpi_lu_solve(const double *A, const int *piv, int n, double *b);
+
+#endif

@@ -1,0 +1,585 @@
+/* Species files: run the Lua text in a sandbox and convert the table it
+** returns into staged entries. Checks of names and balances happen on
+** commit (commit.c); this file checks shape and types. */
+/* SPDX-License-Identifier: MIT */
+#include "stage_impl.h"
+#include <lauxlib.h>
+#include <lua.h>
+#include <lualib.h>
+#include <math.h>
+#include <stdio.h>
+#include <string.h>
+
+#define SANDBOX_MEM (32u << 20)       /* bytes a species file may allocate */
+#define SANDBOX_STEPS 20000000L       /* VM instructions before we give up */
+
+typedef struct conv {
+  eqp_ctx *ctx;
+  eqpi_stage *st;
+  lua_State *L;
+  const eqpi_linemap *lm;
+  const char *file;
+  const char *path[8];
+  char keys[8][64];
+  int depth;
+  int sources;          /* stack index of the sources table, 0 if none */
+  const char *size_source; /* file-level source of ion sizes */
+} conv;
+
+static void cv_push(conv *c, const char *key)
+{
+  if (c->depth < 8) {
+    snprintf(c->keys[c->depth], sizeof c->keys[0], "%s", key);
+    c->path[c->depth] = c->keys[c->depth];
+  }
+  c->depth++;
+}
+
+static void cv_pushi(conv *c, lua_Integer i)
+{
+  char k[32];
+  snprintf(k, sizeof k, "%lld", (long long)i);
+  cv_push(c, k);
+}
+
+static void cv_pop(conv *c) { c->depth--; }
+
+static int cv_line(const conv *c)
+{
+  return eqpi_linemap_line(c->lm, c->path, c->depth < 8 ? c->depth : 8);
+}
+
+static const char *cv_where(conv *c, char *buf, size_t len)
+{
+  size_t used = 0;
+  buf[0] = '\0';
+  for (int i = 0; i < c->depth && i < 8 && used < len; i++) {
+    int isnum = c->keys[i][0] >= '0' && c->keys[i][0] <= '9';
+    if (isnum) used += (size_t)snprintf(buf + used, len - used, "[%s]", c->keys[i]);
+    else used += (size_t)snprintf(buf + used, len - used, "%s%s", i ? "." : "", c->keys[i]);
+  }
+  return buf;
+}
+
+#define CV_ERR(c, ...) do { char w_[256]; \
+    char m_[512]; snprintf(m_, sizeof m_, __VA_ARGS__); \
+    eqpi_stage_error((c)->st, (c)->file, cv_line(c), "%s: %s", cv_where(c, w_, sizeof w_), m_); \
+  } while (0)
+
+static const char *cv_str(conv *c, const char *s)
+{
+  return eqpi_arena_strdup(c->ctx, &c->st->arena, s);
+}
+
+/* Field of the table at top; leaves it pushed. Returns its Lua type. */
+static int cv_field(conv *c, const char *key)
+{
+  return lua_getfield(c->L, -1, key);
+}
+
+/* Optional number field; NaN when absent; error if not a finite number. */
+static double cv_number(conv *c, const char *key, double lo, double hi, int required)
+{
+  double v = NAN;
+  cv_push(c, key);
+  int t = cv_field(c, key);
+  if (t == LUA_TNUMBER) {
+    v = lua_tonumber(c->L, -1);
+    if (!isfinite(v) || v < lo || v > hi) {
+      CV_ERR(c, "%g is outside %g..%g", v, lo, hi);
+      v = NAN;
+    }
+  } else if (t != LUA_TNIL) {
+    CV_ERR(c, "expected a number, got %s", lua_typename(c->L, t));
+  } else if (required) {
+    CV_ERR(c, "missing (a number is required)");
+  }
+  lua_pop(c->L, 1);
+  cv_pop(c);
+  return v;
+}
+
+static const char *cv_string(conv *c, const char *key, int required)
+{
+  const char *s = NULL;
+  cv_push(c, key);
+  int t = cv_field(c, key);
+  if (t == LUA_TSTRING) s = cv_str(c, lua_tostring(c->L, -1));
+  else if (t != LUA_TNIL) CV_ERR(c, "expected a string, got %s", lua_typename(c->L, t));
+  else if (required) CV_ERR(c, "missing (a string is required)");
+  lua_pop(c->L, 1);
+  cv_pop(c);
+  return s;
+}
+
+/* A source reference: the key of the file's sources table; returns the
+** citation text. */
+static const char *cv_source(conv *c, const char *key, int required)
+{
+  const char *ref = cv_string(c, key, 0);
+  if (!ref) {
+    if (required) {
+      cv_push(c, key);
+      CV_ERR(c, "missing: every constant names its source (a key of 'sources')");
+      cv_pop(c);
+    }
+    return NULL;
+  }
+  if (c->sources) {
+    lua_getfield(c->L, c->sources, ref);
+    if (lua_type(c->L, -1) == LUA_TSTRING) {
+      const char *txt = cv_str(c, lua_tostring(c->L, -1));
+      lua_pop(c->L, 1);
+      return txt;
+    }
+    lua_pop(c->L, 1);
+  }
+  cv_push(c, key);
+  CV_ERR(c, "unknown source '%s' (not a key of 'sources')", ref);
+  cv_pop(c);
+  return NULL;
+}
+
+/* Check the table at top has only the given keys (and integer keys up to
+** maxpos). */
+static void cv_keys(conv *c, const char *const *allowed, lua_Integer maxpos)
+{
+  lua_pushnil(c->L);
+  while (lua_next(c->L, -2)) {
+    lua_pop(c->L, 1);
+    if (lua_type(c->L, -1) == LUA_TSTRING) {
+      const char *k = lua_tostring(c->L, -1);
+      int ok = 0;
+      for (int i = 0; allowed[i]; i++) ok |= strcmp(allowed[i], k) == 0;
+      if (!ok) {
+        cv_push(c, k);
+        CV_ERR(c, "unknown field '%s'", k);
+        cv_pop(c);
+      }
+    } else if (lua_isinteger(c->L, -1)) {
+      lua_Integer i = lua_tointeger(c->L, -1);
+      if (i < 1 || i > maxpos) {
+        cv_pushi(c, i);
+        CV_ERR(c, "unexpected positional value");
+        cv_pop(c);
+      }
+    } else {
+      CV_ERR(c, "keys must be names");
+    }
+  }
+}
+
+/* The positional string at index i of the table at top. */
+static const char *cv_pos_string(conv *c, lua_Integer i)
+{
+  const char *s = NULL;
+  cv_pushi(c, i);
+  int t = lua_geti(c->L, -1, i);
+  if (t == LUA_TSTRING && lua_rawlen(c->L, -1) > 0) s = cv_str(c, lua_tostring(c->L, -1));
+  else CV_ERR(c, "expected a name (non-empty string), got %s", lua_typename(c->L, t));
+  lua_pop(c->L, 1);
+  cv_pop(c);
+  return s;
+}
+
+/* A map { name = coefficient, ... } at key; returns count, -1 on error. */
+static int cv_pairs(conv *c, const char *key, st_pair **out)
+{
+  cv_push(c, key);
+  int t = cv_field(c, key);
+  int n = 0;
+  *out = NULL;
+  if (t != LUA_TTABLE) {
+    if (t == LUA_TNIL) CV_ERR(c, "missing (a table of name = coefficient)");
+    else CV_ERR(c, "expected a table of name = coefficient, got %s", lua_typename(c->L, t));
+    lua_pop(c->L, 1);
+    cv_pop(c);
+    return -1;
+  }
+  lua_pushnil(c->L);
+  while (lua_next(c->L, -2)) { n++; lua_pop(c->L, 1); }
+  st_pair *p = n ? eqpi_arena_alloc(c->ctx, &c->st->arena, sizeof *p * (size_t)n) : NULL;
+  int k = 0, bad = 0;
+  lua_pushnil(c->L);
+  while (lua_next(c->L, -2)) {
+    if (lua_type(c->L, -2) != LUA_TSTRING || lua_type(c->L, -1) != LUA_TNUMBER) {
+      CV_ERR(c, "each entry must be name = number");
+      bad = 1;
+    } else {
+      double v = lua_tonumber(c->L, -1);
+      if (!isfinite(v) || v == 0 || fabs(v) > 100) {
+        CV_ERR(c, "coefficient of '%s' must be a non-zero number", lua_tostring(c->L, -2));
+        bad = 1;
+      } else if (p) {
+        p[k].name = cv_str(c, lua_tostring(c->L, -2));
+        p[k++].nu = v;
+      }
+    }
+    lua_pop(c->L, 1);
+  }
+  if (n == 0) {
+    CV_ERR(c, "empty");
+    bad = 1;
+  }
+  lua_pop(c->L, 1);
+  cv_pop(c);
+  *out = p;
+  return bad || (n && !p) ? -1 : k;
+}
+
+/* A number or a list of n numbers at key into v[0..n-1]; absent -> NaN. */
+static void cv_ladder_numbers(conv *c, const char *key, int n, double *v, double lo,
+                              double hi, int required)
+{
+  for (int i = 0; i < n; i++) v[i] = NAN;
+  cv_push(c, key);
+  int t = cv_field(c, key);
+  if (t == LUA_TNUMBER && n == 1) {
+    v[0] = lua_tonumber(c->L, -1);
+  } else if (t == LUA_TTABLE) {
+    if ((int)lua_rawlen(c->L, -1) != n)
+      CV_ERR(c, "has %d values for %d steps", (int)lua_rawlen(c->L, -1), n);
+    for (int i = 0; i < n; i++) {
+      cv_pushi(c, i + 1);
+      int ti = lua_geti(c->L, -1, i + 1);
+      if (ti == LUA_TNUMBER) v[i] = lua_tonumber(c->L, -1);
+      else if (ti != LUA_TNIL || required) CV_ERR(c, "expected a number");
+      lua_pop(c->L, 1);
+      cv_pop(c);
+    }
+  } else if (t != LUA_TNIL) {
+    CV_ERR(c, "expected %s", n == 1 ? "a number" : "a list of numbers");
+  } else if (required) {
+    CV_ERR(c, "missing");
+  }
+  for (int i = 0; i < n; i++)
+    if (!isnan(v[i]) && (!isfinite(v[i]) || v[i] < lo || v[i] > hi)) {
+      CV_ERR(c, "value %g is outside %g..%g", v[i], lo, hi);
+      v[i] = NAN;
+    }
+  lua_pop(c->L, 1);
+  cv_pop(c);
+}
+
+/* A list of strings at key; returns count. */
+static int cv_strings(conv *c, const char *key, const char ***out)
+{
+  cv_push(c, key);
+  int t = cv_field(c, key);
+  int n = 0;
+  *out = NULL;
+  if (t == LUA_TTABLE) {
+    n = (int)lua_rawlen(c->L, -1);
+    const char **v = n ? eqpi_arena_alloc(c->ctx, &c->st->arena, sizeof *v * (size_t)n) : NULL;
+    for (int i = 0; i < n && v; i++) {
+      v[i] = cv_pos_string(c, i + 1);
+    }
+    *out = v;
+  } else if (t != LUA_TNIL) {
+    CV_ERR(c, "expected a list of strings");
+  }
+  lua_pop(c->L, 1);
+  cv_pop(c);
+  return n;
+}
+
+#define STAGE_PUSH(c, arr, n, cap) \
+  eqpi_stage_push((c)->ctx, (c)->st, (void **)&(c)->st->arr, &(c)->st->n, &(c)->st->cap, \
+                  sizeof *(c)->st->arr)
+
+static void cv_species(conv *c)
+{
+  const char *file_size_source = c->size_source;
+  static const char *const keys[] = {"formula", "size", "size_source", "note", NULL};
+  cv_keys(c, keys, 1);
+  st_species *s = STAGE_PUSH(c, sp, nsp, capsp);
+  if (!s) return;
+  s->name = cv_pos_string(c, 1);
+  s->formula = cv_string(c, "formula", 0);
+  if (!s->formula) s->formula = s->name;
+  s->size = cv_number(c, "size", 0.5, 20, 0);
+  s->size_source = cv_source(c, "size_source", 0);
+  if (!s->size_source && !isnan(s->size)) {
+    s->size_source = file_size_source;
+    if (!s->size_source) {
+      cv_push(c, "size");
+      CV_ERR(c, "an ion size needs a source: 'size_source' here or at the top of the file");
+      cv_pop(c);
+    }
+  }
+  s->file = c->file;
+  s->line = cv_line(c);
+}
+
+static void cv_acid(conv *c)
+{
+  static const char *const keys[] = {"pKa", "dH", "dCp", "source", "note", NULL};
+  int nforms = (int)lua_rawlen(c->L, -1);
+  cv_keys(c, keys, nforms);
+  if (nforms < 2) {
+    CV_ERR(c, "an acid lists at least two forms, most protonated first");
+    return;
+  }
+  const char *forms[16];
+  if (nforms > 16) { CV_ERR(c, "more than 16 forms"); return; }
+  for (int i = 0; i < nforms; i++) forms[i] = cv_pos_string(c, i + 1);
+  int nst = nforms - 1;
+  double pKa[15], dH[15], dCp[15];
+  cv_ladder_numbers(c, "pKa", nst, pKa, -5, 20, 1);
+  cv_ladder_numbers(c, "dH", nst, dH, -200, 200, 0);
+  cv_ladder_numbers(c, "dCp", nst, dCp, -2000, 2000, 0);
+  const char *src = cv_source(c, "source", 1);
+  for (int k = 0; k < nst; k++) {
+    if (!forms[k] || !forms[k + 1] || isnan(pKa[k])) continue;
+    st_reaction *r = STAGE_PUSH(c, rx, nrx, caprx);
+    if (!r) return;
+    r->r = eqpi_arena_alloc(c->ctx, &c->st->arena, 2 * sizeof *r->r);
+    if (!r->r) return;
+    /* forms[k] = forms[k+1] + H+ with log K = pKa; the tabulated enthalpy
+    ** and heat capacity are those of the ionization, the reverse reaction */
+    r->product = forms[k];
+    r->r[0].name = forms[k + 1];
+    r->r[0].nu = 1;
+    r->r[1].name = "H+";
+    r->r[1].nu = 1;
+    r->n = 2;
+    r->logK = pKa[k];
+    r->dH = -dH[k];
+    r->dCp = -dCp[k];
+    r->source = src;
+    r->file = c->file;
+    cv_push(c, "pKa");
+    cv_pushi(c, k + 1);
+    r->line = cv_line(c);
+    cv_pop(c);
+    cv_pop(c);
+  }
+}
+
+static void cv_reaction(conv *c)
+{
+  static const char *const keys[] = {"from", "logK", "dH", "dCp", "source", "note", NULL};
+  cv_keys(c, keys, 1);
+  st_reaction *r = STAGE_PUSH(c, rx, nrx, caprx);
+  if (!r) return;
+  r->product = cv_pos_string(c, 1);
+  r->n = cv_pairs(c, "from", &r->r);
+  r->logK = cv_number(c, "logK", -100, 100, 1);
+  r->dH = cv_number(c, "dH", -500, 500, 0);
+  r->dCp = cv_number(c, "dCp", -5000, 5000, 0);
+  r->source = cv_source(c, "source", 1);
+  r->file = c->file;
+  r->line = cv_line(c);
+  if (r->n < 0) r->n = 0;
+}
+
+static void cv_reagent(conv *c)
+{
+  static const char *const keys[] = {"formula", "gives", "name", "names", "hydrates",
+                                     "hazards", "density", "note", NULL};
+  cv_keys(c, keys, 1);
+  st_reagent base = {0};
+  base.name = cv_pos_string(c, 1);
+  base.formula = cv_string(c, "formula", 0);
+  if (!base.formula) base.formula = base.name;
+  lua_getfield(c->L, -1, "gives");
+  int has_gives = !lua_isnil(c->L, -1);
+  lua_pop(c->L, 1);
+  if (has_gives) {
+    base.n = cv_pairs(c, "gives", &base.gives);
+    if (base.n < 0) base.n = 0;
+  }
+  const char **names = NULL;
+  int nnames = cv_strings(c, "names", &names);
+  const char *one = cv_string(c, "name", 0);
+  base.naliases = nnames + (one ? 1 : 0);
+  if (base.naliases) {
+    base.aliases = eqpi_arena_alloc(c->ctx, &c->st->arena, sizeof(char *) * (size_t)base.naliases);
+    if (!base.aliases) return;
+    for (int i = 0; i < nnames; i++) base.aliases[i] = names[i];
+    if (one) base.aliases[nnames] = one;
+  }
+  base.nhazards = cv_strings(c, "hazards", &base.hazards);
+  base.density = cv_number(c, "density", 0.5, 3.0, 0);
+  base.file = c->file;
+  base.line = cv_line(c);
+  st_reagent *r = STAGE_PUSH(c, rg, nrg, caprg);
+  if (!r) return;
+  *r = base;
+  /* Listed hydrates become reagents of their own: same release, plus water. */
+  double hyd[8];
+  cv_push(c, "hydrates");
+  int t = cv_field(c, "hydrates");
+  int nh = t == LUA_TTABLE ? (int)lua_rawlen(c->L, -1) : 0;
+  if (t != LUA_TTABLE && t != LUA_TNIL) CV_ERR(c, "expected a list of numbers");
+  lua_pop(c->L, 1);
+  cv_pop(c);
+  if (nh > 8) nh = 8;
+  if (nh > 0) cv_ladder_numbers(c, "hydrates", nh, hyd, 0.5, 20, 1);
+  for (int i = 0; i < nh; i++) {
+    if (isnan(hyd[i])) continue;
+    char name[256], formula[256];
+    char k[32] = "";
+    if (hyd[i] != 1) snprintf(k, sizeof k, "%g", hyd[i]);
+    snprintf(name, sizeof name, "%s.%sH2O", base.name, k);
+    snprintf(formula, sizeof formula, "%s.%sH2O", base.formula, k);
+    st_reagent *h = STAGE_PUSH(c, rg, nrg, caprg);
+    if (!h) return;
+    *h = base;
+    h->name = cv_str(c, name);
+    h->formula = cv_str(c, formula);
+    h->aliases = NULL;
+    h->naliases = 0;
+    h->density = NAN;
+    h->hydrate = hyd[i];
+  }
+}
+
+/* Run f on each element of the list at key. */
+static void cv_list(conv *c, const char *key, void (*f)(conv *))
+{
+  cv_push(c, key);
+  int t = cv_field(c, key);
+  if (t == LUA_TTABLE) {
+    lua_Integer n = (lua_Integer)lua_rawlen(c->L, -1);
+    for (lua_Integer i = 1; i <= n; i++) {
+      cv_pushi(c, i);
+      if (lua_geti(c->L, -1, i) == LUA_TTABLE) f(c);
+      else CV_ERR(c, "expected a table");
+      lua_pop(c->L, 1);
+      cv_pop(c);
+    }
+  } else if (t != LUA_TNIL) {
+    CV_ERR(c, "expected a list of tables");
+  }
+  lua_pop(c->L, 1);
+  cv_pop(c);
+}
+
+int eqpi_stage_from_table(eqp_ctx *ctx, eqpi_stage *st, lua_State *L, int idx,
+                          const eqpi_linemap *lm, const char *file)
+{
+  static const char *const keys[] = {"system", "about", "sources", "size_source",
+                                     "species", "acids", "reactions", "reagents", NULL};
+  conv c = {ctx, st, L, lm, NULL, {0}, {{0}}, 0, 0, NULL};
+  int before = st->nerr;
+  int top = lua_gettop(L);
+  c.file = eqpi_arena_strdup(ctx, &st->arena, file);
+  if (!c.file) return EQP_E_NOMEM;
+  idx = lua_absindex(L, idx);
+  if (!lua_istable(L, idx)) {
+    eqpi_stage_error(st, file, eqpi_linemap_line(lm, NULL, 0), "the file must return a table");
+    return EQP_E_DATA;
+  }
+  lua_pushvalue(L, idx);
+  cv_keys(&c, keys, 0);
+  if (lua_getfield(L, -1, "sources") == LUA_TTABLE) c.sources = lua_gettop(L);
+  else if (!lua_isnil(L, -1)) { cv_push(&c, "sources"); CV_ERR(&c, "expected a table"); cv_pop(&c); }
+  if (!c.sources) lua_pop(L, 1);
+  lua_pushvalue(L, idx);
+  cv_string(&c, "system", 0);
+  c.size_source = cv_source(&c, "size_source", 0);
+  cv_list(&c, "species", cv_species);
+  cv_list(&c, "acids", cv_acid);
+  cv_list(&c, "reactions", cv_reaction);
+  cv_list(&c, "reagents", cv_reagent);
+  lua_settop(L, top);
+  return st->nerr > before ? EQP_E_DATA : EQP_OK;
+}
+
+/* ------------------------------------------------------------ sandbox */
+
+typedef struct sandbox {
+  eqp_ctx *ctx;
+  size_t used;
+  long steps;
+} sandbox;
+
+static void *sandbox_alloc(void *ud, void *ptr, size_t osize, size_t nsize)
+{
+  sandbox *sb = ud;
+  if (!ptr) osize = 0;
+  if (nsize == 0) {
+    if (ptr) sb->ctx->alloc(sb->ctx->ud, ptr, osize, 0);
+    sb->used -= osize;
+    return NULL;
+  }
+  if (sb->used - osize + nsize > SANDBOX_MEM) return NULL;
+  void *p = sb->ctx->alloc(sb->ctx->ud, ptr, osize, nsize);
+  if (p) sb->used = sb->used - osize + nsize;
+  return p;
+}
+
+static void sandbox_hook(lua_State *L, lua_Debug *ar)
+{
+  sandbox *sb;
+  lua_getallocf(L, (void **)&sb);
+  sb->steps += 1000;
+  if (sb->steps > SANDBOX_STEPS) luaL_error(L, "instruction limit exceeded");
+}
+
+/* An environment with only harmless functions: no I/O, no loading, no os. */
+static void sandbox_env(lua_State *L)
+{
+  static const char *const base[] = {"assert", "error", "ipairs", "next", "pairs",
+                                     "select", "tonumber", "tostring", "type",
+                                     "rawequal", "rawget", "rawlen", "pcall", NULL};
+  static const char *const libs[] = {"math", "string", "table", "utf8", NULL};
+  lua_newtable(L);
+  for (int i = 0; base[i]; i++) {
+    lua_getglobal(L, base[i]);
+    lua_setfield(L, -2, base[i]);
+  }
+  for (int i = 0; libs[i]; i++) {
+    lua_getglobal(L, libs[i]);
+    lua_setfield(L, -2, libs[i]);
+  }
+}
+
+static int open_sandbox_libs(lua_State *L)
+{
+  luaL_requiref(L, "_G", luaopen_base, 1);
+  luaL_requiref(L, "math", luaopen_math, 1);
+  luaL_requiref(L, "string", luaopen_string, 1);
+  luaL_requiref(L, "table", luaopen_table, 1);
+  luaL_requiref(L, "utf8", luaopen_utf8, 1);
+  lua_settop(L, 0);
+  return 0;
+}
+
+int eqpi_load_text(eqp_ctx *ctx, eqpi_stage *st, const char *text, size_t len,
+                   const char *source)
+{
+  sandbox sb = {ctx, 0, 0};
+  lua_State *L = lua_newstate(sandbox_alloc, &sb);
+  if (!L) return eqpi_fail(ctx, EQP_E_NOMEM, "%s: out of memory", source);
+  int rc = EQP_OK;
+  lua_pushcfunction(L, open_sandbox_libs);
+  if (lua_pcall(L, 0, 0, 0) != LUA_OK) {
+    lua_close(L);
+    return eqpi_fail(ctx, EQP_E_NOMEM, "%s: out of memory", source);
+  }
+  eqpi_linemap *lm = eqpi_linemap_build(ctx, text, len);
+  char chunk[512];
+  snprintf(chunk, sizeof chunk, "@%s", source);
+  if (luaL_loadbufferx(L, text, len, chunk, "t") != LUA_OK) {
+    eqpi_stage_error(st, NULL, 0, "%s", lua_tostring(L, -1));
+    rc = EQP_E_DATA;
+    goto done;
+  }
+  sandbox_env(L);
+  lua_setupvalue(L, -2, 1);
+  lua_sethook(L, sandbox_hook, LUA_MASKCOUNT, 1000);
+  if (lua_pcall(L, 0, 1, 0) != LUA_OK) {
+    const char *msg = lua_tostring(L, -1);
+    eqpi_stage_error(st, NULL, 0, "%s", msg ? msg : "error while running the file");
+    rc = EQP_E_DATA;
+    goto done;
+  }
+  lua_sethook(L, NULL, 0, 0);
+  rc = eqpi_stage_from_table(ctx, st, L, -1, lm, source);
+done:
+  eqpi_linemap_free(ctx, lm);
+  lua_close(L);
+  return rc;
+}

@@ -1,0 +1,175 @@
+/* The "equipoise" Lua module: luaopen_equipoise and module-level functions. */
+/* SPDX-License-Identifier: MIT */
+#include "lua_impl.h"
+#include "../stage_impl.h"
+#include <stdarg.h>
+#include <stdio.h>
+#include <string.h>
+
+eqp_ctx *eqpl_ctx_of(lua_State *L)
+{
+  eqpl_ctx *c = lua_touserdata(L, lua_upvalueindex(1));
+  if (!c || !c->ctx) luaL_error(L, "equipoise: context is closed");
+  return c->ctx;
+}
+
+static int raise_with(lua_State *L, int status, const char *msg)
+{
+  luaL_where(L, 1);
+  lua_pushstring(L, msg);
+  lua_concat(L, 2);
+  /* remember {message, status} so the command knows what kind of error
+  ** ended the script, even through error() re-raises of the same string */
+  lua_createtable(L, 2, 0);
+  lua_pushvalue(L, -2);
+  lua_rawseti(L, -2, 1);
+  lua_pushinteger(L, status);
+  lua_rawseti(L, -2, 2);
+  lua_setfield(L, LUA_REGISTRYINDEX, EQPL_LASTERR);
+  return lua_error(L);
+}
+
+int eqpl_fail(lua_State *L, eqp_ctx *ctx, int status)
+{
+  return raise_with(L, status, eqp_ctx_errmsg(ctx));
+}
+
+int eqpl_input_error(lua_State *L, const char *fmt, ...)
+{
+  char buf[1024];
+  va_list ap;
+  va_start(ap, fmt);
+  vsnprintf(buf, sizeof buf, fmt, ap);
+  va_end(ap);
+  return raise_with(L, EQP_E_INPUT, buf);
+}
+
+static int ctx_gc(lua_State *L)
+{
+  eqpl_ctx *c = luaL_checkudata(L, 1, EQPL_CTX);
+  eqp_ctx_free(c->ctx);
+  c->ctx = NULL;
+  return 0;
+}
+
+/* A table loaded inline goes through the same checks as a file. */
+void eqpl_load_species(lua_State *L, eqp_ctx *ctx, int idx)
+{
+  idx = lua_absindex(L, idx);
+  int rc;
+  if (lua_type(L, idx) == LUA_TSTRING) {
+    rc = eqp_ctx_load_species_file(ctx, lua_tostring(L, idx));
+  } else if (lua_type(L, idx) == LUA_TTABLE) {
+    lua_Debug ar;
+    char where[512] = "inline species";
+    if (lua_getstack(L, 1, &ar) && lua_getinfo(L, "Sl", &ar) && ar.currentline > 0)
+      snprintf(where, sizeof where, "%s:%d (inline species)", ar.short_src, ar.currentline);
+    eqpi_stage *st = eqpi_stage_new(ctx);
+    if (!st) {
+      luaL_error(L, "out of memory");
+      return;
+    }
+    eqpi_stage_from_table(ctx, st, L, idx, NULL, where);
+    rc = eqpi_stage_commit(ctx, st);
+    eqpi_stage_free(ctx, st);
+  } else {
+    luaL_argerror(L, idx, "species: a file name or a table");
+    return;
+  }
+  if (rc < 0) eqpl_fail(L, ctx, rc);
+}
+
+/* eq.load_species(path_or_table): add species to the library of this run. */
+static int eq_load_species(lua_State *L)
+{
+  eqp_ctx *ctx = eqpl_ctx_of(L);
+  if (eqp_ctx_load_default_library(ctx) < 0) return eqpl_fail(L, ctx, eqp_ctx_errcode(ctx));
+  eqpl_load_species(L, ctx, 1);
+  return 0;
+}
+
+/* eq.molar_mass("Na2HPO4.7H2O") -> g/mol */
+static int eq_molar_mass(lua_State *L)
+{
+  eqp_ctx *ctx = eqpl_ctx_of(L);
+  double m;
+  int rc = eqp_formula_molar_mass(ctx, luaL_checkstring(L, 1), &m);
+  if (rc < 0) return eqpl_fail(L, ctx, rc);
+  lua_pushnumber(L, m);
+  return 1;
+}
+
+/* eq.quantity("25 mM") -> value in base units, kind name */
+static int eq_quantity(lua_State *L)
+{
+  eqp_ctx *ctx = eqpl_ctx_of(L);
+  double v;
+  eqp_quantity k;
+  int rc = eqp_parse_quantity(ctx, luaL_checkstring(L, 1), 0xff, &v, &k);
+  if (rc < 0) return eqpl_fail(L, ctx, rc);
+  static const char *const kinds[] = {"amount", "mass", "molarity", "molality", "volume",
+                                      "temperature"};
+  int bit = 0;
+  while ((1u << bit) != (unsigned)k) bit++;
+  lua_pushnumber(L, v);
+  lua_pushstring(L, kinds[bit]);
+  return 2;
+}
+
+/* eq.describe(name) -> text about a species or reagent */
+static int eq_describe(lua_State *L)
+{
+  eqp_ctx *ctx = eqpl_ctx_of(L);
+  if (eqp_ctx_load_default_library(ctx) < 0) return eqpl_fail(L, ctx, eqp_ctx_errcode(ctx));
+  char buf[4096];
+  int rc = eqp_ctx_describe(ctx, luaL_checkstring(L, 1), buf, sizeof buf);
+  if (rc < 0) return eqpl_fail(L, ctx, rc);
+  lua_pushstring(L, buf);
+  return 1;
+}
+
+int eqpl_solution_new(lua_State *L);
+
+static const luaL_Reg eq_funcs[] = {
+  {"solution", eqpl_solution_new},
+  {"load_species", eq_load_species},
+  {"molar_mass", eq_molar_mass},
+  {"quantity", eq_quantity},
+  {"describe", eq_describe},
+  {NULL, NULL},
+};
+
+int luaopen_equipoise(lua_State *L)
+{
+  luaL_checkversion(L);
+  /* one context per Lua state, shared by every require */
+  if (lua_getfield(L, LUA_REGISTRYINDEX, "equipoise.module") == LUA_TTABLE) return 1;
+  lua_pop(L, 1);
+  eqpl_ctx *c = lua_newuserdatauv(L, sizeof *c, 0);
+  c->ctx = NULL;
+  if (luaL_newmetatable(L, EQPL_CTX)) {
+    lua_pushcfunction(L, ctx_gc);
+    lua_setfield(L, -2, "__gc");
+  }
+  lua_setmetatable(L, -2);
+  c->ctx = eqp_ctx_new(NULL, NULL);
+  if (!c->ctx) return luaL_error(L, "equipoise: out of memory");
+  lua_pushlightuserdata(L, c->ctx);   /* for the command's report */
+  lua_setfield(L, LUA_REGISTRYINDEX, EQPL_CTX ".ptr");
+  int ctxidx = lua_gettop(L);
+  eqpl_open_solution(L);
+  eqpl_open_result(L);
+  lua_newtable(L);
+  lua_setfield(L, LUA_REGISTRYINDEX, EQPL_LOG);
+  lua_newtable(L);
+  lua_setfield(L, LUA_REGISTRYINDEX, EQPL_USED);
+  luaL_newlibtable(L, eq_funcs);
+  lua_pushvalue(L, ctxidx);
+  luaL_setfuncs(L, eq_funcs, 1);
+  lua_pushstring(L, EQP_VERSION_STRING);
+  lua_setfield(L, -2, "version");
+  lua_pushvalue(L, -1);
+  lua_setfield(L, LUA_REGISTRYINDEX, "equipoise.module");
+  lua_remove(L, ctxidx);
+  return 1;
+}

@@ -1,0 +1,38 @@
+/* Shared declarations of the Lua bindings. The bindings hold no chemistry. */
+/* SPDX-License-Identifier: MIT */
+#ifndef EQP_LUA_IMPL_H
+#define EQP_LUA_IMPL_H
+
+#include <equipoise/equipoise.h>
+#include <lauxlib.h>
+#include <lua.h>
+
+#define EQPL_CTX "equipoise.ctx"
+#define EQPL_SOLUTION "equipoise.solution"
+#define EQPL_RESULT "equipoise.result"
+#define EQPL_LASTERR "equipoise.lasterr"    /* registry: {message, status} */
+#define EQPL_LOG "equipoise.log"            /* registry: results of the run, in order */
+#define EQPL_USED "equipoise.used"          /* registry: set of reagent names added */
+#define EQPL_HOOKS "equipoise.hooks"        /* registry: host callbacks (CLI) */
+
+typedef struct eqpl_ctx { eqp_ctx *ctx; } eqpl_ctx;
+typedef struct eqpl_solution { eqp_solution *s; } eqpl_solution;
+typedef struct eqpl_result { eqp_result *r; } eqpl_result;
+
+/* The context of this Lua state (upvalue 1 of every binding). */
+eqp_ctx *eqpl_ctx_of(lua_State *L);
+/* Raise a Lua error with the context's message; remembers the engine status
+** so the command can map it to an exit code. Never returns. */
+int eqpl_fail(lua_State *L, eqp_ctx *ctx, int status);
+/* Raise an input error of our own (not from the engine). */
+int eqpl_input_error(lua_State *L, const char *fmt, ...);
+
+void eqpl_open_solution(lua_State *L);
+void eqpl_open_result(lua_State *L);
+/* Push a new result object for r (takes ownership); links it to the ctx. */
+void eqpl_push_result(lua_State *L, eqp_result *r);
+eqpl_solution *eqpl_check_solution(lua_State *L, int idx);
+/* Load species given as a file name or an inline table at idx. */
+void eqpl_load_species(lua_State *L, eqp_ctx *ctx, int idx);
+
+#endif

@@ -1,0 +1,169 @@
+/* Lua binding of eqp_result: r.pH, r.ionic_strength, r:molality(sp), ... */
+/* SPDX-License-Identifier: MIT */
+#include "lua_impl.h"
+#include <math.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+
+static eqp_result *check_result(lua_State *L, int idx)
+{
+  eqpl_result *u = luaL_checkudata(L, idx, EQPL_RESULT);
+  if (!u->r) luaL_argerror(L, idx, "result is closed");
+  return u->r;
+}
+
+void eqpl_push_result(lua_State *L, eqp_result *r)
+{
+  eqpl_result *u = lua_newuserdatauv(L, sizeof *u, 1);
+  u->r = r;
+  luaL_setmetatable(L, EQPL_RESULT);
+  lua_pushvalue(L, lua_upvalueindex(1));
+  lua_setiuservalue(L, -2, 1);
+}
+
+typedef int (*per_species_fn)(const eqp_result *, const char *, double *);
+
+static int per_species(lua_State *L, per_species_fn f)
+{
+  eqp_result *r = check_result(L, 1);
+  double v;
+  if (f(r, luaL_checkstring(L, 2), &v) < 0) return eqpl_fail(L, eqpl_ctx_of(L), EQP_E_UNKNOWN);
+  lua_pushnumber(L, v);
+  return 1;
+}
+
+static int result_molality(lua_State *L) { return per_species(L, eqp_result_molality); }
+static int result_molarity(lua_State *L) { return per_species(L, eqp_result_molarity); }
+static int result_activity(lua_State *L) { return per_species(L, eqp_result_activity); }
+static int result_gamma(lua_State *L) { return per_species(L, eqp_result_gamma); }
+
+/* r:species() -> { {name=, molality=, gamma=}, ... } by decreasing molality */
+typedef struct row { const char *name; double m, lg; } row;
+
+static int by_molality(const void *a, const void *b)
+{
+  double x = ((const row *)a)->m, y = ((const row *)b)->m;
+  return x < y ? 1 : x > y ? -1 : strcmp(((const row *)a)->name, ((const row *)b)->name);
+}
+
+static row *sorted_rows(lua_State *L, const eqp_result *r, size_t *n)
+{
+  *n = eqp_result_species_count(r);
+  row *rows = lua_newuserdatauv(L, sizeof(row) * (*n + 1), 0);   /* collected with the stack */
+  for (size_t i = 0; i < *n; i++) {
+    rows[i].name = eqp_result_species_name(r, i);
+    rows[i].m = eqp_result_species_molality(r, i);
+    rows[i].lg = eqp_result_species_log_gamma(r, i);
+  }
+  qsort(rows, *n, sizeof *rows, by_molality);
+  return rows;
+}
+
+static int result_species(lua_State *L)
+{
+  eqp_result *r = check_result(L, 1);
+  size_t n;
+  row *rows = sorted_rows(L, r, &n);
+  lua_createtable(L, (int)n, 0);
+  for (size_t i = 0; i < n; i++) {
+    lua_createtable(L, 0, 3);
+    lua_pushstring(L, rows[i].name);
+    lua_setfield(L, -2, "name");
+    lua_pushnumber(L, rows[i].m);
+    lua_setfield(L, -2, "molality");
+    lua_pushnumber(L, pow(10.0, rows[i].lg));
+    lua_setfield(L, -2, "gamma");
+    lua_rawseti(L, -2, (lua_Integer)i + 1);
+  }
+  return 1;
+}
+
+static int result_tostring(lua_State *L)
+{
+  eqp_result *r = check_result(L, 1);
+  luaL_Buffer b;
+  char line[256];
+  size_t n;
+  row *rows = sorted_rows(L, r, &n);
+  luaL_buffinit(L, &b);
+  snprintf(line, sizeof line, "pH %.3f   I %.4g mol/kg   %.2f C   model %s\n", eqp_result_pH(r),
+           eqp_result_ionic_strength(r), eqp_result_temperature(r) - 273.15,
+           eqp_result_activity_model(r));
+  luaL_addstring(&b, line);
+  snprintf(line, sizeof line, "  %-16s %14s %10s\n", "species", "mol/kg", "gamma");
+  luaL_addstring(&b, line);
+  for (size_t i = 0; i < n; i++) {
+    snprintf(line, sizeof line, "  %-16s %14.6e %10.4f\n", rows[i].name, rows[i].m,
+             pow(10.0, rows[i].lg));
+    luaL_addstring(&b, line);
+  }
+  for (size_t i = 0; i < eqp_result_warning_count(r); i++) {
+    snprintf(line, sizeof line, "  warning: %s\n", eqp_result_warning(r, i));
+    luaL_addstring(&b, line);
+  }
+  luaL_pushresult(&b);
+  return 1;
+}
+
+static const luaL_Reg result_methods[] = {
+  {"molality", result_molality},
+  {"molarity", result_molarity},
+  {"activity", result_activity},
+  {"gamma", result_gamma},
+  {"species", result_species},
+  {NULL, NULL},
+};
+
+/* Fields first, then methods from the table in upvalue 2. */
+static int result_index(lua_State *L)
+{
+  eqp_result *r = check_result(L, 1);
+  const char *k = luaL_checkstring(L, 2);
+  if (strcmp(k, "pH") == 0) lua_pushnumber(L, eqp_result_pH(r));
+  else if (strcmp(k, "ionic_strength") == 0) lua_pushnumber(L, eqp_result_ionic_strength(r));
+  else if (strcmp(k, "temperature") == 0) lua_pushnumber(L, eqp_result_temperature(r) - 273.15);
+  else if (strcmp(k, "temperature_K") == 0) lua_pushnumber(L, eqp_result_temperature(r));
+  else if (strcmp(k, "water") == 0) lua_pushnumber(L, eqp_result_water_kg(r));
+  else if (strcmp(k, "model") == 0) lua_pushstring(L, eqp_result_activity_model(r));
+  else if (strcmp(k, "residual") == 0) lua_pushnumber(L, eqp_result_residual(r));
+  else if (strcmp(k, "iterations") == 0) lua_pushinteger(L, eqp_result_iterations(r));
+  else if (strcmp(k, "warnings") == 0) {
+    size_t n = eqp_result_warning_count(r);
+    lua_createtable(L, (int)n, 0);
+    for (size_t i = 0; i < n; i++) {
+      lua_pushstring(L, eqp_result_warning(r, i));
+      lua_rawseti(L, -2, (lua_Integer)i + 1);
+    }
+  } else {
+    lua_getfield(L, lua_upvalueindex(2), k);
+  }
+  return 1;
+}
+
+static int result_close(lua_State *L)
+{
+  eqpl_result *u = luaL_checkudata(L, 1, EQPL_RESULT);
+  eqp_result_free(u->r);
+  u->r = NULL;
+  return 0;
+}
+
+void eqpl_open_result(lua_State *L)
+{
+  int ctx = lua_gettop(L);
+  luaL_newmetatable(L, EQPL_RESULT);
+  lua_pushvalue(L, ctx);
+  luaL_newlibtable(L, result_methods);
+  lua_pushvalue(L, ctx);
+  luaL_setfuncs(L, result_methods, 1);
+  lua_pushcclosure(L, result_index, 2);
+  lua_setfield(L, -2, "__index");
+  lua_pushvalue(L, ctx);
+  lua_pushcclosure(L, result_close, 1);
+  lua_setfield(L, -2, "__gc");
+  lua_pushvalue(L, ctx);
+  lua_pushcclosure(L, result_tostring, 1);
+  lua_setfield(L, -2, "__tostring");
+  lua_settop(L, ctx);
+}

@@ -1,0 +1,290 @@
+/* Plugin loading: search path, dlopen, ABI checks, activity-model instances. */
+/* SPDX-License-Identifier: MIT */
+#include "eqp_impl.h"
+#include <ctype.h>
+#include <dirent.h>
+#include <dlfcn.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+#include <sys/stat.h>
+
+#ifndef EQP_BUILD_PLUGIN_DIR
+#define EQP_BUILD_PLUGIN_DIR ""
+#endif
+#ifndef EQP_INSTALL_PLUGIN_DIR
+#define EQP_INSTALL_PLUGIN_DIR ""
+#endif
+
+static void *host_alloc(size_t n) { return malloc(n ? n : 1); }
+static void host_free(void *p) { free(p); }
+static void host_log(const char *msg)
+{
+  if (getenv("EQUIPOISE_VERBOSE")) fprintf(stderr, "equipoise: plugin: %s\n", msg);
+}
+
+const eqp_host_api eqpi_host_template = {
+  EQP_PLUGIN_ABI_VERSION, sizeof(eqp_host_api), host_alloc, host_free, host_log,
+};
+
+/* The first published descriptor and ops sizes (ABI 1.0); smaller is refused. */
+#define DESC_MIN_SIZE sizeof(eqp_plugin_desc)
+#define OPS_MIN_SIZE offsetof(eqp_activity_ops, set_param)
+
+int eqpi_plugin_check(const eqp_plugin_desc *d, const char *path, char *err, size_t len)
+{
+  if (!d) {
+    snprintf(err, len, "%s: entry returned no descriptor", path);
+    return -1;
+  }
+  if (d->abi_version >> 16 != EQP_PLUGIN_ABI_MAJOR) {
+    snprintf(err, len, "%s: plugin ABI %u.%u, this engine needs %u.x", path,
+             d->abi_version >> 16, d->abi_version & 0xffffu, EQP_PLUGIN_ABI_MAJOR);
+    return -1;
+  }
+  if (d->struct_size < DESC_MIN_SIZE) {
+    snprintf(err, len, "%s: descriptor is %u bytes, ABI %u needs at least %zu", path,
+             d->struct_size, EQP_PLUGIN_ABI_MAJOR, DESC_MIN_SIZE);
+    return -1;
+  }
+  if (d->sizes != EQP_PLUGIN_SIZES) {
+    snprintf(err, len, "%s: built with number sizes 0x%x, engine has 0x%x", path, d->sizes,
+             (unsigned)EQP_PLUGIN_SIZES);
+    return -1;
+  }
+  if (d->kind != EQP_PLUGIN_ACTIVITY) {
+    snprintf(err, len, "%s: unknown plugin kind %u", path, d->kind);
+    return -1;
+  }
+  if (!d->name || !d->version || !d->summary || !d->ops) {
+    snprintf(err, len, "%s: descriptor lacks a name, version, summary or operations", path);
+    return -1;
+  }
+  const eqp_activity_ops *o = d->ops;
+  if (o->struct_size < OPS_MIN_SIZE || !o->create || !o->destroy || !o->log_gamma) {
+    snprintf(err, len, "%s: activity operations incomplete (size %u, need %zu)", path,
+             o->struct_size, OPS_MIN_SIZE);
+    return -1;
+  }
+  return 0;
+}
+
+/* Open path and check what it exports; on success *dl and *desc are set. */
+static int plugin_dlopen(const char *path, void **dl, const eqp_plugin_desc **desc, char *err,
+                         size_t len, const eqp_host_api *host)
+{
+  void *h = dlopen(path, RTLD_NOW | RTLD_LOCAL);
+  if (!h) {
+    snprintf(err, len, "%s: cannot load: %s", path, dlerror());
+    return -1;
+  }
+  eqp_plugin_entry_fn entry;
+  *(void **)&entry = dlsym(h, EQP_PLUGIN_ENTRY);
+  if (!entry) {
+    snprintf(err, len, "%s: does not export %s()", path, EQP_PLUGIN_ENTRY);
+    dlclose(h);
+    return -1;
+  }
+  char perr[256] = "";
+  const eqp_plugin_desc *d = entry(host, perr, sizeof perr);
+  if (!d) {
+    snprintf(err, len, "%s: plugin refused to load: %s", path, perr[0] ? perr : "no reason");
+    dlclose(h);
+    return -1;
+  }
+  if (eqpi_plugin_check(d, path, err, len) < 0) {
+    dlclose(h);
+    return -1;
+  }
+  *dl = h;
+  *desc = d;
+  return 0;
+}
+
+static int is_file(const char *p)
+{
+  struct stat sb;
+  return stat(p, &sb) == 0 && S_ISREG(sb.st_mode);
+}
+
+/* Call f(ud, dir) for each folder of the search path, in order; stop when f
+** returns non-zero. */
+static int each_dir(eqp_ctx *ctx, int (*f)(void *, const char *), void *ud)
+{
+  for (int i = 0; i < ctx->nplugin_dirs; i++)
+    if (f(ud, ctx->plugin_dirs[i])) return 1;
+  const char *env = getenv("EQUIPOISE_PLUGIN_PATH");
+  if (env) {
+    char buf[4096];
+    snprintf(buf, sizeof buf, "%s", env);
+    char *save = NULL;
+    for (char *d = strtok_r(buf, ":", &save); d; d = strtok_r(NULL, ":", &save))
+      if (*d && f(ud, d)) return 1;
+  }
+  if (*EQP_BUILD_PLUGIN_DIR && f(ud, EQP_BUILD_PLUGIN_DIR)) return 1;
+  if (*EQP_INSTALL_PLUGIN_DIR && f(ud, EQP_INSTALL_PLUGIN_DIR)) return 1;
+  return 0;
+}
+
+typedef struct finder {
+  const char *name;
+  char path[4096];
+  char tried[1024];
+  size_t used;
+} finder;
+
+static int find_in(void *ud, const char *dir)
+{
+  finder *fd = ud;
+  snprintf(fd->path, sizeof fd->path, "%s/%s.so", dir, fd->name);
+  if (is_file(fd->path)) return 1;
+  if (fd->used < sizeof fd->tried)
+    fd->used += (size_t)snprintf(fd->tried + fd->used, sizeof fd->tried - fd->used, "%s%s",
+                                 fd->used ? ", " : "", dir);
+  return 0;
+}
+
+static int registry_get(eqp_ctx *ctx, const char *name, eqpi_plugin_handle **out)
+{
+  for (int i = 0; i < ctx->nplugins; i++)
+    if (strcmp(ctx->plugins[i].name, name) == 0) {
+      *out = &ctx->plugins[i];
+      return EQP_OK;
+    }
+  for (const char *p = name; *p; p++)
+    if (!isalnum((unsigned char)*p) && *p != '_' && *p != '-')
+      return eqpi_fail(ctx, EQP_E_PLUGIN, "'%s' is not a plugin name (letters, digits, _ -)",
+                       name);
+  if (!*name) return eqpi_fail(ctx, EQP_E_PLUGIN, "empty plugin name");
+  finder fd = {name, "", "", 0};
+  if (!each_dir(ctx, find_in, &fd))
+    return eqpi_fail(ctx, EQP_E_PLUGIN, "no activity model '%s': %s.so not found in %s "
+                     "(see 'equipoise plugins'; EQUIPOISE_PLUGIN_PATH adds folders)",
+                     name, name, fd.used ? fd.tried : "an empty search path");
+  void *dl;
+  const eqp_plugin_desc *d;
+  char err[EQPI_ERRLEN];
+  if (plugin_dlopen(fd.path, &dl, &d, err, sizeof err, &ctx->host) < 0)
+    return eqpi_fail(ctx, EQP_E_PLUGIN, "%s", err);
+  if (strcmp(d->name, name) != 0) {
+    dlclose(dl);
+    return eqpi_fail(ctx, EQP_E_PLUGIN, "%s: file is named '%s' but the plugin calls itself '%s'",
+                     fd.path, name, d->name);
+  }
+  if (ctx->nplugins == ctx->capplugins) {
+    int nc = ctx->capplugins * 2 + 4;
+    eqpi_plugin_handle *p = eqpi_realloc(ctx, ctx->plugins, sizeof *p * (size_t)ctx->capplugins,
+                                         sizeof *p * (size_t)nc);
+    if (!p) {
+      dlclose(dl);
+      return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
+    }
+    ctx->plugins = p;
+    ctx->capplugins = nc;
+  }
+  eqpi_plugin_handle *h = &ctx->plugins[ctx->nplugins];
+  h->name = eqpi_strdup(ctx, name);
+  h->path = eqpi_strdup(ctx, fd.path);
+  if (!h->name || !h->path) {
+    eqpi_strfree(ctx, h->name);
+    eqpi_strfree(ctx, h->path);
+    dlclose(dl);
+    return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
+  }
+  h->dl = dl;
+  h->desc = d;
+  ctx->nplugins++;
+  *out = h;
+  return EQP_OK;
+}
+
+int eqpi_model_open(eqp_ctx *ctx, const char *name, eqpi_model *out)
+{
+  eqpi_plugin_handle *h;
+  memset(out, 0, sizeof *out);
+  int rc = registry_get(ctx, name, &h);
+  if (rc < 0) return rc;
+  const eqp_activity_ops *ops = h->desc->ops;
+  char err[256] = "";
+  void *state = NULL;
+  if (ops->create(&ctx->host, &state, err, sizeof err) != 0)
+    return eqpi_fail(ctx, EQP_E_PLUGIN, "activity model '%s' (%s): %s", name, h->path,
+                     err[0] ? err : "create failed");
+  out->desc = h->desc;
+  out->ops = ops;
+  out->state = state;
+  out->handle = h->dl;
+  out->path = h->path;
+  return EQP_OK;
+}
+
+void eqpi_model_close(eqp_ctx *ctx, eqpi_model *m)
+{
+  if (m && m->ops) m->ops->destroy(&ctx->host, m->state);
+  if (m) memset(m, 0, sizeof *m);
+}
+
+void eqpi_plugins_free(eqp_ctx *ctx)
+{
+  for (int i = 0; i < ctx->nplugins; i++) {
+    /* Under AddressSanitizer a dlclose'd module loses its symbols in leak
+    ** reports; keeping it mapped is harmless since the process owns it. */
+    if (!getenv("EQUIPOISE_KEEP_PLUGINS")) dlclose(ctx->plugins[i].dl);
+    eqpi_strfree(ctx, ctx->plugins[i].name);
+    eqpi_strfree(ctx, ctx->plugins[i].path);
+  }
+  eqpi_free(ctx, ctx->plugins, sizeof *ctx->plugins * (size_t)ctx->capplugins);
+  ctx->plugins = NULL;
+  ctx->nplugins = ctx->capplugins = 0;
+}
+
+typedef struct lister {
+  eqp_ctx *ctx;
+  eqp_plugin_list_fn fn;
+  void *ud;
+  char seen[64][64];
+  int nseen;
+} lister;
+
+static int list_in(void *ud, const char *dir)
+{
+  lister *ls = ud;
+  DIR *d = opendir(dir);
+  if (!d) return 0;
+  struct dirent *e;
+  while ((e = readdir(d))) {
+    size_t l = strlen(e->d_name);
+    if (l < 4 || strcmp(e->d_name + l - 3, ".so") != 0) continue;
+    char name[64];
+    snprintf(name, sizeof name, "%.*s", (int)(l - 3), e->d_name);
+    int dup = 0;
+    for (int i = 0; i < ls->nseen; i++) dup |= strcmp(ls->seen[i], name) == 0;
+    if (dup) continue;   /* an earlier folder wins, as when loading */
+    if (ls->nseen < 64) snprintf(ls->seen[ls->nseen++], 64, "%s", name);
+    char path[4096], err[EQPI_ERRLEN];
+    snprintf(path, sizeof path, "%s/%s", dir, e->d_name);
+    void *dl;
+    const eqp_plugin_desc *desc;
+    if (plugin_dlopen(path, &dl, &desc, err, sizeof err, &ls->ctx->host) < 0) {
+      ls->fn(ls->ud, NULL, NULL, err, path);
+      continue;
+    }
+    ls->fn(ls->ud, desc->name, desc->version, desc->summary, path);
+    dlclose(dl);
+  }
+  closedir(d);
+  return 0;
+}
+
+int eqp_ctx_list_plugins(eqp_ctx *ctx, eqp_plugin_list_fn fn, void *ud)
+{
+  if (!ctx || !fn) return eqpi_fail(ctx, EQP_E_ARG, "NULL argument");
+  lister *ls = eqpi_calloc(ctx, 1, sizeof *ls);
+  if (!ls) return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
+  ls->ctx = ctx;
+  ls->fn = fn;
+  ls->ud = ud;
+  each_dir(ctx, list_in, ls);
+  eqpi_free(ctx, ls, sizeof *ls);
+  return EQP_OK;
+}

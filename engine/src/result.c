@@ -1,0 +1,149 @@
+/* Results: per-species molality, activity and activity coefficient. */
+/* SPDX-License-Identifier: MIT */
+#include "result_impl.h"
+#include <math.h>
+#include <stdio.h>
+#include <string.h>
+
+#define MAX_WARN 4
+
+struct eqp_result {
+  eqp_ctx *ctx;
+  size_t bytes;           /* whole block, for the allocator */
+  int ns, ndb;
+  int *sp;                /* global species */
+  int *loc;               /* global species -> local, -1 if absent */
+  double *m, *lg;
+  double pH, I, T, water_kg, rho, residual;
+  long iters;
+  const char *model;
+  int nwarn;
+  char warn[MAX_WARN][256];
+};
+
+int eqpi_result_make(eqp_ctx *ctx, const eqpi_system *sys, const eqpi_model *model, double T,
+                     double water_kg, const eqpi_solve_stats *st, eqp_result **out)
+{
+  int ns = eqpi_system_nspecies(sys), ndb = ctx->db.nsp;
+  size_t bytes = sizeof(eqp_result) + sizeof(int) * (size_t)(ns + ndb) +
+                 sizeof(double) * (size_t)(2 * ns) + 16;
+  eqp_result *r = eqpi_calloc(ctx, 1, bytes);
+  if (!r) return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
+  r->ctx = ctx;
+  r->bytes = bytes;
+  r->ns = ns;
+  r->ndb = ndb;
+  r->m = (double *)(r + 1);
+  r->lg = r->m + ns;
+  r->sp = (int *)(r->lg + ns);
+  r->loc = r->sp + ns;
+  for (int i = 0; i < ndb; i++) r->loc[i] = -1;
+  int h = -1;
+  for (int i = 0; i < ns; i++) {
+    r->sp[i] = eqpi_system_species(sys, i, &r->m[i], &r->lg[i]);
+    r->loc[r->sp[i]] = i;
+    if (r->sp[i] == ctx->db.h_plus) h = i;
+  }
+  r->pH = h >= 0 ? -(log10(r->m[h]) + r->lg[h]) : NAN;
+  r->I = eqpi_system_ionic_strength(sys);
+  r->T = T;
+  r->water_kg = water_kg;
+  r->rho = eqpi_water_density(T);
+  r->residual = st->residual;
+  r->iters = st->iterations;
+  r->model = model->desc->name;
+  double Imax = model->desc->max_ionic_strength;
+  if (Imax > 0 && r->I > Imax)
+    snprintf(r->warn[r->nwarn++], 256, "ionic strength %.3g mol/kg is beyond the stated range "
+             "of the '%s' activity model (I <= %g mol/kg); activity coefficients are "
+             "extrapolated", r->I, r->model, Imax);
+  if (st->missing_T)
+    snprintf(r->warn[r->nwarn++], 256, "%d constant(s) have no temperature data; their "
+             "25 C values were used at %.2f C", st->missing_T, T - 273.15);
+  *out = r;
+  return EQP_OK;
+}
+
+void eqp_result_free(eqp_result *r)
+{
+  if (r) eqpi_free(r->ctx, r, r->bytes);
+}
+
+double eqp_result_pH(const eqp_result *r) { return r ? r->pH : NAN; }
+double eqp_result_ionic_strength(const eqp_result *r) { return r ? r->I : NAN; }
+double eqp_result_temperature(const eqp_result *r) { return r ? r->T : NAN; }
+double eqp_result_water_kg(const eqp_result *r) { return r ? r->water_kg : NAN; }
+double eqp_result_water_density(const eqp_result *r) { return r ? r->rho : NAN; }
+double eqp_result_residual(const eqp_result *r) { return r ? r->residual : NAN; }
+long eqp_result_iterations(const eqp_result *r) { return r ? r->iters : 0; }
+const char *eqp_result_activity_model(const eqp_result *r) { return r ? r->model : NULL; }
+size_t eqp_result_species_count(const eqp_result *r) { return r ? (size_t)r->ns : 0; }
+size_t eqp_result_warning_count(const eqp_result *r) { return r ? (size_t)r->nwarn : 0; }
+
+const char *eqp_result_warning(const eqp_result *r, size_t i)
+{
+  return r && i < (size_t)r->nwarn ? r->warn[i] : NULL;
+}
+
+const char *eqp_result_species_name(const eqp_result *r, size_t i)
+{
+  return r && i < (size_t)r->ns ? r->ctx->db.sp[r->sp[i]].name : NULL;
+}
+
+double eqp_result_species_molality(const eqp_result *r, size_t i)
+{
+  return r && i < (size_t)r->ns ? r->m[i] : NAN;
+}
+
+double eqp_result_species_log_gamma(const eqp_result *r, size_t i)
+{
+  return r && i < (size_t)r->ns ? r->lg[i] : NAN;
+}
+
+/* Local index of a species name: >= 0 present, -1 in the library but absent
+** from this solution, < -1 unknown (message recorded). */
+static int lookup(const eqp_result *r, const char *sp)
+{
+  if (!r || !sp) return -2;
+  int g = eqpi_db_find_species(&r->ctx->db, sp);
+  if (g < 0) {
+    eqpi_fail(r->ctx, EQP_E_UNKNOWN, "unknown species '%s'", sp);
+    return -2;
+  }
+  return g < r->ndb ? r->loc[g] : -1;
+}
+
+int eqp_result_molality(const eqp_result *r, const char *sp, double *out)
+{
+  int i = lookup(r, sp);
+  if (i < -1) return EQP_E_UNKNOWN;
+  *out = i < 0 ? 0.0 : r->m[i];
+  return EQP_OK;
+}
+
+int eqp_result_molarity(const eqp_result *r, const char *sp, double *out)
+{
+  int rc = eqp_result_molality(r, sp, out);
+  /* dilute-solution approximation: solution volume = volume of its water */
+  if (rc == EQP_OK) *out *= r->rho;
+  return rc;
+}
+
+int eqp_result_gamma(const eqp_result *r, const char *sp, double *out)
+{
+  int i = lookup(r, sp);
+  if (i < -1) return EQP_E_UNKNOWN;
+  *out = i < 0 ? 1.0 : pow(10.0, r->lg[i]);
+  return EQP_OK;
+}
+
+int eqp_result_activity(const eqp_result *r, const char *sp, double *out)
+{
+  int i = lookup(r, sp);
+  if (i < -1) return EQP_E_UNKNOWN;
+  if (i >= 0 || eqpi_db_find_species(&r->ctx->db, sp) != r->ctx->db.water)
+    *out = i < 0 ? 0.0 : r->m[i] * pow(10.0, r->lg[i]);
+  else
+    *out = 1.0;   /* the solvent */
+  return EQP_OK;
+}

@@ -1,0 +1,11 @@
+/* Results: immutable snapshots of a solved system. */
+/* SPDX-License-Identifier: MIT */
+#ifndef EQP_RESULT_IMPL_H
+#define EQP_RESULT_IMPL_H
+
+#include "eqp_impl.h"
+
+int eqpi_result_make(eqp_ctx *ctx, const eqpi_system *sys, const eqpi_model *model, double T,
+                     double water_kg, const eqpi_solve_stats *st, eqp_result **out);
+
+#endif

@@ -1,0 +1,415 @@
+/* Solving the active system with KINSOL (Newton-Krylov, SPGMR, line search),
+** the ideal Jacobian N^T diag(m) N as preconditioner, warm starts between
+** solves, fallbacks, and verification of every result. */
+/* SPDX-License-Identifier: MIT */
+#include "system_impl.h"
+#include <math.h>
+#include <stdio.h>
+#include <string.h>
+
+static const char *kin_flag_name(int flag)
+{
+  static const char *const names[] = {
+    "KIN_SUCCESS", "KIN_MEM_NULL", "KIN_ILL_INPUT", "KIN_NO_MALLOC", "KIN_MEM_FAIL",
+    "KIN_LINESEARCH_NONCONV", "KIN_MAXITER_REACHED", "KIN_MXNEWT_5X_EXCEEDED",
+    "KIN_LINESEARCH_BCFAIL", "KIN_LINSOLV_NO_RECOVERY", "KIN_LINIT_FAIL",
+    "KIN_LSETUP_FAIL", "KIN_LSOLVE_FAIL", "KIN_SYSFUNC_FAIL", "KIN_FIRST_SYSFUNC_ERR",
+    "KIN_REPTD_SYSFUNC_ERR", "KIN_VECTOROP_ERR", "KIN_CONTEXT_ERR",
+  };
+  if (flag == KIN_INITIAL_GUESS_OK) return "KIN_INITIAL_GUESS_OK";
+  if (flag == KIN_STEP_LT_STPTOL) return "KIN_STEP_LT_STPTOL";
+  if (flag <= 0 && -flag < (int)(sizeof names / sizeof names[0])) return names[-flag];
+  return "KIN_UNKNOWN_FLAG";
+}
+
+/* ------------------------------------------------------------ KINSOL hooks */
+
+static int kin_f(N_Vector uu, N_Vector fval, void *ud)
+{
+  return eqpi_sys_eval(ud, N_VGetArrayPointer(uu), N_VGetArrayPointer(fval)) < 0 ? -1 : 0;
+}
+
+static int kin_psetup(N_Vector uu, N_Vector uscale, N_Vector fval, N_Vector fscale, void *ud)
+{
+  eqpi_system *sys = ud;
+  /* the last evaluation may have been a difference quotient near uu */
+  if (eqpi_sys_eval(sys, N_VGetArrayPointer(uu), sys->xt) < 0) return -1;
+  return eqpi_sys_precond(sys) < 0 ? 1 : 0;
+}
+
+static int kin_psolve(N_Vector uu, N_Vector uscale, N_Vector fval, N_Vector fscale,
+                      N_Vector vv, void *ud)
+{
+  eqpi_system *sys = ud;
+  eqpi_lu_solve(sys->J, sys->piv, sys->n, N_VGetArrayPointer(vv));
+  return 0;
+}
+
+static void kin_err(int code, const char *module, const char *function, char *msg, void *ud)
+{
+  eqpi_system *sys = ud;
+  snprintf(sys->kin_err, sizeof sys->kin_err, "%s: %s", function, msg);
+}
+
+static void kinsol_free(eqpi_system *sys)
+{
+  if (sys->kmem) KINFree(&sys->kmem);
+  if (sys->LS) SUNLinSolFree(sys->LS);
+  if (sys->u) N_VDestroy(sys->u);
+  if (sys->scale) N_VDestroy(sys->scale);
+  if (sys->sun) SUNContext_Free(&sys->sun);
+  sys->kmem = NULL;
+  sys->LS = NULL;
+  sys->u = sys->scale = NULL;
+  sys->sun = NULL;
+}
+
+/* Order matters (TOOLCHAIN.md): create, user data and error handler, init,
+** then the linear solver and its hooks, then the other settings. */
+static int kinsol_setup(eqpi_system *sys)
+{
+  const sunindextype n = sys->n;
+  if (SUNContext_Create(NULL, &sys->sun) != 0) return -1;
+  sys->u = N_VNew_Serial(n, sys->sun);
+  sys->scale = N_VNew_Serial(n, sys->sun);
+  sys->kmem = KINCreate(sys->sun);
+  if (!sys->u || !sys->scale || !sys->kmem) return -1;
+  N_VConst(1.0, sys->scale);
+  if (KINSetUserData(sys->kmem, sys) || KINSetErrHandlerFn(sys->kmem, kin_err, sys) ||
+      KINInit(sys->kmem, kin_f, sys->u))
+    return -1;
+  sys->LS = SUNLinSol_SPGMR(sys->u, SUN_PREC_RIGHT, (int)n + 2, sys->sun);
+  if (!sys->LS || KINSetLinearSolver(sys->kmem, sys->LS, NULL) ||
+      KINSetPreconditioner(sys->kmem, kin_psetup, kin_psolve))
+    return -1;
+  KINSetMaxSetupCalls(sys->kmem, 1);
+  KINSetNumMaxIters(sys->kmem, 200);
+  KINSetFuncNormTol(sys->kmem, 1e-13);
+  KINSetScaledStepTol(sys->kmem, 1e-15);
+  /* a log-variable step of more than ~10 per unknown only overshoots */
+  KINSetMaxNewtonStep(sys->kmem, 10.0 * sqrt((double)n));
+  KINSetPrintLevel(sys->kmem, 0);
+  return 0;
+}
+
+/* ------------------------------------------------------------ assembly */
+
+#define GROW(ctx, p, n) ((p) = eqpi_calloc((ctx), (size_t)(n) + 1, sizeof *(p)))
+
+static void arrays_free(eqp_ctx *ctx, eqpi_system *s)
+{
+  size_t nc = (size_t)s->nc + 1, ns = (size_t)s->ns + 1, n = (size_t)s->n + 1;
+  eqpi_free(ctx, s->active, (size_t)s->ncg + 1);
+  eqpi_free(ctx, s->comp, sizeof(int) * nc);
+  eqpi_free(ctx, s->comp_sp, sizeof(int) * nc);
+  eqpi_free(ctx, s->xidx, sizeof(int) * nc);
+  eqpi_free(ctx, s->tot, sizeof(double) * nc);
+  eqpi_free(ctx, s->lnfix, sizeof(double) * nc);
+  eqpi_free(ctx, s->lnfree, sizeof(double) * nc);
+  eqpi_free(ctx, s->tot_last, sizeof(double) * nc);
+  eqpi_free(ctx, s->xcomp, sizeof(int) * n);
+  eqpi_free(ctx, s->sp, sizeof(int) * ns);
+  eqpi_free(ctx, s->lnK, sizeof(double) * ns);
+  eqpi_free(ctx, s->nu, sizeof(double) * ((size_t)s->ns * (size_t)s->nc + 1));
+  eqpi_free(ctx, s->z, sizeof(double) * ns);
+  eqpi_free(ctx, s->z2, sizeof(double) * ns);
+  eqpi_free(ctx, s->size, sizeof(double) * ns);
+  eqpi_free(ctx, s->s0, sizeof(double) * ns);
+  eqpi_free(ctx, s->mid, sizeof(double) * ns);
+  eqpi_free(ctx, s->lg, sizeof(double) * ns);
+  eqpi_free(ctx, s->lng, sizeof(double) * ns);
+  eqpi_free(ctx, s->m, sizeof(double) * ns);
+  eqpi_free(ctx, s->J, sizeof(double) * (n * n));
+  eqpi_free(ctx, s->piv, sizeof(int) * n);
+  eqpi_free(ctx, s->g, sizeof(double) * (n + 1));
+  eqpi_free(ctx, s->d, sizeof(double) * n);
+  eqpi_free(ctx, s->xt, sizeof(double) * 2 * n);
+  eqpi_free(ctx, s->u_last, sizeof(double) * n);
+}
+
+void eqpi_system_free(eqp_ctx *ctx, eqpi_system *sys)
+{
+  if (!sys) return;
+  kinsol_free(sys);
+  arrays_free(ctx, sys);
+  eqpi_free(ctx, sys, sizeof *sys);
+}
+
+/* Which components are present: H+ always, others with a positive total. */
+static int active_mask(eqp_ctx *ctx, const double *totals, unsigned char *mask)
+{
+  const eqpi_db *db = &ctx->db;
+  for (int c = 0; c < db->ncomp; c++) {
+    int sp = db->comp_species[c];
+    mask[c] = 0;
+    if (sp == db->water) continue;
+    if (sp == db->h_plus) { mask[c] = 1; continue; }
+    if (totals[c] < 0) {
+      if (totals[c] < -1e-14)
+        return eqpi_fail(ctx, EQP_E_INPUT, "total of %s is negative (%g mol/kg)",
+                         db->sp[sp].name, totals[c]);
+    }
+    mask[c] = totals[c] > 0;
+  }
+  return EQP_OK;
+}
+
+static int species_present(const eqpi_db *db, int i, const unsigned char *mask)
+{
+  if (i == db->water) return 0;
+  const eqpi_species *s = &db->sp[i];
+  for (int t = 0; t < s->nterm; t++) {
+    int c = s->term_comp[t];
+    if (db->comp_species[c] != db->water && !mask[c]) return 0;
+  }
+  return 1;
+}
+
+static int build(eqp_ctx *ctx, eqpi_system *s, const unsigned char *mask)
+{
+  const eqpi_db *db = &ctx->db;
+  int ncg = db->ncomp, nc = 0, ns = 0;
+  int *loc = eqpi_calloc(ctx, (size_t)ncg + 1, sizeof(int));
+  if (!loc) return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
+  for (int c = 0; c < ncg; c++) loc[c] = mask[c] ? nc++ : -1;
+  for (int i = 0; i < db->nsp; i++) ns += species_present(db, i, mask);
+  s->ncg = ncg;
+  s->nc = nc;
+  s->ns = ns;
+  s->n = nc + 1;  /* upper bound until spectators are known */
+  int ok = GROW(ctx, s->active, ncg) && GROW(ctx, s->comp, nc) && GROW(ctx, s->comp_sp, nc) &&
+           GROW(ctx, s->xidx, nc) && GROW(ctx, s->tot, nc) && GROW(ctx, s->lnfix, nc) &&
+           GROW(ctx, s->lnfree, nc) && GROW(ctx, s->tot_last, nc) &&
+           GROW(ctx, s->xcomp, nc + 1) && GROW(ctx, s->sp, ns) && GROW(ctx, s->lnK, ns) &&
+           GROW(ctx, s->nu, (size_t)ns * (size_t)nc) && GROW(ctx, s->z, ns) &&
+           GROW(ctx, s->z2, ns) && GROW(ctx, s->size, ns) && GROW(ctx, s->s0, ns) &&
+           GROW(ctx, s->mid, ns) && GROW(ctx, s->lg, ns) && GROW(ctx, s->lng, ns) &&
+           GROW(ctx, s->m, ns) && GROW(ctx, s->J, (nc + 2) * (nc + 2)) &&
+           GROW(ctx, s->piv, nc + 2) && GROW(ctx, s->g, nc + 3) && GROW(ctx, s->d, nc + 2) &&
+           GROW(ctx, s->xt, 2 * (nc + 2)) && GROW(ctx, s->u_last, nc + 2);
+  if (!ok) {
+    eqpi_free(ctx, loc, sizeof(int) * ((size_t)ncg + 1));
+    return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
+  }
+  memcpy(s->active, mask, (size_t)ncg);
+  for (int c = 0; c < ncg; c++)
+    if (loc[c] >= 0) s->comp[loc[c]] = c;
+  int k = 0;
+  for (int i = 0; i < db->nsp; i++) {
+    if (!species_present(db, i, mask)) continue;
+    const eqpi_species *sp = &db->sp[i];
+    s->sp[k] = i;
+    for (int t = 0; t < sp->nterm; t++) {
+      int c = sp->term_comp[t];
+      if (loc[c] >= 0) s->nu[(size_t)k * nc + loc[c]] = sp->term_nu[t];
+    }
+    if (sp->component >= 0) s->comp_sp[loc[sp->component]] = k;
+    s->z[k] = sp->comp.charge;
+    s->z2[k] = sp->comp.charge * sp->comp.charge;
+    s->size[k] = sp->size;
+    k++;
+  }
+  /* spectators: a component whose only species is itself */
+  s->nx = 0;
+  for (int c = 0; c < nc; c++) {
+    int others = 0;
+    for (int i = 0; i < ns; i++)
+      others += i != s->comp_sp[c] && s->nu[(size_t)i * nc + c] != 0;
+    if (s->comp[c] == db->sp[db->h_plus].component) s->hloc = c;
+    if (others || s->comp[c] == db->sp[db->h_plus].component) {
+      s->xidx[c] = s->nx;
+      s->xcomp[s->nx++] = c;
+    } else {
+      s->xidx[c] = -1;
+    }
+  }
+  s->n = s->nx + 1;
+  s->generation = db->generation;
+  s->Tk = -1;
+  s->solved = false;
+  eqpi_free(ctx, loc, sizeof(int) * ((size_t)ncg + 1));
+  return EQP_OK;
+}
+
+static void set_temperature(eqpi_system *s, double T)
+{
+  if (s->Tk == T) return;
+  s->Tk = T;
+  s->missing_T = 0;
+  for (int i = 0; i < s->ns; i++)
+    s->lnK[i] = EQPI_LN10 * eqpi_species_logK(&s->ctx->db, s->sp[i], T, &s->missing_T);
+  eqpi_debye_huckel_AB(T, &s->A, &s->B);
+}
+
+/* Reuse the structure and the KINSOL instance when the same components are
+** present; rebuild otherwise. */
+static int prepare(eqp_ctx *ctx, eqpi_system **sysp, const double *totals, double T,
+                   eqpi_model *model)
+{
+  const eqpi_db *db = &ctx->db;
+  if (db->h_plus < 0 || db->water < 0)
+    return eqpi_fail(ctx, EQP_E_DATA, "the species library defines no 'H+' and 'H2O'");
+  unsigned char stackmask[256];
+  unsigned char *mask = db->ncomp <= 256 ? stackmask : eqpi_malloc(ctx, (size_t)db->ncomp);
+  if (!mask) return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
+  int rc = active_mask(ctx, totals, mask);
+  eqpi_system *s = *sysp;
+  if (rc == EQP_OK && (!s || s->generation != db->generation || s->ncg != db->ncomp ||
+                       memcmp(s->active, mask, (size_t)db->ncomp) != 0)) {
+    if (s) {
+      kinsol_free(s);
+      arrays_free(ctx, s);
+      memset(s, 0, sizeof *s);
+    } else if (!(s = eqpi_calloc(ctx, 1, sizeof *s))) {
+      rc = eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
+    }
+    if (s) {
+      *sysp = s;
+      s->ctx = ctx;
+      rc = build(ctx, s, mask);
+      if (rc == EQP_OK && kinsol_setup(s) < 0)
+        rc = eqpi_fail(ctx, EQP_E_NOMEM, "cannot set up KINSOL");
+      if (rc < 0) { kinsol_free(s); arrays_free(ctx, s); memset(s, 0, sizeof *s); }
+    }
+  }
+  if (mask != stackmask) eqpi_free(ctx, mask, (size_t)db->ncomp);
+  if (rc < 0) return rc;
+  s->model = model;
+  for (int c = 0; c < s->nc; c++) {
+    s->tot[c] = totals[s->comp[c]];
+    s->lnfix[c] = log(s->tot[c] > 0 ? s->tot[c] : 1e-300);
+  }
+  set_temperature(s, T);
+  return EQP_OK;
+}
+
+/* ------------------------------------------------------------ solving */
+
+static int run_kinsol(eqpi_system *s, const double *u0, long *iters)
+{
+  memcpy(N_VGetArrayPointer(s->u), u0, sizeof(double) * (size_t)s->n);
+  s->kin_err[0] = '\0';
+  int flag = KINSol(s->kmem, s->u, KIN_LINESEARCH, s->scale, s->scale);
+  long it = 0;
+  KINGetNumNonlinSolvIters(s->kmem, &it);
+  *iters += it;
+  return flag;
+}
+
+static int fail_converge(eqp_ctx *ctx, eqpi_system *s, int flag, long iters)
+{
+  if (s->plugin_failed)
+    return eqpi_fail(ctx, EQP_E_PLUGIN, "activity model '%s' failed: %s",
+                     s->model->desc->name, s->plugin_err);
+  char res[512];
+  size_t used = 0;
+  double *F = s->xt + s->n;
+  s->lambda = 1;
+  res[0] = '\0';
+  if (eqpi_sys_eval(s, N_VGetArrayPointer(s->u), F) == 0)
+    for (int k = 0; k < s->n && used < sizeof res; k++)
+      used += (size_t)snprintf(res + used, sizeof res - used, "%s%s %.2e", k ? ", " : "",
+                               eqpi_sys_row_name(s, k), F[k]);
+  char names[256];
+  used = 0;
+  for (int k = 0; k < s->nx && used < sizeof names; k++)
+    used += (size_t)snprintf(names + used, sizeof names - used, "%s%s", k ? ", " : "",
+                             eqpi_sys_row_name(s, k));
+  return eqpi_fail(ctx, EQP_E_CONVERGE, "no convergence for the system {%s} at %.2f C with "
+                   "model '%s': KINSOL stopped with %s after %ld iterations%s%s; last scaled "
+                   "residuals: %s", names, s->Tk - 273.15, s->model->desc->name,
+                   kin_flag_name(flag), iters, s->kin_err[0] ? ": " : "", s->kin_err, res);
+}
+
+static int solve_from(eqpi_system *s, double *u0, long *iters)
+{
+  s->lambda = 1;
+  int flag = run_kinsol(s, u0, iters);
+  return flag;
+}
+
+int eqpi_system_solve(eqp_ctx *ctx, eqpi_system **sysp, const double *totals, double T,
+                      eqpi_model *model, eqpi_solve_stats *stats)
+{
+  int rc = prepare(ctx, sysp, totals, T, model);
+  if (rc < 0) return rc;
+  eqpi_system *s = *sysp;
+  double ustart[64], *u = s->n <= 64 ? ustart : eqpi_malloc(ctx, sizeof(double) * (size_t)s->n);
+  if (!u) return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
+  long iters = 0;
+  int flag = -1;
+  s->plugin_failed = 0;
+  if (s->solved) {
+    /* warm start: shift each component by the change of its total */
+    memcpy(u, s->u_last, sizeof(double) * (size_t)s->n);
+    for (int k = 0; k < s->nx; k++) {
+      int c = s->xcomp[k];
+      if (c != s->hloc && s->tot_last[c] > 0) u[k] += log(s->tot[c] / s->tot_last[c]);
+    }
+    flag = solve_from(s, u, &iters);
+  }
+  if (flag < 0 && !s->plugin_failed) {
+    eqpi_sys_coldstart(s, u);
+    flag = solve_from(s, u, &iters);
+  }
+  /* continuation in the activity model, ideal -> full, each step starting
+  ** where the last one stopped; only the last must converge */
+  if (flag < 0 && !s->plugin_failed) {
+    eqpi_sys_coldstart(s, u);
+    for (int step = 1; step <= 4 && !s->plugin_failed; step++) {
+      s->lambda = 0.25 * step;
+      flag = run_kinsol(s, u, &iters);
+      memcpy(u, N_VGetArrayPointer(s->u), sizeof(double) * (size_t)s->n);
+    }
+  }
+  s->lambda = 1;
+  if (flag < 0) {
+    rc = fail_converge(ctx, s, flag, iters);
+    s->solved = false;
+    goto out;
+  }
+  int worst;
+  double *ufin = N_VGetArrayPointer(s->u);
+  double r = eqpi_sys_verify(s, ufin, &worst);
+  if (!(r <= EQPI_VERIFY_TOL)) {
+    /* one more pass from the converged point before giving up */
+    memcpy(u, ufin, sizeof(double) * (size_t)s->n);
+    flag = run_kinsol(s, u, &iters);
+    r = eqpi_sys_verify(s, ufin, &worst);
+  }
+  if (!(r <= EQPI_VERIFY_TOL)) {
+    s->solved = false;
+    rc = eqpi_fail(ctx, EQP_E_VERIFY, "refusing the result: after the solve the %s balance "
+                   "has relative residual %.3e (limit %.0e), KINSOL %s after %ld iterations",
+                   eqpi_sys_row_name(s, worst), r, EQPI_VERIFY_TOL, kin_flag_name(flag), iters);
+    goto out;
+  }
+  memcpy(s->u_last, ufin, sizeof(double) * (size_t)s->n);
+  memcpy(s->tot_last, s->tot, sizeof(double) * (size_t)s->nc);
+  s->solved = true;
+  if (stats) {
+    stats->iterations = iters;
+    stats->residual = r;
+    stats->missing_T = s->missing_T;
+  }
+  rc = EQP_OK;
+out:
+  if (u != ustart) eqpi_free(ctx, u, sizeof(double) * (size_t)s->n);
+  return rc;
+}
+
+int eqpi_system_nspecies(const eqpi_system *sys) { return sys ? sys->ns : 0; }
+
+int eqpi_system_species(const eqpi_system *sys, int i, double *m, double *lg)
+{
+  *m = sys->m[i];
+  *lg = sys->lg[i];
+  return sys->sp[i];
+}
+
+double eqpi_system_ionic_strength(const eqpi_system *sys)
+{
+  double I = 0;
+  for (int i = 0; i < sys->ns; i++) I += 0.5 * sys->z2[i] * sys->m[i];
+  return I;
+}

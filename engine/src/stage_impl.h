@@ -1,0 +1,67 @@
+/* The staging area filled by the species loader and checked on commit. */
+/* SPDX-License-Identifier: MIT */
+#ifndef EQP_STAGE_IMPL_H
+#define EQP_STAGE_IMPL_H
+
+#include "eqp_impl.h"
+
+struct lua_State;
+
+typedef struct st_pair {
+  const char *name;
+  double nu;
+} st_pair;
+
+typedef struct st_species {
+  const char *name, *formula, *size_source, *file;
+  double size;
+  int line;
+} st_species;
+
+typedef struct st_reaction {
+  const char *product, *source, *file;
+  st_pair *r;
+  int n;
+  double logK, dH, dCp;   /* formation reaction of product */
+  int line;
+} st_reaction;
+
+typedef struct st_reagent {
+  const char *name, *formula, *file;
+  const char **aliases;
+  int naliases;
+  st_pair *gives;
+  int n;                  /* 0: the reagent is the species of the same name */
+  double hydrate, density;
+  const char **hazards;
+  int nhazards;
+  int line;
+} st_reagent;
+
+struct eqpi_stage {
+  eqpi_arena *arena;
+  st_species *sp;
+  int nsp, capsp;
+  st_reaction *rx;
+  int nrx, caprx;
+  st_reagent *rg;
+  int nrg, caprg;
+  const char **files;
+  int nfiles, capfiles;
+  char err[EQPI_ERRLEN];
+  size_t errused;
+  int nerr;
+};
+
+/* Append a "file:line: message" to the stage's error list. */
+void eqpi_stage_error(eqpi_stage *st, const char *file, int line, const char *fmt, ...)
+  EQPI_PRINTF(4, 5);
+/* Grow one of the stage's arrays by one element; returns it zeroed. */
+void *eqpi_stage_push(eqp_ctx *ctx, eqpi_stage *st, void **arr, int *n, int *cap, size_t elem);
+
+/* Convert the species table at idx of L into stage entries. lm may be NULL
+** (inline tables), then every message carries file as given. */
+int eqpi_stage_from_table(eqp_ctx *ctx, eqpi_stage *st, struct lua_State *L, int idx,
+                          const eqpi_linemap *lm, const char *file);
+
+#endif

@@ -1,0 +1,259 @@
+/* Tableau assembly and the residual of the equilibrium equations.
+**
+** Unknowns are x_j = ln m_j of each component's free molality and ln I.
+** Species follow from mass action (DESIGN s.3):
+**   ln m_i = ln K_i + sum_j nu_ij (x_j + ln g_j) - ln g_i
+** Each mass balance is scaled by sum_i |nu_ij| m_i so every row is O(1);
+** the ionic strength row is ln(1/2 sum z^2 m) - ln I. Components that form
+** no species but their own (spectators such as Na+ here) are fixed at their
+** totals and drop out of the unknowns. */
+/* SPDX-License-Identifier: MIT */
+#include "system_impl.h"
+#include <math.h>
+#include <string.h>
+
+#define LNMAX 700.0      /* keep exp() finite during wild iterates */
+
+static double clamp_exp(double s) { return exp(s > LNMAX ? LNMAX : s); }
+
+int eqpi_sys_eval(eqpi_system *sys, const double *u, double *F)
+{
+  const int nc = sys->nc, ns = sys->ns, nx = sys->nx;
+  for (int c = 0; c < nc; c++)
+    sys->lnfree[c] = sys->xidx[c] < 0 ? sys->lnfix[c] : u[sys->xidx[c]];
+  double lnI = u[nx], I = exp(lnI);
+  for (int i = 0; i < ns; i++) {
+    const double *row = sys->nu + (size_t)i * nc;
+    double s = sys->lnK[i];
+    for (int c = 0; c < nc; c++) s += row[c] * sys->lnfree[c];
+    sys->s0[i] = s;
+    sys->mid[i] = clamp_exp(s);
+  }
+  if (sys->lambda != 0) {
+    eqp_activity_in in = {(size_t)ns, sys->z, sys->size, sys->mid, I, sys->Tk, sys->A, sys->B};
+    if (sys->model->ops->log_gamma(sys->model->state, &in, sys->lg, sys->plugin_err,
+                                   sizeof sys->plugin_err) != 0) {
+      sys->plugin_failed = 1;
+      return -1;
+    }
+    for (int i = 0; i < ns; i++) {
+      if (!isfinite(sys->lg[i])) {
+        sys->plugin_failed = 1;
+        strcpy(sys->plugin_err, "activity model returned a non-finite log gamma");
+        return -1;
+      }
+      sys->lng[i] = sys->lambda * EQPI_LN10 * sys->lg[i];
+    }
+    for (int i = 0; i < ns; i++) {
+      const double *row = sys->nu + (size_t)i * nc;
+      double s = sys->s0[i] - sys->lng[i];
+      for (int c = 0; c < nc; c++) s += row[c] * sys->lng[sys->comp_sp[c]];
+      sys->m[i] = clamp_exp(s);
+    }
+  } else {
+    for (int i = 0; i < ns; i++) {
+      sys->lg[i] = sys->lng[i] = 0;
+      sys->m[i] = sys->mid[i];
+    }
+  }
+  for (int k = 0; k < nx; k++) {
+    int c = sys->xcomp[k];
+    double R = -sys->tot[c], S = 0;
+    for (int i = 0; i < ns; i++) {
+      double v = sys->nu[(size_t)i * nc + c] * sys->m[i];
+      R += v;
+      S += fabs(v);
+    }
+    F[k] = R / (S > 1e-300 ? S : 1e-300);
+  }
+  double Ic = 0;
+  for (int i = 0; i < ns; i++) Ic += sys->z2[i] * sys->m[i];
+  Ic *= 0.5;
+  F[nx] = log(Ic > 1e-300 ? Ic : 1e-300) - lnI;
+  return 0;
+}
+
+double eqpi_sys_verify(eqpi_system *sys, const double *u, int *worst)
+{
+  double lam = sys->lambda;
+  sys->lambda = 1;
+  double *F = sys->g;  /* n entries of scratch */
+  double w = INFINITY;
+  *worst = -1;
+  if (eqpi_sys_eval(sys, u, F) == 0) {
+    w = 0;
+    for (int k = 0; k <= sys->nx; k++) {
+      double r = fabs(F[k]);
+      if (k == sys->nx) r = fabs(expm1(F[k]));   /* relative ionic strength */
+      if (!(r <= w)) { w = r; *worst = k; }
+    }
+    /* Charge balance is implied by neutral totals; check it independently. */
+    double q = 0, qa = 0;
+    for (int i = 0; i < sys->ns; i++) {
+      q += sys->z[i] * sys->m[i];
+      qa += fabs(sys->z[i]) * sys->m[i];
+    }
+    double r = qa > 0 ? fabs(q) / qa : 0;
+    if (!(r <= w)) { w = r; *worst = sys->n; }
+  }
+  sys->lambda = lam;
+  return w;
+}
+
+const char *eqpi_sys_row_name(const eqpi_system *sys, int k)
+{
+  if (k < 0) return "?";
+  if (k < sys->nx) return sys->ctx->db.sp[sys->sp[sys->comp_sp[sys->xcomp[k]]]].name;
+  return k == sys->nx ? "ionic strength" : "charge";
+}
+
+int eqpi_sys_precond(eqpi_system *sys)
+{
+  const int n = sys->n, nx = sys->nx, nc = sys->nc, ns = sys->ns;
+  double *J = sys->J;
+  memset(J, 0, sizeof *J * (size_t)n * (size_t)n);
+  for (int k = 0; k < nx; k++) {
+    int c = sys->xcomp[k];
+    double S = 0;
+    for (int i = 0; i < ns; i++) S += fabs(sys->nu[(size_t)i * nc + c]) * sys->m[i];
+    S = S > 1e-300 ? S : 1e-300;
+    for (int l = 0; l < nx; l++) {
+      int d = sys->xcomp[l];
+      double v = 0;
+      for (int i = 0; i < ns; i++)
+        v += sys->nu[(size_t)i * nc + c] * sys->nu[(size_t)i * nc + d] * sys->m[i];
+      J[k * n + l] = v / S;
+    }
+  }
+  double Ic = 0;
+  for (int i = 0; i < ns; i++) Ic += 0.5 * sys->z2[i] * sys->m[i];
+  Ic = Ic > 1e-300 ? Ic : 1e-300;
+  for (int l = 0; l < nx; l++) {
+    int d = sys->xcomp[l];
+    double v = 0;
+    for (int i = 0; i < ns; i++) v += 0.5 * sys->z2[i] * sys->nu[(size_t)i * nc + d] * sys->m[i];
+    J[nx * n + l] = v / Ic;
+  }
+  J[nx * n + nx] = -1.0;
+  return eqpi_lu_factor(J, sys->piv, n);
+}
+
+int eqpi_lu_factor(double *A, int *piv, int n)
+{
+  for (int k = 0; k < n; k++) {
+    int p = k;
+    double best = fabs(A[k * n + k]);
+    for (int i = k + 1; i < n; i++)
+      if (fabs(A[i * n + k]) > best) { best = fabs(A[i * n + k]); p = i; }
+    piv[k] = p;
+    if (!(best > 0)) return -1;
+    if (p != k)
+      for (int j = 0; j < n; j++) {
+        double t = A[k * n + j];
+        A[k * n + j] = A[p * n + j];
+        A[p * n + j] = t;
+      }
+    double inv = 1.0 / A[k * n + k];
+    for (int i = k + 1; i < n; i++) {
+      double f = A[i * n + k] *= inv;
+      for (int j = k + 1; j < n; j++) A[i * n + j] -= f * A[k * n + j];
+    }
+  }
+  return 0;
+}
+
+void eqpi_lu_solve(const double *A, const int *piv, int n, double *b)
+{
+  for (int k = 0; k < n; k++) {
+    if (piv[k] != k) { double t = b[k]; b[k] = b[piv[k]]; b[piv[k]] = t; }
+    for (int i = k + 1; i < n; i++) b[i] -= A[i * n + k] * b[k];
+  }
+  for (int k = n - 1; k >= 0; k--) {
+    for (int j = k + 1; j < n; j++) b[k] -= A[k * n + j] * b[j];
+    b[k] /= A[k * n + k];
+  }
+}
+
+/* Potential whose gradient is the ideal mass balance: G = sum m - sum T x. */
+static double potential(eqpi_system *sys, const double *u)
+{
+  eqpi_sys_eval(sys, u, sys->xt + sys->n);
+  double G = 0;
+  for (int i = 0; i < sys->ns; i++) G += sys->m[i];
+  for (int k = 0; k < sys->nx; k++) G -= sys->tot[sys->xcomp[k]] * u[k];
+  return G;
+}
+
+static double max_scaled(const eqpi_system *sys, const double *F)
+{
+  double w = 0;
+  for (int k = 0; k < sys->nx; k++) w = fabs(F[k]) > w ? fabs(F[k]) : w;
+  return w;
+}
+
+/* Ideal solutions minimise a strictly convex function of the log
+** concentrations, so damped Newton with an Armijo line search converges from
+** any start; this gives KINSOL an iterate inside its region of fast
+** convergence. */
+int eqpi_sys_coldstart(eqpi_system *sys, double *u)
+{
+  const int nx = sys->nx, n = sys->n;
+  double lam = sys->lambda;
+  double *F = sys->xt + n;          /* n scratch after the n of xt */
+  sys->lambda = 0;
+  for (int k = 0; k < nx; k++) {
+    int c = sys->xcomp[k];
+    u[k] = c == sys->hloc ? log(1e-7) : log(sys->tot[c]);
+  }
+  u[nx] = 0;
+  int ok = -1;
+  for (int it = 0; it < 400; it++) {
+    double G = potential(sys, u);
+    double res = max_scaled(sys, F);
+    if (res < 1e-9) { ok = 0; break; }
+    /* gradient and Hessian of G over the unknown components */
+    for (int k = 0; k < nx; k++) {
+      int c = sys->xcomp[k];
+      double g = -sys->tot[c];
+      for (int i = 0; i < sys->ns; i++) g += sys->nu[(size_t)i * sys->nc + c] * sys->m[i];
+      sys->g[k] = g;
+      for (int l = 0; l < nx; l++) {
+        int d = sys->xcomp[l];
+        double h = 0;
+        for (int i = 0; i < sys->ns; i++)
+          h += sys->nu[(size_t)i * sys->nc + c] * sys->nu[(size_t)i * sys->nc + d] * sys->m[i];
+        sys->J[k * nx + l] = h;
+      }
+      sys->d[k] = -g;
+    }
+    if (eqpi_lu_factor(sys->J, sys->piv, nx) < 0) break;
+    eqpi_lu_solve(sys->J, sys->piv, nx, sys->d);
+    double dmax = 0, slope = 0;
+    for (int k = 0; k < nx; k++) {
+      dmax = fabs(sys->d[k]) > dmax ? fabs(sys->d[k]) : dmax;
+      slope += sys->g[k] * sys->d[k];
+    }
+    double t = dmax > 4.0 ? 4.0 / dmax : 1.0;
+    int moved = 0;
+    for (int ls = 0; ls < 60; ls++, t *= 0.5) {
+      for (int k = 0; k < nx; k++) sys->xt[k] = u[k] + t * sys->d[k];
+      sys->xt[nx] = u[nx];
+      double Gt = potential(sys, sys->xt);
+      /* near the solution G is flat to rounding: accept any step that
+      ** reduces the scaled residual instead */
+      if (Gt <= G + 1e-4 * t * slope || max_scaled(sys, F) < res) {
+        moved = 1;
+        break;
+      }
+    }
+    if (!moved) break;
+    memcpy(u, sys->xt, sizeof *u * (size_t)nx);
+  }
+  /* ionic strength of the ideal solution as the start of ln I */
+  potential(sys, u);
+  double Ic = 0;
+  for (int i = 0; i < sys->ns; i++) Ic += 0.5 * sys->z2[i] * sys->m[i];
+  u[nx] = log(Ic > 1e-300 ? Ic : 1e-300);
+  sys->lambda = lam;
+  return ok;
+}

@@ -1,0 +1,72 @@
+/* The active equilibrium system of one solution and its solver state. */
+/* SPDX-License-Identifier: MIT */
+#ifndef EQP_SYSTEM_IMPL_H
+#define EQP_SYSTEM_IMPL_H
+
+#include "eqp_impl.h"
+#include <kinsol/kinsol.h>
+#include <nvector/nvector_serial.h>
+#include <sundials/sundials_context.h>
+#include <sunlinsol/sunlinsol_spgmr.h>
+
+struct eqpi_system {
+  eqp_ctx *ctx;
+  unsigned generation;  /* database generation the tableau was built from */
+  int ncg;              /* global component count at build time */
+  unsigned char *active;/* ncg flags: which components are present */
+  double Tk;            /* temperature of lnK, K */
+  /* components present (water excluded) */
+  int nc;
+  int *comp;            /* global component index */
+  int *comp_sp;         /* local species index of each component's own species */
+  int *xidx;            /* unknown index of a component, -1 when fixed */
+  double *tot;          /* totals, mol/kg */
+  double *lnfix;        /* ln total of fixed (spectator) components */
+  int nx;               /* unknown components; unknown nx is ln I */
+  int n;                /* nx + 1 */
+  int *xcomp;           /* local component of unknown k */
+  int hloc;             /* local index of H+ */
+  /* species present */
+  int ns;
+  int *sp;              /* global species index */
+  double *lnK;          /* natural log of the overall formation constant */
+  double *nu;           /* ns x nc, row-major */
+  double *z, *z2, *size;
+  int missing_T;
+  /* work arrays */
+  double *lnfree, *s0, *mid, *lg, *lng, *m;
+  double *J;
+  int *piv;
+  double *g, *d, *xt;   /* cold start */
+  double lambda;        /* continuation weight on ln gamma */
+  double A, B;
+  eqpi_model *model;
+  char plugin_err[256];
+  int plugin_failed;
+  /* KINSOL, one instance reused between solves */
+  SUNContext sun;
+  void *kmem;
+  N_Vector u, scale;
+  SUNLinearSolver LS;
+  char kin_err[256];
+  /* the last converged state, for warm starts */
+  bool solved;
+  double *u_last;
+  double *tot_last;
+};
+
+/* Evaluate the scaled residual F(u) (n entries). Returns 0, or -1 when the
+** activity model failed. */
+int eqpi_sys_eval(eqpi_system *sys, const double *u, double *F);
+/* Largest relative residual of the balances and ionic strength at u, after
+** a fresh evaluation with lambda = 1; worst receives the offending row. */
+double eqpi_sys_verify(eqpi_system *sys, const double *u, int *worst);
+/* Fill sys->J with the ideal Jacobian at the state of the last eval and
+** factor it. Returns 0 or -1 if singular. */
+int eqpi_sys_precond(eqpi_system *sys);
+/* Ideal-solution start: Newton on the convex potential. u receives the
+** unknowns. Returns 0 or -1 if it did not reach the tolerance. */
+int eqpi_sys_coldstart(eqpi_system *sys, double *u);
+const char *eqpi_sys_row_name(const eqpi_system *sys, int k);
+
+#endif

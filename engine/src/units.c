@@ -1,0 +1,133 @@
+/* Quantities with units: "12.5 mmol", "1.42 g", "25 mM", "10 mL", "37 C". */
+/* SPDX-License-Identifier: MIT */
+#include "eqp_impl.h"
+#include <ctype.h>
+#include <errno.h>
+#include <math.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+
+typedef struct unit_def {
+  const char *sym;
+  eqp_quantity kind;
+  double factor;       /* to the base unit of its kind */
+  double offset;       /* temperatures only */
+} unit_def;
+
+/* "u" stands for micro; "µ" (U+00B5) and "μ" (U+03BC) are mapped to it. */
+static const unit_def units[] = {
+  {"mol", EQP_Q_AMOUNT, 1.0, 0},     {"mmol", EQP_Q_AMOUNT, 1e-3, 0},
+  {"umol", EQP_Q_AMOUNT, 1e-6, 0},   {"nmol", EQP_Q_AMOUNT, 1e-9, 0},
+  {"kg", EQP_Q_MASS, 1.0, 0},        {"g", EQP_Q_MASS, 1e-3, 0},
+  {"mg", EQP_Q_MASS, 1e-6, 0},       {"ug", EQP_Q_MASS, 1e-9, 0},
+  {"M", EQP_Q_MOLARITY, 1.0, 0},     {"mM", EQP_Q_MOLARITY, 1e-3, 0},
+  {"uM", EQP_Q_MOLARITY, 1e-6, 0},   {"nM", EQP_Q_MOLARITY, 1e-9, 0},
+  {"mol/L", EQP_Q_MOLARITY, 1.0, 0}, {"mmol/L", EQP_Q_MOLARITY, 1e-3, 0},
+  {"mol/kg", EQP_Q_MOLALITY, 1.0, 0},{"mmol/kg", EQP_Q_MOLALITY, 1e-3, 0},
+  {"umol/kg", EQP_Q_MOLALITY, 1e-6, 0},
+  {"L", EQP_Q_VOLUME, 1.0, 0},       {"mL", EQP_Q_VOLUME, 1e-3, 0},
+  {"uL", EQP_Q_VOLUME, 1e-6, 0},
+  {"K", EQP_Q_TEMPERATURE, 1.0, 0},  {"C", EQP_Q_TEMPERATURE, 1.0, 273.15},
+  {"degC", EQP_Q_TEMPERATURE, 1.0, 273.15},
+};
+
+static const char *kind_names(unsigned mask, char *buf, size_t len)
+{
+  static const struct { unsigned k; const char *n; } names[] = {
+    {EQP_Q_AMOUNT, "an amount (mol, mmol, umol)"},
+    {EQP_Q_MASS, "a mass (kg, g, mg, ug)"},
+    {EQP_Q_MOLARITY, "a concentration (M, mM, uM)"},
+    {EQP_Q_MOLALITY, "a molality (mol/kg, mmol/kg)"},
+    {EQP_Q_VOLUME, "a volume (L, mL, uL)"},
+    {EQP_Q_TEMPERATURE, "a temperature (K, C)"},
+  };
+  size_t used = 0;
+  buf[0] = '\0';
+  for (size_t i = 0; i < sizeof names / sizeof names[0]; i++)
+    if ((mask & names[i].k) && used < len)
+      used += (size_t)snprintf(buf + used, len - used, "%s%s", used ? " or " : "", names[i].n);
+  return buf;
+}
+
+/* Copy the unit, mapping the micro signs to 'u'. */
+static int normalise_unit(const char *p, char *out, size_t len)
+{
+  size_t o = 0;
+  while (*p && o + 1 < len) {
+    unsigned char c = (unsigned char)*p;
+    if (c == 0xC2 && (unsigned char)p[1] == 0xB5) { out[o++] = 'u'; p += 2; }
+    else if (c == 0xCE && (unsigned char)p[1] == 0xBC) { out[o++] = 'u'; p += 2; }
+    else if (c == 0xC2 && (unsigned char)p[1] == 0xB0) { p += 2; } /* degree sign */
+    else { out[o++] = (char)c; p++; }
+  }
+  out[o] = '\0';
+  while (o > 0 && isspace((unsigned char)out[o - 1])) out[--o] = '\0';
+  return *p ? -1 : 0;
+}
+
+int eqpi_parse_quantity(const char *text, unsigned allowed, double *value,
+                        eqp_quantity *kind, char *err, size_t errlen)
+{
+  char want[200], unit[32];
+  const char *p = text;
+  while (isspace((unsigned char)*p)) p++;
+  errno = 0;
+  char *end;
+  double v = strtod(p, &end);
+  if (end == p || errno == ERANGE || !isfinite(v) ||
+      (end > p && (end[-1] == '.' && end - p == 1))) {
+    snprintf(err, errlen, "'%s' is not a number with a unit (expected %s)", text,
+             kind_names(allowed, want, sizeof want));
+    return -1;
+  }
+  /* strtod takes "inf", "nan" and hex; a quantity is a plain decimal. */
+  for (const char *q = p; q < end; q++)
+    if (!(isdigit((unsigned char)*q) || strchr("+-.eE", *q))) {
+      snprintf(err, errlen, "'%s' is not a plain decimal number", text);
+      return -1;
+    }
+  while (isspace((unsigned char)*end)) end++;
+  if (!*end) {
+    snprintf(err, errlen, "'%s' has no unit (expected %s)", text,
+             kind_names(allowed, want, sizeof want));
+    return -1;
+  }
+  if (normalise_unit(end, unit, sizeof unit) < 0) {
+    snprintf(err, errlen, "unknown unit in '%s'", text);
+    return -1;
+  }
+  const unit_def *u = NULL;
+  for (size_t i = 0; i < sizeof units / sizeof units[0]; i++)
+    if (strcmp(units[i].sym, unit) == 0) u = &units[i];
+  if (!u) {
+    snprintf(err, errlen, "unknown unit '%s' in '%s' (expected %s)", unit, text,
+             kind_names(allowed, want, sizeof want));
+    return -1;
+  }
+  if (!(allowed & u->kind)) {
+    char got[64];
+    snprintf(err, errlen, "'%s' is %s, expected %s", text,
+             kind_names(u->kind, got, sizeof got), kind_names(allowed, want, sizeof want));
+    return -1;
+  }
+  double base = v * u->factor + u->offset;
+  if (u->kind == EQP_Q_TEMPERATURE ? !(base > 0) : v < 0) {
+    snprintf(err, errlen, "'%s' is negative%s", text,
+             u->kind == EQP_Q_TEMPERATURE ? " on the kelvin scale" : "");
+    return -1;
+  }
+  *value = base;
+  if (kind) *kind = u->kind;
+  return 0;
+}
+
+int eqp_parse_quantity(eqp_ctx *ctx, const char *text, unsigned allowed,
+                       double *value, eqp_quantity *kind)
+{
+  if (!ctx || !text || !value) return eqpi_fail(ctx, EQP_E_ARG, "NULL argument");
+  char err[EQPI_ERRLEN];
+  if (eqpi_parse_quantity(text, allowed, value, kind, err, sizeof err) < 0)
+    return eqpi_fail(ctx, EQP_E_INPUT, "%s", err);
+  return EQP_OK;
+}

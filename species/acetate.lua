@@ -1,0 +1,25 @@
+-- Acetic acid and its sodium and potassium salts.
+return {
+  system = "acetate",
+  sources = {
+    goldberg2002 = "R. N. Goldberg, N. Kishore, R. M. Lennen, 'Thermodynamic quantities for the ionization reactions of buffers', J. Phys. Chem. Ref. Data 31, 231-370 (2002), 298.15 K, I = 0 [values from memory, high confidence]",
+    kielland1937 = "J. Kielland, J. Am. Chem. Soc. 59, 1675 (1937): ion-size parameters [ion assignments from memory]",
+  },
+  size_source = "kielland1937",
+  species = {
+    { "CH3COOH" },
+    { "CH3COO-", size = 4.5 },
+  },
+  acids = {
+    -- dH, dCp: of the ionization, kJ/mol and J/(K mol)
+    { "CH3COOH", "CH3COO-", pKa = 4.756, dH = -0.41, dCp = -142, source = "goldberg2002" },
+  },
+  reagents = {
+    { "CH3COOH", names = { "acetic acid", "glacial acetic acid" }, density = 1.049,
+      hazards = { "corrosive", "flammable" },
+      note = "density of the glacial acid near 20 C, CRC Handbook [from memory]" },
+    { "CH3COONa", gives = { ["Na+"] = 1, ["CH3COO-"] = 1 }, names = { "sodium acetate" },
+      hydrates = { 3 } },
+    { "CH3COOK", gives = { ["K+"] = 1, ["CH3COO-"] = 1 }, names = { "potassium acetate" } },
+  },
+}

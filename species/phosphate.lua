@@ -1,0 +1,36 @@
+-- Orthophosphoric acid and its sodium and potassium salts.
+return {
+  system = "phosphate",
+  sources = {
+    goldberg2002 = "R. N. Goldberg, N. Kishore, R. M. Lennen, 'Thermodynamic quantities for the ionization reactions of buffers', J. Phys. Chem. Ref. Data 31, 231-370 (2002), 298.15 K, I = 0 [values from memory; pK3 and its dH medium-high confidence]",
+    kielland1937 = "J. Kielland, J. Am. Chem. Soc. 59, 1675 (1937): ion-size parameters [ion assignments from memory]",
+  },
+  size_source = "kielland1937",
+  species = {
+    { "H3PO4" },
+    { "H2PO4-", size = 4.5 },
+    { "HPO4-2", size = 4 },
+    { "PO4-3", size = 4 },
+  },
+  acids = {
+    -- dH, dCp: of each ionization, kJ/mol and J/(K mol)
+    { "H3PO4", "H2PO4-", "HPO4-2", "PO4-3",
+      pKa = { 2.148, 7.198, 12.35 }, dH = { -8.0, 3.6, 16.0 }, dCp = { -141, -230, -242 },
+      source = "goldberg2002" },
+  },
+  reagents = {
+    { "H3PO4", names = { "phosphoric acid", "orthophosphoric acid" }, hazards = { "corrosive" } },
+    { "NaH2PO4", gives = { ["Na+"] = 1, ["H2PO4-"] = 1 },
+      names = { "sodium dihydrogen phosphate", "monosodium phosphate" }, hydrates = { 1, 2 } },
+    { "Na2HPO4", gives = { ["Na+"] = 2, ["HPO4-2"] = 1 },
+      names = { "disodium hydrogen phosphate", "disodium phosphate" }, hydrates = { 2, 7, 12 } },
+    { "Na3PO4", gives = { ["Na+"] = 3, ["PO4-3"] = 1 }, names = { "trisodium phosphate" },
+      hydrates = { 12 }, hazards = { "irritant" } },
+    { "KH2PO4", gives = { ["K+"] = 1, ["H2PO4-"] = 1 },
+      names = { "potassium dihydrogen phosphate", "monopotassium phosphate" } },
+    { "K2HPO4", gives = { ["K+"] = 2, ["HPO4-2"] = 1 },
+      names = { "dipotassium hydrogen phosphate", "dipotassium phosphate" }, hydrates = { 3 } },
+    { "K3PO4", gives = { ["K+"] = 3, ["PO4-3"] = 1 }, names = { "tripotassium phosphate" },
+      hazards = { "irritant" } },
+  },
+}

@@ -1,0 +1,20 @@
+-- Tris(hydroxymethyl)aminomethane and its hydrochloride.
+return {
+  system = "Tris",
+  sources = {
+    goldberg2002 = "R. N. Goldberg, N. Kishore, R. M. Lennen, 'Thermodynamic quantities for the ionization reactions of buffers', J. Phys. Chem. Ref. Data 31, 231-370 (2002), 298.15 K, I = 0 [values from memory, high confidence; dH agrees with 47.53 kJ/mol of the ORNL study, J. Solution Chem. 16 (1987)]",
+  },
+  species = {
+    { "Tris", formula = "C4H11NO3" },
+    { "TrisH+", formula = "C4H12NO3+" },
+  },
+  acids = {
+    { "TrisH+", "Tris", pKa = 8.072, dH = 47.45, dCp = -59, source = "goldberg2002" },
+  },
+  reagents = {
+    { "Tris", names = { "Tris base", "tromethamine", "tris(hydroxymethyl)aminomethane" },
+      hazards = { "irritant" } },
+    { "TrisHCl", formula = "C4H11NO3.HCl", gives = { ["TrisH+"] = 1, ["Cl-"] = 1 },
+      names = { "Tris hydrochloride", "Tris-HCl" }, hazards = { "irritant" } },
+  },
+}
