@@ -6,6 +6,8 @@
 #include <math.h>
 #include <stdio.h>
 #include <string.h>
+#include <stdlib.h>
+#include <kinsol/kinsol_ls.h>
 
 static const char *kin_flag_name(int flag)
 {
@@ -22,6 +24,8 @@ static const char *kin_flag_name(int flag)
   return "KIN_UNKNOWN_FLAG";
 }
 
+#define FNORM_TOL 1e-13   /* max-norm of the scaled residual at convergence */
+
 /* ------------------------------------------------------------ KINSOL hooks */
 
 static int kin_f(N_Vector uu, N_Vector fval, void *ud)
@@ -32,9 +36,7 @@ static int kin_f(N_Vector uu, N_Vector fval, void *ud)
 static int kin_psetup(N_Vector uu, N_Vector uscale, N_Vector fval, N_Vector fscale, void *ud)
 {
   eqpi_system *sys = ud;
-  /* the last evaluation may have been a difference quotient near uu */
-  if (eqpi_sys_eval(sys, N_VGetArrayPointer(uu), sys->xt) < 0) return -1;
-  return eqpi_sys_precond(sys) < 0 ? 1 : 0;
+  return eqpi_sys_precond(sys, N_VGetArrayPointer(uu)) < 0 ? 1 : 0;
 }
 
 static int kin_psolve(N_Vector uu, N_Vector uscale, N_Vector fval, N_Vector fscale,
@@ -84,11 +86,12 @@ static int kinsol_setup(eqpi_system *sys)
     return -1;
   KINSetMaxSetupCalls(sys->kmem, 1);
   KINSetNumMaxIters(sys->kmem, 200);
-  KINSetFuncNormTol(sys->kmem, 1e-13);
+  KINSetFuncNormTol(sys->kmem, FNORM_TOL);
   KINSetScaledStepTol(sys->kmem, 1e-15);
   /* a log-variable step of more than ~10 per unknown only overshoots */
   KINSetMaxNewtonStep(sys->kmem, 10.0 * sqrt((double)n));
   KINSetPrintLevel(sys->kmem, 0);
+  if (getenv("EQP_ETA")) { KINSetEtaForm(sys->kmem, KIN_ETACONSTANT); KINSetEtaConstValue(sys->kmem, atof(getenv("EQP_ETA"))); }
   return 0;
 }
 
@@ -287,11 +290,25 @@ static int prepare(eqp_ctx *ctx, eqpi_system **sysp, const double *totals, doubl
 
 static int run_kinsol(eqpi_system *s, const double *u0, long *iters)
 {
-  memcpy(N_VGetArrayPointer(s->u), u0, sizeof(double) * (size_t)s->n);
+  double *uu = N_VGetArrayPointer(s->u);
+  memcpy(uu, u0, sizeof(double) * (size_t)s->n);
   s->kin_err[0] = '\0';
+  /* An already converged start (a repeated solve) would make KINSOL's line
+  ** search fail to find a distinct iterate; accept it as it is. */
+  double *F = s->xt + s->n, fmax = 0;
+  if (eqpi_sys_eval(s, uu, F) < 0) return KIN_SYSFUNC_FAIL;
+  for (int k = 0; k < s->n; k++) fmax = fabs(F[k]) > fmax ? fabs(F[k]) : fmax;
+  if (fmax <= FNORM_TOL) return KIN_SUCCESS;
   int flag = KINSol(s->kmem, s->u, KIN_LINESEARCH, s->scale, s->scale);
   long it = 0;
   KINGetNumNonlinSolvIters(s->kmem, &it);
+  if (getenv("EQP_DEBUG")) {
+    long nli = 0, nfe = 0, nbt = 0; double fn = 0;
+    KINGetNumLinIters(s->kmem, &nli); KINGetNumFuncEvals(s->kmem, &nfe);
+    KINGetNumBacktrackOps(s->kmem, &nbt); KINGetFuncNorm(s->kmem, &fn);
+    fprintf(stderr, "kinsol lambda %.2f flag %s it %ld lin %ld fev %ld bt %ld fnorm %.2e %s\n",
+            s->lambda, kin_flag_name(flag), it, nli, nfe, nbt, fn, s->kin_err);
+  }
   *iters += it;
   return flag;
 }

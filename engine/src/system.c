@@ -11,6 +11,8 @@
 #include "system_impl.h"
 #include <math.h>
 #include <string.h>
+#include <stdio.h>
+#include <stdlib.h>
 
 #define LNMAX 700.0      /* keep exp() finite during wild iterates */
 
@@ -107,7 +109,11 @@ const char *eqpi_sys_row_name(const eqpi_system *sys, int k)
   return k == sys->nx ? "ionic strength" : "charge";
 }
 
-int eqpi_sys_precond(eqpi_system *sys)
+/* The ideal Jacobian N^T diag(m) N, rows scaled as the residual, plus the
+** column of ln I by one forward difference: the activity coefficients act
+** through I, and without that column Newton directions at high ionic
+** strength are poor. u is the point of the last evaluation. */
+int eqpi_sys_precond(eqpi_system *sys, const double *u)
 {
   const int n = sys->n, nx = sys->nx, nc = sys->nc, ns = sys->ns;
   double *J = sys->J;
@@ -135,6 +141,16 @@ int eqpi_sys_precond(eqpi_system *sys)
     J[nx * n + l] = v / Ic;
   }
   J[nx * n + nx] = -1.0;
+  if (sys->lambda != 0) {
+    double *F0 = sys->xt + n, *F1 = sys->g, *up = sys->d;
+    memcpy(up, u, sizeof *up * (size_t)n);
+    if (eqpi_sys_eval(sys, up, F0) < 0) return -1;
+    const double h = 1e-7;
+    up[nx] += h;
+    if (eqpi_sys_eval(sys, up, F1) < 0) return -1;
+    for (int k = 0; k < n; k++) J[k * n + nx] = (F1[k] - F0[k]) / h;
+    eqpi_sys_eval(sys, u, F0);   /* leave the state at u */
+  }
   return eqpi_lu_factor(J, sys->piv, n);
 }
 
@@ -249,6 +265,7 @@ int eqpi_sys_coldstart(eqpi_system *sys, double *u)
     if (!moved) break;
     memcpy(u, sys->xt, sizeof *u * (size_t)nx);
   }
+  if (getenv("EQP_DEBUG")) fprintf(stderr, "coldstart ok %d\n", ok);
   /* ionic strength of the ideal solution as the start of ln I */
   potential(sys, u);
   double Ic = 0;

@@ -61,9 +61,8 @@ int eqpi_sys_eval(eqpi_system *sys, const double *u, double *F);
 /* Largest relative residual of the balances and ionic strength at u, after
 ** a fresh evaluation with lambda = 1; worst receives the offending row. */
 double eqpi_sys_verify(eqpi_system *sys, const double *u, int *worst);
-/* Fill sys->J with the ideal Jacobian at the state of the last eval and
-** factor it. Returns 0 or -1 if singular. */
-int eqpi_sys_precond(eqpi_system *sys);
+/* Fill sys->J with the preconditioner at u (system.c) and factor it. Returns 0 or -1 if singular. */
+int eqpi_sys_precond(eqpi_system *sys, const double *u);
 /* Ideal-solution start: Newton on the convex potential. u receives the
 ** unknowns. Returns 0 or -1 if it did not reach the tolerance. */
 int eqpi_sys_coldstart(eqpi_system *sys, double *u);
