@@ -536,14 +536,35 @@ static void sandbox_env(lua_State *L)
   }
 }
 
-static int open_sandbox_libs(lua_State *L)
+typedef struct run_args {
+  eqp_ctx *ctx;
+  eqpi_stage *st;
+  const char *text, *source;
+  size_t len;
+  const eqpi_linemap *lm;
+  int rc;
+} run_args;
+
+/* Everything that touches the Lua state runs here, under lua_pcall, so an
+** allocation failure or a limit becomes an error message, never a panic. */
+static int sandbox_run(lua_State *L)
 {
+  run_args *a = lua_touserdata(L, 1);
   luaL_requiref(L, "_G", luaopen_base, 1);
   luaL_requiref(L, "math", luaopen_math, 1);
   luaL_requiref(L, "string", luaopen_string, 1);
   luaL_requiref(L, "table", luaopen_table, 1);
   luaL_requiref(L, "utf8", luaopen_utf8, 1);
   lua_settop(L, 0);
+  char chunk[512];
+  snprintf(chunk, sizeof chunk, "@%s", a->source);
+  if (luaL_loadbufferx(L, a->text, a->len, chunk, "t") != LUA_OK) return lua_error(L);
+  sandbox_env(L);
+  lua_setupvalue(L, -2, 1);
+  lua_sethook(L, sandbox_hook, LUA_MASKCOUNT, 1000);
+  lua_call(L, 0, 1);
+  lua_sethook(L, NULL, 0, 0);
+  a->rc = eqpi_stage_from_table(a->ctx, a->st, L, -1, a->lm, a->source);
   return 0;
 }
 
@@ -552,34 +573,23 @@ int eqpi_load_text(eqp_ctx *ctx, eqpi_stage *st, const char *text, size_t len,
 {
   sandbox sb = {ctx, 0, 0};
   lua_State *L = lua_newstate(sandbox_alloc, &sb);
-  if (!L) return eqpi_fail(ctx, EQP_E_NOMEM, "%s: out of memory", source);
-  int rc = EQP_OK;
-  lua_pushcfunction(L, open_sandbox_libs);
-  if (lua_pcall(L, 0, 0, 0) != LUA_OK) {
-    lua_close(L);
-    return eqpi_fail(ctx, EQP_E_NOMEM, "%s: out of memory", source);
+  if (!L) {
+    eqpi_stage_error(st, source, 0, "out of memory");
+    return EQP_E_NOMEM;
   }
   eqpi_linemap *lm = eqpi_linemap_build(ctx, text, len);
-  char chunk[512];
-  snprintf(chunk, sizeof chunk, "@%s", source);
-  if (luaL_loadbufferx(L, text, len, chunk, "t") != LUA_OK) {
-    eqpi_stage_error(st, NULL, 0, "%s", lua_tostring(L, -1));
-    rc = EQP_E_DATA;
-    goto done;
-  }
-  sandbox_env(L);
-  lua_setupvalue(L, -2, 1);
-  lua_sethook(L, sandbox_hook, LUA_MASKCOUNT, 1000);
-  if (lua_pcall(L, 0, 1, 0) != LUA_OK) {
+  run_args a = {ctx, st, text, source, len, lm, EQP_E_DATA};
+  lua_pushcfunction(L, sandbox_run);
+  lua_pushlightuserdata(L, &a);
+  if (lua_pcall(L, 1, 0, 0) != LUA_OK) {
     const char *msg = lua_tostring(L, -1);
-    eqpi_stage_error(st, NULL, 0, "%s", msg ? msg : "error while running the file");
-    rc = EQP_E_DATA;
-    goto done;
+    if (!msg) msg = "error while running the file";
+    /* Lua prefixes most errors with "file:line:"; memory errors it does not */
+    if (strncmp(msg, source, strlen(source)) == 0) eqpi_stage_error(st, NULL, 0, "%s", msg);
+    else eqpi_stage_error(st, source, 0, "%s", msg);
+    a.rc = EQP_E_DATA;
   }
-  lua_sethook(L, NULL, 0, 0);
-  rc = eqpi_stage_from_table(ctx, st, L, -1, lm, source);
-done:
   eqpi_linemap_free(ctx, lm);
   lua_close(L);
-  return rc;
+  return a.rc;
 }

@@ -91,7 +91,7 @@ static int kinsol_setup(eqpi_system *sys)
   /* a log-variable step of more than ~10 per unknown only overshoots */
   KINSetMaxNewtonStep(sys->kmem, 10.0 * sqrt((double)n));
   KINSetPrintLevel(sys->kmem, 0);
-  if (getenv("EQP_ETA")) { KINSetEtaForm(sys->kmem, KIN_ETACONSTANT); KINSetEtaConstValue(sys->kmem, atof(getenv("EQP_ETA"))); }
+  sys->trace = getenv("EQUIPOISE_TRACE") != NULL;
   return 0;
 }
 
@@ -302,11 +302,11 @@ static int run_kinsol(eqpi_system *s, const double *u0, long *iters)
   int flag = KINSol(s->kmem, s->u, KIN_LINESEARCH, s->scale, s->scale);
   long it = 0;
   KINGetNumNonlinSolvIters(s->kmem, &it);
-  if (getenv("EQP_DEBUG")) {
+  if (s->trace) {
     long nli = 0, nfe = 0, nbt = 0; double fn = 0;
     KINGetNumLinIters(s->kmem, &nli); KINGetNumFuncEvals(s->kmem, &nfe);
     KINGetNumBacktrackOps(s->kmem, &nbt); KINGetFuncNorm(s->kmem, &fn);
-    fprintf(stderr, "kinsol lambda %.2f flag %s it %ld lin %ld fev %ld bt %ld fnorm %.2e %s\n",
+    fprintf(stderr, "equipoise: KINSOL lambda %.2f: %s, %ld iterations, %ld linear, %ld evaluations, %ld backtracks, |F| %.2e %s\n",
             s->lambda, kin_flag_name(flag), it, nli, nfe, nbt, fn, s->kin_err);
   }
   *iters += it;
@@ -369,15 +369,25 @@ int eqpi_system_solve(eqp_ctx *ctx, eqpi_system **sysp, const double *totals, do
     eqpi_sys_coldstart(s, u);
     flag = solve_from(s, u, &iters);
   }
-  /* continuation in the activity model, ideal -> full, each step starting
-  ** where the last one stopped; only the last must converge */
+  /* Continuation in the activity model, ideal -> full: each stage starts
+  ** from the last converged one; a failed stage is retried with half the
+  ** increment, down to 1/256. */
   if (flag < 0 && !s->plugin_failed) {
     eqpi_sys_coldstart(s, u);
-    for (int step = 1; step <= 4 && !s->plugin_failed; step++) {
-      s->lambda = 0.25 * step;
+    double lam = 0, step = 0.25;
+    while (lam < 1 && step >= 1.0 / 256 && !s->plugin_failed) {
+      double next = lam + step < 1 ? lam + step : 1;
+      s->lambda = next;
       flag = run_kinsol(s, u, &iters);
-      memcpy(u, N_VGetArrayPointer(s->u), sizeof(double) * (size_t)s->n);
+      if (flag >= 0) {
+        memcpy(u, N_VGetArrayPointer(s->u), sizeof(double) * (size_t)s->n);
+        lam = next;
+        step *= 1.5;
+      } else {
+        step *= 0.5;
+      }
     }
+    if (lam < 1 && flag >= 0) flag = KIN_MAXITER_REACHED;
   }
   s->lambda = 1;
   if (flag < 0) {

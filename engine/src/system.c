@@ -242,30 +242,46 @@ int eqpi_sys_coldstart(eqpi_system *sys, double *u)
       }
       sys->d[k] = -g;
     }
+    /* symmetric diagonal scaling: the Hessian spans many decades */
+    for (int k = 0; k < nx; k++) {
+      double dk = sys->J[k * nx + k];
+      sys->lnfree[k] = dk > 0 ? 1.0 / sqrt(dk) : 1.0;   /* borrowed as scratch */
+    }
+    for (int k = 0; k < nx; k++) {
+      for (int l = 0; l < nx; l++) sys->J[k * nx + l] *= sys->lnfree[k] * sys->lnfree[l];
+      sys->d[k] *= sys->lnfree[k];
+    }
     if (eqpi_lu_factor(sys->J, sys->piv, nx) < 0) break;
     eqpi_lu_solve(sys->J, sys->piv, nx, sys->d);
     double dmax = 0, slope = 0;
-    for (int k = 0; k < nx; k++) {
-      dmax = fabs(sys->d[k]) > dmax ? fabs(sys->d[k]) : dmax;
-      slope += sys->g[k] * sys->d[k];
+    for (int k = 0; k < nx; k++) sys->d[k] *= sys->lnfree[k];
+    for (int k = 0; k < nx; k++) slope += sys->g[k] * sys->d[k];
+    if (!(slope < 0)) {  /* rounding spoiled the Newton direction: use the gradient */
+      slope = 0;
+      for (int k = 0; k < nx; k++) {
+        sys->d[k] = -sys->g[k] * sys->lnfree[k] * sys->lnfree[k];
+        slope += sys->g[k] * sys->d[k];
+      }
     }
+    for (int k = 0; k < nx; k++) dmax = fabs(sys->d[k]) > dmax ? fabs(sys->d[k]) : dmax;
     double t = dmax > 4.0 ? 4.0 / dmax : 1.0;
     int moved = 0;
     for (int ls = 0; ls < 60; ls++, t *= 0.5) {
       for (int k = 0; k < nx; k++) sys->xt[k] = u[k] + t * sys->d[k];
       sys->xt[nx] = u[nx];
       double Gt = potential(sys, sys->xt);
-      /* near the solution G is flat to rounding: accept any step that
-      ** reduces the scaled residual instead */
-      if (Gt <= G + 1e-4 * t * slope || max_scaled(sys, F) < res) {
+      /* near the solution G is flat to rounding: there accept any step
+      ** that reduces the scaled residual instead */
+      if (Gt <= G + 1e-4 * t * slope || (res < 1e-6 && max_scaled(sys, F) < res)) {
         moved = 1;
         break;
       }
     }
+    if (sys->trace) fprintf(stderr, "equipoise: ideal start %d: residual %.3e, step %.3g\n", it, res, t);
     if (!moved) break;
     memcpy(u, sys->xt, sizeof *u * (size_t)nx);
   }
-  if (getenv("EQP_DEBUG")) fprintf(stderr, "coldstart ok %d\n", ok);
+  if (sys->trace) fprintf(stderr, "coldstart ok %d\n", ok);
   /* ionic strength of the ideal solution as the start of ln I */
   potential(sys, u);
   double Ic = 0;

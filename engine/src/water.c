@@ -25,13 +25,13 @@ double eqpi_water_permittivity(double T)
 
 /* Molal-scale A (log10 basis, kg^1/2 mol^-1/2) and B (kg^1/2 mol^-1/2
 ** per Angstrom) from the Debye-Hueckel theory with CODATA 2018 constants:
-** A = 1.82481e6 rho^1/2 (eps T)^-3/2, B = 50.2916 rho^1/2 (eps T)^-1/2. */
+** A = 1.824812e6 rho^1/2 (eps T)^-3/2, B = 50.29037 rho^1/2 (eps T)^-1/2. */
 void eqpi_debye_huckel_AB(double T, double *A, double *B)
 {
   double rho = eqpi_water_density(T);       /* numerically g/cm3 */
   double eT = eqpi_water_permittivity(T) * T;
-  if (A) *A = 1.82481e6 * sqrt(rho) / (eT * sqrt(eT));
-  if (B) *B = 50.2916 * sqrt(rho) / sqrt(eT);
+  if (A) *A = 1.824812e6 * sqrt(rho) / (eT * sqrt(eT));
+  if (B) *B = 50.29037 * sqrt(rho) / sqrt(eT);
 }
 
 double eqp_water_density(double T) { return eqpi_water_density(T); }

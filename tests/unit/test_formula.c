@@ -1,0 +1,98 @@
+/* Formulas: parsing, element balance, molar masses from the IUPAC standard
+** atomic weights. The expected molar masses are the values printed in the
+** CRC Handbook of Chemistry and Physics (section "Physical constants of
+** inorganic/organic compounds", to 0.01 g/mol) [from memory]; tolerance
+** 0.015 g/mol covers the rounding of those tables and the IUPAC 2021
+** abridged weights. */
+/* SPDX-License-Identifier: MIT */
+#include "eqp_test.h"
+#include "eqp_impl.h"
+
+static eqp_ctx *ctx;
+
+static double mm(const char *f)
+{
+  double v;
+  if (eqp_formula_molar_mass(ctx, f, &v) != EQP_OK) fail_msg("%s", eqp_ctx_errmsg(ctx));
+  return v;
+}
+
+static void test_molar_masses_against_handbook(void **state)
+{
+  assert_close(mm("NaCl"), 58.44, 0.015);
+  assert_close(mm("KCl"), 74.55, 0.015);
+  assert_close(mm("NaOH"), 40.00, 0.015);
+  assert_close(mm("KH2PO4"), 136.09, 0.015);
+  assert_close(mm("Na2HPO4"), 141.96, 0.015);
+  assert_close(mm("Na2HPO4.7H2O"), 268.07, 0.015);
+  assert_close(mm("Na2HPO4.12H2O"), 358.14, 0.015);
+  assert_close(mm("NaH2PO4.H2O"), 137.99, 0.015);
+  assert_close(mm("C4H11NO3"), 121.14, 0.015);        /* Tris */
+  assert_close(mm("C4H11NO3.HCl"), 157.60, 0.015);    /* Tris hydrochloride */
+  assert_close(mm("KHC8H4O4"), 204.22, 0.015);        /* potassium hydrogen phthalate */
+  assert_close(mm("CH3COONa.3H2O"), 136.08, 0.015);
+  assert_close(mm("Ca(OH)2"), 74.09, 0.015);
+  assert_close(mm("CuSO4\xc2\xb7" "5H2O"), 249.69, 0.015);  /* middle dot */
+  assert_close(mm("CaSO4.0.5H2O"), 145.15, 0.015);
+}
+
+static void test_composition_and_charge(void **state)
+{
+  eqpi_comp c;
+  double hyd;
+  char err[128];
+  assert_int_equal(eqpi_formula_parse("HPO4-2", &c, &hyd, err, sizeof err), 0);
+  assert_close(c.charge, -2, 0);
+  assert_int_equal(c.n, 3);
+  assert_int_equal(eqpi_formula_parse("NH4+", &c, &hyd, err, sizeof err), 0);
+  assert_close(c.charge, 1, 0);
+  assert_int_equal(eqpi_formula_parse("Fe+3", &c, &hyd, err, sizeof err), 0);
+  assert_close(c.charge, 3, 0);
+  assert_int_equal(eqpi_formula_parse("Na2HPO4.7H2O", &c, &hyd, err, sizeof err), 0);
+  assert_close(hyd, 7, 0);
+  /* element balance of H3PO4 = PO4-3 + 3 H+ */
+  eqpi_comp a, b, h;
+  eqpi_formula_parse("H3PO4", &a, NULL, err, sizeof err);
+  eqpi_formula_parse("PO4-3", &b, NULL, err, sizeof err);
+  eqpi_formula_parse("H+", &h, NULL, err, sizeof err);
+  eqpi_comp_add(&b, &h, 3);
+  char diff[128];
+  assert_int_equal(eqpi_comp_diff(&a, &b, diff, sizeof diff), 0);
+  eqpi_comp_add(&b, &h, 1);
+  assert_int_equal(eqpi_comp_diff(&a, &b, diff, sizeof diff), 1);
+  assert_contains(diff, "H -1");
+  assert_contains(diff, "charge -1");
+}
+
+static void bad(const char *f, const char *needle)
+{
+  double v;
+  assert_int_equal(eqp_formula_molar_mass(ctx, f, &v), EQP_E_INPUT);
+  assert_contains(eqp_ctx_errmsg(ctx), needle);
+}
+
+static void test_bad_formulas(void **state)
+{
+  bad("Xx2O", "unknown element");
+  bad("nacl", "expected an element");
+  bad("Na(Cl", "unclosed bracket");
+  bad("NaCl$", "unexpected character");
+  bad("H2O0", "count must be positive");
+  bad("", "expected an element");
+  bad("Na+1.5", "unexpected character");
+  bad("Na+0", "whole number");
+  bad("Tc2O7", "no standard atomic weight");
+}
+
+int main(void)
+{
+  ctx = eqp_ctx_new(NULL, NULL);
+  const struct CMUnitTest tests[] = {
+    cmocka_unit_test(test_molar_masses_against_handbook),
+    cmocka_unit_test(test_composition_and_charge),
+    cmocka_unit_test(test_bad_formulas),
+  };
+  int rc = cmocka_run_group_tests(tests, NULL, NULL);
+  eqp_ctx_free(ctx);
+  return rc;
+}

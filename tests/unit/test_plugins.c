@@ -1,0 +1,109 @@
+/* Plugin ABI: loading, refusals with clear messages, the two built-in models. */
+/* SPDX-License-Identifier: MIT */
+#include "eqp_test.h"
+#include "eqp_impl.h"
+
+static eqp_ctx *fixture_ctx(void)
+{
+  eqp_ctx *ctx = test_ctx();
+  const char *dir = getenv("EQP_FIXTURE_DIR");
+  assert_non_null(dir);
+  assert_int_equal(eqp_ctx_add_plugin_dir(ctx, dir), EQP_OK);
+  return ctx;
+}
+
+static void refused(const char *name, const char *needle)
+{
+  eqp_ctx *ctx = fixture_ctx();
+  eqp_solution_opts o = {1, 298.15, name};
+  eqp_solution *s = NULL;
+  assert_int_equal(eqp_solution_new(ctx, &o, &s), EQP_E_PLUGIN);
+  assert_null(s);
+  assert_contains(eqp_ctx_errmsg(ctx), needle);
+  assert_contains(eqp_ctx_errmsg(ctx), name);
+  eqp_ctx_free(ctx);
+}
+
+static void test_refusals(void **state)
+{
+  refused("bad_abi", "plugin ABI 2.0, this engine needs 1.x");
+  refused("truncated", "descriptor is");
+  refused("failing", "licence file missing");
+  refused("no_such_model", "not found in");
+  refused("../etc", "not a plugin name");
+}
+
+static void test_checks_directly(void **state)
+{
+  static const eqp_activity_ops ops = {sizeof ops, NULL, NULL, NULL, NULL};
+  eqp_plugin_desc d = {EQP_PLUGIN_ABI_VERSION, sizeof d, EQP_PLUGIN_SIZES, EQP_PLUGIN_ACTIVITY,
+                       "x", "1", "s", &ops, 0};
+  char err[256];
+  assert_int_equal(eqpi_plugin_check(&d, "x.so", err, sizeof err), -1);  /* no operations */
+  assert_contains(err, "incomplete");
+  d.sizes = 0x0404;
+  assert_int_equal(eqpi_plugin_check(&d, "x.so", err, sizeof err), -1);
+  assert_contains(err, "number sizes");
+  d.sizes = EQP_PLUGIN_SIZES;
+  d.kind = 7;
+  assert_int_equal(eqpi_plugin_check(&d, "x.so", err, sizeof err), -1);
+  assert_contains(err, "unknown plugin kind 7");
+  assert_int_equal(eqpi_plugin_check(NULL, "x.so", err, sizeof err), -1);
+}
+
+static void count(void *ud, const char *name, const char *version, const char *summary,
+                  const char *path)
+{
+  int *n = ud;
+  if (name && (strcmp(name, "ideal") == 0 || strcmp(name, "davies") == 0)) n[0]++;
+  if (!name) n[1]++;
+}
+
+static void test_listing(void **state)
+{
+  eqp_ctx *ctx = fixture_ctx();
+  int n[2] = {0, 0};
+  assert_int_equal(eqp_ctx_list_plugins(ctx, count, n), EQP_OK);
+  assert_int_equal(n[0], 2);     /* ideal and davies from the build tree */
+  assert_int_equal(n[1], 3);     /* the three fixtures, each refused */
+  eqp_ctx_free(ctx);
+}
+
+/* Davies (C. W. Davies, Ion Association, Butterworths 1962) evaluated by
+** hand at I = 0.1, A = 0.5108: log g = -A z^2 (0.316228/1.316228 - 0.03). */
+static void test_davies_values(void **state)
+{
+  eqp_ctx *ctx = test_ctx();
+  eqpi_model m;
+  assert_int_equal(eqpi_model_open(ctx, "davies", &m), EQP_OK);
+  double z[3] = {1, -2, 0}, size[3] = {NAN, NAN, NAN}, mol[3] = {0, 0, 0}, lg[3];
+  eqp_activity_in in = {3, z, size, mol, 0.1, 298.15, 0.5108, 0.3287};
+  assert_int_equal(m.ops->log_gamma(m.state, &in, lg, NULL, 0), 0);
+  double f = -0.5108 * (sqrt(0.1) / (1 + sqrt(0.1)) - 0.3 * 0.1);
+  assert_close(lg[0], f, 1e-14);
+  assert_close(lg[1], 4 * f, 1e-14);
+  assert_close(lg[2], 0, 0);
+  char err[128];
+  assert_int_equal(m.ops->set_param(m.state, "coefficient", 0.2, err, sizeof err), 0);
+  assert_int_equal(m.ops->log_gamma(m.state, &in, lg, NULL, 0), 0);
+  assert_close(lg[0], -0.5108 * (sqrt(0.1) / (1 + sqrt(0.1)) - 0.02), 1e-14);
+  assert_int_not_equal(m.ops->set_param(m.state, "nonsense", 1, err, sizeof err), 0);
+  assert_contains(err, "unknown parameter");
+  eqpi_model_close(ctx, &m);
+  assert_int_equal(eqpi_model_open(ctx, "ideal", &m), EQP_OK);
+  assert_int_equal(m.ops->log_gamma(m.state, &in, lg, NULL, 0), 0);
+  assert_close(lg[0] + lg[1] + lg[2], 0, 0);
+  eqpi_model_close(ctx, &m);
+  eqp_ctx_free(ctx);
+}
+
+int main(void)
+{
+  const struct CMUnitTest tests[] = {
+    cmocka_unit_test(test_refusals),
+    cmocka_unit_test(test_checks_directly),
+    cmocka_unit_test(test_listing),
+    cmocka_unit_test(test_davies_values),
+  };
+  return cmocka_run_group_tests(tests, NULL, NULL);
+}
