@@ -118,6 +118,9 @@ int eqpi_sys_precond(eqpi_system *sys, const double *u)
   const int n = sys->n, nx = sys->nx, nc = sys->nc, ns = sys->ns;
   double *J = sys->J;
   memset(J, 0, sizeof *J * (size_t)n * (size_t)n);
+  double *F0 = sys->xt + n, *F1 = sys->g, *up = sys->d;
+  if (eqpi_sys_eval(sys, u, F0) < 0) return -1;   /* m and F at u (cheap next to KINSOL) */
+  /* rows F = R/S: dF/dx = (dR/dx - F dS/dx) / S, both at fixed gamma */
   for (int k = 0; k < nx; k++) {
     int c = sys->xcomp[k];
     double S = 0;
@@ -125,10 +128,13 @@ int eqpi_sys_precond(eqpi_system *sys, const double *u)
     S = S > 1e-300 ? S : 1e-300;
     for (int l = 0; l < nx; l++) {
       int d = sys->xcomp[l];
-      double v = 0;
-      for (int i = 0; i < ns; i++)
-        v += sys->nu[(size_t)i * nc + c] * sys->nu[(size_t)i * nc + d] * sys->m[i];
-      J[k * n + l] = v / S;
+      double v = 0, w = 0;
+      for (int i = 0; i < ns; i++) {
+        double nd = sys->nu[(size_t)i * nc + d] * sys->m[i];
+        v += sys->nu[(size_t)i * nc + c] * nd;
+        w += fabs(sys->nu[(size_t)i * nc + c]) * nd;
+      }
+      J[k * n + l] = (v - F0[k] * w) / S;
     }
   }
   double Ic = 0;
@@ -142,14 +148,11 @@ int eqpi_sys_precond(eqpi_system *sys, const double *u)
   }
   J[nx * n + nx] = -1.0;
   if (sys->lambda != 0) {
-    double *F0 = sys->xt + n, *F1 = sys->g, *up = sys->d;
     memcpy(up, u, sizeof *up * (size_t)n);
-    if (eqpi_sys_eval(sys, up, F0) < 0) return -1;
     const double h = 1e-7;
     up[nx] += h;
     if (eqpi_sys_eval(sys, up, F1) < 0) return -1;
     for (int k = 0; k < n; k++) J[k * n + nx] = (F1[k] - F0[k]) / h;
-    eqpi_sys_eval(sys, u, F0);   /* leave the state at u */
   }
   return eqpi_lu_factor(J, sys->piv, n);
 }
