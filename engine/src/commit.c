@@ -410,7 +410,8 @@ int eqpi_stage_commit(eqp_ctx *ctx, eqpi_stage *st)
   committer c = {ctx, db, st, NULL, db->nsp, NULL, db->nrx, NULL, db->nrg, 0, db->ncomp,
                  NULL, NULL};
   int rc = EQP_E_DATA;
-  if (st->nerr) goto fail;
+  /* Shape errors found while staging do not stop the checks of names and
+  ** balances below, so one run reports every problem; nothing is kept. */
   size_t maxsp = (size_t)(db->nsp + st->nsp + 1), maxrx = (size_t)(db->nrx + st->nrx + 1);
   c.sp = eqpi_malloc(ctx, sizeof *c.sp * maxsp);
   c.rx = eqpi_malloc(ctx, sizeof *c.rx * maxrx);

@@ -100,7 +100,7 @@ static void test_malformed_entries(void **state)
 static void test_multiple_problems_reported(void **state)
 {
   eqp_ctx *ctx = base();
-  const char *t = "return {\n species = {\n  { 'X1', size = {} },\n  { 'X2', size = 'a' },\n }\n}\n";
+  const char *t = "return {\n species = {\n  { 'Li+', size = {} },\n  { 'Rb+', size = 'a' },\n }\n}\n";
   assert_int_equal(eqp_ctx_load_species_text(ctx, t, strlen(t), "t.lua"), EQP_E_DATA);
   assert_contains(eqp_ctx_errmsg(ctx), "t.lua:3:");
   assert_contains(eqp_ctx_errmsg(ctx), "t.lua:4:");

@@ -211,6 +211,8 @@ struct lua_State;
 /* Opens the "equipoise" Lua module: pushes its table. Creates a context
 ** owned by the Lua state. This is also the entry point for require. */
 EQP_API int luaopen_equipoise(struct lua_State *L);
+/* The same, under a name of our prefix (used by the loadable module). */
+EQP_API int eqp_lua_open(struct lua_State *L);
 
 #ifdef __cplusplus
 }

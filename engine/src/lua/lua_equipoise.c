@@ -141,6 +141,11 @@ static const luaL_Reg eq_funcs[] = {
 
 int luaopen_equipoise(lua_State *L)
 {
+  return eqp_lua_open(L);
+}
+
+int eqp_lua_open(lua_State *L)
+{
   luaL_checkversion(L);
   /* one context per Lua state, shared by every require */
   if (lua_getfield(L, LUA_REGISTRYINDEX, "equipoise.module") == LUA_TTABLE) return 1;

@@ -2,7 +2,7 @@
 ** luaopen_equipoise here; the code lives in libequipoise. */
 /* SPDX-License-Identifier: MIT */
 #include <equipoise/equipoise.h>
-/* luaopen_equipoise is exported by libequipoise, which this module links;
-** nothing else is needed, but an object must exist for the module target. */
-int eqp_lua_module_anchor(void);
-__attribute__((visibility("default"))) int eqp_lua_module_anchor(void) { return 0; }
+
+/* The call into libequipoise also keeps the linker's --as-needed from
+** dropping the library from this module. */
+EQP_API int luaopen_equipoise(struct lua_State *L) { return eqp_lua_open(L); }

@@ -1,0 +1,6 @@
+#!/bin/sh
+# Build and run the benchmarks; prints the figures.
+set -eu
+cd "$(dirname "$0")/.."
+scripts/setup.sh build
+EQUIPOISE_SPECIES_PATH="$PWD/species" ./build/tests/bench_phosphate "$@"

@@ -1,0 +1,1 @@
+local s = eq.solution{ species = { (params.dir or ".") .. "/bad_species.lua" } }

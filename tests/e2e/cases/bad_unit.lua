@@ -1,0 +1,2 @@
+local s = eq.solution{}
+s:add("KCl", "5 furlongs")

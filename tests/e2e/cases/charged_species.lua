@@ -1,0 +1,2 @@
+local s = eq.solution{}
+s:add("Na+", "1 mmol")

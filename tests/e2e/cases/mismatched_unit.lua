@@ -1,0 +1,1 @@
+local s = eq.solution{ volume = "2 kg" }

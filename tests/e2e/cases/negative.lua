@@ -1,0 +1,3 @@
+local s = eq.solution{}
+print("before the error")
+s:add("KCl", "-5 mmol")

@@ -1,0 +1,3 @@
+local s = eq.solution{}
+local r = s:equilibrate()
+print(r.pH + nil)

@@ -1,0 +1,2 @@
+local s = eq.solution{
+print("never")

@@ -1,0 +1,2 @@
+local s = eq.solution{}
+s:add("NaCl", 10)

@@ -1,0 +1,1 @@
+local s = eq.solution{ temprature = 37 }

@@ -1,0 +1,3 @@
+local s = eq.solution{ water = "1 kg" }
+s:add("NaCl", "10 mmol")
+s:add("NaCL", "10 mmol")

@@ -1,0 +1,95 @@
+#!/bin/sh
+# End-to-end checks of the equipoise command: output, exit codes, messages.
+# Usage: run.sh EQUIPOISE JSON_CHECK SOURCE_DIR BUILD_DIR
+set -u
+EQP=$1; JSON=$2; SRC=$3; BUILD=$4
+CASES=$SRC/tests/e2e/cases
+TMP=$(mktemp -d)
+trap 'rm -rf "$TMP"' EXIT
+pass=0; fail=0
+
+# check NAME EXPECTED_EXIT PATTERN -- command...
+check() {
+  name=$1; want=$2; pattern=$3; shift 4
+  "$@" >"$TMP/out" 2>"$TMP/err"
+  got=$?
+  if [ "$got" -ne "$want" ]; then
+    echo "FAIL $name: exit $got, expected $want"; sed 's/^/  | /' "$TMP/out" "$TMP/err" | head -20
+    fail=$((fail + 1)); return
+  fi
+  if [ -n "$pattern" ] && ! grep -q -- "$pattern" "$TMP/out" "$TMP/err"; then
+    echo "FAIL $name: no '$pattern' in output"; sed 's/^/  | /' "$TMP/out" "$TMP/err" | head -20
+    fail=$((fail + 1)); return
+  fi
+  echo "ok   $name"
+  pass=$((pass + 1))
+}
+
+check help 0 "exit codes" -- "$EQP" --help
+check version 0 "equipoise 0.1.0" -- "$EQP" --version
+check no_args 2 "usage" -- "$EQP"
+check bad_command 2 "unknown command" -- "$EQP" frobnicate
+check bad_option 2 "unknown option '--frob'" -- "$EQP" run "$CASES/params.lua" --frob
+check missing_script 2 "cannot open" -- "$EQP" run "$TMP/nope.lua"
+check bad_param 2 "NAME=VALUE" -- "$EQP" run "$CASES/params.lua" --param acid
+
+# the demo and the published standards (Buck et al. 2002) through the command
+check demo 0 "after 2 mmol HCl" -- "$EQP" run "$SRC/scripts/examples/demo.lua"
+check demo_caution 0 "caution: HCl is corrosive" -- "$EQP" run "$SRC/scripts/examples/demo.lua"
+check iupac_standards 0 "all within 0.02 pH" -- "$EQP" run "$SRC/tests/published/iupac_standards.lua"
+check result_fields 0 "^ok" -- "$EQP" run "$CASES/result_fields.lua"
+check inline_species 0 "pH 5.500" -- "$EQP" run "$CASES/inline_species.lua"
+check params 0 "pH 6.876" -- "$EQP" run "$CASES/params.lua"
+check params_set 0 "pH 7.42" -- "$EQP" run "$CASES/params.lua" --param acid="8.695 mmol" --param base=30.43mmol
+check high_ionic_warning 0 "beyond the stated range of the 'davies'" -- "$EQP" run "$CASES/high_ionic.lua"
+
+# bad input: message with the script's file and line, documented exit code
+check unknown_reagent 3 "unknown_reagent.lua:3: unknown reagent 'NaCL' (did you mean 'NaCl'?)" -- "$EQP" run "$CASES/unknown_reagent.lua"
+check unitless 3 "unitless.lua:2: amount of NaCl: 10 has no unit" -- "$EQP" run "$CASES/unitless.lua"
+check negative 3 "negative.lua:3: amount of KCl: '-5 mmol' is negative" -- "$EQP" run "$CASES/negative.lua"
+check negative_keeps_output 3 "before the error" -- "$EQP" run "$CASES/negative.lua"
+check bad_unit 3 "unknown unit 'furlongs'" -- "$EQP" run "$CASES/bad_unit.lua"
+check mismatched_unit 3 "'2 kg' is a mass (kg, g, mg, ug), expected a volume" -- "$EQP" run "$CASES/mismatched_unit.lua"
+check charged_species 3 "'Na+' is a charged species, not a reagent" -- "$EQP" run "$CASES/charged_species.lua"
+check unknown_option 3 "unknown option 'temprature'" -- "$EQP" run "$CASES/unknown_option.lua"
+check bad_species_line 4 "bad_species.lua:6: acids\[2\].pKa" -- "$EQP" run "$CASES/bad_species_file.lua" --param dir="$CASES"
+check bad_species_line2 4 "bad_species.lua:9: unknown species 'Y-'" -- "$EQP" run "$CASES/bad_species_file.lua" --param dir="$CASES"
+check missing_plugin 6 "no activity model 'no-such-model'" -- "$EQP" run "$CASES/missing_plugin.lua"
+check syntax_error 1 "syntax_error.lua:3:" -- "$EQP" run "$CASES/syntax_error.lua"
+check runtime_error 1 "runtime_error.lua:3: attempt to perform arithmetic" -- "$EQP" run "$CASES/runtime_error.lua"
+check no_traceback 1 "" -- "$EQP" run "$CASES/runtime_error.lua"
+if grep -q "stack traceback" "$TMP/err"; then echo "FAIL traceback shown without --verbose"; fail=$((fail + 1)); fi
+check traceback_verbose 1 "stack traceback" -- "$EQP" run "$CASES/runtime_error.lua" --verbose
+
+# JSON for automation
+"$EQP" run "$CASES/params.lua" --json >"$TMP/j1"; code=$?
+check json_valid 0 "ok" -- "$JSON" status < "$TMP/j1"
+check json_pH 0 "^6.87" -- "$JSON" results.0.pH < "$TMP/j1"
+check json_output 0 "pH 6.876" -- "$JSON" output.0 < "$TMP/j1"
+check json_provenance 0 "phosphate.lua" -- sh -c "grep -o 'species/phosphate.lua' '$TMP/j1'"
+check json_caution 0 "calibrated meter" -- "$JSON" cautions.0 < "$TMP/j1"
+[ "$code" -eq 0 ] || { echo "FAIL json exit $code"; fail=$((fail + 1)); }
+"$EQP" run "$CASES/negative.lua" --json >"$TMP/j2"; code=$?
+check json_error_status 0 "error" -- "$JSON" status < "$TMP/j2"
+check json_error_message 0 "negative.lua:3:" -- "$JSON" error < "$TMP/j2"
+check json_error_code 0 "^3$" -- "$JSON" exit_code < "$TMP/j2"
+check json_error_keeps_output 0 "before the error" -- "$JSON" output.0 < "$TMP/j2"
+[ "$code" -eq 3 ] || { echo "FAIL json error exit $code"; fail=$((fail + 1)); }
+
+# the library from the command line
+check species_list 0 "KH2PO4" -- "$EQP" species list
+check species_show 0 "goldberg\|Goldberg" -- "$EQP" species show H2PO4-
+check species_show_unknown 3 "no species or reagent" -- "$EQP" species show Nope
+check species_check_good 0 "ok, 2 species added" -- "$EQP" species check "$CASES/good_species.lua"
+check species_check_bad 4 "bad_species.lua:6:" -- "$EQP" species check "$CASES/bad_species.lua"
+check plugins 0 "davies" -- "$EQP" plugins
+
+# the same module in a stock lua5.4
+if command -v lua5.4 >/dev/null; then
+  check stock_lua5.4 0 "stock lua ok" -- env LUA_CPATH="$BUILD/lua/?.so;;" lua5.4 "$CASES/stock_lua.lua"
+else
+  echo "FAIL stock_lua5.4: no lua5.4 interpreter (scripts/setup.sh installs it)"; fail=$((fail + 1))
+fi
+
+echo "$pass passed, $fail failed"
+[ "$fail" -eq 0 ]
