@@ -86,7 +86,13 @@ check plugins 0 "davies" -- "$EQP" plugins
 
 # the same module in a stock lua5.4
 if command -v lua5.4 >/dev/null; then
-  check stock_lua5.4 0 "stock lua ok" -- env LUA_CPATH="$BUILD/lua/?.so;;" lua5.4 "$CASES/stock_lua.lua"
+  # a sanitizer build's module needs the sanitizer runtime loaded first
+  pre=""
+  if ldd "$BUILD/lua/equipoise.so" 2>/dev/null | grep -q libasan; then
+    pre="$(gcc -print-file-name=libasan.so) $(gcc -print-file-name=libubsan.so)"
+  fi
+  check stock_lua5.4 0 "stock lua ok" -- env LD_PRELOAD="$pre" ASAN_OPTIONS=detect_leaks=0 \
+    LUA_CPATH="$BUILD/lua/?.so;;" lua5.4 "$CASES/stock_lua.lua"
 else
   echo "FAIL stock_lua5.4: no lua5.4 interpreter (scripts/setup.sh installs it)"; fail=$((fail + 1))
 fi
