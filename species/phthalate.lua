@@ -2,7 +2,8 @@
 return {
   system = "phthalate",
   sources = {
-    hamer1945 = "W. J. Hamer, G. D. Pinching, S. F. Acree, 'First and second dissociation constants of o-phthalic acid from 0 to 60 C', J. Res. Natl. Bur. Stand. 35, 539 (1945): pK1 2.950, pK2 5.408 at 25 C [from memory, medium confidence]",
+    hamer1945a = "W. J. Hamer, G. D. Pinching, S. F. Acree, 'First dissociation constant of o-phthalic acid from 0 to 60 C', J. Res. Natl. Bur. Stand. 35, 539 (1945): pK1 2.950 at 25 C [from memory, medium confidence]; no temperature function is recorded here",
+    hamer1945b = "W. J. Hamer, S. F. Acree, 'Second dissociation constant of o-phthalic acid', J. Res. Natl. Bur. Stand. 35, 381 (1945): pK2 = 2175.83/T - 9.5508 + 0.025694 T, 0-60 C [from memory, medium-high confidence: it gives the tabulated 5.408 at 25 C and 5.433 at 0 C]",
     kielland1937 = "J. Kielland, J. Am. Chem. Soc. 59, 1675 (1937): ion-size parameters [ion assignments from memory]",
   },
   species = {
@@ -11,7 +12,10 @@ return {
     { "Phthalate-2", formula = "C8H4O4-2", size = 6, size_source = "kielland1937" },
   },
   acids = {
-    { "H2Phthalate", "HPhthalate-", "Phthalate-2", pKa = { 2.950, 5.408 }, source = "hamer1945" },
+    { "H2Phthalate", "HPhthalate-", pKa = 2.950, source = "hamer1945a" },
+    -- pK2 = 2175.83/T - 9.5508 + 0.025694 T
+    { "HPhthalate-", "Phthalate-2", pKa = 5.408, source = "hamer1945b",
+      pKa_T = { { a = -9.5508, b = 0.025694, c = 2175.83 } }, T_range = { 273.15, 333.15 } },
   },
   reagents = {
     { "KHC8H4O4", gives = { ["K+"] = 1, ["HPhthalate-"] = 1 },

@@ -190,7 +190,22 @@ static void add_reactions(committer *c)
     d->logK = r->logK;
     d->dH = r->dH;
     d->dCp = r->dCp;
+    d->tmodel = r->tmodel;
+    memcpy(d->fn, r->fn, sizeof d->fn);
+    d->Tmin = r->Tmin;
+    d->Tmax = r->Tmax;
     d->source = r->source;
+    if (d->tmodel != EQPI_T_VANTHOFF) {
+      /* a function must reproduce the 25 C constant it stands beside:
+      ** catches a sign or a pK/log K mix-up */
+      eqpi_tnotes notes = {0, 0};
+      double at25 = eqpi_reaction_logK(d, EQPI_T25, &notes);
+      if (!(fabs(at25 - d->logK) <= 0.02)) {
+        eqpi_stage_error(st, r->file, r->line, "temperature function for '%s' gives %.4f at "
+                         "298.15 K, but its log K is %.4f", r->product, at25, d->logK);
+        continue;
+      }
+    }
     d->file = r->file;
     d->line = r->line;
     c->sp[p].rxn = c->nrx++;

@@ -102,12 +102,18 @@ void eqpi_db_free(eqp_ctx *ctx, eqpi_db *db)
 ** (e.g. Goldberg, Kishore & Lennen, J. Phys. Chem. Ref. Data 31, 231 (2002),
 ** eq. for pK(T)): log K(T) = log K(th) - dH/(R ln10) (1/T - 1/th)
 **                        + dCp/(R ln10) (th/T - 1 + ln(T/th)). */
-static double reaction_logK(const eqpi_reaction *r, double T, int *missing)
+double eqpi_reaction_logK(const eqpi_reaction *r, double T, eqpi_tnotes *notes)
 {
+  if (r->tmodel == EQPI_T_WATER) return -eqpi_water_pKw(T);
+  if (r->tmodel == EQPI_T_FUNCTION) {
+    const double *f = r->fn;
+    if (!isnan(r->Tmin) && (T < r->Tmin - 1e-9 || T > r->Tmax + 1e-9)) notes->outside++;
+    return f[0] + f[1] * T + f[2] / T + f[3] * log(T) + f[4] / (T * T) + f[5] * T * T;
+  }
   if (fabs(T - EQPI_T25) < 1e-9) return r->logK;
   double v = r->logK;
   if (isnan(r->dH)) {
-    (*missing)++;
+    notes->missing++;
     return v;
   }
   v -= r->dH * 1e3 / (EQPI_R * EQPI_LN10) * (1.0 / T - 1.0 / EQPI_T25);
@@ -116,12 +122,12 @@ static double reaction_logK(const eqpi_reaction *r, double T, int *missing)
   return v;
 }
 
-double eqpi_species_logK(const eqpi_db *db, int i, double T, int *missing)
+double eqpi_species_logK(const eqpi_db *db, int i, double T, eqpi_tnotes *notes)
 {
   const eqpi_species *s = &db->sp[i];
   double v = 0;
   for (int k = 0; k < s->nrx; k++)
-    v += s->rx_c[k] * reaction_logK(&db->rx[s->rx_idx[k]], T, missing);
+    v += s->rx_c[k] * eqpi_reaction_logK(&db->rx[s->rx_idx[k]], T, notes);
   return v;
 }
 
@@ -169,8 +175,12 @@ static void describe_species(const eqpi_db *db, int i, char *buf, size_t len)
   APPEND("\n  log K     %.4f at 25 C", r->logK);
   if (!isnan(r->dH)) APPEND(", dH %.2f kJ/mol", r->dH);
   if (!isnan(r->dCp)) APPEND(", dCp %.0f J/(K mol)", r->dCp);
+  if (r->tmodel == EQPI_T_WATER) APPEND(", temperature: IAPWS R11-07 pKw");
+  if (r->tmodel == EQPI_T_FUNCTION)
+    APPEND(", temperature function a %g b %g c %g d %g e %g f %g", r->fn[0], r->fn[1], r->fn[2],
+           r->fn[3], r->fn[4], r->fn[5]);
   APPEND("\n  source    %s\n  overall   log K %.4f from components:", r->source,
-         eqpi_species_logK(db, i, EQPI_T25, &(int){0}));
+         eqpi_species_logK(db, i, EQPI_T25, &(eqpi_tnotes){0, 0}));
   for (int t = 0; t < s->nterm; t++)
     APPEND(" %+g %s", s->term_nu[t], db->sp[db->comp_species[s->term_comp[t]]].name);
   APPEND("\n");

@@ -80,8 +80,21 @@ int eqpi_parse_quantity(const char *text, unsigned allowed, double *value,
 double eqpi_water_density(double T);     /* kg/L at 0.101325 MPa, Kell 1975 */
 double eqpi_water_permittivity(double T);/* Malmberg & Maryott 1956 */
 void eqpi_debye_huckel_AB(double T, double *A, double *B);
+/* -log10 Kw on the molal scale, IAPWS R11-07 (Bandura & Lvov 2006) at the
+** density of liquid water at 0.101325 MPa (Kell 1975); 0-100 C. */
+double eqpi_water_pKw(double T);
+/* Same formulation at a given density (g/cm3), for the published checks. */
+double eqpi_water_pKw_rho(double T, double rho);
 
 /* ---------------------------------------------------------- database */
+
+enum { EQPI_T_VANTHOFF = 0, EQPI_T_FUNCTION = 1, EQPI_T_WATER = 2 };
+
+/* What a temperature correction had to do without: counted per system. */
+typedef struct eqpi_tnotes {
+  int missing;          /* constants lacking temperature data, used at 25 C */
+  int outside;          /* functions evaluated outside their stated range */
+} eqpi_tnotes;
 
 typedef struct eqpi_reaction {
   int product;          /* species index */
@@ -91,6 +104,9 @@ typedef struct eqpi_reaction {
   double logK;          /* log10 K at 298.15 K of product = sum nu reactant */
   double dH;            /* kJ/mol of the formation reaction; NaN if absent */
   double dCp;           /* J/(K mol); NaN if absent */
+  int tmodel;           /* EQPI_T_* */
+  double fn[6];         /* EQPI_T_FUNCTION: log10 K = a + bT + c/T + d lnT + e/T^2 + fT^2 */
+  double Tmin, Tmax;    /* stated range of the function, K; NaN if none */
   const char *source;
   const char *file;
   int line;
@@ -166,7 +182,8 @@ int eqpi_db_find_reagent(const eqpi_db *db, const char *name);
 void eqpi_db_free(eqp_ctx *ctx, eqpi_db *db);
 /* log10 K of species i at T (K) by the integrated van't Hoff equation;
 ** *missing counts contributions lacking temperature data away from 25 C. */
-double eqpi_species_logK(const eqpi_db *db, int i, double T, int *missing);
+double eqpi_species_logK(const eqpi_db *db, int i, double T, eqpi_tnotes *notes);
+double eqpi_reaction_logK(const eqpi_reaction *r, double T, eqpi_tnotes *notes);
 
 /* The staging area a load fills before commit (loader.c, db.c). */
 typedef struct eqpi_stage eqpi_stage;
@@ -233,6 +250,7 @@ typedef struct eqpi_solve_stats {
   long iterations;
   double residual;      /* max relative balance residual after the solve */
   int missing_T;        /* constants used at 25 C values away from 25 C */
+  int outside_T;        /* temperature functions used outside their range */
 } eqpi_solve_stats;
 
 /* Build (or reuse) the active system for totals (mol/kg) at T and solve.

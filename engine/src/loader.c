@@ -283,6 +283,56 @@ static int cv_strings(conv *c, const char *key, const char ***out)
   return n;
 }
 
+/* A temperature function at key of the table at top: { a=, b=, c=, d=,
+** e=, f= } (log10 K = a + bT + c/T + d lnT + e/T^2 + fT^2), or for
+** reactions the name "water-iapws". Sets the model and coefficients. */
+static void cv_tfunction(conv *c, int idx, int *tmodel, double *fn)
+{
+  static const char *const keys[] = {"a", "b", "c", "d", "e", "f", NULL};
+  *tmodel = EQPI_T_VANTHOFF;
+  if (lua_isnil(c->L, idx)) return;
+  if (lua_type(c->L, idx) == LUA_TSTRING) {
+    if (strcmp(lua_tostring(c->L, idx), "water-iapws") == 0) *tmodel = EQPI_T_WATER;
+    else CV_ERR(c, "unknown temperature model '%s' (known: water-iapws)", lua_tostring(c->L, idx));
+    return;
+  }
+  if (lua_type(c->L, idx) != LUA_TTABLE) {
+    CV_ERR(c, "expected a table { a =, b =, c =, d =, e =, f = }");
+    return;
+  }
+  lua_pushvalue(c->L, idx);
+  cv_keys(c, keys, 0);
+  int any = 0;
+  for (int k = 0; k < 6; k++) {
+    fn[k] = cv_number(c, keys[k], -1e9, 1e9, 0);
+    if (isnan(fn[k])) fn[k] = 0;
+    else any = 1;
+  }
+  lua_pop(c->L, 1);
+  if (any) *tmodel = EQPI_T_FUNCTION;
+  else CV_ERR(c, "a temperature function needs at least one of a..f");
+}
+
+/* T_range = { low, high } in K. */
+static void cv_trange(conv *c, double *lo, double *hi)
+{
+  double v[2];
+  *lo = *hi = NAN;
+  lua_getfield(c->L, -1, "T_range");
+  int present = !lua_isnil(c->L, -1);
+  lua_pop(c->L, 1);
+  if (!present) return;
+  cv_ladder_numbers(c, "T_range", 2, v, 200, 700, 1);
+  if (!(v[0] < v[1])) {
+    cv_push(c, "T_range");
+    CV_ERR(c, "expected { low, high } in K with low < high");
+    cv_pop(c);
+    return;
+  }
+  *lo = v[0];
+  *hi = v[1];
+}
+
 #define STAGE_PUSH(c, arr, n, cap) \
   eqpi_stage_push((c)->ctx, (c)->st, (void **)&(c)->st->arr, &(c)->st->n, &(c)->st->cap, \
                   sizeof *(c)->st->arr)
@@ -313,7 +363,8 @@ static void cv_species(conv *c)
 
 static void cv_acid(conv *c)
 {
-  static const char *const keys[] = {"pKa", "dH", "dCp", "source", "note", NULL};
+  static const char *const keys[] = {"pKa", "dH", "dCp", "pKa_T", "T_range", "source",
+                                     "note", NULL};
   int nforms = (int)lua_rawlen(c->L, -1);
   cv_keys(c, keys, nforms);
   if (nforms < 2) {
@@ -329,6 +380,27 @@ static void cv_acid(conv *c)
   cv_ladder_numbers(c, "dH", nst, dH, -200, 200, 0);
   cv_ladder_numbers(c, "dCp", nst, dCp, -2000, 2000, 0);
   const char *src = cv_source(c, "source", 1);
+  double Tmin, Tmax;
+  cv_trange(c, &Tmin, &Tmax);
+  int tm[15] = {0};
+  double fns[15][6];
+  cv_push(c, "pKa_T");
+  int tt = cv_field(c, "pKa_T");
+  if (tt == LUA_TTABLE) {
+    if ((int)lua_rawlen(c->L, -1) != nst) CV_ERR(c, "has %d entries for %d steps (use false "
+                                                  "for a step without one)", (int)lua_rawlen(c->L, -1), nst);
+    for (int k = 0; k < nst; k++) {
+      cv_pushi(c, k + 1);
+      lua_geti(c->L, -1, k + 1);
+      if (lua_toboolean(c->L, -1)) cv_tfunction(c, lua_gettop(c->L), &tm[k], fns[k]);
+      lua_pop(c->L, 1);
+      cv_pop(c);
+    }
+  } else if (tt != LUA_TNIL) {
+    CV_ERR(c, "expected a list with one temperature function (or false) per step");
+  }
+  lua_pop(c->L, 1);
+  cv_pop(c);
   for (int k = 0; k < nst; k++) {
     if (!forms[k] || !forms[k + 1] || isnan(pKa[k])) continue;
     st_reaction *r = STAGE_PUSH(c, rx, nrx, caprx);
@@ -346,6 +418,10 @@ static void cv_acid(conv *c)
     r->logK = pKa[k];
     r->dH = -dH[k];
     r->dCp = -dCp[k];
+    r->tmodel = tm[k];
+    if (tm[k] == EQPI_T_FUNCTION) memcpy(r->fn, fns[k], sizeof r->fn);
+    r->Tmin = Tmin;
+    r->Tmax = Tmax;
     r->source = src;
     r->file = c->file;
     cv_push(c, "pKa");
@@ -358,7 +434,8 @@ static void cv_acid(conv *c)
 
 static void cv_reaction(conv *c)
 {
-  static const char *const keys[] = {"from", "logK", "dH", "dCp", "source", "note", NULL};
+  static const char *const keys[] = {"from", "logK", "dH", "dCp", "logK_T", "T_range",
+                                     "source", "note", NULL};
   cv_keys(c, keys, 1);
   st_reaction *r = STAGE_PUSH(c, rx, nrx, caprx);
   if (!r) return;
@@ -367,6 +444,12 @@ static void cv_reaction(conv *c)
   r->logK = cv_number(c, "logK", -100, 100, 1);
   r->dH = cv_number(c, "dH", -500, 500, 0);
   r->dCp = cv_number(c, "dCp", -5000, 5000, 0);
+  cv_push(c, "logK_T");
+  lua_getfield(c->L, -1, "logK_T");
+  cv_tfunction(c, lua_gettop(c->L), &r->tmodel, r->fn);
+  lua_pop(c->L, 1);
+  cv_pop(c);
+  cv_trange(c, &r->Tmin, &r->Tmax);
   r->source = cv_source(c, "source", 1);
   r->file = c->file;
   r->line = cv_line(c);

@@ -57,6 +57,9 @@ int eqpi_result_make(eqp_ctx *ctx, const eqpi_system *sys, const eqpi_model *mod
     snprintf(r->warn[r->nwarn++], 256, "ionic strength %.3g mol/kg is beyond the stated range "
              "of the '%s' activity model (I <= %g mol/kg); activity coefficients are "
              "extrapolated", r->I, r->model, Imax);
+  if (st->outside_T)
+    snprintf(r->warn[r->nwarn++], 256, "%d temperature function(s) were used outside the "
+             "range their source states, at %.2f C", st->outside_T, T - 273.15);
   if (st->missing_T)
     snprintf(r->warn[r->nwarn++], 256, "%d constant(s) have no temperature data; their "
              "25 C values were used at %.2f C", st->missing_T, T - 273.15);

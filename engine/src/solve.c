@@ -238,9 +238,11 @@ static void set_temperature(eqpi_system *s, double T)
 {
   if (s->Tk == T) return;
   s->Tk = T;
-  s->missing_T = 0;
+  eqpi_tnotes notes = {0, 0};
   for (int i = 0; i < s->ns; i++)
-    s->lnK[i] = EQPI_LN10 * eqpi_species_logK(&s->ctx->db, s->sp[i], T, &s->missing_T);
+    s->lnK[i] = EQPI_LN10 * eqpi_species_logK(&s->ctx->db, s->sp[i], T, &notes);
+  s->missing_T = notes.missing;
+  s->outside_T = notes.outside;
   eqpi_debye_huckel_AB(T, &s->A, &s->B);
 }
 
@@ -418,6 +420,7 @@ int eqpi_system_solve(eqp_ctx *ctx, eqpi_system **sysp, const double *totals, do
     stats->iterations = iters;
     stats->residual = r;
     stats->missing_T = s->missing_T;
+    stats->outside_T = s->outside_T;
   }
   rc = EQP_OK;
 out:

@@ -23,6 +23,8 @@ typedef struct st_reaction {
   st_pair *r;
   int n;
   double logK, dH, dCp;   /* formation reaction of product */
+  int tmodel;
+  double fn[6], Tmin, Tmax;
   int line;
 } st_reaction;
 

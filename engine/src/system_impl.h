@@ -32,7 +32,7 @@ struct eqpi_system {
   double *lnK;          /* natural log of the overall formation constant */
   double *nu;           /* ns x nc, row-major */
   double *z, *z2, *size;
-  int missing_T;
+  int missing_T, outside_T;
   /* work arrays */
   double *lnfree, *s0, *mid, *lg, *lng, *m;
   double *J;

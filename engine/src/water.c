@@ -35,3 +35,23 @@ void eqpi_debye_huckel_AB(double T, double *A, double *B)
 }
 
 double eqp_water_density(double T) { return eqpi_water_density(T); }
+
+/* IAPWS R11-07 (2007), A. V. Bandura and S. N. Lvov, "The ionization
+** constant of water over wide ranges of temperature and density",
+** J. Phys. Chem. Ref. Data 35, 15-30 (2006); rho in g/cm3, T in K. */
+double eqpi_water_pKw_rho(double T, double rho)
+{
+  const double n = 6, a0 = -0.864671, a1 = 8659.19, a2 = -22786.2;
+  const double b0 = 0.642044, b1 = -56.8534, b2 = -0.375754;
+  const double g0 = 0.61415, g1 = 48251.33, g2 = -67707.93, g3 = 10102100.0;
+  const double Mw = 18.015268e-3;  /* kg/mol */
+  double Q = rho * exp(a0 + a1 / T + a2 / (T * T) * pow(rho, 2.0 / 3.0));
+  double pKG = g0 + g1 / T + g2 / (T * T) + g3 / (T * T * T);
+  return -2 * n * (log10(1 + Q) - Q / (Q + 1) * rho * (b0 + b1 / T + b2 * rho)) + pKG +
+         2 * log10(Mw);
+}
+
+double eqpi_water_pKw(double T)
+{
+  return eqpi_water_pKw_rho(T, eqpi_water_density(T));
+}
