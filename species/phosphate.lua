@@ -4,6 +4,12 @@ return {
   sources = {
     goldberg2002 = "R. N. Goldberg, N. Kishore, R. M. Lennen, 'Thermodynamic quantities for the ionization reactions of buffers', J. Phys. Chem. Ref. Data 31, 231-370 (2002), 298.15 K, I = 0 [values from memory; pK3 and its dH medium-high confidence]",
     kielland1937 = "J. Kielland, J. Am. Chem. Soc. 59, 1675 (1937): ion-size parameters [ion assignments from memory]",
+    nea2003 = "R. Guillaumont et al., Update on the Chemical Thermodynamics of U, Np, Pu, Am and Tc, OECD/NEA, Elsevier 2003, Appendix B (SIT coefficients, kg/mol) [values from memory, low-medium confidence]",
+  },
+  interactions = {
+    { "Na+", "H2PO4-", sit = -0.08, source = "nea2003" },
+    { "Na+", "HPO4-2", sit = -0.15, source = "nea2003" },
+    { "Na+", "PO4-3", sit = -0.25, source = "nea2003" },
   },
   size_source = "kielland1937",
   species = {

@@ -53,6 +53,7 @@ void eqpi_stage_free(eqp_ctx *ctx, eqpi_stage *st)
   eqpi_free(ctx, st->sp, sizeof *st->sp * (size_t)st->capsp);
   eqpi_free(ctx, st->rx, sizeof *st->rx * (size_t)st->caprx);
   eqpi_free(ctx, st->rg, sizeof *st->rg * (size_t)st->caprg);
+  eqpi_free(ctx, st->in, sizeof *st->in * (size_t)st->capin);
   eqpi_free(ctx, st->files, sizeof *st->files * (size_t)st->capfiles);
   eqpi_free(ctx, st, sizeof *st);
 }
@@ -72,6 +73,8 @@ typedef struct committer {
   int ncomp;
   int *comp_species;
   signed char *state; /* per species: 0 todo, 1 resolving, 2 done */
+  eqpi_pairparam *pairs;
+  int npairs, cappairs;
 } committer;
 
 static int find_species(const committer *c, const char *name)
@@ -121,6 +124,19 @@ static void add_species(committer *c)
     d->size_source = s->size_source;
     d->file = s->file;
     d->line = s->line;
+    d->nparam = s->nparams;
+    if (s->nparams) {
+      d->pkey = eqpi_arena_alloc(c->ctx, &st->arena, sizeof(char *) * (size_t)s->nparams);
+      d->pval = eqpi_arena_alloc(c->ctx, &st->arena, sizeof(double) * (size_t)s->nparams);
+      if (!d->pkey || !d->pval) {
+        eqpi_stage_error(st, NULL, 0, "out of memory");
+        continue;
+      }
+      for (int q = 0; q < s->nparams; q++) {
+        d->pkey[q] = s->params[q].name;
+        d->pval[q] = s->params[q].nu;
+      }
+    }
     d->rxn = -1;
     d->component = -1;
     c->nsp++;
@@ -407,6 +423,50 @@ static void add_reagents(committer *c)
   }
 }
 
+/* Resolve the names of each interaction; a pair and key given twice is an
+** error. The new parameters go to c->pairs after the existing ones. */
+static void add_interactions(committer *c)
+{
+  eqpi_stage *st = c->st;
+  for (int k = 0; k < st->nin; k++) {
+    const st_inter *in = &st->in[k];
+    if (!in->a || !in->b) continue;
+    int a = find_species(c, in->a), b = find_species(c, in->b);
+    if (a < 0 || b < 0) {
+      eqpi_stage_error(st, in->file, in->line, "interaction: unknown species '%s'",
+                       a < 0 ? in->a : in->b);
+      continue;
+    }
+    for (int p = 0; p < in->n; p++) {
+      for (int q = 0; q < c->npairs; q++) {
+        const eqpi_pairparam *o = &c->pairs[q];
+        if (((o->a == a && o->b == b) || (o->a == b && o->b == a)) &&
+            strcmp(o->key, in->params[p].name) == 0) {
+          eqpi_stage_error(st, in->file, in->line, "duplicate %s for %s and %s (first at %s:%d)",
+                           o->key, in->a, in->b, o->file, o->line);
+          break;
+        }
+      }
+      if (c->npairs == c->cappairs) {
+        int nc = c->cappairs * 2 + 16;
+        eqpi_pairparam *np = eqpi_realloc(c->ctx, c->pairs, sizeof *np * (size_t)c->cappairs,
+                                          sizeof *np * (size_t)nc);
+        if (!np) { eqpi_stage_error(st, NULL, 0, "out of memory"); return; }
+        c->pairs = np;
+        c->cappairs = nc;
+      }
+      eqpi_pairparam *d = &c->pairs[c->npairs++];
+      d->a = a;
+      d->b = b;
+      d->key = in->params[p].name;
+      d->value = in->params[p].nu;
+      d->source = in->source;
+      d->file = in->file;
+      d->line = in->line;
+    }
+  }
+}
+
 static void committer_free(committer *c)
 {
   eqp_ctx *ctx = c->ctx;
@@ -415,6 +475,7 @@ static void committer_free(committer *c)
   eqpi_free(ctx, c->rg, sizeof *c->rg * (size_t)c->caprg);
   eqpi_free(ctx, c->comp_species, sizeof(int) * (size_t)(c->db->ncomp + c->st->nsp + 1));
   eqpi_free(ctx, c->state, (size_t)(c->db->nsp + c->st->nsp + 1));
+  eqpi_free(ctx, c->pairs, sizeof *c->pairs * (size_t)c->cappairs);
 }
 
 int eqpi_db_rebuild_index(eqp_ctx *ctx, eqpi_db *db);
@@ -423,7 +484,7 @@ int eqpi_stage_commit(eqp_ctx *ctx, eqpi_stage *st)
 {
   eqpi_db *db = &ctx->db;
   committer c = {ctx, db, st, NULL, db->nsp, NULL, db->nrx, NULL, db->nrg, 0, db->ncomp,
-                 NULL, NULL};
+                 NULL, NULL, NULL, 0, 0};
   int rc = EQP_E_DATA;
   /* Shape errors found while staging do not stop the checks of names and
   ** balances below, so one run reports every problem; nothing is kept. */
@@ -444,6 +505,17 @@ int eqpi_stage_commit(eqp_ctx *ctx, eqpi_stage *st)
   if (db->nrg) memcpy(c.rg, db->rg, sizeof *c.rg * (size_t)db->nrg);
   if (db->ncomp) memcpy(c.comp_species, db->comp_species, sizeof(int) * (size_t)db->ncomp);
   memset(c.state, 2, (size_t)db->nsp);
+  if (db->npairs) {
+    c.cappairs = db->npairs + 16;
+    c.pairs = eqpi_malloc(ctx, sizeof *c.pairs * (size_t)c.cappairs);
+    if (!c.pairs) {
+      rc = EQP_E_NOMEM;
+      eqpi_stage_error(st, NULL, 0, "out of memory");
+      goto fail;
+    }
+    memcpy(c.pairs, db->pairs, sizeof *c.pairs * (size_t)db->npairs);
+    c.npairs = db->npairs;
+  }
   add_species(&c);
   add_reactions(&c);
   for (int i = db->nsp; i < c.nsp; i++)
@@ -455,6 +527,7 @@ int eqpi_stage_commit(eqp_ctx *ctx, eqpi_stage *st)
   for (int i = db->nsp; i < c.nsp; i++)
     if (resolve(&c, i, 0) < 0) goto fail;
   add_reagents(&c);
+  add_interactions(&c);
   if (st->nerr) goto fail;
   /* Success: nothing below can fail except the index, rebuilt on the
   ** new arrays before the old ones are released. */
@@ -463,6 +536,7 @@ int eqpi_stage_commit(eqp_ctx *ctx, eqpi_stage *st)
   next.rx = c.rx; next.nrx = c.nrx; next.caprx = (int)maxrx;
   next.rg = c.rg; next.nrg = c.nrg; next.caprg = c.caprg;
   next.comp_species = c.comp_species; next.ncomp = c.ncomp;
+  next.pairs = c.pairs; next.npairs = c.npairs; next.cappairs = c.cappairs;
   next.capcomp = db->ncomp + st->nsp + 1;
   next.hash = NULL;
   next.hashcap = 0;
@@ -488,6 +562,7 @@ int eqpi_stage_commit(eqp_ctx *ctx, eqpi_stage *st)
   eqpi_free(ctx, db->rg, sizeof *db->rg * (size_t)db->caprg);
   eqpi_free(ctx, db->comp_species, sizeof(int) * (size_t)db->capcomp);
   eqpi_free(ctx, db->hash, sizeof(int) * (size_t)db->hashcap * 2);
+  eqpi_free(ctx, db->pairs, sizeof *db->pairs * (size_t)db->cappairs);
   eqpi_free(ctx, c.state, maxsp);
   *db = next;
   eqpi_arena_splice(&db->arena, &st->arena);

@@ -85,6 +85,29 @@ int eqpi_db_find_reagent(const eqpi_db *db, const char *name)
   return -1;
 }
 
+int eqpi_db_species_param(const eqpi_db *db, int i, const char *key, double *v)
+{
+  const eqpi_species *s = &db->sp[i];
+  for (int k = 0; k < s->nparam; k++)
+    if (strcmp(s->pkey[k], key) == 0) {
+      *v = s->pval[k];
+      return 0;
+    }
+  return -1;
+}
+
+int eqpi_db_pair_param(const eqpi_db *db, int i, int j, const char *key, double *v)
+{
+  for (int k = 0; k < db->npairs; k++) {
+    const eqpi_pairparam *p = &db->pairs[k];
+    if (((p->a == i && p->b == j) || (p->a == j && p->b == i)) && strcmp(p->key, key) == 0) {
+      *v = p->value;
+      return 0;
+    }
+  }
+  return -1;
+}
+
 void eqpi_db_free(eqp_ctx *ctx, eqpi_db *db)
 {
   eqpi_free(ctx, db->sp, sizeof *db->sp * (size_t)db->capsp);
@@ -92,6 +115,7 @@ void eqpi_db_free(eqp_ctx *ctx, eqpi_db *db)
   eqpi_free(ctx, db->rg, sizeof *db->rg * (size_t)db->caprg);
   eqpi_free(ctx, db->comp_species, sizeof(int) * (size_t)db->capcomp);
   eqpi_free(ctx, db->files, sizeof *db->files * (size_t)db->capfiles);
+  eqpi_free(ctx, db->pairs, sizeof *db->pairs * (size_t)db->cappairs);
   eqpi_free(ctx, db->hash, sizeof(int) * (size_t)db->hashcap * 2);
   eqpi_arena_free(ctx, &db->arena);
   memset(db, 0, sizeof *db);
@@ -164,6 +188,12 @@ static void describe_species(const eqpi_db *db, int i, char *buf, size_t len)
   APPEND("species %s\n  formula   %s (charge %+g)\n  defined   %s:%d\n", s->name, s->formula,
          s->comp.charge, s->file, s->line);
   if (!isnan(s->size)) APPEND("  ion size  %g A (%s)\n", s->size, s->size_source);
+  for (int k = 0; k < s->nparam; k++) APPEND("  parameter %s = %g\n", s->pkey[k], s->pval[k]);
+  for (int k = 0; k < db->npairs; k++)
+    if (db->pairs[k].a == i || db->pairs[k].b == i)
+      APPEND("  with %-6s %s = %g (%s)\n",
+             db->sp[db->pairs[k].a == i ? db->pairs[k].b : db->pairs[k].a].name,
+             db->pairs[k].key, db->pairs[k].value, db->pairs[k].source);
   if (s->rxn < 0) {
     APPEND("  basis species (a component)\n");
     return;

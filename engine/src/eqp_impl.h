@@ -130,7 +130,20 @@ typedef struct eqpi_species {
   int nrx;
   int *rx_idx;
   double *rx_c;
+  /* activity-model parameters from the species file (e.g. tj_a, tj_b) */
+  int nparam;
+  const char **pkey;
+  double *pval;
 } eqpi_species;
+
+/* A parameter of a pair of species (e.g. an SIT interaction coefficient). */
+typedef struct eqpi_pairparam {
+  int a, b;             /* species indexes */
+  const char *key;
+  double value;
+  const char *source, *file;
+  int line;
+} eqpi_pairparam;
 
 typedef struct eqpi_reagent {
   const char *name;     /* formula or name used in s:add */
@@ -168,6 +181,8 @@ typedef struct eqpi_db {
   int ncomp;
   int *comp_species;    /* component -> species */
   int capcomp;
+  eqpi_pairparam *pairs;
+  int npairs, cappairs;
   const char **files;
   int nfiles, capfiles;
   /* name hash: species and reagents (reagent entries are ~index) */
@@ -179,6 +194,10 @@ typedef struct eqpi_db {
 
 int eqpi_db_find_species(const eqpi_db *db, const char *name);
 int eqpi_db_find_reagent(const eqpi_db *db, const char *name);
+/* Parameter key of species i, or of the pair (i, j) in either order:
+** 0 and *v set when present, -1 otherwise. */
+int eqpi_db_species_param(const eqpi_db *db, int i, const char *key, double *v);
+int eqpi_db_pair_param(const eqpi_db *db, int i, int j, const char *key, double *v);
 void eqpi_db_free(eqp_ctx *ctx, eqpi_db *db);
 /* log10 K of species i at T (K) by the integrated van't Hoff equation;
 ** *missing counts contributions lacking temperature data away from 25 C. */
@@ -251,6 +270,7 @@ typedef struct eqpi_solve_stats {
   double residual;      /* max relative balance residual after the solve */
   int missing_T;        /* constants used at 25 C values away from 25 C */
   int outside_T;        /* temperature functions used outside their range */
+  const char *model_note; /* the activity model's note from bind, or "" */
 } eqpi_solve_stats;
 
 /* Build (or reuse) the active system for totals (mol/kg) at T and solve.

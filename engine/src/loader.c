@@ -24,6 +24,7 @@ typedef struct conv {
   int depth;
   int sources;          /* stack index of the sources table, 0 if none */
   const char *size_source; /* file-level source of ion sizes */
+  const char *params_source; /* file-level source of species parameters */
 } conv;
 
 static void cv_push(conv *c, const char *key)
@@ -182,8 +183,17 @@ static const char *cv_pos_string(conv *c, lua_Integer i)
   return s;
 }
 
-/* A map { name = coefficient, ... } at key; returns count, -1 on error. */
+/* A map { name = number, ... } at key; returns count, -1 on error.
+** Coefficients (the default) must be non-zero and modest; parameters
+** (params != 0) may be any finite number. */
+static int cv_map(conv *c, const char *key, st_pair **out, int params);
+
 static int cv_pairs(conv *c, const char *key, st_pair **out)
+{
+  return cv_map(c, key, out, 0);
+}
+
+static int cv_map(conv *c, const char *key, st_pair **out, int params)
 {
   cv_push(c, key);
   int t = cv_field(c, key);
@@ -207,8 +217,9 @@ static int cv_pairs(conv *c, const char *key, st_pair **out)
       bad = 1;
     } else {
       double v = lua_tonumber(c->L, -1);
-      if (!isfinite(v) || v == 0 || fabs(v) > 100) {
-        CV_ERR(c, "coefficient of '%s' must be a non-zero number", lua_tostring(c->L, -2));
+      if (!isfinite(v) || (!params && (v == 0 || fabs(v) > 100)) || fabs(v) > 1e6) {
+        CV_ERR(c, "%s of '%s' must be a %snumber", params ? "value" : "coefficient",
+               lua_tostring(c->L, -2), params ? "finite " : "non-zero ");
         bad = 1;
       } else if (p) {
         p[k].name = cv_str(c, lua_tostring(c->L, -2));
@@ -340,10 +351,25 @@ static void cv_trange(conv *c, double *lo, double *hi)
 static void cv_species(conv *c)
 {
   const char *file_size_source = c->size_source;
-  static const char *const keys[] = {"formula", "size", "size_source", "note", NULL};
+  static const char *const keys[] = {"formula", "size", "size_source", "params",
+                                     "params_source", "note", NULL};
   cv_keys(c, keys, 1);
   st_species *s = STAGE_PUSH(c, sp, nsp, capsp);
   if (!s) return;
+  lua_getfield(c->L, -1, "params");
+  int has_params = !lua_isnil(c->L, -1);
+  lua_pop(c->L, 1);
+  if (has_params) {
+    s->nparams = cv_map(c, "params", &s->params, 1);
+    if (s->nparams < 0) s->nparams = 0;
+    s->params_source = cv_source(c, "params_source", 0);
+    if (!s->params_source) s->params_source = c->params_source;
+    if (!s->params_source) {
+      cv_push(c, "params");
+      CV_ERR(c, "parameters need a source: 'params_source' here or at the top of the file");
+      cv_pop(c);
+    }
+  }
   s->name = cv_pos_string(c, 1);
   s->formula = cv_string(c, "formula", 0);
   if (!s->formula) s->formula = s->name;
@@ -518,6 +544,48 @@ static void cv_reagent(conv *c)
   }
 }
 
+/* { "Na+", "Cl-", sit = 0.03, source = "..." }: parameters of a pair. */
+static void cv_interaction(conv *c)
+{
+  st_inter *in = STAGE_PUSH(c, in, nin, capin);
+  if (!in) return;
+  in->a = cv_pos_string(c, 1);
+  in->b = cv_pos_string(c, 2);
+  in->source = cv_source(c, "source", 1);
+  in->file = c->file;
+  in->line = cv_line(c);
+  int n = 0;
+  lua_pushnil(c->L);
+  while (lua_next(c->L, -2)) {
+    lua_pop(c->L, 1);
+    if (lua_type(c->L, -1) == LUA_TSTRING && strcmp(lua_tostring(c->L, -1), "source") &&
+        strcmp(lua_tostring(c->L, -1), "note"))
+      n++;
+    else if (lua_type(c->L, -1) != LUA_TSTRING &&
+             !(lua_isinteger(c->L, -1) && lua_tointeger(c->L, -1) >= 1 &&
+               lua_tointeger(c->L, -1) <= 2))
+      CV_ERR(c, "an interaction is { species, species, name = value, source = ... }");
+  }
+  in->params = n ? eqpi_arena_alloc(c->ctx, &c->st->arena, sizeof *in->params * (size_t)n) : NULL;
+  lua_pushnil(c->L);
+  while (lua_next(c->L, -2) && in->params) {
+    if (lua_type(c->L, -2) == LUA_TSTRING && strcmp(lua_tostring(c->L, -2), "source") &&
+        strcmp(lua_tostring(c->L, -2), "note")) {
+      const char *k = lua_tostring(c->L, -2);
+      cv_push(c, k);
+      if (lua_type(c->L, -1) != LUA_TNUMBER || !isfinite(lua_tonumber(c->L, -1)))
+        CV_ERR(c, "expected a number");
+      else {
+        in->params[in->n].name = cv_str(c, k);
+        in->params[in->n++].nu = lua_tonumber(c->L, -1);
+      }
+      cv_pop(c);
+    }
+    lua_pop(c->L, 1);
+  }
+  if (in->n == 0) CV_ERR(c, "an interaction names at least one parameter, e.g. sit = 0.03");
+}
+
 /* Run f on each element of the list at key. */
 static void cv_list(conv *c, const char *key, void (*f)(conv *))
 {
@@ -543,8 +611,9 @@ int eqpi_stage_from_table(eqp_ctx *ctx, eqpi_stage *st, lua_State *L, int idx,
                           const eqpi_linemap *lm, const char *file)
 {
   static const char *const keys[] = {"system", "about", "sources", "size_source",
-                                     "species", "acids", "reactions", "reagents", NULL};
-  conv c = {ctx, st, L, lm, NULL, {0}, {{0}}, 0, 0, NULL};
+                                     "params_source", "species", "acids", "reactions",
+                                     "reagents", "interactions", NULL};
+  conv c = {ctx, st, L, lm, NULL, {0}, {{0}}, 0, 0, NULL, NULL};
   int before = st->nerr;
   int top = lua_gettop(L);
   c.file = eqpi_arena_strdup(ctx, &st->arena, file);
@@ -562,10 +631,12 @@ int eqpi_stage_from_table(eqp_ctx *ctx, eqpi_stage *st, lua_State *L, int idx,
   lua_pushvalue(L, idx);
   cv_string(&c, "system", 0);
   c.size_source = cv_source(&c, "size_source", 0);
+  c.params_source = cv_source(&c, "params_source", 0);
   cv_list(&c, "species", cv_species);
   cv_list(&c, "acids", cv_acid);
   cv_list(&c, "reactions", cv_reaction);
   cv_list(&c, "reagents", cv_reagent);
+  cv_list(&c, "interactions", cv_interaction);
   lua_settop(L, top);
   return st->nerr > before ? EQP_E_DATA : EQP_OK;
 }

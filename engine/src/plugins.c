@@ -246,23 +246,33 @@ typedef struct lister {
   int nseen;
 } lister;
 
+static int cmp_name(const void *a, const void *b) { return strcmp(a, b); }
+
 static int list_in(void *ud, const char *dir)
 {
   lister *ls = ud;
   DIR *d = opendir(dir);
   if (!d) return 0;
+  char files[64][64];
+  int nf = 0;
   struct dirent *e;
-  while ((e = readdir(d))) {
+  while ((e = readdir(d)) && nf < 64) {
     size_t l = strlen(e->d_name);
-    if (l < 4 || strcmp(e->d_name + l - 3, ".so") != 0) continue;
+    if (l >= 4 && l < 64 && strcmp(e->d_name + l - 3, ".so") == 0)
+      snprintf(files[nf++], 64, "%s", e->d_name);
+  }
+  closedir(d);
+  qsort(files, (size_t)nf, sizeof files[0], cmp_name);
+  for (int f = 0; f < nf; f++) {
+    size_t l = strlen(files[f]);
     char name[64];
-    snprintf(name, sizeof name, "%.*s", (int)(l - 3), e->d_name);
+    snprintf(name, sizeof name, "%.*s", (int)(l - 3), files[f]);
     int dup = 0;
     for (int i = 0; i < ls->nseen; i++) dup |= strcmp(ls->seen[i], name) == 0;
     if (dup) continue;   /* an earlier folder wins, as when loading */
     if (ls->nseen < 64) snprintf(ls->seen[ls->nseen++], 64, "%s", name);
     char path[4096], err[EQPI_ERRLEN];
-    snprintf(path, sizeof path, "%s/%s", dir, e->d_name);
+    snprintf(path, sizeof path, "%s/%s", dir, files[f]);
     void *dl;
     const eqp_plugin_desc *desc;
     if (plugin_dlopen(path, &dl, &desc, err, sizeof err, &ls->ctx->host) < 0) {
@@ -272,7 +282,6 @@ static int list_in(void *ud, const char *dir)
     ls->fn(ls->ud, desc->name, desc->version, desc->summary, path);
     dlclose(dl);
   }
-  closedir(d);
   return 0;
 }
 

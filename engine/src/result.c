@@ -5,7 +5,7 @@
 #include <stdio.h>
 #include <string.h>
 
-#define MAX_WARN 4
+#define MAX_WARN 6
 
 struct eqp_result {
   eqp_ctx *ctx;
@@ -53,10 +53,12 @@ int eqpi_result_make(eqp_ctx *ctx, const eqpi_system *sys, const eqpi_model *mod
   r->iters = st->iterations;
   r->model = model->desc->name;
   double Imax = model->desc->max_ionic_strength;
-  if (Imax > 0 && r->I > Imax)
+  if (Imax > 0 && r->I > Imax * (1 + 1e-6))   /* a recipe made to the limit is inside */
     snprintf(r->warn[r->nwarn++], 256, "ionic strength %.3g mol/kg is beyond the stated range "
              "of the '%s' activity model (I <= %g mol/kg); activity coefficients are "
              "extrapolated", r->I, r->model, Imax);
+  if (st->model_note && st->model_note[0])
+    snprintf(r->warn[r->nwarn++], 256, "%s", st->model_note);
   if (st->outside_T)
     snprintf(r->warn[r->nwarn++], 256, "%d temperature function(s) were used outside the "
              "range their source states, at %.2f C", st->outside_T, T - 273.15);

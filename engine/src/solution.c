@@ -15,6 +15,9 @@ struct eqp_solution {
   double *total;          /* mol per component of the database */
   int ntotal;
   eqpi_system *sys;
+  char pname[8][32];      /* activity-model parameters set, for copies */
+  double pvalue[8];
+  int nparams;
 };
 
 static int grow_totals(eqp_solution *s)
@@ -85,6 +88,41 @@ int eqp_solution_copy(const eqp_solution *s, eqp_solution **out)
     return rc;
   }
   memcpy(c->total, s->total, sizeof(double) * (size_t)s->ntotal);
+  for (int i = 0; i < s->nparams; i++)
+    if ((rc = eqp_solution_set_activity_param(c, s->pname[i], s->pvalue[i])) < 0) {
+      eqp_solution_free(c);
+      *out = NULL;
+      return rc;
+    }
+  return EQP_OK;
+}
+
+int eqp_solution_set_activity_param(eqp_solution *s, const char *name, double value)
+{
+  if (!s || !name) return eqpi_fail(s ? s->ctx : NULL, EQP_E_ARG, "NULL argument");
+  const eqp_activity_ops *ops = s->model.ops;
+  char err[256] = "";
+  if (!ops->set_param)
+    return eqpi_fail(s->ctx, EQP_E_PLUGIN, "activity model '%s' takes no parameters",
+                     s->model.desc->name);
+  if (ops->set_param(s->model.state, name, value, err, sizeof err) != 0)
+    return eqpi_fail(s->ctx, EQP_E_PLUGIN, "activity model '%s': %s", s->model.desc->name,
+                     err[0] ? err : "parameter refused");
+  /* the parameters are part of the copy's model too */
+  if (s->nparams < (int)(sizeof s->pname / sizeof s->pname[0])) {
+    snprintf(s->pname[s->nparams], sizeof s->pname[0], "%s", name);
+    s->pvalue[s->nparams++] = value;
+  }
+  return EQP_OK;
+}
+
+int eqp_solution_set_temperature(eqp_solution *s, double T)
+{
+  if (!s) return EQP_E_ARG;
+  if (!(T >= 273.15 && T <= 373.15))
+    return eqpi_fail(s->ctx, EQP_E_INPUT, "temperature %.2f C is outside 0..100 C (liquid "
+                     "water at about 1 bar)", T - 273.15);
+  s->T = T;
   return EQP_OK;
 }
 

@@ -128,6 +128,7 @@ static void arrays_free(eqp_ctx *ctx, eqpi_system *s)
   eqpi_free(ctx, s->d, sizeof(double) * n);
   eqpi_free(ctx, s->xt, sizeof(double) * 2 * n);
   eqpi_free(ctx, s->u_last, sizeof(double) * n);
+  eqpi_free(ctx, s->names, sizeof(char *) * ns);
 }
 
 void eqpi_system_free(eqp_ctx *ctx, eqpi_system *sys)
@@ -189,7 +190,8 @@ static int build(eqp_ctx *ctx, eqpi_system *s, const unsigned char *mask)
            GROW(ctx, s->mid, ns) && GROW(ctx, s->lg, ns) && GROW(ctx, s->lng, ns) &&
            GROW(ctx, s->m, ns) && GROW(ctx, s->J, (nc + 2) * (nc + 2)) &&
            GROW(ctx, s->piv, nc + 2) && GROW(ctx, s->g, nc + 3) && GROW(ctx, s->d, nc + 2) &&
-           GROW(ctx, s->xt, 2 * (nc + 2)) && GROW(ctx, s->u_last, nc + 2);
+           GROW(ctx, s->xt, 2 * (nc + 2)) && GROW(ctx, s->u_last, nc + 2) &&
+           GROW(ctx, s->names, ns);
   if (!ok) {
     eqpi_free(ctx, loc, sizeof(int) * ((size_t)ncg + 1));
     return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
@@ -207,6 +209,7 @@ static int build(eqp_ctx *ctx, eqpi_system *s, const unsigned char *mask)
       if (loc[c] >= 0) s->nu[(size_t)k * nc + loc[c]] = sp->term_nu[t];
     }
     if (sp->component >= 0) s->comp_sp[loc[sp->component]] = k;
+    s->names[k] = sp->name;
     s->z[k] = sp->comp.charge;
     s->z2[k] = sp->comp.charge * sp->comp.charge;
     s->size[k] = sp->size;
@@ -228,6 +231,7 @@ static int build(eqp_ctx *ctx, eqpi_system *s, const unsigned char *mask)
   }
   s->n = s->nx + 1;
   s->generation = db->generation;
+  s->bound = NULL;
   s->Tk = -1;
   s->solved = false;
   eqpi_free(ctx, loc, sizeof(int) * ((size_t)ncg + 1));
@@ -244,6 +248,36 @@ static void set_temperature(eqpi_system *s, double T)
   s->missing_T = notes.missing;
   s->outside_T = notes.outside;
   eqpi_debye_huckel_AB(T, &s->A, &s->B);
+}
+
+static int info_param(const void *ud, size_t i, const char *key, double *v)
+{
+  const eqpi_system *s = ud;
+  return eqpi_db_species_param(&s->ctx->db, s->sp[i], key, v);
+}
+
+static int info_pair(const void *ud, size_t i, size_t j, const char *key, double *v)
+{
+  const eqpi_system *s = ud;
+  return eqpi_db_pair_param(&s->ctx->db, s->sp[i], s->sp[j], key, v);
+}
+
+/* Tell the model which species are present (optional op of the ABI). */
+static int bind_model(eqp_ctx *ctx, eqpi_system *s, eqpi_model *model)
+{
+  const eqp_activity_ops *ops = model->ops;
+  s->bind_warn[0] = '\0';
+  s->bound = model;
+  if (ops->struct_size < offsetof(eqp_activity_ops, bind) + sizeof ops->bind || !ops->bind)
+    return EQP_OK;
+  eqp_species_info info = {(size_t)s->ns, s->names, s->z, s->size, s, info_param, info_pair};
+  char err[256] = "";
+  if (ops->bind(model->state, &info, s->bind_warn, sizeof s->bind_warn, err, sizeof err) != 0) {
+    s->bound = NULL;
+    return eqpi_fail(ctx, EQP_E_PLUGIN, "activity model '%s': %s", model->desc->name,
+                     err[0] ? err : "bind failed");
+  }
+  return EQP_OK;
 }
 
 /* Reuse the structure and the KINSOL instance when the same components are
@@ -280,6 +314,7 @@ static int prepare(eqp_ctx *ctx, eqpi_system **sysp, const double *totals, doubl
   if (mask != stackmask) eqpi_free(ctx, mask, (size_t)db->ncomp);
   if (rc < 0) return rc;
   s->model = model;
+  if (s->bound != model && (rc = bind_model(ctx, s, model)) < 0) return rc;
   for (int c = 0; c < s->nc; c++) {
     s->tot[c] = totals[s->comp[c]];
     s->lnfix[c] = log(s->tot[c] > 0 ? s->tot[c] : 1e-300);
@@ -421,6 +456,7 @@ int eqpi_system_solve(eqp_ctx *ctx, eqpi_system **sysp, const double *totals, do
     stats->residual = r;
     stats->missing_T = s->missing_T;
     stats->outside_T = s->outside_T;
+    stats->model_note = s->bind_warn;
   }
   rc = EQP_OK;
 out:

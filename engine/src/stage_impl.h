@@ -15,8 +15,17 @@ typedef struct st_pair {
 typedef struct st_species {
   const char *name, *formula, *size_source, *file;
   double size;
+  st_pair *params;        /* activity-model parameters, name -> value */
+  int nparams;
+  const char *params_source;
   int line;
 } st_species;
+
+typedef struct st_inter {
+  const char *a, *b, *source, *file;
+  st_pair *params;        /* e.g. sit = 0.03 */
+  int n, line;
+} st_inter;
 
 typedef struct st_reaction {
   const char *product, *source, *file;
@@ -48,6 +57,8 @@ struct eqpi_stage {
   int nrx, caprx;
   st_reagent *rg;
   int nrg, caprg;
+  st_inter *in;
+  int nin, capin;
   const char **files;
   int nfiles, capfiles;
   char err[EQPI_ERRLEN];

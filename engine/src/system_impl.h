@@ -41,6 +41,9 @@ struct eqpi_system {
   double lambda;        /* continuation weight on ln gamma */
   double A, B;
   eqpi_model *model;
+  const eqpi_model *bound;   /* the model bind() last saw this species set */
+  const char **names;        /* ns species names, for bind() */
+  char bind_warn[256];
   char plugin_err[256];
   int plugin_failed;
   /* KINSOL, one instance reused between solves */

@@ -58,7 +58,7 @@ static int davies_set_param(void *state, const char *name, double value,
 
 static const eqp_activity_ops davies_ops = {
   sizeof(eqp_activity_ops), davies_create, davies_destroy, davies_log_gamma,
-  davies_set_param,
+  davies_set_param, NULL,
 };
 
 static const eqp_plugin_desc davies_desc = {

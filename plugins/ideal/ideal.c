@@ -18,7 +18,7 @@ static int ideal_log_gamma(void *state, const eqp_activity_in *in, double *lg,
 }
 
 static const eqp_activity_ops ideal_ops = {
-  sizeof(eqp_activity_ops), ideal_create, ideal_destroy, ideal_log_gamma, NULL,
+  sizeof(eqp_activity_ops), ideal_create, ideal_destroy, ideal_log_gamma, NULL, NULL,
 };
 
 static const eqp_plugin_desc ideal_desc = {

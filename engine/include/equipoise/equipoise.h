@@ -164,6 +164,12 @@ EQP_API int eqp_solution_add(eqp_solution *s, const char *reagent, double value,
 /* Same, with an amount string such as "12.5 mmol". */
 EQP_API int eqp_solution_add_str(eqp_solution *s, const char *reagent, const char *amount);
 
+/* Set a parameter of the solution's activity model (e.g. "coefficient" of
+** davies). EQP_E_PLUGIN with the model's message if it refuses. */
+EQP_API int eqp_solution_set_activity_param(eqp_solution *s, const char *name, double value);
+/* Change the temperature (K, 273.15 .. 373.15); the composition is kept. */
+EQP_API int eqp_solution_set_temperature(eqp_solution *s, double T);
+
 EQP_API double eqp_solution_water_kg(const eqp_solution *s);
 EQP_API double eqp_solution_temperature(const eqp_solution *s); /* K */
 /* Volume in L, approximated as the volume of its water at T (dilute). */

@@ -61,6 +61,24 @@ typedef struct eqp_activity_in {
   double B;                 /* Debye-Hueckel B, kg^1/2 mol^-1/2 per Angstrom */
 } eqp_activity_in;
 
+/*
+** The species of a solution, given to a model's bind() whenever the set of
+** species present changes. Index i here is index i of every later
+** eqp_activity_in. Borrowed for the duration of the call.
+*/
+typedef struct eqp_species_info {
+  size_t n;
+  const char *const *name;  /* as in the species files */
+  const double *charge;
+  const double *size;       /* ion-size parameter, Angstrom; NaN if unknown */
+  const void *ud;           /* pass back to param() and pair() */
+  /* A numeric parameter of species i from its file (e.g. "tj_b"): 0 and
+  ** *value set, or -1 if the files do not give it. */
+  int (*param)(const void *ud, size_t i, const char *key, double *value);
+  /* A parameter of the pair (i, j), in either order (e.g. "sit"). */
+  int (*pair)(const void *ud, size_t i, size_t j, const char *key, double *value);
+} eqp_species_info;
+
 /* Operations of an activity model. Required members first. */
 typedef struct eqp_activity_ops {
   uint32_t struct_size;     /* sizeof(eqp_activity_ops) as the plugin built it */
@@ -76,6 +94,12 @@ typedef struct eqp_activity_ops {
   /* 1.0, optional (NULL: no parameters) */
   /* Set a named parameter; return non-zero with err if unknown or bad. */
   int (*set_param)(void *state, const char *name, double value, char *err, size_t errlen);
+  /* 1.0, optional (NULL: the model needs nothing but charges and sizes) */
+  /* Take the species present and read their parameters. A note for the
+  ** user (e.g. a default used for a missing parameter) goes into warn
+  ** (warnlen bytes, empty if none). Return 0, or non-zero with err. */
+  int (*bind)(void *state, const eqp_species_info *info, char *warn, size_t warnlen,
+              char *err, size_t errlen);
 } eqp_activity_ops;
 
 /* The descriptor a plugin's entry returns. Static and read-only. */

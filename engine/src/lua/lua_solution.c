@@ -104,8 +104,22 @@ int eqpl_solution_new(lua_State *L)
   eqp_solution_opts o;
   o.temperature_K = opt_temperature(L, 1, ctx);
   o.water_kg = opt_water(L, 1, ctx, o.temperature_K);
-  lua_getfield(L, 1, "activity");
-  o.activity = lua_isnil(L, -1) ? NULL : luaL_checkstring(L, -1);
+  /* activity = "davies" or { "davies", coefficient = 0.2 } */
+  int act = lua_getfield(L, 1, "activity");
+  int params = 0;
+  if (act == LUA_TTABLE) {
+    params = lua_gettop(L);
+    lua_geti(L, params, 1);
+    if (lua_type(L, -1) != LUA_TSTRING)
+      return eqpl_input_error(L, "activity = { 'model name', parameter = value, ... }");
+    o.activity = lua_tostring(L, -1);
+  } else if (act == LUA_TSTRING) {
+    o.activity = lua_tostring(L, -1);
+  } else if (act == LUA_TNIL) {
+    o.activity = NULL;
+  } else {
+    return eqpl_input_error(L, "activity: a model name such as 'davies'");
+  }
   eqp_solution *s;
   eqpl_solution *u = lua_newuserdatauv(L, sizeof *u, 1);
   u->s = NULL;
@@ -115,6 +129,19 @@ int eqpl_solution_new(lua_State *L)
   int rc = eqp_solution_new(ctx, &o, &s);
   if (rc < 0) return eqpl_fail(L, ctx, rc);
   u->s = s;
+  if (params) {
+    lua_pushnil(L);
+    while (lua_next(L, params)) {
+      if (lua_type(L, -2) == LUA_TSTRING) {
+        if (lua_type(L, -1) != LUA_TNUMBER)
+          return eqpl_input_error(L, "activity parameter '%s' must be a number",
+                                  lua_tostring(L, -2));
+        rc = eqp_solution_set_activity_param(s, lua_tostring(L, -2), lua_tonumber(L, -1));
+        if (rc < 0) return eqpl_fail(L, ctx, rc);
+      }
+      lua_pop(L, 1);
+    }
+  }
   return 1;
 }
 
@@ -169,6 +196,27 @@ static int solution_copy(lua_State *L)
   return 1;
 }
 
+/* s:set_temperature(37) or ("310.15 K"): same composition, new temperature */
+static int solution_set_temperature(lua_State *L)
+{
+  eqpl_solution *u = eqpl_check_solution(L, 1);
+  eqp_ctx *ctx = eqpl_ctx_of(L);
+  double T;
+  if (lua_type(L, 2) == LUA_TNUMBER) {
+    T = lua_tonumber(L, 2) + 273.15;
+  } else if (lua_type(L, 2) == LUA_TSTRING) {
+    eqp_quantity k;
+    if (eqp_parse_quantity(ctx, lua_tostring(L, 2), EQP_Q_TEMPERATURE, &T, &k) < 0)
+      return eqpl_fail(L, ctx, eqp_ctx_errcode(ctx));
+  } else {
+    return eqpl_input_error(L, "set_temperature: a number in C or a string such as '37 C'");
+  }
+  int rc = eqp_solution_set_temperature(u->s, T);
+  if (rc < 0) return eqpl_fail(L, ctx, rc);
+  lua_settop(L, 1);
+  return 1;
+}
+
 static int solution_water(lua_State *L)
 {
   lua_pushnumber(L, eqp_solution_water_kg(eqpl_check_solution(L, 1)->s));
@@ -209,6 +257,7 @@ static const luaL_Reg solution_methods[] = {
   {"add", solution_add},
   {"equilibrate", solution_equilibrate},
   {"copy", solution_copy},
+  {"set_temperature", solution_set_temperature},
   {"water", solution_water},
   {"volume", solution_volume},
   {"temperature", solution_temperature},

@@ -1,0 +1,125 @@
+/* B-dot / Truesdell-Jones activity model:
+**   log10 g = -A z^2 sqrt(I) / (1 + B a sqrt(I)) + b I
+** With the ion-specific a and b of A. H. Truesdell, B. F. Jones, J. Res.
+** U.S. Geol. Surv. 2, 233 (1974) where the species files give them
+** (parameters tj_a, tj_b); otherwise a is the ion size and b the B-dot of
+** H. C. Helgeson, Am. J. Sci. 267, 729 (1969): 0.041 at 25 C (settable as
+** "bdot"; its temperature dependence is not modelled). Neutral species:
+** g = 1. Usual range I <= 1 mol/kg in NaCl-dominated solutions. */
+/* SPDX-License-Identifier: MIT */
+#include <equipoise/plugin.h>
+#include <math.h>
+#include <stdio.h>
+#include <string.h>
+
+#define DEFAULT_SIZE 4.0
+
+typedef struct bdot_state {
+  const eqp_host_api *host;
+  double bdot;
+  double *a, *b;          /* per bound species; b NaN: use bdot */
+  size_t n;
+} bdot_state;
+
+static int bd_create(const eqp_host_api *host, void **state, char *err, size_t errlen)
+{
+  bdot_state *st = host->alloc(sizeof *st);
+  if (!st) {
+    snprintf(err, errlen, "out of memory");
+    return 1;
+  }
+  memset(st, 0, sizeof *st);
+  st->host = host;
+  st->bdot = 0.041;
+  *state = st;
+  return 0;
+}
+
+static void bd_destroy(const eqp_host_api *host, void *state)
+{
+  bdot_state *st = state;
+  if (!st) return;
+  host->free(st->a);
+  host->free(st->b);
+  host->free(st);
+}
+
+static int bd_bind(void *state, const eqp_species_info *info, char *warn, size_t warnlen,
+                   char *err, size_t errlen)
+{
+  bdot_state *st = state;
+  st->host->free(st->a);
+  st->host->free(st->b);
+  st->n = 0;
+  st->a = st->host->alloc(sizeof(double) * (info->n + 1));
+  st->b = st->host->alloc(sizeof(double) * (info->n + 1));
+  if (!st->a || !st->b) {
+    snprintf(err, errlen, "out of memory");
+    return 1;
+  }
+  st->n = info->n;
+  size_t used = 0;
+  warn[0] = '\0';
+  for (size_t i = 0; i < info->n; i++) {
+    double a, b;
+    st->a[i] = info->param(info->ud, i, "tj_a", &a) == 0 ? a : info->size[i];
+    st->b[i] = info->param(info->ud, i, "tj_b", &b) == 0 ? b : NAN;
+    if (info->charge[i] != 0 && !(st->a[i] > 0)) {
+      st->a[i] = DEFAULT_SIZE;
+      if (used < warnlen)
+        used += (size_t)snprintf(warn + used, warnlen - used, "%s%s", used ? ", " : "no ion "
+                                 "size for ", info->name[i]);
+    }
+  }
+  if (used && used < warnlen) snprintf(warn + used, warnlen - used, "; 4 A used (bdot)");
+  return 0;
+}
+
+static int bd_log_gamma(void *state, const eqp_activity_in *in, double *lg, char *err,
+                        size_t errlen)
+{
+  const bdot_state *st = state;
+  double I = in->ionic_strength, s = sqrt(I);
+  for (size_t i = 0; i < in->n; i++) {
+    double z = in->charge[i];
+    if (z == 0) {
+      lg[i] = 0;
+      continue;
+    }
+    double a = i < st->n ? st->a[i] : DEFAULT_SIZE;
+    double b = i < st->n && !isnan(st->b[i]) ? st->b[i] : st->bdot;
+    lg[i] = -in->A * z * z * s / (1.0 + in->B * a * s) + b * I;
+  }
+  return 0;
+}
+
+static int bd_set_param(void *state, const char *name, double value, char *err, size_t errlen)
+{
+  bdot_state *st = state;
+  if (strcmp(name, "bdot") == 0 && value > -1 && value < 1) {
+    st->bdot = value;
+    return 0;
+  }
+  snprintf(err, errlen, "unknown or out-of-range parameter '%s' (known: bdot, -1..1)", name);
+  return 1;
+}
+
+static const eqp_activity_ops bd_ops = {
+  sizeof(eqp_activity_ops), bd_create, bd_destroy, bd_log_gamma, bd_set_param, bd_bind,
+};
+
+static const eqp_plugin_desc bd_desc = {
+  EQP_PLUGIN_ABI_VERSION, sizeof(eqp_plugin_desc), EQP_PLUGIN_SIZES,
+  EQP_PLUGIN_ACTIVITY, "bdot", "1.0",
+  "B-dot / Truesdell-Jones: extended Debye-Hueckel plus b I; usual range I <= 1 mol/kg",
+  &bd_ops, 1.0,
+};
+
+EQP_PLUGIN_EXPORT const eqp_plugin_desc *eqp_plugin_entry(const eqp_host_api *host,
+                                                          char *err, size_t errlen);
+
+EQP_PLUGIN_EXPORT const eqp_plugin_desc *eqp_plugin_entry(const eqp_host_api *host,
+                                                          char *err, size_t errlen)
+{
+  return &bd_desc;
+}
