@@ -84,6 +84,24 @@ check species_check_good 0 "ok, 2 species added" -- "$EQP" species check "$CASES
 check species_check_bad 4 "bad_species.lua:6:" -- "$EQP" species check "$CASES/bad_species.lua"
 check plugins 0 "davies" -- "$EQP" plugins
 
+# temperature and models
+check example_temperature 0 "sit" -- "$EQP" run "$SRC/scripts/examples/temperature_models.lua"
+check standards_table 0 "| dh-extended |" -- "$EQP" run "$SRC/tests/published/standards_table.lua"
+check set_temperature_bad 3 "outside 0..100 C" -- "$EQP" run "$CASES/bad_temperature.lua"
+check activity_param_bad 6 "unknown parameter 'kappa'" -- "$EQP" run "$CASES/bad_activity_param.lua"
+
+# the plugin ABI from outside: build plugins with the compiler alone
+mkdir -p "$TMP/plugins"
+for p in guntelberg bad_abi truncated; do
+  cc -shared -fPIC -O2 -I"$SRC/engine/include" "$SRC/tests/plugins/$p.c" -o "$TMP/plugins/$p.so" -lm ||
+    { echo "FAIL cannot build $p out of tree"; fail=$((fail + 1)); }
+done
+check outside_plugin 0 "outside plugin ok" -- env EQUIPOISE_PLUGIN_PATH="$TMP/plugins" "$EQP" run "$CASES/outside_plugin.lua"
+check outside_listed 0 "$TMP/plugins/guntelberg.so" -- env EQUIPOISE_PLUGIN_PATH="$TMP/plugins" "$EQP" plugins
+check outside_bad_abi 6 "plugin ABI 2.0, this engine needs 1.x" -- env EQUIPOISE_PLUGIN_PATH="$TMP/plugins" "$EQP" run "$CASES/outside_plugin.lua" --param model=bad_abi
+check outside_truncated 6 "descriptor is" -- env EQUIPOISE_PLUGIN_PATH="$TMP/plugins" "$EQP" run "$CASES/outside_plugin.lua" --param model=truncated
+check outside_refused_listed 0 "(refused)" -- env EQUIPOISE_PLUGIN_PATH="$TMP/plugins" "$EQP" plugins
+
 # the same module in a stock lua5.4
 if command -v lua5.4 >/dev/null; then
   # a sanitizer build's module needs the sanitizer runtime loaded first

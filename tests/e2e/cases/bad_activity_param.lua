@@ -1,0 +1,1 @@
+local s = eq.solution{ activity = { "davies", kappa = 2 } }

@@ -1,0 +1,2 @@
+local s = eq.solution{}
+s:set_temperature(120)
