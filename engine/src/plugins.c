@@ -259,7 +259,7 @@ static int list_in(void *ud, const char *dir)
   while ((e = readdir(d)) && nf < 64) {
     size_t l = strlen(e->d_name);
     if (l >= 4 && l < 64 && strcmp(e->d_name + l - 3, ".so") == 0)
-      snprintf(files[nf++], 64, "%s", e->d_name);
+      memcpy(files[nf++], e->d_name, l + 1);
   }
   closedir(d);
   qsort(files, (size_t)nf, sizeof files[0], cmp_name);
