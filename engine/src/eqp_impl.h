@@ -278,6 +278,27 @@ typedef struct eqpi_solve_stats {
 int eqpi_system_solve(eqp_ctx *ctx, eqpi_system **sysp, const double *totals,
                       double T, eqpi_model *model, eqpi_solve_stats *stats);
 void eqpi_system_free(eqp_ctx *ctx, eqpi_system *sys);
+
+/* Adding v units of a direction to N0 moles in W0 kg of water: a (moles per
+** unit, over the database's components) and w (kg of water per unit). */
+typedef struct eqpi_adjust {
+  const double *N0, *a;
+  double W0, w, T;
+  eqpi_model *model;
+  double pH;            /* target */
+  double v0, vmax;      /* the search interval of v */
+  const char *what;     /* the reagent, for messages */
+  const char *vmax_text;/* "5 mol per kg of water", for messages */
+} eqpi_adjust;
+
+/* Find v with pH(v) = target: the fixed-activity system by KINSOL, with
+** bracketing as the fallback. On success the system holds the solution
+** at v. EQP_E_INPUT when the target cannot be reached. */
+int eqpi_system_adjust(eqp_ctx *ctx, eqpi_system **sysp, const eqpi_adjust *aj, double *v,
+                       eqpi_solve_stats *st);
+/* dpH/dv of the solved system for a direction (global components). */
+int eqpi_system_dpH(eqp_ctx *ctx, eqpi_system *s, const double *a_global, double w, double W,
+                    double *dpH);
 /* After a successful solve: species count, global index, molality, log10 g,
 ** and the ionic strength. */
 int eqpi_system_nspecies(const eqpi_system *sys);

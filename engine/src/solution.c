@@ -1,6 +1,7 @@
 /* Solutions: composition, additions with units, equilibration. */
 /* SPDX-License-Identifier: MIT */
 #include "result_impl.h"
+#include "system_impl.h"
 #include <ctype.h>
 #include <math.h>
 #include <stdio.h>
@@ -160,6 +161,27 @@ static int unknown_reagent(eqp_solution *s, const char *name)
                    "list')", name);
 }
 
+/* What one mol of a reagent adds: components into a (scaled by k, added
+** to a), and kg of solvent water into *w. Water itself, and the water of
+** crystallisation, go to the solvent. */
+static void reagent_dir(const eqp_solution *s, const eqpi_reagent *r, double *a, double *w,
+                        double k)
+{
+  const eqpi_db *db = &s->ctx->db;
+  int water = db->water >= 0 ? db->sp[db->water].component : -1;
+  double h2o = r->hydrate;
+  for (int t = 0; t < r->nterm; t++) {
+    if (r->term_comp[t] == water && r->n == 1 && r->sp[0] == db->water) h2o += r->term_nu[t];
+    else a[r->term_comp[t]] += k * r->term_nu[t];
+  }
+  *w = h2o * EQPI_M_WATER * 1e-3;
+}
+
+static int is_water(const eqp_solution *s, const eqpi_reagent *r)
+{
+  return r->n == 1 && r->sp[0] == s->ctx->db.water;
+}
+
 int eqp_solution_add(eqp_solution *s, const char *reagent, double value, eqp_quantity kind)
 {
   if (!s || !reagent) return eqpi_fail(s ? s->ctx : NULL, EQP_E_ARG, "NULL argument");
@@ -177,6 +199,10 @@ int eqp_solution_add(eqp_solution *s, const char *reagent, double value, eqp_qua
   case EQP_Q_MOLARITY: mol = value * eqp_solution_volume(s); break;
   case EQP_Q_MOLALITY: mol = value * s->water_kg; break;
   case EQP_Q_VOLUME:
+    if (is_water(s, r)) {
+      mol = value * eqpi_water_density(s->T) * 1e3 / r->molar_mass;
+      break;
+    }
     if (isnan(r->density))
       return eqpi_fail(ctx, EQP_E_INPUT, "%s has no density in the library, so it cannot be "
                        "measured by volume; give a mass or an amount", reagent);
@@ -188,8 +214,9 @@ int eqp_solution_add(eqp_solution *s, const char *reagent, double value, eqp_qua
   }
   int rc = grow_totals(s);
   if (rc < 0) return rc;
-  for (int t = 0; t < r->nterm; t++) s->total[r->term_comp[t]] += mol * r->term_nu[t];
-  s->water_kg += mol * r->hydrate * EQPI_M_WATER * 1e-3;
+  double w;
+  reagent_dir(s, r, s->total, &w, mol);
+  s->water_kg += mol * w;
   return EQP_OK;
 }
 
@@ -221,4 +248,149 @@ int eqp_solution_equilibrate(eqp_solution *s, eqp_result **out)
   if (mol != stack) eqpi_free(ctx, mol, sizeof(double) * (size_t)s->ntotal);
   if (rc < 0) return rc;
   return eqpi_result_make(ctx, s->sys, &s->model, s->T, s->water_kg, &st, out);
+}
+
+/* ------------------------------------------------------------ volumes */
+
+int eqp_solution_pour(eqp_solution *s, const eqp_solution *stock, double litres)
+{
+  if (!s || !stock) return eqpi_fail(s ? s->ctx : NULL, EQP_E_ARG, "NULL argument");
+  if (!isfinite(litres) || litres < 0)
+    return eqpi_fail(s->ctx, EQP_E_INPUT, "volume to pour must be a non-negative number");
+  if (stock == s) return eqpi_fail(s->ctx, EQP_E_INPUT, "a solution cannot be poured into itself");
+  int rc = grow_totals(s);
+  if (rc < 0) return rc;
+  /* the stock is a reservoir: a portion of its composition, by volume of
+  ** its water at its own temperature, is added; the stock is unchanged */
+  double f = litres / eqp_solution_volume(stock);
+  for (int c = 0; c < stock->ntotal; c++) s->total[c] += f * stock->total[c];
+  s->water_kg += f * stock->water_kg;
+  return EQP_OK;
+}
+
+int eqp_solution_dilute(eqp_solution *s, double factor)
+{
+  if (!s) return EQP_E_ARG;
+  if (!isfinite(factor) || factor < 1)
+    return eqpi_fail(s->ctx, EQP_E_INPUT, "a dilution factor must be at least 1, got %g", factor);
+  s->water_kg *= factor;
+  return EQP_OK;
+}
+
+int eqp_solution_total(const eqp_solution *s, const char *component, double *mol)
+{
+  if (!s || !component || !mol) return EQP_E_ARG;
+  const eqpi_db *db = &s->ctx->db;
+  int sp = eqpi_db_find_species(db, component);
+  if (sp < 0 || db->sp[sp].component < 0)
+    return eqpi_fail(s->ctx, EQP_E_UNKNOWN, "'%s' is not a component (basis species)", component);
+  int c = db->sp[sp].component;
+  *mol = c < s->ntotal ? s->total[c] : 0;
+  return EQP_OK;
+}
+
+/* ------------------------------------------------------------ derivatives */
+
+/* The solved system of s, solving first if needed. */
+static int solved(eqp_solution *s)
+{
+  if (s->sys && s->sys->solved && s->sys->Tk == s->T) {
+    /* still the same composition? */
+    int same = 1;
+    for (int c = 0; c < s->sys->nc && same; c++)
+      same = fabs(s->sys->tot_last[c] - s->total[s->sys->comp[c]] / s->water_kg) <=
+             1e-15 * fabs(s->sys->tot_last[c]);
+    if (same) return EQP_OK;
+  }
+  eqp_result *r;
+  int rc = eqp_solution_equilibrate(s, &r);
+  eqp_result_free(r);
+  return rc;
+}
+
+static int base_reagent(eqp_solution *s, const char *name, const eqpi_reagent **r)
+{
+  int g = eqpi_db_find_reagent(&s->ctx->db, name);
+  if (g < 0) return unknown_reagent(s, name);
+  *r = &s->ctx->db.rg[g];
+  return EQP_OK;
+}
+
+int eqp_solution_dpH(eqp_solution *s, const char *reagent, double *dpH_dmol)
+{
+  if (!s || !reagent || !dpH_dmol) return EQP_E_ARG;
+  const eqpi_reagent *r = NULL;
+  int rc = base_reagent(s, reagent, &r);
+  if (rc < 0 || (rc = solved(s)) < 0) return rc;
+  double *a = eqpi_calloc(s->ctx, (size_t)s->ntotal + 1, sizeof(double)), w;
+  if (!a) return eqpi_fail(s->ctx, EQP_E_NOMEM, "out of memory");
+  reagent_dir(s, r, a, &w, 1.0);
+  rc = eqpi_system_dpH(s->ctx, s->sys, a, w, s->water_kg, dpH_dmol);
+  eqpi_free(s->ctx, a, sizeof(double) * ((size_t)s->ntotal + 1));
+  return rc;
+}
+
+int eqp_solution_buffer_capacity(eqp_solution *s, double *beta_kg, double *beta_L)
+{
+  if (!s) return EQP_E_ARG;
+  double d;
+  /* beta = dC_b/dpH with C_b in mol per kg of water: d(mol)/W per pH */
+  int rc = eqp_solution_dpH(s, "NaOH", &d);
+  if (rc < 0) return rc;
+  double b = 1.0 / (d * s->water_kg);
+  if (beta_kg) *beta_kg = b;
+  if (beta_L) *beta_L = b * eqpi_water_density(s->T);
+  return EQP_OK;
+}
+
+/* ------------------------------------------------------------ adjustment */
+
+int eqp_solution_adjust_pH(eqp_solution *s, double pH, const char *reagent,
+                           const eqp_solution *stock, double *mol, double *litres)
+{
+  if (!s || (!reagent && !stock)) return eqpi_fail(s ? s->ctx : NULL, EQP_E_ARG, "NULL argument");
+  eqp_ctx *ctx = s->ctx;
+  if (!isfinite(pH) || pH < -2 || pH > 16)
+    return eqpi_fail(ctx, EQP_E_INPUT, "target pH %g is outside -2..16", pH);
+  int rc = grow_totals(s);
+  if (rc < 0) return rc;
+  size_t n = (size_t)s->ntotal + 1;
+  double *a = eqpi_calloc(ctx, n, sizeof(double));
+  if (!a) return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
+  eqpi_adjust aj = {s->total, a, s->water_kg, 0, s->T, &s->model, pH, 0, 0, reagent, ""};
+  char what[128], limit[96];
+  if (stock) {
+    for (int c = 0; c < stock->ntotal && c < s->ntotal; c++) a[c] = stock->total[c] / stock->water_kg;
+    aj.w = 1;                                 /* v: kg of the stock's water */
+    aj.vmax = 20 * s->water_kg;
+    snprintf(what, sizeof what, "the stock solution");
+    snprintf(limit, sizeof limit, "20 times the solution's own water");
+  } else {
+    const eqpi_reagent *r = NULL;
+    if ((rc = base_reagent(s, reagent, &r)) < 0) goto out;
+    reagent_dir(s, r, a, &aj.w, 1.0);          /* v: mol of the reagent */
+    aj.vmax = 5 * s->water_kg;
+    snprintf(what, sizeof what, "%s", reagent);
+    snprintf(limit, sizeof limit, "5 mol of %s per kg of water", reagent);
+  }
+  aj.what = what;
+  aj.vmax_text = limit;
+  aj.v0 = aj.vmax * 1e-12;   /* a trace, so that every component of the reagent is present */
+  double v;
+  eqpi_solve_stats st;
+  rc = eqpi_system_adjust(ctx, &s->sys, &aj, &v, &st);
+  if (rc < 0) goto out;
+  for (int c = 0; c < s->ntotal; c++) s->total[c] += v * a[c];
+  s->water_kg += v * aj.w;
+  if (mol) *mol = stock ? NAN : v;
+  if (litres) {
+    double rho = stock ? eqpi_water_density(stock->T) : 1;
+    *litres = stock ? v / rho : (isnan(ctx->db.rg[eqpi_db_find_reagent(&ctx->db, reagent)].density)
+                                   ? NAN
+                                   : v * ctx->db.rg[eqpi_db_find_reagent(&ctx->db, reagent)].molar_mass /
+                                       (1e3 * ctx->db.rg[eqpi_db_find_reagent(&ctx->db, reagent)].density));
+  }
+out:
+  eqpi_free(ctx, a, n * sizeof(double));
+  return rc;
 }

@@ -129,6 +129,9 @@ static void arrays_free(eqp_ctx *ctx, eqpi_system *s)
   eqpi_free(ctx, s->xt, sizeof(double) * 2 * n);
   eqpi_free(ctx, s->u_last, sizeof(double) * n);
   eqpi_free(ctx, s->names, sizeof(char *) * ns);
+  eqpi_free(ctx, s->dlng, sizeof(double) * ns);
+  eqpi_free(ctx, s->N0, sizeof(double) * nc);
+  eqpi_free(ctx, s->adir, sizeof(double) * nc);
 }
 
 void eqpi_system_free(eqp_ctx *ctx, eqpi_system *sys)
@@ -191,7 +194,8 @@ static int build(eqp_ctx *ctx, eqpi_system *s, const unsigned char *mask)
            GROW(ctx, s->m, ns) && GROW(ctx, s->J, (nc + 2) * (nc + 2)) &&
            GROW(ctx, s->piv, nc + 2) && GROW(ctx, s->g, nc + 3) && GROW(ctx, s->d, nc + 2) &&
            GROW(ctx, s->xt, 2 * (nc + 2)) && GROW(ctx, s->u_last, nc + 2) &&
-           GROW(ctx, s->names, ns);
+           GROW(ctx, s->names, ns) && GROW(ctx, s->dlng, ns) && GROW(ctx, s->N0, nc) &&
+           GROW(ctx, s->adir, nc);
   if (!ok) {
     eqpi_free(ctx, loc, sizeof(int) * ((size_t)ncg + 1));
     return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
@@ -283,7 +287,7 @@ static int bind_model(eqp_ctx *ctx, eqpi_system *s, eqpi_model *model)
 /* Reuse the structure and the KINSOL instance when the same components are
 ** present; rebuild otherwise. */
 static int prepare(eqp_ctx *ctx, eqpi_system **sysp, const double *totals, double T,
-                   eqpi_model *model)
+                   eqpi_model *model, const double *extra)
 {
   const eqpi_db *db = &ctx->db;
   if (db->h_plus < 0 || db->water < 0)
@@ -292,6 +296,9 @@ static int prepare(eqp_ctx *ctx, eqpi_system **sysp, const double *totals, doubl
   unsigned char *mask = db->ncomp <= 256 ? stackmask : eqpi_malloc(ctx, (size_t)db->ncomp);
   if (!mask) return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
   int rc = active_mask(ctx, totals, mask);
+  /* components a reagent about to be added brings must be in the system */
+  for (int c = 0; extra && rc == EQP_OK && c < db->ncomp; c++)
+    if (extra[c] > 0 && db->comp_species[c] != db->water) mask[c] = 1;
   eqpi_system *s = *sysp;
   if (rc == EQP_OK && (!s || s->generation != db->generation || s->ncg != db->ncomp ||
                        memcmp(s->active, mask, (size_t)db->ncomp) != 0)) {
@@ -382,12 +389,20 @@ static int solve_from(eqpi_system *s, double *u0, long *iters)
   return flag;
 }
 
+static int solve_prepared(eqp_ctx *ctx, eqpi_system *s, int *rcp, eqpi_solve_stats *stats);
+
 int eqpi_system_solve(eqp_ctx *ctx, eqpi_system **sysp, const double *totals, double T,
                       eqpi_model *model, eqpi_solve_stats *stats)
 {
-  int rc = prepare(ctx, sysp, totals, T, model);
+  int rc = prepare(ctx, sysp, totals, T, model, NULL);
   if (rc < 0) return rc;
   eqpi_system *s = *sysp;
+  return solve_prepared(ctx, s, &rc, stats);
+}
+
+static int solve_prepared(eqp_ctx *ctx, eqpi_system *s, int *rcp, eqpi_solve_stats *stats)
+{
+  int rc = *rcp;
   double ustart[64], *u = s->n <= 64 ? ustart : eqpi_malloc(ctx, sizeof(double) * (size_t)s->n);
   if (!u) return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
   long iters = 0;
@@ -478,4 +493,130 @@ double eqpi_system_ionic_strength(const eqpi_system *sys)
   double I = 0;
   for (int i = 0; i < sys->ns; i++) I += 0.5 * sys->z2[i] * sys->m[i];
   return I;
+}
+
+/* ------------------------------------------------------------ pH adjustment */
+
+/* Normal solve at v units of the direction; pH of the result. */
+static int solve_at(eqp_ctx *ctx, eqpi_system **sysp, const eqpi_adjust *aj, double v,
+                    double *tot, double *pH, eqpi_solve_stats *st)
+{
+  const eqpi_db *db = &ctx->db;
+  double W = aj->W0 + v * aj->w;
+  for (int c = 0; c < db->ncomp; c++) tot[c] = (aj->N0[c] + v * aj->a[c]) / W;
+  int rc = prepare(ctx, sysp, tot, aj->T, aj->model, aj->a);
+  if (rc < 0) return rc;
+  rc = solve_prepared(ctx, *sysp, &rc, st);
+  if (rc < 0) return rc;
+  eqpi_system *s = *sysp;
+  int h = s->comp_sp[s->hloc];
+  *pH = -(log(s->m[h]) + s->lng[h]) / EQPI_LN10;
+  return EQP_OK;
+}
+
+/* Local direction of the system from the global one. */
+static void local_dir(const eqpi_system *s, const double *g, double *l)
+{
+  for (int c = 0; c < s->nc; c++) l[c] = g[s->comp[c]];
+}
+
+int eqpi_system_dpH(eqp_ctx *ctx, eqpi_system *s, const double *a_global, double w, double W,
+                    double *dpH)
+{
+  if (!s || !s->solved) return eqpi_fail(ctx, EQP_E_ARG, "solve the solution first");
+  double stack[64], *a = s->nc <= 64 ? stack : eqpi_malloc(ctx, sizeof(double) * (size_t)s->nc);
+  if (!a) return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
+  local_dir(s, a_global, a);
+  int rc = eqpi_sys_dpH(s, a, w, W, dpH) < 0
+             ? eqpi_fail(ctx, EQP_E_CONVERGE, "the Jacobian is singular at this state")
+             : EQP_OK;
+  if (a != stack) eqpi_free(ctx, a, sizeof(double) * (size_t)s->nc);
+  return rc;
+}
+
+/* Fixed-activity solve: H+ held at the target, the amount v unknown. */
+static int adjust_kinsol(eqp_ctx *ctx, eqpi_system *s, const eqpi_adjust *aj, double v_lin,
+                         double *v)
+{
+  for (int c = 0; c < s->nc; c++) {
+    s->N0[c] = aj->N0[s->comp[c]];
+    s->adir[c] = aj->a[s->comp[c]];
+  }
+  s->W0 = aj->W0;
+  s->wdir = aj->w;
+  /* v = u vscale: the scale keeps u near 1 for KINSOL's step limits; the
+  ** linear estimate alone can be far too small in an unbuffered solution */
+  s->vscale = fmax(fabs(v_lin), 1e-3 * aj->vmax);
+  s->lnaH = -aj->pH * EQPI_LN10;
+  double u[64];
+  if (s->n > 64) return -1;
+  memcpy(u, s->u_last, sizeof(double) * (size_t)s->n);
+  int kh = s->xidx[s->hloc];
+  u[kh] = aj->v0 / s->vscale;
+  s->adjust = 1;
+  s->lambda = 1;
+  long iters = 0;
+  int flag = run_kinsol(s, u, &iters), worst;
+  double r = flag >= 0 ? eqpi_sys_verify(s, N_VGetArrayPointer(s->u), &worst) : INFINITY;
+  double *uf = N_VGetArrayPointer(s->u);
+  *v = uf[kh] * s->vscale;
+  if (r <= EQPI_VERIFY_TOL) {
+    /* back to the normal form at the solution: H+'s slot holds ln m(H+) */
+    eqpi_sys_eval(s, uf, s->xt + s->n);
+    memcpy(s->u_last, uf, sizeof(double) * (size_t)s->n);
+    s->u_last[kh] = s->lnfree[s->hloc];
+    memcpy(s->tot_last, s->tot, sizeof(double) * (size_t)s->nc);
+  }
+  s->adjust = 0;
+  return r <= EQPI_VERIFY_TOL ? 0 : -1;
+}
+
+int eqpi_system_adjust(eqp_ctx *ctx, eqpi_system **sysp, const eqpi_adjust *aj, double *v_out,
+                       eqpi_solve_stats *st)
+{
+  const eqpi_db *db = &ctx->db;
+  double *tot = eqpi_malloc(ctx, sizeof(double) * ((size_t)db->ncomp + 1));
+  if (!tot) return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
+  double pH0, pHmax, dpH, v = 0;
+  int rc = solve_at(ctx, sysp, aj, aj->v0, tot, &pH0, st);
+  if (rc == EQP_OK) rc = eqpi_system_dpH(ctx, *sysp, aj->a, aj->w, aj->W0 + aj->v0 * aj->w, &dpH);
+  if (rc < 0) goto out;
+  if (fabs(pH0 - aj->pH) < 1e-12) {
+    *v_out = aj->v0;
+    goto out;
+  }
+  if ((aj->pH - pH0) * dpH <= 0) {
+    rc = eqpi_fail(ctx, EQP_E_INPUT, "pH %.3f is out of reach with %s: adding it %s the pH "
+                   "(now %.3f)", aj->pH, aj->what, dpH < 0 ? "lowers" : "raises", pH0);
+    goto out;
+  }
+  /* Newton-Krylov on the fixed-activity system from the present state */
+  if (adjust_kinsol(ctx, *sysp, aj, aj->v0 + (aj->pH - pH0) / dpH, &v) == 0 && v >= aj->v0 &&
+      v <= aj->vmax) {
+    *v_out = v;
+    (*sysp)->solved = true;
+    goto out;
+  }
+  /* Fallback: bracketing on v with ordinary solves (pH is monotone in the
+  ** amount of an acid or a base) */
+  rc = solve_at(ctx, sysp, aj, aj->vmax, tot, &pHmax, st);
+  if (rc < 0) goto out;
+  if ((aj->pH - pHmax) * dpH > 0) {
+    rc = eqpi_fail(ctx, EQP_E_INPUT, "pH %.3f is out of reach with %s: even %s brings it "
+                   "only to %.3f", aj->pH, aj->what, aj->vmax_text, pHmax);
+    goto out;
+  }
+  double lo = aj->v0, hi = aj->vmax;
+  for (int it = 0; it < 200 && hi - lo > 1e-15 * hi; it++) {
+    double mid = 0.5 * (lo + hi), pm;
+    if ((rc = solve_at(ctx, sysp, aj, mid, tot, &pm, st)) < 0) goto out;
+    if ((pm - aj->pH) * dpH < 0) lo = mid;
+    else hi = mid;
+  }
+  v = 0.5 * (lo + hi);
+  rc = solve_at(ctx, sysp, aj, v, tot, &pH0, st);
+  *v_out = v;
+out:
+  eqpi_free(ctx, tot, sizeof(double) * ((size_t)db->ncomp + 1));
+  return rc;
 }

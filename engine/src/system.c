@@ -18,12 +18,10 @@
 
 static double clamp_exp(double s) { return exp(s > LNMAX ? LNMAX : s); }
 
-int eqpi_sys_eval(eqpi_system *sys, const double *u, double *F)
+/* Mass action with unit activity coefficients at the free components. */
+static void ideal_pass(eqpi_system *sys)
 {
-  const int nc = sys->nc, ns = sys->ns, nx = sys->nx;
-  for (int c = 0; c < nc; c++)
-    sys->lnfree[c] = sys->xidx[c] < 0 ? sys->lnfix[c] : u[sys->xidx[c]];
-  double lnI = u[nx], I = exp(lnI);
+  const int nc = sys->nc, ns = sys->ns;
   for (int i = 0; i < ns; i++) {
     const double *row = sys->nu + (size_t)i * nc;
     double s = sys->lnK[i];
@@ -31,33 +29,66 @@ int eqpi_sys_eval(eqpi_system *sys, const double *u, double *F)
     sys->s0[i] = s;
     sys->mid[i] = clamp_exp(s);
   }
-  if (sys->lambda != 0) {
-    eqp_activity_in in = {(size_t)ns, sys->z, sys->size, sys->mid, I, sys->Tk, sys->A, sys->B};
-    if (sys->model->ops->log_gamma(sys->model->state, &in, sys->lg, sys->plugin_err,
-                                   sizeof sys->plugin_err) != 0) {
-      sys->plugin_failed = 1;
-      return -1;
-    }
-    for (int i = 0; i < ns; i++) {
-      if (!isfinite(sys->lg[i])) {
-        sys->plugin_failed = 1;
-        strcpy(sys->plugin_err, "activity model returned a non-finite log gamma");
-        return -1;
-      }
-      sys->lng[i] = sys->lambda * EQPI_LN10 * sys->lg[i];
-    }
-    for (int i = 0; i < ns; i++) {
-      const double *row = sys->nu + (size_t)i * nc;
-      double s = sys->s0[i] - sys->lng[i];
-      for (int c = 0; c < nc; c++) s += row[c] * sys->lng[sys->comp_sp[c]];
-      sys->m[i] = clamp_exp(s);
-    }
-  } else {
+}
+
+/* Activity coefficients at I, then the molalities they imply. */
+static int model_pass(eqpi_system *sys, double I)
+{
+  const int nc = sys->nc, ns = sys->ns;
+  if (sys->lambda == 0) {
     for (int i = 0; i < ns; i++) {
       sys->lg[i] = sys->lng[i] = 0;
       sys->m[i] = sys->mid[i];
     }
+    return 0;
   }
+  eqp_activity_in in = {(size_t)ns, sys->z, sys->size, sys->mid, I, sys->Tk, sys->A, sys->B};
+  if (sys->model->ops->log_gamma(sys->model->state, &in, sys->lg, sys->plugin_err,
+                                 sizeof sys->plugin_err) != 0) {
+    sys->plugin_failed = 1;
+    return -1;
+  }
+  for (int i = 0; i < ns; i++) {
+    if (!isfinite(sys->lg[i])) {
+      sys->plugin_failed = 1;
+      strcpy(sys->plugin_err, "activity model returned a non-finite log gamma");
+      return -1;
+    }
+    sys->lng[i] = sys->lambda * EQPI_LN10 * sys->lg[i];
+  }
+  for (int i = 0; i < ns; i++) {
+    const double *row = sys->nu + (size_t)i * nc;
+    double s = sys->s0[i] - sys->lng[i];
+    for (int c = 0; c < nc; c++) s += row[c] * sys->lng[sys->comp_sp[c]];
+    sys->m[i] = clamp_exp(s);
+  }
+  return 0;
+}
+
+int eqpi_sys_eval(eqpi_system *sys, const double *u, double *F)
+{
+  const int nc = sys->nc, ns = sys->ns, nx = sys->nx;
+  if (sys->adjust) {
+    double v = u[sys->xidx[sys->hloc]] * sys->vscale, W = sys->W0 + v * sys->wdir;
+    for (int c = 0; c < nc; c++) {
+      double t = (sys->N0[c] + v * sys->adir[c]) / W;
+      sys->tot[c] = t;
+      if (sys->xidx[c] < 0) sys->lnfix[c] = log(t > 1e-300 ? t : 1e-300);
+    }
+  }
+  for (int c = 0; c < nc; c++)
+    sys->lnfree[c] = sys->xidx[c] < 0 ? sys->lnfix[c] : u[sys->xidx[c]];
+  double lnI = u[nx], I = exp(lnI);
+  if (sys->adjust) {
+    /* free H+ from its fixed activity: two passes, since g(H+) comes from
+    ** the model (exact for models of I alone) */
+    sys->lnfree[sys->hloc] = sys->lnaH;
+    ideal_pass(sys);
+    if (model_pass(sys, I) < 0) return -1;
+    sys->lnfree[sys->hloc] = sys->lnaH - sys->lng[sys->comp_sp[sys->hloc]];
+  }
+  ideal_pass(sys);
+  if (model_pass(sys, I) < 0) return -1;
   for (int k = 0; k < nx; k++) {
     int c = sys->xcomp[k];
     double R = -sys->tot[c], S = 0;
@@ -147,14 +178,56 @@ int eqpi_sys_precond(eqpi_system *sys, const double *u)
     J[nx * n + l] = v / Ic;
   }
   J[nx * n + nx] = -1.0;
+  const double h = 1e-7;
+  for (int i = 0; i < ns; i++) sys->dlng[i] = sys->lng[i];
   if (sys->lambda != 0) {
     memcpy(up, u, sizeof *up * (size_t)n);
-    const double h = 1e-7;
     up[nx] += h;
     if (eqpi_sys_eval(sys, up, F1) < 0) return -1;
     for (int k = 0; k < n; k++) J[k * n + nx] = (F1[k] - F0[k]) / h;
+    for (int i = 0; i < ns; i++) sys->dlng[i] = (sys->lng[i] - sys->dlng[i]) / h;
+  } else {
+    for (int i = 0; i < ns; i++) sys->dlng[i] = 0;
+  }
+  if (sys->adjust) {
+    /* H+'s slot holds the amount of reagent: its column by difference */
+    int kh = sys->xidx[sys->hloc];
+    memcpy(up, u, sizeof *up * (size_t)n);
+    double hv = 1e-7 * (fabs(u[kh]) > 1 ? fabs(u[kh]) : 1);
+    up[kh] += hv;
+    if (eqpi_sys_eval(sys, up, F1) < 0) return -1;
+    for (int k = 0; k < n; k++) J[k * n + kh] = (F1[k] - F0[k]) / hv;
   }
   return eqpi_lu_factor(J, sys->piv, n);
+}
+
+int eqpi_sys_dpH(eqpi_system *sys, const double *a, double w, double W, double *dpH)
+{
+  const int n = sys->n, nx = sys->nx, nc = sys->nc, ns = sys->ns;
+  double *u = sys->u_last, *b = sys->g + 0;
+  if (eqpi_sys_precond(sys, u) < 0) return -1;   /* J and d ln g / d ln I at u */
+  /* state at u again (the preconditioner's difference left it elsewhere) */
+  eqpi_sys_eval(sys, u, sys->xt + n);
+  double Ic = 0;
+  for (int i = 0; i < ns; i++) Ic += 0.5 * sys->z2[i] * sys->m[i];
+  for (int k = 0; k <= nx; k++) b[k] = 0;
+  for (int c = 0; c < nc; c++) {
+    double dtot = (a[c] - sys->tot[c] * w) / W;  /* d total / dv, mol/kg */
+    int k = sys->xidx[c];
+    if (k >= 0) {
+      double S = 0;
+      for (int i = 0; i < ns; i++) S += fabs(sys->nu[(size_t)i * nc + c]) * sys->m[i];
+      b[k] = dtot / (S > 1e-300 ? S : 1e-300);     /* -dF/dv for F = (sum nu m - T)/S */
+    } else {
+      /* a spectator's molality is its total: it moves I alone */
+      b[nx] -= 0.5 * sys->z2[sys->comp_sp[c]] * dtot / Ic;
+    }
+  }
+  eqpi_lu_solve(sys->J, sys->piv, n, b);          /* du/dv = -J^-1 dF/dv */
+  int h = sys->comp_sp[sys->hloc];
+  double dlnaH = b[sys->xidx[sys->hloc]] + sys->dlng[h] * b[nx];
+  *dpH = -dlnaH / EQPI_LN10;
+  return isfinite(*dpH) ? 0 : -1;
 }
 
 int eqpi_lu_factor(double *A, int *piv, int n)
@@ -284,7 +357,7 @@ int eqpi_sys_coldstart(eqpi_system *sys, double *u)
     if (!moved) break;
     memcpy(u, sys->xt, sizeof *u * (size_t)nx);
   }
-  if (sys->trace) fprintf(stderr, "coldstart ok %d\n", ok);
+  if (sys->trace) fprintf(stderr, "equipoise: ideal start %s\n", ok ? "did not converge" : "converged");
   /* ionic strength of the ideal solution as the start of ln I */
   potential(sys, u);
   double Ic = 0;

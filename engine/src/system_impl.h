@@ -39,6 +39,14 @@ struct eqpi_system {
   int *piv;
   double *g, *d, *xt;   /* cold start */
   double lambda;        /* continuation weight on ln gamma */
+  double *dlng;         /* ns: d ln g / d ln I, from the last preconditioner */
+  /* Fixed-activity mode (DESIGN s.3): a(H+) is held at exp(lnaH) and the
+  ** amount v of a reagent direction takes H+'s unknown slot; the totals
+  ** follow v: tot = (N0 + v adir) / (W0 + v wdir), v = u * vscale. */
+  int adjust;
+  double lnaH;
+  double *N0, *adir;    /* nc: moles present, moles per unit of v */
+  double W0, wdir, vscale;
   double A, B;
   eqpi_model *model;
   const eqpi_model *bound;   /* the model bind() last saw this species set */
@@ -62,6 +70,11 @@ struct eqpi_system {
 /* Evaluate the scaled residual F(u) (n entries). Returns 0, or -1 when the
 ** activity model failed. */
 int eqpi_sys_eval(eqpi_system *sys, const double *u, double *F);
+/* dpH/dv at the last solved state for adding v units of a direction
+** (a: moles per unit over the system's local components, w: kg of water
+** per unit) to W kg of water: implicit differentiation through the
+** system's Jacobian. Returns 0, or -1 if the Jacobian is singular. */
+int eqpi_sys_dpH(eqpi_system *sys, const double *a, double w, double W, double *dpH);
 /* Largest relative residual of the balances and ionic strength at u, after
 ** a fresh evaluation with lambda = 1; worst receives the offending row. */
 double eqpi_sys_verify(eqpi_system *sys, const double *u, int *worst);

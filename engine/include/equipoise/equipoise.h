@@ -170,6 +170,31 @@ EQP_API int eqp_solution_set_activity_param(eqp_solution *s, const char *name, d
 /* Change the temperature (K, 273.15 .. 373.15); the composition is kept. */
 EQP_API int eqp_solution_set_temperature(eqp_solution *s, double T);
 
+/* Add litres of another solution (a stock) with its water: a portion of its
+** composition in proportion to the volume of its water at its temperature.
+** The stock is a reservoir and is not changed. */
+EQP_API int eqp_solution_pour(eqp_solution *s, const eqp_solution *stock, double litres);
+/* Multiply the water by factor (>= 1); solutes stay. */
+EQP_API int eqp_solution_dilute(eqp_solution *s, double factor);
+/* Total moles of a component (basis species such as "Na+", "PO4-3", "H+"). */
+EQP_API int eqp_solution_total(const eqp_solution *s, const char *component, double *mol);
+
+/* dpH per mol of reagent added, at the present equilibrium, by implicit
+** differentiation of the equilibrium equations (no re-solving). */
+EQP_API int eqp_solution_dpH(eqp_solution *s, const char *reagent, double *dpH_dmol);
+/* Buffer capacity beta = dC(base)/dpH, strong base NaOH, in mol/(kg water
+** . pH) and mol/(L . pH), from the same derivative. */
+EQP_API int eqp_solution_buffer_capacity(eqp_solution *s, double *beta_kg, double *beta_L);
+/* Add exactly enough of a reagent, or of a stock solution (reagent NULL),
+** to bring the pH to target, solved with the H+ activity held fixed and the
+** amount as the unknown. On success the addition is made and *mol (reagent;
+** NaN for a stock) and *litres (stock, or a liquid reagent with a density;
+** NaN otherwise) say how much. EQP_E_INPUT when the target is out of reach
+** with that reagent or needs more than 5 mol per kg of water (20 times the
+** solution's water for a stock). */
+EQP_API int eqp_solution_adjust_pH(eqp_solution *s, double pH, const char *reagent,
+                                   const eqp_solution *stock, double *mol, double *litres);
+
 EQP_API double eqp_solution_water_kg(const eqp_solution *s);
 EQP_API double eqp_solution_temperature(const eqp_solution *s); /* K */
 /* Volume in L, approximated as the volume of its water at T (dilute). */
