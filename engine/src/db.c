@@ -266,3 +266,11 @@ const char *eqp_ctx_reagent_hazard(const eqp_ctx *ctx, const char *name, size_t 
   int g = ctx ? eqpi_db_find_reagent(&ctx->db, name) : -1;
   return g < 0 || i >= (size_t)ctx->db.rg[g].nhazards ? NULL : ctx->db.rg[g].hazards[i];
 }
+
+int eqp_ctx_reagent_molar_mass(eqp_ctx *ctx, const char *name, double *gmol)
+{
+  int g = ctx && name ? eqpi_db_find_reagent(&ctx->db, name) : -1;
+  if (g < 0) return eqpi_fail(ctx, EQP_E_UNKNOWN, "unknown reagent '%s'", name ? name : "");
+  *gmol = ctx->db.rg[g].molar_mass;
+  return EQP_OK;
+}

@@ -1,6 +1,6 @@
 /* Solutions: composition, additions with units, equilibration. */
 /* SPDX-License-Identifier: MIT */
-#include "result_impl.h"
+#include "solution_impl.h"
 #include "system_impl.h"
 #include <ctype.h>
 #include <math.h>
@@ -8,18 +8,7 @@
 #include <string.h>
 #include <strings.h>
 
-struct eqp_solution {
-  eqp_ctx *ctx;
-  double water_kg;
-  double T;               /* K */
-  eqpi_model model;
-  double *total;          /* mol per component of the database */
-  int ntotal;
-  eqpi_system *sys;
-  char pname[8][32];      /* activity-model parameters set, for copies */
-  double pvalue[8];
-  int nparams;
-};
+
 
 static int grow_totals(eqp_solution *s)
 {
@@ -164,8 +153,8 @@ static int unknown_reagent(eqp_solution *s, const char *name)
 /* What one mol of a reagent adds: components into a (scaled by k, added
 ** to a), and kg of solvent water into *w. Water itself, and the water of
 ** crystallisation, go to the solvent. */
-static void reagent_dir(const eqp_solution *s, const eqpi_reagent *r, double *a, double *w,
-                        double k)
+void eqpi_reagent_dir(const eqp_solution *s, const eqpi_reagent *r, double *a, double *w,
+                      double k)
 {
   const eqpi_db *db = &s->ctx->db;
   int water = db->water >= 0 ? db->sp[db->water].component : -1;
@@ -215,7 +204,7 @@ int eqp_solution_add(eqp_solution *s, const char *reagent, double value, eqp_qua
   int rc = grow_totals(s);
   if (rc < 0) return rc;
   double w;
-  reagent_dir(s, r, s->total, &w, mol);
+  eqpi_reagent_dir(s, r, s->total, &w, mol);
   s->water_kg += mol * w;
   return EQP_OK;
 }
@@ -292,7 +281,7 @@ int eqp_solution_total(const eqp_solution *s, const char *component, double *mol
 /* ------------------------------------------------------------ derivatives */
 
 /* The solved system of s, solving first if needed. */
-static int solved(eqp_solution *s)
+int eqpi_solution_solved(eqp_solution *s)
 {
   if (s->sys && s->sys->solved && s->sys->Tk == s->T) {
     /* still the same composition? */
@@ -308,7 +297,7 @@ static int solved(eqp_solution *s)
   return rc;
 }
 
-static int base_reagent(eqp_solution *s, const char *name, const eqpi_reagent **r)
+int eqpi_find_reagent(eqp_solution *s, const char *name, const eqpi_reagent **r)
 {
   int g = eqpi_db_find_reagent(&s->ctx->db, name);
   if (g < 0) return unknown_reagent(s, name);
@@ -320,11 +309,11 @@ int eqp_solution_dpH(eqp_solution *s, const char *reagent, double *dpH_dmol)
 {
   if (!s || !reagent || !dpH_dmol) return EQP_E_ARG;
   const eqpi_reagent *r = NULL;
-  int rc = base_reagent(s, reagent, &r);
-  if (rc < 0 || (rc = solved(s)) < 0) return rc;
+  int rc = eqpi_find_reagent(s, reagent, &r);
+  if (rc < 0 || (rc = eqpi_solution_solved(s)) < 0) return rc;
   double *a = eqpi_calloc(s->ctx, (size_t)s->ntotal + 1, sizeof(double)), w;
   if (!a) return eqpi_fail(s->ctx, EQP_E_NOMEM, "out of memory");
-  reagent_dir(s, r, a, &w, 1.0);
+  eqpi_reagent_dir(s, r, a, &w, 1.0);
   rc = eqpi_system_dpH(s->ctx, s->sys, a, w, s->water_kg, dpH_dmol);
   eqpi_free(s->ctx, a, sizeof(double) * ((size_t)s->ntotal + 1));
   return rc;
@@ -367,8 +356,8 @@ int eqp_solution_adjust_pH(eqp_solution *s, double pH, const char *reagent,
     snprintf(limit, sizeof limit, "20 times the solution's own water");
   } else {
     const eqpi_reagent *r = NULL;
-    if ((rc = base_reagent(s, reagent, &r)) < 0) goto out;
-    reagent_dir(s, r, a, &aj.w, 1.0);          /* v: mol of the reagent */
+    if ((rc = eqpi_find_reagent(s, reagent, &r)) < 0) goto out;
+    eqpi_reagent_dir(s, r, a, &aj.w, 1.0);          /* v: mol of the reagent */
     aj.vmax = 5 * s->water_kg;
     snprintf(what, sizeof what, "%s", reagent);
     snprintf(limit, sizeof limit, "5 mol of %s per kg of water", reagent);
@@ -393,4 +382,36 @@ int eqp_solution_adjust_pH(eqp_solution *s, double pH, const char *reagent,
 out:
   eqpi_free(ctx, a, n * sizeof(double));
   return rc;
+}
+
+int eqp_solution_mix(size_t n, eqp_solution *const *parts, const double *litres,
+                     eqp_solution **out)
+{
+  if (!out || n == 0 || !parts || !parts[0]) return EQP_E_ARG;
+  eqp_ctx *ctx = parts[0]->ctx;
+  *out = NULL;
+  double water = 0, heat = 0;
+  for (size_t i = 0; i < n; i++) {
+    if (!parts[i] || parts[i]->ctx != ctx) return eqpi_fail(ctx, EQP_E_ARG, "mix: bad part");
+    double f = litres ? litres[i] / eqp_solution_volume(parts[i]) : 1;
+    if (!(f >= 0) || !isfinite(f)) return eqpi_fail(ctx, EQP_E_INPUT, "mix: bad volume");
+    water += f * parts[i]->water_kg;
+    heat += f * parts[i]->water_kg * parts[i]->T;   /* no heat of mixing: mass-weighted T */
+  }
+  if (!(water > 0)) return eqpi_fail(ctx, EQP_E_INPUT, "mix: nothing to mix");
+  eqp_solution *m;
+  int rc = eqp_solution_copy(parts[0], &m);
+  if (rc < 0) return rc;
+  memset(m->total, 0, sizeof(double) * (size_t)m->ntotal);
+  m->water_kg = 0;
+  for (size_t i = 0; i < n && rc == EQP_OK; i++)
+    rc = eqp_solution_pour(m, parts[i], litres ? litres[i] : eqp_solution_volume(parts[i]));
+  if (rc < 0) {
+    eqp_solution_free(m);
+    return rc;
+  }
+  m->water_kg = water;
+  m->T = heat / water;
+  *out = m;
+  return EQP_OK;
 }

@@ -4,6 +4,7 @@
 #define EQUIPOISE_H
 
 #include <stddef.h>
+#include <stdio.h>
 #include "version.h"
 
 #ifdef __cplusplus
@@ -49,6 +50,7 @@ typedef void *(*eqp_alloc_fn)(void *ud, void *ptr, size_t osize, size_t nsize);
 typedef struct eqp_ctx eqp_ctx;           /* allocator, species, plugins, errors */
 typedef struct eqp_solution eqp_solution; /* a composition being equilibrated */
 typedef struct eqp_result eqp_result;     /* an immutable snapshot of one solve */
+typedef struct eqp_curve eqp_curve;       /* the rows of a titration */
 
 /* ------------------------------------------------------------------ ctx */
 
@@ -99,6 +101,8 @@ EQP_API int eqp_ctx_describe(eqp_ctx *ctx, const char *name, char *buf, size_t l
 ** i-th as a borrowed string. 0 / NULL for unknown names. */
 EQP_API size_t eqp_ctx_reagent_hazard_count(const eqp_ctx *ctx, const char *name);
 EQP_API const char *eqp_ctx_reagent_hazard(const eqp_ctx *ctx, const char *name, size_t i);
+/* Molar mass (g/mol) of a reagent by name or alias; EQP_E_UNKNOWN if none. */
+EQP_API int eqp_ctx_reagent_molar_mass(eqp_ctx *ctx, const char *name, double *gmol);
 /* Number of species files loaded and the path of the i-th. Borrowed. */
 EQP_API size_t eqp_ctx_source_count(const eqp_ctx *ctx);
 EQP_API const char *eqp_ctx_source_path(const eqp_ctx *ctx, size_t i);
@@ -174,6 +178,11 @@ EQP_API int eqp_solution_set_temperature(eqp_solution *s, double T);
 ** composition in proportion to the volume of its water at its temperature.
 ** The stock is a reservoir and is not changed. */
 EQP_API int eqp_solution_pour(eqp_solution *s, const eqp_solution *stock, double litres);
+/* A new solution from n parts: litres[i] of parts[i] (litres NULL: all of
+** each). Its temperature is the water-weighted mean (no heat of mixing), its
+** activity model and parameters those of parts[0]. Parts are unchanged. */
+EQP_API int eqp_solution_mix(size_t n, eqp_solution *const *parts, const double *litres,
+                             eqp_solution **out);
 /* Multiply the water by factor (>= 1); solutes stay. */
 EQP_API int eqp_solution_dilute(eqp_solution *s, double factor);
 /* Total moles of a component (basis species such as "Na+", "PO4-3", "H+"). */
@@ -205,6 +214,42 @@ EQP_API double eqp_solution_volume(const eqp_solution *s);
 ** EQP_E_VERIFY leave no result and a message naming the system and the last
 ** residuals. */
 EQP_API int eqp_solution_equilibrate(eqp_solution *s, eqp_result **out);
+
+/* --------------------------------------------------------- titration */
+
+typedef struct eqp_titration {
+  const char *reagent;          /* titrant by reagent name ... */
+  const eqp_solution *stock;    /* ... or a stock solution (exactly one) */
+  double step;                  /* largest step: mol (reagent) or L (stock) */
+  double to;                    /* total to add (same unit); 0: until_pH only */
+  double until_pH;              /* stop exactly at this pH; NaN: none */
+  double max_dpH;               /* largest pH change per step; 0: 0.1 */
+  const char *const *species;   /* extra columns: molality of each */
+  size_t nspecies;
+} eqp_titration;
+
+/* Titrate a copy of s (s is unchanged). Steps shrink so that no step moves
+** the pH by more than max_dpH; equivalence points are the interior maxima
+** of |dpH/dV|, refined by golden-section search. Columns: amount_mol (NaN
+** for a stock), volume_L, total_volume_L, pH, dpH_dmol or dpH_dL, then the
+** requested species (mol/kg). *out is owned by the caller (eqp_curve_free). */
+EQP_API int eqp_solution_titrate(eqp_solution *s, const eqp_titration *t, eqp_curve **out);
+EQP_API void eqp_curve_free(eqp_curve *c);
+EQP_API size_t eqp_curve_rows(const eqp_curve *c);
+EQP_API size_t eqp_curve_cols(const eqp_curve *c);
+EQP_API const char *eqp_curve_col_name(const eqp_curve *c, size_t j);
+EQP_API double eqp_curve_value(const eqp_curve *c, size_t row, size_t col);
+EQP_API size_t eqp_curve_equivalence_count(const eqp_curve *c);
+/* k-th equivalence point: titrant amount (mol; NaN for a stock), volume
+** (L; NaN for a solid reagent) and pH. */
+EQP_API int eqp_curve_equivalence(const eqp_curve *c, size_t k, double *amount, double *litres,
+                                  double *pH);
+/* Write the curve as CSV (header line, then one line per row). */
+EQP_API int eqp_curve_write_csv(const eqp_curve *c, FILE *f);
+/* The curve as a JSON text {columns, rows, equivalence_points}; free it
+** with eqp_free_string. NULL when memory is exhausted. */
+EQP_API char *eqp_curve_to_json(const eqp_curve *c);
+EQP_API void eqp_free_string(char *s);
 
 /* ------------------------------------------------------------- result */
 

@@ -132,6 +132,7 @@ int eqpl_solution_new(lua_State *L);
 
 static const luaL_Reg eq_funcs[] = {
   {"solution", eqpl_solution_new},
+  {"mix", eqpl_mix},
   {"load_species", eq_load_species},
   {"molar_mass", eq_molar_mass},
   {"quantity", eq_quantity},
@@ -164,6 +165,10 @@ int eqp_lua_open(lua_State *L)
   int ctxidx = lua_gettop(L);
   eqpl_open_solution(L);
   eqpl_open_result(L);
+  eqpl_open_curve(L);
+  eqpl_open_procedure(L);
+  lua_newtable(L);
+  lua_setfield(L, LUA_REGISTRYINDEX, EQPL_CURVES);
   lua_newtable(L);
   lua_setfield(L, LUA_REGISTRYINDEX, EQPL_LOG);
   lua_newtable(L);

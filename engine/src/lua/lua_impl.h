@@ -10,6 +10,8 @@
 #define EQPL_CTX "equipoise.ctx"
 #define EQPL_SOLUTION "equipoise.solution"
 #define EQPL_RESULT "equipoise.result"
+#define EQPL_CURVE "equipoise.curve"
+#define EQPL_CURVES "equipoise.curves"      /* registry: curves of the run, in order */
 #define EQPL_LASTERR "equipoise.lasterr"    /* registry: {message, status} */
 #define EQPL_LOG "equipoise.log"            /* registry: results of the run, in order */
 #define EQPL_USED "equipoise.used"          /* registry: set of reagent names added */
@@ -18,6 +20,7 @@
 typedef struct eqpl_ctx { eqp_ctx *ctx; } eqpl_ctx;
 typedef struct eqpl_solution { eqp_solution *s; } eqpl_solution;
 typedef struct eqpl_result { eqp_result *r; } eqpl_result;
+typedef struct eqpl_curve { eqp_curve *c; } eqpl_curve;
 
 /* The context of this Lua state (upvalue 1 of every binding). */
 eqp_ctx *eqpl_ctx_of(lua_State *L);
@@ -29,6 +32,12 @@ int eqpl_input_error(lua_State *L, const char *fmt, ...);
 
 void eqpl_open_solution(lua_State *L);
 void eqpl_open_result(lua_State *L);
+void eqpl_open_curve(lua_State *L);
+void eqpl_open_procedure(lua_State *L);
+int eqpl_mix(lua_State *L);
+void eqpl_push_curve(lua_State *L, eqp_curve *c);
+/* A volume string ("10 mL") at idx, in L; raises on anything else. */
+double eqpl_check_volume(lua_State *L, int idx, const char *what);
 /* Push a new result object for r (takes ownership); links it to the ctx. */
 void eqpl_push_result(lua_State *L, eqp_result *r);
 eqpl_solution *eqpl_check_solution(lua_State *L, int idx);

@@ -1,0 +1,122 @@
+/* Curves: rows of a titration, equivalence points, CSV and JSON output. */
+/* SPDX-License-Identifier: MIT */
+#include "curve_impl.h"
+#include <cjson/cJSON.h>
+#include <math.h>
+#include <stdio.h>
+#include <string.h>
+
+eqp_curve *eqpi_curve_new(eqp_ctx *ctx, int ncols, const char *const *names)
+{
+  eqp_curve *c = eqpi_calloc(ctx, 1, sizeof *c);
+  if (!c) return NULL;
+  c->ctx = ctx;
+  c->ncols = ncols;
+  c->names = eqpi_calloc(ctx, (size_t)ncols, sizeof(char *));
+  if (!c->names) {
+    eqpi_free(ctx, c, sizeof *c);
+    return NULL;
+  }
+  for (int j = 0; j < ncols; j++)
+    if (!(c->names[j] = eqpi_strdup(ctx, names[j]))) {
+      eqp_curve_free(c);
+      return NULL;
+    }
+  return c;
+}
+
+int eqpi_curve_push(eqp_curve *c, const double *row)
+{
+  if (c->nrows == c->caprows) {
+    size_t nc = c->caprows ? c->caprows * 2 : 64;
+    double *v = eqpi_realloc(c->ctx, c->v, sizeof(double) * c->caprows * (size_t)c->ncols,
+                             sizeof(double) * nc * (size_t)c->ncols);
+    if (!v) return eqpi_fail(c->ctx, EQP_E_NOMEM, "out of memory");
+    c->v = v;
+    c->caprows = nc;
+  }
+  memcpy(c->v + c->nrows * (size_t)c->ncols, row, sizeof(double) * (size_t)c->ncols);
+  c->nrows++;
+  return EQP_OK;
+}
+
+void eqp_curve_free(eqp_curve *c)
+{
+  if (!c) return;
+  eqp_ctx *ctx = c->ctx;
+  for (int j = 0; j < c->ncols; j++) eqpi_strfree(ctx, c->names[j]);
+  eqpi_free(ctx, c->names, sizeof(char *) * (size_t)c->ncols);
+  eqpi_free(ctx, c->v, sizeof(double) * c->caprows * (size_t)c->ncols);
+  eqpi_free(ctx, c, sizeof *c);
+}
+
+size_t eqp_curve_rows(const eqp_curve *c) { return c ? c->nrows : 0; }
+size_t eqp_curve_cols(const eqp_curve *c) { return c ? (size_t)c->ncols : 0; }
+
+const char *eqp_curve_col_name(const eqp_curve *c, size_t j)
+{
+  return c && j < (size_t)c->ncols ? c->names[j] : NULL;
+}
+
+double eqp_curve_value(const eqp_curve *c, size_t i, size_t j)
+{
+  return c && i < c->nrows && j < (size_t)c->ncols ? c->v[i * (size_t)c->ncols + j] : NAN;
+}
+
+size_t eqp_curve_equivalence_count(const eqp_curve *c) { return c ? (size_t)c->neq : 0; }
+
+int eqp_curve_equivalence(const eqp_curve *c, size_t k, double *amount, double *litres,
+                          double *pH)
+{
+  if (!c || k >= (size_t)c->neq) return EQP_E_ARG;
+  if (amount) *amount = c->eq[k][0];
+  if (litres) *litres = c->eq[k][1];
+  if (pH) *pH = c->eq[k][2];
+  return EQP_OK;
+}
+
+int eqp_curve_write_csv(const eqp_curve *c, FILE *f)
+{
+  if (!c || !f) return EQP_E_ARG;
+  for (int j = 0; j < c->ncols; j++) fprintf(f, "%s%s", j ? "," : "", c->names[j]);
+  fputc('\n', f);
+  for (size_t i = 0; i < c->nrows; i++) {
+    for (int j = 0; j < c->ncols; j++) {
+      double v = c->v[i * (size_t)c->ncols + j];
+      if (isnan(v)) fprintf(f, "%s", j ? "," : "");
+      else fprintf(f, "%s%.10g", j ? "," : "", v);
+    }
+    fputc('\n', f);
+  }
+  return ferror(f) ? eqpi_fail(c->ctx, EQP_E_IO, "write error") : EQP_OK;
+}
+
+char *eqp_curve_to_json(const eqp_curve *c)
+{
+  if (!c) return NULL;
+  cJSON *o = cJSON_CreateObject();
+  cJSON *cols = cJSON_AddArrayToObject(o, "columns");
+  for (int j = 0; j < c->ncols; j++) cJSON_AddItemToArray(cols, cJSON_CreateString(c->names[j]));
+  cJSON *rows = cJSON_AddArrayToObject(o, "rows");
+  for (size_t i = 0; i < c->nrows; i++) {
+    cJSON *r = cJSON_CreateArray();
+    for (int j = 0; j < c->ncols; j++) {
+      double v = c->v[i * (size_t)c->ncols + j];
+      cJSON_AddItemToArray(r, isnan(v) ? cJSON_CreateNull() : cJSON_CreateNumber(v));
+    }
+    cJSON_AddItemToArray(rows, r);
+  }
+  cJSON *eq = cJSON_AddArrayToObject(o, "equivalence_points");
+  for (int k = 0; k < c->neq; k++) {
+    cJSON *e = cJSON_CreateObject();
+    if (!isnan(c->eq[k][0])) cJSON_AddNumberToObject(e, "amount_mol", c->eq[k][0]);
+    if (!isnan(c->eq[k][1])) cJSON_AddNumberToObject(e, "volume_L", c->eq[k][1]);
+    cJSON_AddNumberToObject(e, "pH", c->eq[k][2]);
+    cJSON_AddItemToArray(eq, e);
+  }
+  char *text = cJSON_PrintUnformatted(o);
+  cJSON_Delete(o);
+  return text;   /* free with eqp_free_string */
+}
+
+void eqp_free_string(char *s) { cJSON_free(s); }

@@ -1,0 +1,206 @@
+/* Lua binding of eqp_curve: rows by index, columns, equivalence points,
+** CSV and JSON. */
+/* SPDX-License-Identifier: MIT */
+#include "lua_impl.h"
+#include <math.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+
+static eqp_curve *check_curve(lua_State *L, int idx)
+{
+  eqpl_curve *u = luaL_checkudata(L, idx, EQPL_CURVE);
+  if (!u->c) luaL_argerror(L, idx, "curve is closed");
+  return u->c;
+}
+
+void eqpl_push_curve(lua_State *L, eqp_curve *c)
+{
+  eqpl_curve *u = lua_newuserdatauv(L, sizeof *u, 1);
+  u->c = c;
+  luaL_setmetatable(L, EQPL_CURVE);
+  lua_pushvalue(L, lua_upvalueindex(1));
+  lua_setiuservalue(L, -2, 1);
+}
+
+/* Friendlier keys for the fixed columns in Lua rows. */
+static const char *row_key(const char *col)
+{
+  static const struct { const char *col, *key; } map[] = {
+    {"amount_mol", "amount"}, {"volume_L", "volume"}, {"total_volume_L", "total_volume"},
+    {"dpH_dmol", "slope"}, {"dpH_dL", "slope"},
+  };
+  for (size_t i = 0; i < sizeof map / sizeof map[0]; i++)
+    if (strcmp(map[i].col, col) == 0) return map[i].key;
+  return col;
+}
+
+static void push_row(lua_State *L, const eqp_curve *c, size_t i)
+{
+  lua_createtable(L, 0, (int)eqp_curve_cols(c));
+  for (size_t j = 0; j < eqp_curve_cols(c); j++) {
+    double v = eqp_curve_value(c, i, j);
+    if (isnan(v)) continue;
+    lua_pushnumber(L, v);
+    lua_setfield(L, -2, row_key(eqp_curve_col_name(c, j)));
+  }
+}
+
+static int curve_len(lua_State *L)
+{
+  lua_pushinteger(L, (lua_Integer)eqp_curve_rows(check_curve(L, 1)));
+  return 1;
+}
+
+static int curve_csv(lua_State *L)
+{
+  eqp_curve *c = check_curve(L, 1);
+  char *buf = NULL;
+  size_t len = 0;
+  FILE *f = open_memstream(&buf, &len);
+  if (!f) return luaL_error(L, "out of memory");
+  eqp_curve_write_csv(c, f);
+  fclose(f);
+  lua_pushlstring(L, buf, len);
+  free(buf);
+  return 1;
+}
+
+static int curve_write_csv(lua_State *L)
+{
+  eqp_curve *c = check_curve(L, 1);
+  const char *path = luaL_checkstring(L, 2);
+  FILE *f = fopen(path, "w");
+  if (!f) return eqpl_input_error(L, "cannot write '%s'", path);
+  int rc = eqp_curve_write_csv(c, f);
+  if (fclose(f) != 0 || rc < 0) return eqpl_input_error(L, "error writing '%s'", path);
+  lua_settop(L, 1);
+  return 1;
+}
+
+static int curve_json(lua_State *L)
+{
+  char *text = eqp_curve_to_json(check_curve(L, 1));
+  if (!text) return luaL_error(L, "out of memory");
+  lua_pushstring(L, text);
+  eqp_free_string(text);
+  return 1;
+}
+
+static int curve_write_json(lua_State *L)
+{
+  const char *path = luaL_checkstring(L, 2);
+  curve_json(L);
+  FILE *f = fopen(path, "w");
+  if (!f) return eqpl_input_error(L, "cannot write '%s'", path);
+  size_t len;
+  const char *text = lua_tolstring(L, -1, &len);
+  int ok = fwrite(text, 1, len, f) == len && fputc('\n', f) != EOF;
+  if (fclose(f) != 0 || !ok) return eqpl_input_error(L, "error writing '%s'", path);
+  lua_settop(L, 1);
+  return 1;
+}
+
+static int curve_tostring(lua_State *L)
+{
+  eqp_curve *c = check_curve(L, 1);
+  luaL_Buffer b;
+  char line[512];
+  luaL_buffinit(L, &b);
+  size_t used = 0;
+  for (size_t j = 0; j < eqp_curve_cols(c); j++)
+    used += (size_t)snprintf(line + used, sizeof line - used, "%14s", eqp_curve_col_name(c, j));
+  luaL_addstring(&b, line);
+  luaL_addchar(&b, '\n');
+  for (size_t i = 0; i < eqp_curve_rows(c); i++) {
+    used = 0;
+    for (size_t j = 0; j < eqp_curve_cols(c) && used < sizeof line; j++) {
+      double v = eqp_curve_value(c, i, j);
+      if (isnan(v)) used += (size_t)snprintf(line + used, sizeof line - used, "%14s", "-");
+      else used += (size_t)snprintf(line + used, sizeof line - used, "%14.6g", v);
+    }
+    luaL_addstring(&b, line);
+    luaL_addchar(&b, '\n');
+  }
+  for (size_t k = 0; k < eqp_curve_equivalence_count(c); k++) {
+    double a, v, pH;
+    eqp_curve_equivalence(c, k, &a, &v, &pH);
+    snprintf(line, sizeof line, "equivalence point %zu: amount %.6g mol, volume %.6g L, pH %.3f\n",
+             k + 1, a, v, pH);
+    luaL_addstring(&b, line);
+  }
+  luaL_pushresult(&b);
+  return 1;
+}
+
+static const luaL_Reg curve_methods[] = {
+  {"csv", curve_csv},
+  {"write_csv", curve_write_csv},
+  {"json", curve_json},
+  {"write_json", curve_write_json},
+  {NULL, NULL},
+};
+
+static int curve_index(lua_State *L)
+{
+  eqp_curve *c = check_curve(L, 1);
+  if (lua_type(L, 2) == LUA_TNUMBER) {
+    lua_Integer i = lua_tointeger(L, 2);
+    if (i < 1 || (size_t)i > eqp_curve_rows(c)) return 0;
+    push_row(L, c, (size_t)i - 1);
+    return 1;
+  }
+  const char *k = luaL_checkstring(L, 2);
+  if (strcmp(k, "equivalence") == 0) {
+    size_t n = eqp_curve_equivalence_count(c);
+    lua_createtable(L, (int)n, 0);
+    for (size_t e = 0; e < n; e++) {
+      double a, v, pH;
+      eqp_curve_equivalence(c, e, &a, &v, &pH);
+      lua_createtable(L, 0, 3);
+      if (!isnan(a)) { lua_pushnumber(L, a); lua_setfield(L, -2, "amount"); }
+      if (!isnan(v)) { lua_pushnumber(L, v); lua_setfield(L, -2, "volume"); }
+      lua_pushnumber(L, pH);
+      lua_setfield(L, -2, "pH");
+      lua_rawseti(L, -2, (lua_Integer)e + 1);
+    }
+    return 1;
+  }
+  if (strcmp(k, "columns") == 0) {
+    lua_createtable(L, (int)eqp_curve_cols(c), 0);
+    for (size_t j = 0; j < eqp_curve_cols(c); j++) {
+      lua_pushstring(L, row_key(eqp_curve_col_name(c, j)));
+      lua_rawseti(L, -2, (lua_Integer)j + 1);
+    }
+    return 1;
+  }
+  lua_getfield(L, lua_upvalueindex(2), k);
+  return 1;
+}
+
+static int curve_close(lua_State *L)
+{
+  eqpl_curve *u = luaL_checkudata(L, 1, EQPL_CURVE);
+  eqp_curve_free(u->c);
+  u->c = NULL;
+  return 0;
+}
+
+void eqpl_open_curve(lua_State *L)
+{
+  int ctx = lua_gettop(L);
+  luaL_newmetatable(L, EQPL_CURVE);
+  lua_pushvalue(L, ctx);
+  luaL_newlibtable(L, curve_methods);
+  lua_pushvalue(L, ctx);
+  luaL_setfuncs(L, curve_methods, 1);
+  lua_pushcclosure(L, curve_index, 2);
+  lua_setfield(L, -2, "__index");
+  lua_pushcfunction(L, curve_len);
+  lua_setfield(L, -2, "__len");
+  lua_pushcfunction(L, curve_close);
+  lua_setfield(L, -2, "__gc");
+  lua_pushcfunction(L, curve_tostring);
+  lua_setfield(L, -2, "__tostring");
+  lua_settop(L, ctx);
+}

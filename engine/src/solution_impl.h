@@ -1,0 +1,27 @@
+/* Solutions: the private record, shared by the files that work on it. */
+/* SPDX-License-Identifier: MIT */
+#ifndef EQP_SOLUTION_IMPL_H
+#define EQP_SOLUTION_IMPL_H
+
+#include "result_impl.h"
+
+struct eqp_solution {
+  eqp_ctx *ctx;
+  double water_kg;
+  double T;               /* K */
+  eqpi_model model;
+  double *total;          /* mol per component of the database */
+  int ntotal;
+  eqpi_system *sys;
+  char pname[8][32];      /* activity-model parameters set, for copies */
+  double pvalue[8];
+  int nparams;
+};
+
+int eqpi_find_reagent(eqp_solution *s, const char *name, const eqpi_reagent **r);
+/* What k mol of reagent r adds: components into a (added), kg of water into *w (per mol). */
+void eqpi_reagent_dir(const eqp_solution *s, const eqpi_reagent *r, double *a, double *w, double k);
+/* Make sure s->sys holds the equilibrium of the present composition. */
+int eqpi_solution_solved(eqp_solution *s);
+
+#endif

@@ -1,0 +1,221 @@
+/* Titrations: a curve of successive equilibria, with steps that shrink
+** where the pH moves fast, and equivalence points located at the maxima of
+** |dpH/dV| (the derivative from implicit differentiation, the maximum found
+** by golden-section search). */
+/* SPDX-License-Identifier: MIT */
+#include "curve_impl.h"
+#include "solution_impl.h"
+#include "system_impl.h"
+#include <math.h>
+#include <stdio.h>
+#include <string.h>
+
+#define MAX_ROWS 100000
+#define MAX_COLS 32
+
+typedef struct titrant {
+  double *a;            /* components per unit (mol of reagent, or L of stock) */
+  double w;             /* kg of water per unit */
+  double litres;        /* L per unit (1 for a stock; liquid reagents; else NaN) */
+  int stock;
+} titrant;
+
+enum { COL_AMOUNT, COL_VOLUME, COL_TOTAL, COL_PH, COL_DPH, COL_SPECIES };
+
+/* Set w to base + v units of titrant and solve; pH and dpH/dunit out. */
+static int state_at(eqp_solution *w, const eqp_solution *base, const titrant *t, double v,
+                    double *pH, double *dpH, eqp_result **keep)
+{
+  for (int c = 0; c < w->ntotal; c++) w->total[c] = base->total[c] + v * t->a[c];
+  w->water_kg = base->water_kg + v * t->w;
+  eqp_result *r;
+  int rc = eqp_solution_equilibrate(w, &r);
+  if (rc < 0) return rc;
+  *pH = eqp_result_pH(r);
+  rc = eqpi_system_dpH(w->ctx, w->sys, t->a, t->w, w->water_kg, dpH);
+  if (keep) *keep = r;
+  else eqp_result_free(r);
+  return rc;
+}
+
+static int push_row(eqp_curve *c, const eqp_solution *w, const titrant *t, double v, double pH,
+                    double dpH, const eqp_result *r, const eqp_titration *spec)
+{
+  double row[MAX_COLS];
+  row[COL_AMOUNT] = t->stock ? NAN : v;
+  row[COL_VOLUME] = isnan(t->litres) ? 0 : v * t->litres;
+  row[COL_TOTAL] = eqp_solution_volume(w);
+  row[COL_PH] = pH;
+  row[COL_DPH] = dpH;
+  for (size_t k = 0; k < spec->nspecies; k++)
+    eqp_result_molality(r, spec->species[k], &row[COL_SPECIES + k]);
+  return eqpi_curve_push(c, row);
+}
+
+/* Golden-section search for the largest |dpH/dv| in [lo, hi]. */
+static int refine(eqp_solution *w, const eqp_solution *base, const titrant *t, double lo,
+                  double hi, double *vbest, double *pHbest)
+{
+  const double g = 0.6180339887498949;
+  double x1 = hi - g * (hi - lo), x2 = lo + g * (hi - lo), p1, p2, d1, d2;
+  int rc = state_at(w, base, t, x1, &p1, &d1, NULL);
+  if (rc == EQP_OK) rc = state_at(w, base, t, x2, &p2, &d2, NULL);
+  for (int it = 0; rc == EQP_OK && it < 60 && hi - lo > 1e-12 * fabs(hi); it++) {
+    if (fabs(d1) > fabs(d2)) {
+      hi = x2; x2 = x1; d2 = d1; p2 = p1;
+      x1 = hi - g * (hi - lo);
+      rc = state_at(w, base, t, x1, &p1, &d1, NULL);
+    } else {
+      lo = x1; x1 = x2; d1 = d2; p1 = p2;
+      x2 = lo + g * (hi - lo);
+      rc = state_at(w, base, t, x2, &p2, &d2, NULL);
+    }
+  }
+  if (rc < 0) return rc;
+  *vbest = 0.5 * (lo + hi);
+  double d;
+  return state_at(w, base, t, *vbest, pHbest, &d, NULL);
+}
+
+/* Interior maxima of |dpH/dv| that stand well above the curve on both sides. */
+static int find_equivalence(eqp_curve *c, eqp_solution *w, const eqp_solution *base,
+                            const titrant *t)
+{
+  size_t n = c->nrows, nc = (size_t)c->ncols;
+  const double *v = c->v;
+  for (size_t i = 1; i + 1 < n && c->neq < EQPI_MAX_EQ; i++) {
+    double di = fabs(v[i * nc + COL_DPH]);
+    if (!(di > fabs(v[(i - 1) * nc + COL_DPH]) && di >= fabs(v[(i + 1) * nc + COL_DPH])))
+      continue;
+    double lmin = INFINITY, rmin = INFINITY;
+    for (size_t k = 0; k < i; k++) lmin = fmin(lmin, fabs(v[k * nc + COL_DPH]));
+    for (size_t k = i + 1; k < n; k++) rmin = fmin(rmin, fabs(v[k * nc + COL_DPH]));
+    if (!(di > 5 * fmax(lmin, rmin))) continue;   /* a shoulder, not an end point */
+    double unit = t->stock ? 1 : 1;
+    double lo = (t->stock ? v[(i - 1) * nc + COL_VOLUME] : v[(i - 1) * nc + COL_AMOUNT]) / unit;
+    double hi = (t->stock ? v[(i + 1) * nc + COL_VOLUME] : v[(i + 1) * nc + COL_AMOUNT]) / unit;
+    double vb, pHb;
+    int rc = refine(w, base, t, lo, hi, &vb, &pHb);
+    if (rc < 0) return rc;
+    c->eq[c->neq][0] = t->stock ? NAN : vb;
+    c->eq[c->neq][1] = isnan(t->litres) ? NAN : vb * t->litres;
+    c->eq[c->neq][2] = pHb;
+    c->neq++;
+  }
+  return EQP_OK;
+}
+
+static int make_titrant(eqp_solution *s, const eqp_titration *spec, titrant *t)
+{
+  eqp_ctx *ctx = s->ctx;
+  memset(t, 0, sizeof *t);
+  t->a = eqpi_calloc(ctx, (size_t)s->ntotal + 1, sizeof(double));
+  if (!t->a) return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
+  if (spec->stock) {
+    const eqp_solution *k = spec->stock;
+    double V = eqp_solution_volume(k);
+    for (int c = 0; c < k->ntotal && c < s->ntotal; c++) t->a[c] = k->total[c] / V;
+    t->w = k->water_kg / V;
+    t->litres = 1;
+    t->stock = 1;
+    return EQP_OK;
+  }
+  const eqpi_reagent *r = NULL;
+  int rc = eqpi_find_reagent(s, spec->reagent, &r);
+  if (rc < 0) return rc;
+  eqpi_reagent_dir(s, r, t->a, &t->w, 1.0);
+  t->litres = isnan(r->density) ? NAN : r->molar_mass / (1e3 * r->density);
+  return EQP_OK;
+}
+
+static int check_spec(eqp_ctx *ctx, const eqp_titration *t)
+{
+  if (!t->reagent == !t->stock)
+    return eqpi_fail(ctx, EQP_E_ARG, "a titration needs one titrant: a reagent or a stock");
+  if (!(t->step > 0) || !isfinite(t->step))
+    return eqpi_fail(ctx, EQP_E_INPUT, "the titration step must be positive");
+  if (!(t->to > 0) && isnan(t->until_pH))
+    return eqpi_fail(ctx, EQP_E_INPUT, "a titration needs an end: 'to' or 'until_pH'");
+  if (t->nspecies > MAX_COLS - COL_SPECIES)
+    return eqpi_fail(ctx, EQP_E_INPUT, "at most %d species columns", MAX_COLS - COL_SPECIES);
+  return EQP_OK;
+}
+
+int eqp_solution_titrate(eqp_solution *s, const eqp_titration *spec, eqp_curve **out)
+{
+  if (!s || !spec || !out) return eqpi_fail(s ? s->ctx : NULL, EQP_E_ARG, "NULL argument");
+  eqp_ctx *ctx = s->ctx;
+  *out = NULL;
+  int rc = check_spec(ctx, spec);
+  if (rc < 0) return rc;
+  for (size_t k = 0; k < spec->nspecies; k++)
+    if (eqpi_db_find_species(&ctx->db, spec->species[k]) < 0)
+      return eqpi_fail(ctx, EQP_E_UNKNOWN, "unknown species '%s'", spec->species[k]);
+  const char *names[MAX_COLS] = {"amount_mol", "volume_L", "total_volume_L", "pH",
+                                 spec->stock ? "dpH_dL" : "dpH_dmol"};
+  for (size_t k = 0; k < spec->nspecies; k++) names[COL_SPECIES + k] = spec->species[k];
+  eqp_solution *base = NULL, *w = NULL;
+  titrant t = {0};
+  eqp_curve *c = NULL;
+  if ((rc = eqp_solution_copy(s, &base)) < 0 || (rc = eqp_solution_copy(s, &w)) < 0) goto out;
+  base->ntotal = w->ntotal;
+  if ((rc = make_titrant(base, spec, &t)) < 0) goto out;
+  c = eqpi_curve_new(ctx, COL_SPECIES + (int)spec->nspecies, names);
+  if (!c) { rc = eqpi_fail(ctx, EQP_E_NOMEM, "out of memory"); goto out; }
+  double v = 0, pH, dpH, max_dpH = spec->max_dpH > 0 ? spec->max_dpH : 0.1;
+  eqp_result *r;
+  if ((rc = state_at(w, base, &t, 0, &pH, &dpH, &r)) < 0) goto out;
+  rc = push_row(c, w, &t, 0, pH, dpH, r, spec);
+  eqp_result_free(r);
+  double start = pH, end = spec->to > 0 ? spec->to : INFINITY;
+  int until = !isnan(spec->until_pH);
+  if (until && (spec->until_pH - start) * dpH <= 0) {
+    rc = eqpi_fail(ctx, EQP_E_INPUT, "pH %.3f cannot be reached: the titrant moves the pH %s "
+                   "from %.3f", spec->until_pH, dpH < 0 ? "down" : "up", start);
+    goto out;
+  }
+  while (rc == EQP_OK && v < end * (1 - 1e-12) && c->nrows < MAX_ROWS) {
+    /* at most max_dpH per step by the local slope, and never below 1/1000 of the step */
+    double h = spec->step;
+    if (fabs(dpH) * h > max_dpH) h = fmax(max_dpH / fabs(dpH), spec->step * 1e-3);
+    if (v + h > end) h = end - v;
+    double pH1, dpH1;
+    if ((rc = state_at(w, base, &t, v + h, &pH1, &dpH1, &r)) < 0) break;
+    if (until && (pH1 - spec->until_pH) * (pH - spec->until_pH) <= 0) {
+      /* crossed: finish exactly at the requested pH, by bisection on v */
+      eqp_result_free(r);
+      double lo = v, hi = v + h;
+      for (int it = 0; it < 100 && hi - lo > 1e-14 * hi; it++) {
+        double mid = 0.5 * (lo + hi), pm, dm;
+        if ((rc = state_at(w, base, &t, mid, &pm, &dm, NULL)) < 0) goto out;
+        if ((pm - spec->until_pH) * (pH - spec->until_pH) > 0) lo = mid;
+        else hi = mid;
+      }
+      if ((rc = state_at(w, base, &t, hi, &pH1, &dpH1, &r)) < 0) break;
+      rc = push_row(c, w, &t, hi, pH1, dpH1, r, spec);
+      eqp_result_free(r);
+      break;
+    }
+    rc = push_row(c, w, &t, v + h, pH1, dpH1, r, spec);
+    eqp_result_free(r);
+    v += h;
+    pH = pH1;
+    dpH = dpH1;
+  }
+  if (rc == EQP_OK && until && c->nrows >= MAX_ROWS)
+    rc = eqpi_fail(ctx, EQP_E_INPUT, "pH %.3f not reached within %d points", spec->until_pH,
+                   MAX_ROWS);
+  if (rc == EQP_OK && !until && v < end * (1 - 1e-12))
+    rc = eqpi_fail(ctx, EQP_E_INPUT, "titration stopped at %d points before its end", MAX_ROWS);
+  if (rc == EQP_OK) rc = find_equivalence(c, w, base, &t);
+out:
+  if (t.a) eqpi_free(ctx, t.a, sizeof(double) * ((size_t)(base ? base->ntotal : 0) + 1));
+  eqp_solution_free(base);
+  eqp_solution_free(w);
+  if (rc < 0) {
+    eqp_curve_free(c);
+    return rc;
+  }
+  *out = c;
+  return EQP_OK;
+}
