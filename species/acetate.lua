@@ -14,6 +14,11 @@ return {
     -- dH, dCp: of the ionization, kJ/mol and J/(K mol)
     { "CH3COOH", "CH3COO-", pKa = 4.756, dH = -0.41, dCp = -142, source = "goldberg2002" },
   },
+  buffers = {
+    { "acetate", pair = { "CH3COOH", "CH3COONa" },
+      notes = { "volatility: acetic acid evaporates from open vessels (common practice)",
+                "UV: absorbs below about 230 nm (common practice)" } },
+  },
   reagents = {
     { "CH3COOH", names = { "acetic acid", "glacial acetic acid" }, density = 1.049,
       hazards = { "corrosive", "flammable" },

@@ -24,6 +24,14 @@ return {
       pKa = { 2.148, 7.198, 12.35 }, dH = { -8.0, 3.6, 16.0 }, dCp = { -141, -230, -242 },
       source = "goldberg2002" },
   },
+  buffers = {
+    { "phosphate", pair = { "NaH2PO4", "Na2HPO4" },
+      notes = { "metals: precipitates Ca2+ and Mg2+ and binds many metal ions (common practice)",
+                "enzymes: inhibits some kinases and phosphatases (common practice)",
+                "temperature: pK2 moves little with temperature (dH 3.6 kJ/mol, Goldberg et al. 2002)" } },
+    { "potassium phosphate", pair = { "KH2PO4", "K2HPO4" },
+      notes = { "metals: precipitates Ca2+ and Mg2+ (common practice)" } },
+  },
   reagents = {
     { "H3PO4", names = { "phosphoric acid", "orthophosphoric acid" }, hazards = { "corrosive" } },
     { "NaH2PO4", gives = { ["Na+"] = 1, ["H2PO4-"] = 1 },

@@ -17,6 +17,10 @@ return {
     { "HPhthalate-", "Phthalate-2", pKa = 5.408, source = "hamer1945b",
       pKa_T = { { a = -9.5508, b = 0.025694, c = 2175.83 } }, T_range = { 273.15, 333.15 } },
   },
+  buffers = {
+    { "phthalate", free = "KHC8H4O4", titrant = "NaOH",
+      notes = { "UV: absorbs strongly in the UV (common practice)" } },
+  },
   reagents = {
     { "KHC8H4O4", gives = { ["K+"] = 1, ["HPhthalate-"] = 1 },
       names = { "potassium hydrogen phthalate", "KHP" } },

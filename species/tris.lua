@@ -11,6 +11,12 @@ return {
   acids = {
     { "TrisH+", "Tris", pKa = 8.072, dH = 47.45, dCp = -59, source = "goldberg2002" },
   },
+  buffers = {
+    { "Tris", pair = { "TrisHCl", "Tris" }, free = "Tris", titrant = "HCl",
+      notes = { "temperature: pKa falls about 0.03 per degree C (dH 47.45 kJ/mol, Goldberg et al. 2002)",
+                "reactivity: a primary amine; reacts with aldehydes and some reagents (common practice)",
+                "electrodes: can interfere with some calomel reference electrodes (common practice)" } },
+  },
   reagents = {
     { "Tris", names = { "Tris base", "tromethamine", "tris(hydroxymethyl)aminomethane" },
       hazards = { "irritant" } },

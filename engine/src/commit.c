@@ -54,6 +54,7 @@ void eqpi_stage_free(eqp_ctx *ctx, eqpi_stage *st)
   eqpi_free(ctx, st->rx, sizeof *st->rx * (size_t)st->caprx);
   eqpi_free(ctx, st->rg, sizeof *st->rg * (size_t)st->caprg);
   eqpi_free(ctx, st->in, sizeof *st->in * (size_t)st->capin);
+  eqpi_free(ctx, st->bf, sizeof *st->bf * (size_t)st->capbf);
   eqpi_free(ctx, st->files, sizeof *st->files * (size_t)st->capfiles);
   eqpi_free(ctx, st, sizeof *st);
 }
@@ -75,6 +76,8 @@ typedef struct committer {
   signed char *state; /* per species: 0 todo, 1 resolving, 2 done */
   eqpi_pairparam *pairs;
   int npairs, cappairs;
+  eqpi_buffer *buf;
+  int nbuf, capbuf;
 } committer;
 
 static int find_species(const committer *c, const char *name)
@@ -467,6 +470,47 @@ static void add_interactions(committer *c)
   }
 }
 
+static int buffer_reagent(committer *c, const st_buffer *b, const char *name)
+{
+  if (!name) return -1;
+  int g = find_reagent(c, name, c->nrg);
+  if (g < 0)
+    eqpi_stage_error(c->st, b->file, b->line, "buffer '%s': unknown reagent '%s'", b->name, name);
+  return g;
+}
+
+static void add_buffers(committer *c)
+{
+  eqpi_stage *st = c->st;
+  for (int k = 0; k < st->nbf; k++) {
+    const st_buffer *b = &st->bf[k];
+    if (!b->name) continue;
+    for (int q = 0; q < c->nbuf; q++)
+      if (strcmp(c->buf[q].name, b->name) == 0) {
+        eqpi_stage_error(st, b->file, b->line, "duplicate buffer '%s' (first at %s:%d)",
+                         b->name, c->buf[q].file, c->buf[q].line);
+        break;
+      }
+    if (c->nbuf == c->capbuf) {
+      int nc = c->capbuf * 2 + 8;
+      eqpi_buffer *p = eqpi_realloc(c->ctx, c->buf, sizeof *p * (size_t)c->capbuf, sizeof *p * (size_t)nc);
+      if (!p) { eqpi_stage_error(st, NULL, 0, "out of memory"); return; }
+      c->buf = p;
+      c->capbuf = nc;
+    }
+    eqpi_buffer *d = &c->buf[c->nbuf++];
+    d->name = b->name;
+    d->acid = buffer_reagent(c, b, b->acid);
+    d->base = buffer_reagent(c, b, b->base);
+    d->free = buffer_reagent(c, b, b->free);
+    d->titrant = buffer_reagent(c, b, b->titrant);
+    d->notes = b->notes;
+    d->nnotes = b->nnotes;
+    d->file = b->file;
+    d->line = b->line;
+  }
+}
+
 static void committer_free(committer *c)
 {
   eqp_ctx *ctx = c->ctx;
@@ -476,6 +520,7 @@ static void committer_free(committer *c)
   eqpi_free(ctx, c->comp_species, sizeof(int) * (size_t)(c->db->ncomp + c->st->nsp + 1));
   eqpi_free(ctx, c->state, (size_t)(c->db->nsp + c->st->nsp + 1));
   eqpi_free(ctx, c->pairs, sizeof *c->pairs * (size_t)c->cappairs);
+  eqpi_free(ctx, c->buf, sizeof *c->buf * (size_t)c->capbuf);
 }
 
 int eqpi_db_rebuild_index(eqp_ctx *ctx, eqpi_db *db);
@@ -484,7 +529,7 @@ int eqpi_stage_commit(eqp_ctx *ctx, eqpi_stage *st)
 {
   eqpi_db *db = &ctx->db;
   committer c = {ctx, db, st, NULL, db->nsp, NULL, db->nrx, NULL, db->nrg, 0, db->ncomp,
-                 NULL, NULL, NULL, 0, 0};
+                 NULL, NULL, NULL, 0, 0, NULL, 0, 0};
   int rc = EQP_E_DATA;
   /* Shape errors found while staging do not stop the checks of names and
   ** balances below, so one run reports every problem; nothing is kept. */
@@ -516,6 +561,17 @@ int eqpi_stage_commit(eqp_ctx *ctx, eqpi_stage *st)
     memcpy(c.pairs, db->pairs, sizeof *c.pairs * (size_t)db->npairs);
     c.npairs = db->npairs;
   }
+  if (db->nbuffers) {
+    c.capbuf = db->nbuffers + 8;
+    c.buf = eqpi_malloc(ctx, sizeof *c.buf * (size_t)c.capbuf);
+    if (!c.buf) {
+      rc = EQP_E_NOMEM;
+      eqpi_stage_error(st, NULL, 0, "out of memory");
+      goto fail;
+    }
+    memcpy(c.buf, db->buffers, sizeof *c.buf * (size_t)db->nbuffers);
+    c.nbuf = db->nbuffers;
+  }
   add_species(&c);
   add_reactions(&c);
   for (int i = db->nsp; i < c.nsp; i++)
@@ -528,6 +584,7 @@ int eqpi_stage_commit(eqp_ctx *ctx, eqpi_stage *st)
     if (resolve(&c, i, 0) < 0) goto fail;
   add_reagents(&c);
   add_interactions(&c);
+  add_buffers(&c);
   if (st->nerr) goto fail;
   /* Success: nothing below can fail except the index, rebuilt on the
   ** new arrays before the old ones are released. */
@@ -537,6 +594,7 @@ int eqpi_stage_commit(eqp_ctx *ctx, eqpi_stage *st)
   next.rg = c.rg; next.nrg = c.nrg; next.caprg = c.caprg;
   next.comp_species = c.comp_species; next.ncomp = c.ncomp;
   next.pairs = c.pairs; next.npairs = c.npairs; next.cappairs = c.cappairs;
+  next.buffers = c.buf; next.nbuffers = c.nbuf; next.capbuffers = c.capbuf;
   next.capcomp = db->ncomp + st->nsp + 1;
   next.hash = NULL;
   next.hashcap = 0;
@@ -563,6 +621,7 @@ int eqpi_stage_commit(eqp_ctx *ctx, eqpi_stage *st)
   eqpi_free(ctx, db->comp_species, sizeof(int) * (size_t)db->capcomp);
   eqpi_free(ctx, db->hash, sizeof(int) * (size_t)db->hashcap * 2);
   eqpi_free(ctx, db->pairs, sizeof *db->pairs * (size_t)db->cappairs);
+  eqpi_free(ctx, db->buffers, sizeof *db->buffers * (size_t)db->capbuffers);
   eqpi_free(ctx, c.state, maxsp);
   *db = next;
   eqpi_arena_splice(&db->arena, &st->arena);

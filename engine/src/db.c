@@ -116,6 +116,7 @@ void eqpi_db_free(eqp_ctx *ctx, eqpi_db *db)
   eqpi_free(ctx, db->comp_species, sizeof(int) * (size_t)db->capcomp);
   eqpi_free(ctx, db->files, sizeof *db->files * (size_t)db->capfiles);
   eqpi_free(ctx, db->pairs, sizeof *db->pairs * (size_t)db->cappairs);
+  eqpi_free(ctx, db->buffers, sizeof *db->buffers * (size_t)db->capbuffers);
   eqpi_free(ctx, db->hash, sizeof(int) * (size_t)db->hashcap * 2);
   eqpi_arena_free(ctx, &db->arena);
   memset(db, 0, sizeof *db);
@@ -273,4 +274,22 @@ int eqp_ctx_reagent_molar_mass(eqp_ctx *ctx, const char *name, double *gmol)
   if (g < 0) return eqpi_fail(ctx, EQP_E_UNKNOWN, "unknown reagent '%s'", name ? name : "");
   *gmol = ctx->db.rg[g].molar_mass;
   return EQP_OK;
+}
+
+size_t eqp_ctx_buffer_count(const eqp_ctx *ctx) { return ctx ? (size_t)ctx->db.nbuffers : 0; }
+
+const char *eqp_ctx_buffer_name(const eqp_ctx *ctx, size_t i)
+{
+  return ctx && i < (size_t)ctx->db.nbuffers ? ctx->db.buffers[i].name : NULL;
+}
+
+size_t eqp_ctx_buffer_note_count(const eqp_ctx *ctx, size_t i)
+{
+  return ctx && i < (size_t)ctx->db.nbuffers ? (size_t)ctx->db.buffers[i].nnotes : 0;
+}
+
+const char *eqp_ctx_buffer_note(const eqp_ctx *ctx, size_t i, size_t k)
+{
+  return ctx && i < (size_t)ctx->db.nbuffers && k < (size_t)ctx->db.buffers[i].nnotes
+           ? ctx->db.buffers[i].notes[k] : NULL;
 }

@@ -166,6 +166,18 @@ typedef struct eqpi_reagent {
   int line;
 } eqpi_reagent;
 
+/* A buffer system a recipe can make: a pair of reagents (acid form, base
+** form) and/or a free acid or base with its titrant. */
+typedef struct eqpi_buffer {
+  const char *name;
+  int acid, base;       /* reagents, -1 if not given */
+  int free, titrant;    /* reagents, -1 if not given */
+  const char **notes;   /* interferences and cautions, "kind: text" */
+  int nnotes;
+  const char *file;
+  int line;
+} eqpi_buffer;
+
 typedef struct eqpi_source {
   const char *path;
 } eqpi_source;
@@ -183,6 +195,8 @@ typedef struct eqpi_db {
   int capcomp;
   eqpi_pairparam *pairs;
   int npairs, cappairs;
+  eqpi_buffer *buffers;
+  int nbuffers, capbuffers;
   const char **files;
   int nfiles, capfiles;
   /* name hash: species and reagents (reagent entries are ~index) */

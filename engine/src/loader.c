@@ -586,6 +586,34 @@ static void cv_interaction(conv *c)
   if (in->n == 0) CV_ERR(c, "an interaction names at least one parameter, e.g. sit = 0.03");
 }
 
+/* { "phosphate", pair = { acid form, base form }, free = ..., titrant = ...,
+**   notes = { "metal: ...", ... } } */
+static void cv_buffer(conv *c)
+{
+  static const char *const keys[] = {"pair", "free", "titrant", "notes", "note", NULL};
+  cv_keys(c, keys, 1);
+  st_buffer *b = STAGE_PUSH(c, bf, nbf, capbf);
+  if (!b) return;
+  b->name = cv_pos_string(c, 1);
+  const char **pair = NULL;
+  int np = cv_strings(c, "pair", &pair);
+  if (np == 2) {
+    b->acid = pair[0];
+    b->base = pair[1];
+  } else if (np != 0) {
+    cv_push(c, "pair");
+    CV_ERR(c, "a pair is { acid form, base form }");
+    cv_pop(c);
+  }
+  b->free = cv_string(c, "free", 0);
+  b->titrant = cv_string(c, "titrant", 0);
+  if (!b->free != !b->titrant) CV_ERR(c, "'free' and 'titrant' go together");
+  if (!np && !b->free) CV_ERR(c, "a buffer names a 'pair' of reagents or a 'free' reagent and its 'titrant'");
+  b->nnotes = cv_strings(c, "notes", &b->notes);
+  b->file = c->file;
+  b->line = cv_line(c);
+}
+
 /* Run f on each element of the list at key. */
 static void cv_list(conv *c, const char *key, void (*f)(conv *))
 {
@@ -612,7 +640,7 @@ int eqpi_stage_from_table(eqp_ctx *ctx, eqpi_stage *st, lua_State *L, int idx,
 {
   static const char *const keys[] = {"system", "about", "sources", "size_source",
                                      "params_source", "species", "acids", "reactions",
-                                     "reagents", "interactions", NULL};
+                                     "reagents", "interactions", "buffers", NULL};
   conv c = {ctx, st, L, lm, NULL, {0}, {{0}}, 0, 0, NULL, NULL};
   int before = st->nerr;
   int top = lua_gettop(L);
@@ -637,6 +665,7 @@ int eqpi_stage_from_table(eqp_ctx *ctx, eqpi_stage *st, lua_State *L, int idx,
   cv_list(&c, "reactions", cv_reaction);
   cv_list(&c, "reagents", cv_reagent);
   cv_list(&c, "interactions", cv_interaction);
+  cv_list(&c, "buffers", cv_buffer);
   lua_settop(L, top);
   return st->nerr > before ? EQP_E_DATA : EQP_OK;
 }

@@ -49,6 +49,12 @@ typedef struct st_reagent {
   int line;
 } st_reagent;
 
+typedef struct st_buffer {
+  const char *name, *acid, *base, *free, *titrant, *file;
+  const char **notes;
+  int nnotes, line;
+} st_buffer;
+
 struct eqpi_stage {
   eqpi_arena *arena;
   st_species *sp;
@@ -59,6 +65,8 @@ struct eqpi_stage {
   int nrg, caprg;
   st_inter *in;
   int nin, capin;
+  st_buffer *bf;
+  int nbf, capbf;
   const char **files;
   int nfiles, capfiles;
   char err[EQPI_ERRLEN];

@@ -251,6 +251,55 @@ EQP_API int eqp_curve_write_csv(const eqp_curve *c, FILE *f);
 EQP_API char *eqp_curve_to_json(const eqp_curve *c);
 EQP_API void eqp_free_string(char *s);
 
+/* ------------------------------------------------------------ recipes */
+
+typedef struct eqp_recipe eqp_recipe;
+
+typedef struct eqp_recipe_spec {
+  const char *buffer;             /* a buffer system of the library ("phosphate"), or NULL */
+  const char *const *reagents;    /* or the two reagents to use: acid and base form, or the
+                                     buffer substance and a strong acid or base titrant */
+  size_t nreagents;               /* 0 or 2 */
+  double pH;                      /* target at T */
+  double total;                   /* buffer concentration, mol/L */
+  double volume;                  /* final volume, L */
+  double T;                       /* working temperature, K (0: 298.15) */
+  const char *activity;           /* model; NULL: davies */
+  double ionic_strength;          /* target, mol/kg; NaN: no salt */
+  const char *salt;               /* for the ionic strength; NULL: NaCl */
+  double titrant_molar;           /* titrant stock, mol/L; 0: 1 M */
+} eqp_recipe_spec;
+
+enum { EQP_ROLE_SOLID = 1, EQP_ROLE_TITRANT = 2, EQP_ROLE_SALT = 3, EQP_ROLE_WATER = 4 };
+
+typedef struct eqp_recipe_item {
+  const char *reagent;            /* name; "water" for the make-up water */
+  double mol;
+  double grams;                   /* solids and salt; NaN otherwise */
+  double mL;                      /* titrant stock and water; NaN otherwise */
+  int role;                       /* EQP_ROLE_* */
+} eqp_recipe_item;
+
+/* Design a preparation that gives spec->pH at spec->T. The amounts are
+** solved with a(H+) fixed (and secant iteration on the salt for the ionic
+** strength); the solution made from them is equilibrated once more and its
+** pH reported. EQP_E_INPUT when the pH is out of reach of the reagents. */
+EQP_API int eqp_recipe_make(eqp_ctx *ctx, const eqp_recipe_spec *spec, eqp_recipe **out);
+EQP_API void eqp_recipe_free(eqp_recipe *r);
+EQP_API size_t eqp_recipe_item_count(const eqp_recipe *r);
+EQP_API const eqp_recipe_item *eqp_recipe_item_at(const eqp_recipe *r, size_t i);
+EQP_API double eqp_recipe_pH(const eqp_recipe *r);
+EQP_API double eqp_recipe_ionic_strength(const eqp_recipe *r);
+/* The solution the recipe describes (copy it to work on it). Borrowed. */
+EQP_API const eqp_solution *eqp_recipe_solution(const eqp_recipe *r);
+/* The numbered bench procedure with its cautions. Borrowed. */
+EQP_API const char *eqp_recipe_procedure(const eqp_recipe *r);
+/* Buffer systems of the library, for listing and comparing. */
+EQP_API size_t eqp_ctx_buffer_count(const eqp_ctx *ctx);
+EQP_API const char *eqp_ctx_buffer_name(const eqp_ctx *ctx, size_t i);
+EQP_API size_t eqp_ctx_buffer_note_count(const eqp_ctx *ctx, size_t i);
+EQP_API const char *eqp_ctx_buffer_note(const eqp_ctx *ctx, size_t i, size_t k);
+
 /* ------------------------------------------------------------- result */
 
 EQP_API void eqp_result_free(eqp_result *r);

@@ -35,6 +35,7 @@ void eqpl_open_result(lua_State *L);
 void eqpl_open_curve(lua_State *L);
 void eqpl_open_procedure(lua_State *L);
 int eqpl_mix(lua_State *L);
+void eqpl_open_recipe(lua_State *L, int ctx);
 void eqpl_push_curve(lua_State *L, eqp_curve *c);
 /* A volume string ("10 mL") at idx, in L; raises on anything else. */
 double eqpl_check_volume(lua_State *L, int idx, const char *what);
