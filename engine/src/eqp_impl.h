@@ -13,7 +13,9 @@
 #define EQPI_LN10 2.302585092994045684
 #define EQPI_T25 298.15
 #define EQPI_R 8.314462618          /* J K^-1 mol^-1, CODATA 2018 */
-#define EQPI_M_WATER 18.015268      /* g/mol, IAPWS */
+/* g/mol of H2O from the same standard atomic weights as every reagent, so
+** that grams of a hydrate and the water it brings agree */
+#define EQPI_M_WATER (2 * 1.0080 + 15.999)
 #define EQPI_MAX_ELEM 16
 #define EQPI_VERIFY_TOL 1e-10       /* DESIGN s.4: max relative residual */
 
