@@ -4,3 +4,4 @@ set -eu
 cd "$(dirname "$0")/.."
 scripts/setup.sh build
 EQUIPOISE_SPECIES_PATH="$PWD/species" ./build/tests/bench_phosphate "$@"
+EQUIPOISE_SPECIES_PATH="$PWD/species" ./build/equipoise run tests/bench/titration.lua

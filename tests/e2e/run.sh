@@ -102,6 +102,23 @@ check outside_bad_abi 6 "plugin ABI 2.0, this engine needs 1.x" -- env EQUIPOISE
 check outside_truncated 6 "descriptor is" -- env EQUIPOISE_PLUGIN_PATH="$TMP/plugins" "$EQP" run "$CASES/outside_plugin.lua" --param model=truncated
 check outside_refused_listed 0 "(refused)" -- env EQUIPOISE_PLUGIN_PATH="$TMP/plugins" "$EQP" plugins
 
+# experiments: volumes, titrations, capacity, adjustment, recipes (issue 4)
+EX=$SRC/scripts/examples
+check ex_exchange 0 "after round 2 .*Tris 0.200 mM" -- "$EQP" run "$EX/protein_buffer_exchange.lua"
+check ex_warming 0 "shift -0.1[78]" -- "$EQP" run "$EX/culture_medium_warming.lua"
+check ex_unknown_acid 0 "equivalence at 8.500 mL" -- "$EQP" run "$EX/unknown_acid.lua" --param csv="$TMP/curve.csv"
+check ex_unknown_csv 0 "amount_mol,volume_L,total_volume_L,pH,dpH_dL,CH3COO-" -- head -1 "$TMP/curve.csv"
+check ex_recipe 0 "re-made from the printed amounts: pH 7.40" -- "$EQP" run "$EX/physiological_recipe.lua"
+check ex_recipe_caution 0 "Check with a pH meter" -- "$EQP" run "$EX/physiological_recipe.lua"
+check ex_assay 0 "best: " -- "$EQP" run "$EX/enzyme_assay_buffer.lua"
+check recipe_remake 0 "all recipes re-made" -- "$EQP" run "$CASES/recipe_remake.lua"
+check ten_lines 0 "capacity" -- "$EQP" run "$CASES/ten_lines.lua"
+check adjust_unreachable 3 "adjust_unreachable.lua:3: pH 10.000 is out of reach with HCl" -- "$EQP" run "$CASES/adjust_unreachable.lua"
+check titrate_bad_end 3 "needs an end" -- "$EQP" run "$CASES/titrate_no_end.lua"
+"$EQP" run "$EX/unknown_acid.lua" --json --param csv="$TMP/c2.csv" >"$TMP/j3"
+check json_curve 0 "^1$" -- "$JSON" curves.0.equivalence_points < "$TMP/j3"
+check json_curve_pH 0 "^8.4" -- "$JSON" curves.0.equivalence_points.0.pH < "$TMP/j3"
+
 # the same module in a stock lua5.4
 if command -v lua5.4 >/dev/null; then
   # a sanitizer build's module needs the sanitizer runtime loaded first

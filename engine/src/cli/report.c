@@ -157,6 +157,20 @@ void cli_write_json(lua_State *L, const cli_run *run, int exit_code, const char 
     }
   }
   lua_pop(L, 1);
+  cJSON *curves = cJSON_AddArrayToObject(doc, "curves");
+  if (lua_getfield(L, LUA_REGISTRYINDEX, EQPL_CURVES) == LUA_TTABLE) {
+    lua_Integer n = (lua_Integer)lua_rawlen(L, -1);
+    for (lua_Integer i = 1; i <= n; i++) {
+      lua_rawgeti(L, -1, i);
+      eqpl_curve *u = luaL_testudata(L, -1, EQPL_CURVE);
+      char *text = u && u->c ? eqp_curve_to_json(u->c) : NULL;
+      cJSON *one = text ? cJSON_Parse(text) : NULL;
+      if (one) cJSON_AddItemToArray(curves, one);
+      eqp_free_string(text);
+      lua_pop(L, 1);
+    }
+  }
+  lua_pop(L, 1);
   cJSON *out = cJSON_AddArrayToObject(doc, "output");
   if (lua_getfield(L, LUA_REGISTRYINDEX, "equipoise.output") == LUA_TTABLE) {
     lua_Integer n = (lua_Integer)lua_rawlen(L, -1);
