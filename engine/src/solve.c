@@ -527,7 +527,14 @@ int eqpi_system_dpH(eqp_ctx *ctx, eqpi_system *s, const double *a_global, double
   double stack[64], *a = s->nc <= 64 ? stack : eqpi_malloc(ctx, sizeof(double) * (size_t)s->nc);
   if (!a) return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
   local_dir(s, a_global, a);
-  int rc = eqpi_sys_dpH(s, a, w, W, dpH) < 0
+  const eqpi_db *db = &ctx->db;
+  double dI = 0;
+  for (int c = 0; c < db->ncomp; c++)
+    if (a_global[c] != 0 && (c >= s->ncg || !s->active[c]) && db->comp_species[c] != db->water) {
+      double z = db->sp[db->comp_species[c]].comp.charge;
+      dI += 0.5 * z * z * a_global[c] / W;
+    }
+  int rc = eqpi_sys_dpH(s, a, w, W, dI, dpH) < 0
              ? eqpi_fail(ctx, EQP_E_CONVERGE, "the Jacobian is singular at this state")
              : EQP_OK;
   if (a != stack) eqpi_free(ctx, a, sizeof(double) * (size_t)s->nc);

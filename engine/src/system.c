@@ -201,7 +201,8 @@ int eqpi_sys_precond(eqpi_system *sys, const double *u)
   return eqpi_lu_factor(J, sys->piv, n);
 }
 
-int eqpi_sys_dpH(eqpi_system *sys, const double *a, double w, double W, double *dpH)
+int eqpi_sys_dpH(eqpi_system *sys, const double *a, double w, double W, double dI_absent,
+                 double *dpH)
 {
   const int n = sys->n, nx = sys->nx, nc = sys->nc, ns = sys->ns;
   double *u = sys->u_last, *b = sys->g + 0;
@@ -211,6 +212,7 @@ int eqpi_sys_dpH(eqpi_system *sys, const double *a, double w, double W, double *
   double Ic = 0;
   for (int i = 0; i < ns; i++) Ic += 0.5 * sys->z2[i] * sys->m[i];
   for (int k = 0; k <= nx; k++) b[k] = 0;
+  b[nx] = -dI_absent / Ic;
   for (int c = 0; c < nc; c++) {
     double dtot = (a[c] - sys->tot[c] * w) / W;  /* d total / dv, mol/kg */
     int k = sys->xidx[c];

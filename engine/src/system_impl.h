@@ -73,8 +73,11 @@ int eqpi_sys_eval(eqpi_system *sys, const double *u, double *F);
 /* dpH/dv at the last solved state for adding v units of a direction
 ** (a: moles per unit over the system's local components, w: kg of water
 ** per unit) to W kg of water: implicit differentiation through the
-** system's Jacobian. Returns 0, or -1 if the Jacobian is singular. */
-int eqpi_sys_dpH(eqpi_system *sys, const double *a, double w, double W, double *dpH);
+** system's Jacobian. dI_absent is d(ionic strength)/dv of components the
+** direction brings that the system does not have yet (they enter as
+** spectators). Returns 0, or -1 if the Jacobian is singular. */
+int eqpi_sys_dpH(eqpi_system *sys, const double *a, double w, double W, double dI_absent,
+                 double *dpH);
 /* Largest relative residual of the balances and ionic strength at u, after
 ** a fresh evaluation with lambda = 1; worst receives the offending row. */
 double eqpi_sys_verify(eqpi_system *sys, const double *u, int *worst);

@@ -46,11 +46,11 @@ static void test_van_slyke(void **state)
 
 /* Phosphate with Davies: the implicit derivative against an independent
 ** central difference of two full solves. */
-static void test_phosphate_beta_vs_difference(void **state)
+static void beta_vs_difference(const char *acid, const char *base)
 {
   eqp_solution *s = make("davies", 1);
-  eqp_solution_add_str(s, "KH2PO4", "25 mmol");
-  eqp_solution_add_str(s, "Na2HPO4", "25 mmol");
+  eqp_solution_add_str(s, acid, "25 mmol");
+  eqp_solution_add_str(s, base, "25 mmol");
   double bkg;
   assert_int_equal(eqp_solution_buffer_capacity(s, &bkg, NULL), EQP_OK);
   /* one-sided, second order: NaOH cannot be taken away, and HCl would
@@ -62,11 +62,18 @@ static void test_phosphate_beta_vs_difference(void **state)
   eqp_solution_add(p, "NaOH", d, EQP_Q_AMOUNT);
   eqp_solution_add(m, "NaOH", 2 * d, EQP_Q_AMOUNT);
   double fd = 2 * d / (-3 * pH_of(s) + 4 * pH_of(p) - pH_of(m));
-  printf("  phosphate, Davies: beta %.8f (implicit) vs %.8f (difference) mol/(kg pH)\n", bkg, fd);
+  printf("  %s/%s, Davies: beta %.8f (implicit) vs %.8f (difference) mol/(kg pH)\n", acid,
+         base, bkg, fd);
   assert_rel(bkg, fd, 1e-5);
   eqp_solution_free(p);
   eqp_solution_free(m);
   eqp_solution_free(s);
+}
+
+static void test_phosphate_beta_vs_difference(void **state)
+{
+  beta_vs_difference("KH2PO4", "Na2HPO4");
+  beta_vs_difference("KH2PO4", "K2HPO4");   /* no Na+ yet: NaOH brings a new ion */
 }
 
 /* Exact [H+] of a monoprotic acid system, total C, with strong cation Na and
