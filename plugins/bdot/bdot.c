@@ -115,11 +115,4 @@ static const eqp_plugin_desc bd_desc = {
   &bd_ops, 1.0,
 };
 
-EQP_PLUGIN_EXPORT const eqp_plugin_desc *eqp_plugin_entry(const eqp_host_api *host,
-                                                          char *err, size_t errlen);
-
-EQP_PLUGIN_EXPORT const eqp_plugin_desc *eqp_plugin_entry(const eqp_host_api *host,
-                                                          char *err, size_t errlen)
-{
-  return &bd_desc;
-}
+EQP_PLUGIN_DEFINE(bd_desc)

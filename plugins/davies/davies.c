@@ -68,11 +68,4 @@ static const eqp_plugin_desc davies_desc = {
   &davies_ops, 0.5,
 };
 
-EQP_PLUGIN_EXPORT const eqp_plugin_desc *eqp_plugin_entry(const eqp_host_api *host,
-                                                          char *err, size_t errlen);
-
-EQP_PLUGIN_EXPORT const eqp_plugin_desc *eqp_plugin_entry(const eqp_host_api *host,
-                                                          char *err, size_t errlen)
-{
-  return &davies_desc;
-}
+EQP_PLUGIN_DEFINE(davies_desc)

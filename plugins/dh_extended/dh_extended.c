@@ -91,11 +91,4 @@ static const eqp_plugin_desc ext_desc = {
   &ext_ops, 0.1,
 };
 
-EQP_PLUGIN_EXPORT const eqp_plugin_desc *eqp_plugin_entry(const eqp_host_api *host,
-                                                          char *err, size_t errlen);
-
-EQP_PLUGIN_EXPORT const eqp_plugin_desc *eqp_plugin_entry(const eqp_host_api *host,
-                                                          char *err, size_t errlen)
-{
-  return &ext_desc;
-}
+EQP_PLUGIN_DEFINE(ext_desc)

@@ -33,11 +33,4 @@ static const eqp_plugin_desc ll_desc = {
   &ll_ops, 0.005,
 };
 
-EQP_PLUGIN_EXPORT const eqp_plugin_desc *eqp_plugin_entry(const eqp_host_api *host,
-                                                          char *err, size_t errlen);
-
-EQP_PLUGIN_EXPORT const eqp_plugin_desc *eqp_plugin_entry(const eqp_host_api *host,
-                                                          char *err, size_t errlen)
-{
-  return &ll_desc;
-}
+EQP_PLUGIN_DEFINE(ll_desc)

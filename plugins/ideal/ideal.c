@@ -28,11 +28,4 @@ static const eqp_plugin_desc ideal_desc = {
   &ideal_ops, 0.0,
 };
 
-EQP_PLUGIN_EXPORT const eqp_plugin_desc *eqp_plugin_entry(const eqp_host_api *host,
-                                                          char *err, size_t errlen);
-
-EQP_PLUGIN_EXPORT const eqp_plugin_desc *eqp_plugin_entry(const eqp_host_api *host,
-                                                          char *err, size_t errlen)
-{
-  return &ideal_desc;
-}
+EQP_PLUGIN_DEFINE(ideal_desc)

@@ -95,11 +95,4 @@ static const eqp_plugin_desc sit_desc = {
   &sit_ops, 3.5,
 };
 
-EQP_PLUGIN_EXPORT const eqp_plugin_desc *eqp_plugin_entry(const eqp_host_api *host,
-                                                          char *err, size_t errlen);
-
-EQP_PLUGIN_EXPORT const eqp_plugin_desc *eqp_plugin_entry(const eqp_host_api *host,
-                                                          char *err, size_t errlen)
-{
-  return &sit_desc;
-}
+EQP_PLUGIN_DEFINE(sit_desc)

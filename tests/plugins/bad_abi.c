@@ -10,8 +10,4 @@ static const eqp_plugin_desc desc = {
   (uint32_t)(EQP_PLUGIN_ABI_MAJOR + 1) << 16, sizeof desc, EQP_PLUGIN_SIZES,
   EQP_PLUGIN_ACTIVITY, "bad_abi", "9.9", "fixture with a wrong ABI major", &ops, 0};
 
-EQP_PLUGIN_EXPORT const eqp_plugin_desc *eqp_plugin_entry(const eqp_host_api *h, char *e, size_t n);
-EQP_PLUGIN_EXPORT const eqp_plugin_desc *eqp_plugin_entry(const eqp_host_api *h, char *e, size_t n)
-{
-  return &desc;
-}
+EQP_PLUGIN_DEFINE(desc)

@@ -21,8 +21,4 @@ static const eqp_plugin_desc desc = {
   EQP_PLUGIN_ABI_VERSION, sizeof desc, EQP_PLUGIN_SIZES, EQP_PLUGIN_ACTIVITY, "guntelberg",
   "0.1", "Guentelberg equation (built out of tree)", &ops, 0.1};
 
-EQP_PLUGIN_EXPORT const eqp_plugin_desc *eqp_plugin_entry(const eqp_host_api *h, char *e, size_t n);
-EQP_PLUGIN_EXPORT const eqp_plugin_desc *eqp_plugin_entry(const eqp_host_api *h, char *e, size_t n)
-{
-  return &desc;
-}
+EQP_PLUGIN_DEFINE(desc)

@@ -11,8 +11,4 @@ static const eqp_plugin_desc desc = {
   EQP_PLUGIN_ABI_VERSION, (uint32_t)offsetof(eqp_plugin_desc, ops), EQP_PLUGIN_SIZES,
   EQP_PLUGIN_ACTIVITY, "truncated", "1.0", "fixture with a truncated descriptor", &ops, 0};
 
-EQP_PLUGIN_EXPORT const eqp_plugin_desc *eqp_plugin_entry(const eqp_host_api *h, char *e, size_t n);
-EQP_PLUGIN_EXPORT const eqp_plugin_desc *eqp_plugin_entry(const eqp_host_api *h, char *e, size_t n)
-{
-  return &desc;
-}
+EQP_PLUGIN_DEFINE(desc)

@@ -121,6 +121,19 @@ typedef struct eqp_plugin_desc {
 typedef const eqp_plugin_desc *(*eqp_plugin_entry_fn)(const eqp_host_api *host,
                                                        char *err, size_t errlen);
 
+/* Define the entry of a plugin whose descriptor is the static desc:
+**   EQP_PLUGIN_DEFINE(my_desc)
+** A plugin that must refuse at load time writes its own entry instead. */
+#define EQP_PLUGIN_DEFINE(desc)                                                    \
+  EQP_PLUGIN_EXPORT const eqp_plugin_desc *eqp_plugin_entry(const eqp_host_api *host, \
+                                                            char *err, size_t errlen); \
+  EQP_PLUGIN_EXPORT const eqp_plugin_desc *eqp_plugin_entry(const eqp_host_api *host, \
+                                                            char *err, size_t errlen)  \
+  {                                                                                \
+    (void)host; (void)err; (void)errlen;                                           \
+    return &(desc);                                                                \
+  }
+
 #ifdef __cplusplus
 }
 #endif
