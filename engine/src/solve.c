@@ -30,7 +30,14 @@ static const char *kin_flag_name(int flag)
 
 static int kin_f(N_Vector uu, N_Vector fval, void *ud)
 {
-  return eqpi_sys_eval(ud, N_VGetArrayPointer(uu), N_VGetArrayPointer(fval)) < 0 ? -1 : 0;
+  int rc = eqpi_sys_eval(ud, N_VGetArrayPointer(uu), N_VGetArrayPointer(fval));
+  if (rc == 0) {
+    /* keep NaN out of KINSOL: a non-finite residual is an unrecoverable failure */
+    const double *F = N_VGetArrayPointer(fval);
+    for (sunindextype k = 0; k < N_VGetLength(fval); k++)
+      if (!isfinite(F[k])) return -1;
+  }
+  return rc < 0 ? -1 : 0;
 }
 
 static int kin_psetup(N_Vector uu, N_Vector uscale, N_Vector fval, N_Vector fscale, void *ud)
@@ -553,7 +560,7 @@ static int adjust_kinsol(eqp_ctx *ctx, eqpi_system *s, const eqpi_adjust *aj, do
   s->wdir = aj->w;
   /* v = u vscale: the scale keeps u near 1 for KINSOL's step limits; the
   ** linear estimate alone can be far too small in an unbuffered solution */
-  s->vscale = fmax(fabs(v_lin), 1e-3 * aj->vmax);
+  s->vscale = isfinite(v_lin) ? fmin(fmax(fabs(v_lin), 1e-3 * aj->vmax), aj->vmax) : aj->vmax;
   s->lnaH = -aj->pH * EQPI_LN10;
   double u[64];
   if (s->n > 64) return -1;

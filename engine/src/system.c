@@ -68,6 +68,13 @@ static int model_pass(eqpi_system *sys, double I)
 int eqpi_sys_eval(eqpi_system *sys, const double *u, double *F)
 {
   const int nc = sys->nc, ns = sys->ns, nx = sys->nx;
+  /* a non-finite iterate cannot be evaluated; stop the solve (the caller
+  ** falls back) rather than let NaN through KINSOL's line search */
+  for (int k = 0; k < sys->n; k++)
+    if (!isfinite(u[k])) {
+      snprintf(sys->plugin_err, sizeof sys->plugin_err, "non-finite iterate");
+      return -2;
+    }
   if (sys->adjust) {
     double v = u[sys->xidx[sys->hloc]] * sys->vscale, W = sys->W0 + v * sys->wdir;
     for (int c = 0; c < nc; c++) {

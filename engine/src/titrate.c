@@ -91,9 +91,9 @@ static int find_equivalence(eqp_curve *c, eqp_solution *w, const eqp_solution *b
     for (size_t k = 0; k < i; k++) lmin = fmin(lmin, fabs(v[k * nc + COL_DPH]));
     for (size_t k = i + 1; k < n; k++) rmin = fmin(rmin, fabs(v[k * nc + COL_DPH]));
     if (!(di > 5 * fmax(lmin, rmin))) continue;   /* a shoulder, not an end point */
-    double unit = t->stock ? 1 : 1;
-    double lo = (t->stock ? v[(i - 1) * nc + COL_VOLUME] : v[(i - 1) * nc + COL_AMOUNT]) / unit;
-    double hi = (t->stock ? v[(i + 1) * nc + COL_VOLUME] : v[(i + 1) * nc + COL_AMOUNT]) / unit;
+    /* the titrant's own unit: litres of a stock, mol of a reagent */
+    int col = t->stock ? COL_VOLUME : COL_AMOUNT;
+    double lo = v[(i - 1) * nc + col], hi = v[(i + 1) * nc + col];
     double vb, pHb;
     int rc = refine(w, base, t, lo, hi, &vb, &pHb);
     if (rc < 0) return rc;
@@ -158,7 +158,6 @@ int eqp_solution_titrate(eqp_solution *s, const eqp_titration *spec, eqp_curve *
   titrant t = {0};
   eqp_curve *c = NULL;
   if ((rc = eqp_solution_copy(s, &base)) < 0 || (rc = eqp_solution_copy(s, &w)) < 0) goto out;
-  base->ntotal = w->ntotal;
   if ((rc = make_titrant(base, spec, &t)) < 0) goto out;
   c = eqpi_curve_new(ctx, COL_SPECIES + (int)spec->nspecies, names);
   if (!c) { rc = eqpi_fail(ctx, EQP_E_NOMEM, "out of memory"); goto out; }

@@ -62,8 +62,46 @@ static void test_random_recipes(void **state)
   eqp_ctx_free(ctx);
 }
 
+/* Random pH adjustments: each either reaches its target exactly (checked by
+** a fresh solve) or is refused as out of reach, with a message. */
+static void test_random_adjustments(void **state)
+{
+  static const char *const start[] = {"CH3COONa", "NaH2PO4", "TrisHCl", "KHP", "HCl", "NaOH",
+                                      "Na2HPO4", "Tris"};
+  static const char *const titrant[] = {"HCl", "NaOH", "KOH", "HNO3", "CH3COOH", "Tris"};
+  eqp_ctx *ctx = test_ctx();
+  int reached = 0, refused = 0, N = getenv("EQP_STRESS_N") ? atoi(getenv("EQP_STRESS_N")) / 8 : 400;
+  for (int t = 0; t < N; t++) {
+    eqp_solution_opts o = {1, 278.15 + 40 * uniform(), uniform() < 0.5 ? "ideal" : "davies"};
+    eqp_solution *s;
+    assert_int_equal(eqp_solution_new(ctx, &o, &s), EQP_OK);
+    eqp_solution_add(s, start[(int)(uniform() * 8)], pow(10, -4 + 3.5 * uniform()), EQP_Q_AMOUNT);
+    double target = 2 + 10 * uniform(), mol, L;
+    const char *g = titrant[(int)(uniform() * 6)];
+    int rc = eqp_solution_adjust_pH(s, target, g, NULL, &mol, &L);
+    if (rc == EQP_OK) {
+      eqp_result *r;
+      assert_int_equal(eqp_solution_equilibrate(s, &r), EQP_OK);
+      if (!(fabs(eqp_result_pH(r) - target) < 1e-8))
+        fail_msg("adjust %d with %s to %.3f gave %.10f", t, g, target, eqp_result_pH(r));
+      assert_true(mol >= 0);
+      eqp_result_free(r);
+      reached++;
+    } else {
+      if (rc != EQP_E_INPUT) fail_msg("adjust %d: %s", t, eqp_ctx_errmsg(ctx));
+      assert_contains(eqp_ctx_errmsg(ctx), "out of reach");
+      refused++;
+    }
+    eqp_solution_free(s);
+  }
+  printf("  %d random adjustments: %d reached their pH, %d refused as out of reach\n", N,
+         reached, refused);
+  eqp_ctx_free(ctx);
+}
+
 int main(void)
 {
-  const struct CMUnitTest tests[] = {cmocka_unit_test(test_random_recipes)};
+  const struct CMUnitTest tests[] = {cmocka_unit_test(test_random_recipes),
+                                     cmocka_unit_test(test_random_adjustments)};
   return cmocka_run_group_tests(tests, NULL, NULL);
 }
