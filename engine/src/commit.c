@@ -525,6 +525,18 @@ static void committer_free(committer *c)
 
 int eqpi_db_rebuild_index(eqp_ctx *ctx, eqpi_db *db);
 
+/* A growable copy of the n elements at src (none: stays NULL, cap 0). */
+static int dup_array(eqp_ctx *ctx, void **dst, const void *src, int n, size_t elem, int *cap)
+{
+  *dst = NULL;
+  *cap = 0;
+  if (n == 0) return 0;
+  if (!(*dst = eqpi_malloc(ctx, elem * (size_t)(n + 16)))) return -1;
+  memcpy(*dst, src, elem * (size_t)n);
+  *cap = n + 16;
+  return 0;
+}
+
 int eqpi_stage_commit(eqp_ctx *ctx, eqpi_stage *st)
 {
   eqpi_db *db = &ctx->db;
@@ -550,28 +562,14 @@ int eqpi_stage_commit(eqp_ctx *ctx, eqpi_stage *st)
   if (db->nrg) memcpy(c.rg, db->rg, sizeof *c.rg * (size_t)db->nrg);
   if (db->ncomp) memcpy(c.comp_species, db->comp_species, sizeof(int) * (size_t)db->ncomp);
   memset(c.state, 2, (size_t)db->nsp);
-  if (db->npairs) {
-    c.cappairs = db->npairs + 16;
-    c.pairs = eqpi_malloc(ctx, sizeof *c.pairs * (size_t)c.cappairs);
-    if (!c.pairs) {
-      rc = EQP_E_NOMEM;
-      eqpi_stage_error(st, NULL, 0, "out of memory");
-      goto fail;
-    }
-    memcpy(c.pairs, db->pairs, sizeof *c.pairs * (size_t)db->npairs);
-    c.npairs = db->npairs;
+  if (dup_array(ctx, (void **)&c.pairs, db->pairs, db->npairs, sizeof *c.pairs, &c.cappairs) < 0 ||
+      dup_array(ctx, (void **)&c.buf, db->buffers, db->nbuffers, sizeof *c.buf, &c.capbuf) < 0) {
+    rc = EQP_E_NOMEM;
+    eqpi_stage_error(st, NULL, 0, "out of memory");
+    goto fail;
   }
-  if (db->nbuffers) {
-    c.capbuf = db->nbuffers + 8;
-    c.buf = eqpi_malloc(ctx, sizeof *c.buf * (size_t)c.capbuf);
-    if (!c.buf) {
-      rc = EQP_E_NOMEM;
-      eqpi_stage_error(st, NULL, 0, "out of memory");
-      goto fail;
-    }
-    memcpy(c.buf, db->buffers, sizeof *c.buf * (size_t)db->nbuffers);
-    c.nbuf = db->nbuffers;
-  }
+  c.npairs = db->npairs;
+  c.nbuf = db->nbuffers;
   add_species(&c);
   add_reactions(&c);
   for (int i = db->nsp; i < c.nsp; i++)
