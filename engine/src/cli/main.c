@@ -84,6 +84,9 @@ static int cmd_species(int argc, char **argv)
     printf("reagents (%zu):\n", eqp_ctx_reagent_count(ctx));
     for (size_t i = 0; i < eqp_ctx_reagent_count(ctx); i++)
       printf("  %s\n", eqp_ctx_reagent_name(ctx, i));
+    printf("buffer systems (%zu):\n", eqp_ctx_buffer_count(ctx));
+    for (size_t i = 0; i < eqp_ctx_buffer_count(ctx); i++)
+      printf("  %s\n", eqp_ctx_buffer_name(ctx, i));
     printf("from:\n");
     for (size_t i = 0; i < eqp_ctx_source_count(ctx); i++)
       printf("  %s\n", eqp_ctx_source_path(ctx, i));
