@@ -55,6 +55,7 @@ void eqpi_stage_free(eqp_ctx *ctx, eqpi_stage *st)
   eqpi_free(ctx, st->rg, sizeof *st->rg * (size_t)st->caprg);
   eqpi_free(ctx, st->in, sizeof *st->in * (size_t)st->capin);
   eqpi_free(ctx, st->bf, sizeof *st->bf * (size_t)st->capbf);
+  eqpi_free(ctx, st->gs, sizeof *st->gs * (size_t)st->capgs);
   eqpi_free(ctx, st->files, sizeof *st->files * (size_t)st->capfiles);
   eqpi_free(ctx, st, sizeof *st);
 }
@@ -78,6 +79,8 @@ typedef struct committer {
   int npairs, cappairs;
   eqpi_buffer *buf;
   int nbuf, capbuf;
+  eqpi_gas *gas;
+  int ngas, capgas;
 } committer;
 
 static int find_species(const committer *c, const char *name)
@@ -511,6 +514,58 @@ static void add_buffers(committer *c)
   }
 }
 
+static void add_gases(committer *c)
+{
+  eqpi_stage *st = c->st;
+  for (int k = 0; k < st->ngs; k++) {
+    const st_gas *g = &st->gs[k];
+    if (!g->name || !g->dissolves) continue;
+    int sp = find_species(c, g->dissolves);
+    if (sp < 0) {
+      eqpi_stage_error(st, g->file, g->line, "gas '%s' dissolves as unknown species '%s'",
+                       g->name, g->dissolves);
+      continue;
+    }
+    if (fabs(c->sp[sp].comp.charge) > 1e-9) {
+      eqpi_stage_error(st, g->file, g->line, "gas '%s' must dissolve as a neutral species",
+                       g->name);
+      continue;
+    }
+    for (int q = 0; q < c->ngas; q++)
+      if (strcmp(c->gas[q].name, g->name) == 0)
+        eqpi_stage_error(st, g->file, g->line, "duplicate gas '%s'", g->name);
+    if (c->ngas == c->capgas) {
+      int nc = c->capgas * 2 + 4;
+      eqpi_gas *p = eqpi_realloc(c->ctx, c->gas, sizeof *p * (size_t)c->capgas, sizeof *p * (size_t)nc);
+      if (!p) { eqpi_stage_error(st, NULL, 0, "out of memory"); return; }
+      c->gas = p;
+      c->capgas = nc;
+    }
+    eqpi_gas *d = &c->gas[c->ngas++];
+    memset(d, 0, sizeof *d);
+    d->name = g->name;
+    d->species = sp;
+    d->kh.product = sp;
+    d->kh.logK = g->logKH;
+    d->kh.dH = g->dH;
+    d->kh.dCp = g->dCp;
+    d->kh.tmodel = g->tmodel;
+    memcpy(d->kh.fn, g->fn, sizeof d->kh.fn);
+    d->kh.Tmin = g->Tmin;
+    d->kh.Tmax = g->Tmax;
+    d->kh.source = g->source;
+    d->kh.file = g->file;
+    d->kh.line = g->line;
+    if (d->kh.tmodel == EQPI_T_FUNCTION) {
+      eqpi_tnotes notes = {0, 0};
+      double at25 = eqpi_reaction_logK(&d->kh, EQPI_T25, &notes);
+      if (!(fabs(at25 - d->kh.logK) <= 0.02))
+        eqpi_stage_error(st, g->file, g->line, "temperature function for gas '%s' gives %.4f at "
+                         "298.15 K, but its log K_H is %.4f", g->name, at25, d->kh.logK);
+    }
+  }
+}
+
 static void committer_free(committer *c)
 {
   eqp_ctx *ctx = c->ctx;
@@ -521,6 +576,7 @@ static void committer_free(committer *c)
   eqpi_free(ctx, c->state, (size_t)(c->db->nsp + c->st->nsp + 1));
   eqpi_free(ctx, c->pairs, sizeof *c->pairs * (size_t)c->cappairs);
   eqpi_free(ctx, c->buf, sizeof *c->buf * (size_t)c->capbuf);
+  eqpi_free(ctx, c->gas, sizeof *c->gas * (size_t)c->capgas);
 }
 
 int eqpi_db_rebuild_index(eqp_ctx *ctx, eqpi_db *db);
@@ -541,7 +597,7 @@ int eqpi_stage_commit(eqp_ctx *ctx, eqpi_stage *st)
 {
   eqpi_db *db = &ctx->db;
   committer c = {ctx, db, st, NULL, db->nsp, NULL, db->nrx, NULL, db->nrg, 0, db->ncomp,
-                 NULL, NULL, NULL, 0, 0, NULL, 0, 0};
+                 NULL, NULL, NULL, 0, 0, NULL, 0, 0, NULL, 0, 0};
   int rc = EQP_E_DATA;
   /* Shape errors found while staging do not stop the checks of names and
   ** balances below, so one run reports every problem; nothing is kept. */
@@ -563,13 +619,15 @@ int eqpi_stage_commit(eqp_ctx *ctx, eqpi_stage *st)
   if (db->ncomp) memcpy(c.comp_species, db->comp_species, sizeof(int) * (size_t)db->ncomp);
   memset(c.state, 2, (size_t)db->nsp);
   if (dup_array(ctx, (void **)&c.pairs, db->pairs, db->npairs, sizeof *c.pairs, &c.cappairs) < 0 ||
-      dup_array(ctx, (void **)&c.buf, db->buffers, db->nbuffers, sizeof *c.buf, &c.capbuf) < 0) {
+      dup_array(ctx, (void **)&c.buf, db->buffers, db->nbuffers, sizeof *c.buf, &c.capbuf) < 0 ||
+      dup_array(ctx, (void **)&c.gas, db->gases, db->ngases, sizeof *c.gas, &c.capgas) < 0) {
     rc = EQP_E_NOMEM;
     eqpi_stage_error(st, NULL, 0, "out of memory");
     goto fail;
   }
   c.npairs = db->npairs;
   c.nbuf = db->nbuffers;
+  c.ngas = db->ngases;
   add_species(&c);
   add_reactions(&c);
   for (int i = db->nsp; i < c.nsp; i++)
@@ -583,6 +641,7 @@ int eqpi_stage_commit(eqp_ctx *ctx, eqpi_stage *st)
   add_reagents(&c);
   add_interactions(&c);
   add_buffers(&c);
+  add_gases(&c);
   if (st->nerr) goto fail;
   /* Success: nothing below can fail except the index, rebuilt on the
   ** new arrays before the old ones are released. */
@@ -593,6 +652,7 @@ int eqpi_stage_commit(eqp_ctx *ctx, eqpi_stage *st)
   next.comp_species = c.comp_species; next.ncomp = c.ncomp;
   next.pairs = c.pairs; next.npairs = c.npairs; next.cappairs = c.cappairs;
   next.buffers = c.buf; next.nbuffers = c.nbuf; next.capbuffers = c.capbuf;
+  next.gases = c.gas; next.ngases = c.ngas; next.capgases = c.capgas;
   next.capcomp = db->ncomp + st->nsp + 1;
   next.hash = NULL;
   next.hashcap = 0;
@@ -620,6 +680,7 @@ int eqpi_stage_commit(eqp_ctx *ctx, eqpi_stage *st)
   eqpi_free(ctx, db->hash, sizeof(int) * (size_t)db->hashcap * 2);
   eqpi_free(ctx, db->pairs, sizeof *db->pairs * (size_t)db->cappairs);
   eqpi_free(ctx, db->buffers, sizeof *db->buffers * (size_t)db->capbuffers);
+  eqpi_free(ctx, db->gases, sizeof *db->gases * (size_t)db->capgases);
   eqpi_free(ctx, c.state, maxsp);
   *db = next;
   eqpi_arena_splice(&db->arena, &st->arena);

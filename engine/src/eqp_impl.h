@@ -180,6 +180,14 @@ typedef struct eqpi_buffer {
   int line;
 } eqpi_buffer;
 
+/* A gas that dissolves as a species: a(species) = K_H p (p in atm), with
+** log10 K_H and its temperature data held as a reaction. */
+typedef struct eqpi_gas {
+  const char *name;
+  int species;
+  eqpi_reaction kh;
+} eqpi_gas;
+
 typedef struct eqpi_source {
   const char *path;
 } eqpi_source;
@@ -199,6 +207,8 @@ typedef struct eqpi_db {
   int npairs, cappairs;
   eqpi_buffer *buffers;
   int nbuffers, capbuffers;
+  eqpi_gas *gases;
+  int ngases, capgases;
   const char **files;
   int nfiles, capfiles;
   /* name hash: species and reagents (reagent entries are ~index) */

@@ -614,6 +614,30 @@ static void cv_buffer(conv *c)
   b->line = cv_line(c);
 }
 
+/* { "CO2(g)", dissolves = "CO2", logKH = -1.468, logKH_T = {...}, source = } */
+static void cv_gas(conv *c)
+{
+  static const char *const keys[] = {"dissolves", "logKH", "dH", "dCp", "logKH_T", "T_range",
+                                     "source", "note", NULL};
+  cv_keys(c, keys, 1);
+  st_gas *g = STAGE_PUSH(c, gs, ngs, capgs);
+  if (!g) return;
+  g->name = cv_pos_string(c, 1);
+  g->dissolves = cv_string(c, "dissolves", 1);
+  g->logKH = cv_number(c, "logKH", -20, 20, 1);
+  g->dH = cv_number(c, "dH", -500, 500, 0);
+  g->dCp = cv_number(c, "dCp", -5000, 5000, 0);
+  cv_push(c, "logKH_T");
+  lua_getfield(c->L, -1, "logKH_T");
+  cv_tfunction(c, lua_gettop(c->L), &g->tmodel, g->fn);
+  lua_pop(c->L, 1);
+  cv_pop(c);
+  cv_trange(c, &g->Tmin, &g->Tmax);
+  g->source = cv_source(c, "source", 1);
+  g->file = c->file;
+  g->line = cv_line(c);
+}
+
 /* Run f on each element of the list at key. */
 static void cv_list(conv *c, const char *key, void (*f)(conv *))
 {
@@ -640,7 +664,7 @@ int eqpi_stage_from_table(eqp_ctx *ctx, eqpi_stage *st, lua_State *L, int idx,
 {
   static const char *const keys[] = {"system", "about", "sources", "size_source",
                                      "params_source", "species", "acids", "reactions",
-                                     "reagents", "interactions", "buffers", NULL};
+                                     "reagents", "interactions", "buffers", "gases", NULL};
   conv c = {ctx, st, L, lm, NULL, {0}, {{0}}, 0, 0, NULL, NULL};
   int before = st->nerr;
   int top = lua_gettop(L);
@@ -666,6 +690,7 @@ int eqpi_stage_from_table(eqp_ctx *ctx, eqpi_stage *st, lua_State *L, int idx,
   cv_list(&c, "reagents", cv_reagent);
   cv_list(&c, "interactions", cv_interaction);
   cv_list(&c, "buffers", cv_buffer);
+  cv_list(&c, "gases", cv_gas);
   lua_settop(L, top);
   return st->nerr > before ? EQP_E_DATA : EQP_OK;
 }

@@ -55,6 +55,12 @@ typedef struct st_buffer {
   int nnotes, line;
 } st_buffer;
 
+typedef struct st_gas {
+  const char *name, *dissolves, *source, *file;
+  double logKH, dH, dCp, fn[6], Tmin, Tmax;
+  int tmodel, line;
+} st_gas;
+
 struct eqpi_stage {
   eqpi_arena *arena;
   st_species *sp;
@@ -67,6 +73,8 @@ struct eqpi_stage {
   int nin, capin;
   st_buffer *bf;
   int nbf, capbf;
+  st_gas *gs;
+  int ngs, capgs;
   const char **files;
   int nfiles, capfiles;
   char err[EQPI_ERRLEN];

@@ -30,6 +30,9 @@ static const unit_def units[] = {
   {"uL", EQP_Q_VOLUME, 1e-6, 0},
   {"K", EQP_Q_TEMPERATURE, 1.0, 0},  {"C", EQP_Q_TEMPERATURE, 1.0, 273.15},
   {"degC", EQP_Q_TEMPERATURE, 1.0, 273.15},
+  {"atm", EQP_Q_PRESSURE, 1.0, 0},      {"uatm", EQP_Q_PRESSURE, 1e-6, 0},
+  {"bar", EQP_Q_PRESSURE, 1 / 1.01325, 0}, {"kPa", EQP_Q_PRESSURE, 1 / 101.325, 0},
+  {"Pa", EQP_Q_PRESSURE, 1 / 101325.0, 0},
 };
 
 static const char *kind_names(unsigned mask, char *buf, size_t len)
@@ -41,6 +44,7 @@ static const char *kind_names(unsigned mask, char *buf, size_t len)
     {EQP_Q_MOLALITY, "a molality (mol/kg, mmol/kg)"},
     {EQP_Q_VOLUME, "a volume (L, mL, uL)"},
     {EQP_Q_TEMPERATURE, "a temperature (K, C)"},
+    {EQP_Q_PRESSURE, "a pressure (atm, uatm, bar, kPa, Pa)"},
   };
   size_t used = 0;
   buf[0] = '\0';

@@ -111,6 +111,8 @@ check ex_unknown_csv 0 "amount_mol,volume_L,total_volume_L,pH,dpH_dL,CH3COO-" --
 check ex_recipe 0 "re-made from the printed amounts: pH 7.40" -- "$EQP" run "$EX/physiological_recipe.lua"
 check ex_recipe_caution 0 "Check with a pH meter" -- "$EQP" run "$EX/physiological_recipe.lua"
 check ex_assay 0 "best: " -- "$EQP" run "$EX/enzyme_assay_buffer.lua"
+check ex_incubator 0 "in the incubator (5 % CO2, 37 C): pH 7.5" -- "$EQP" run "$EX/incubator_air.lua"
+check expose_bad_unit 3 "is a volume" -- "$EQP" run "$CASES/expose_bad.lua"
 check recipe_remake 0 "all recipes re-made" -- "$EQP" run "$CASES/recipe_remake.lua"
 check ten_lines 0 "capacity" -- "$EQP" run "$CASES/ten_lines.lua"
 check adjust_unreachable 3 "adjust_unreachable.lua:3: pH 10.000 is out of reach with HCl" -- "$EQP" run "$CASES/adjust_unreachable.lua"

@@ -226,6 +226,48 @@ static void test_conservation(void **state)
   eqp_solution_free(stock);
 }
 
+/* Pure water open to air: Henry's law and the carbonic-acid constants from
+** the equations of L. N. Plummer, E. Busenberg, Geochim. Cosmochim. Acta 46,
+** 1011 (1982) (evaluated here from their published form, log10 T and all),
+** and the charge balance h^3 - (K1 a + Kw) h - 2 K1 K2 a = 0 with
+** a = K_H p, ideal activities; to 1e-9 in [H+]. pCO2 = 426.9 uatm (NOAA/
+** Scripps Mauna Loa, May 2024, as quoted in DATA.md). */
+static void test_water_open_to_air(void **state)
+{
+  const double T = 298.15, p = 426.9e-6;
+  double lKH = 108.3865 + 0.01985076 * T - 6919.53 / T - 40.45154 * log10(T) + 669365 / (T * T);
+  double lK1 = -356.3094 - 0.06091964 * T + 21834.37 / T + 126.8339 * log10(T) - 1684915 / (T * T);
+  double lK2 = -107.8871 - 0.03252849 * T + 5151.79 / T + 38.92561 * log10(T) - 563713.9 / (T * T);
+  double a = pow(10, lKH) * p, K1 = pow(10, lK1), K2 = pow(10, lK2);
+  double lo = 1e-9, hi = 1e-3;
+  for (int it = 0; it < 300; it++) {
+    double h = sqrt(lo * hi), f = h * h * h - (K1 * a + Kw) * h - 2 * K1 * K2 * a;
+    if (f > 0) hi = h; else lo = h;
+  }
+  eqp_solution *s = make("ideal", 1);
+  double mol;
+  assert_int_equal(eqp_solution_expose(s, "CO2(g)", p, &mol), EQP_OK);
+  eqp_result *r;
+  assert_int_equal(eqp_solution_equilibrate(s, &r), EQP_OK);
+  printf("  pure water under %.1f uatm CO2: pH %.4f, %.3g mol/kg taken up\n", p * 1e6,
+         eqp_result_pH(r), mol);
+  assert_rel(pow(10, -eqp_result_pH(r)), sqrt(lo * hi), 1e-9);
+  double act;
+  eqp_result_activity(r, "CO2", &act);
+  assert_rel(act, a, 1e-9);
+  eqp_result_free(r);
+  eqp_solution_free(s);
+  /* a bicarbonate solution opened to air loses CO2 and its pH rises */
+  s = make("davies", 1);
+  eqp_solution_add_str(s, "NaHCO3", "10 mmol");
+  double pH0 = pH_of(s);
+  assert_int_equal(eqp_solution_expose(s, "CO2(g)", p, &mol), EQP_OK);
+  assert_true(mol < 0);
+  assert_true(pH_of(s) > pH0 + 0.5);
+  assert_int_equal(eqp_solution_expose(s, "N2O(g)", p, &mol), EQP_E_UNKNOWN);
+  eqp_solution_free(s);
+}
+
 int main(void)
 {
   ctx = test_ctx();
@@ -237,6 +279,7 @@ int main(void)
     cmocka_unit_test(test_strong_titration_closed_form),
     cmocka_unit_test(test_adjust_closed_form),
     cmocka_unit_test(test_conservation),
+    cmocka_unit_test(test_water_open_to_air),
   };
   int rc = cmocka_run_group_tests(tests, NULL, NULL);
   eqp_ctx_free(ctx);

@@ -124,7 +124,8 @@ typedef enum eqp_quantity {
   EQP_Q_MOLARITY = 1 << 2,    /* mol/L */
   EQP_Q_MOLALITY = 1 << 3,    /* mol/kg of water */
   EQP_Q_VOLUME = 1 << 4,      /* L */
-  EQP_Q_TEMPERATURE = 1 << 5  /* K */
+  EQP_Q_TEMPERATURE = 1 << 5, /* K */
+  EQP_Q_PRESSURE = 1 << 6     /* atm */
 } eqp_quantity;
 
 /* Parse "12.5 mmol", "1.42 g", "25 mM", "10 mL", "37 C", ... into a value in
@@ -203,6 +204,12 @@ EQP_API int eqp_solution_buffer_capacity(eqp_solution *s, double *beta_kg, doubl
 ** solution's water for a stock). */
 EQP_API int eqp_solution_adjust_pH(eqp_solution *s, double pH, const char *reagent,
                                    const eqp_solution *stock, double *mol, double *litres);
+
+/* Open the solution to a gas of the library at a partial pressure (atm):
+** the gas dissolves, or leaves, until its dissolved species has the
+** activity Henry's law gives (a = K_H p at the solution's temperature).
+** *mol receives the amount taken up (negative: released). */
+EQP_API int eqp_solution_expose(eqp_solution *s, const char *gas, double p_atm, double *mol);
 
 EQP_API double eqp_solution_water_kg(const eqp_solution *s);
 EQP_API double eqp_solution_temperature(const eqp_solution *s); /* K */

@@ -108,7 +108,7 @@ static int eq_quantity(lua_State *L)
   int rc = eqp_parse_quantity(ctx, luaL_checkstring(L, 1), 0xff, &v, &k);
   if (rc < 0) return eqpl_fail(L, ctx, rc);
   static const char *const kinds[] = {"amount", "mass", "molarity", "molality", "volume",
-                                      "temperature"};
+                                      "temperature", "pressure"};
   int bit = 0;
   while ((1u << bit) != (unsigned)k) bit++;
   lua_pushnumber(L, v);

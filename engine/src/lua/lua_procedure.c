@@ -139,6 +139,24 @@ static int sol_load_budget(lua_State *L)
   return 1;
 }
 
+/* s:expose("CO2(g)", "427 uatm") -> mol taken up (negative: released) */
+static int sol_expose(lua_State *L)
+{
+  eqpl_solution *u = eqpl_check_solution(L, 1);
+  eqp_ctx *ctx = eqpl_ctx_of(L);
+  const char *gas = luaL_checkstring(L, 2);
+  if (lua_type(L, 3) != LUA_TSTRING)
+    return eqpl_input_error(L, "expose: a partial pressure with its unit, such as '427 uatm'");
+  double p, mol;
+  eqp_quantity k;
+  if (eqp_parse_quantity(ctx, lua_tostring(L, 3), EQP_Q_PRESSURE, &p, &k) < 0)
+    return eqpl_fail(L, ctx, eqp_ctx_errcode(ctx));
+  int rc = eqp_solution_expose(u->s, gas, p, &mol);
+  if (rc < 0) return eqpl_fail(L, ctx, rc);
+  lua_pushnumber(L, mol);
+  return 1;
+}
+
 /* s:total("Na+") -> mol of a component */
 static int sol_total(lua_State *L)
 {
@@ -200,6 +218,7 @@ static const luaL_Reg procedure_methods[] = {
   {"adjust_pH", sol_adjust},
   {"load_budget", sol_load_budget},
   {"total", sol_total},
+  {"expose", sol_expose},
   {"titrate", sol_titrate},
   {NULL, NULL},
 };
