@@ -18,7 +18,8 @@ static void test_random_recipes(void **state)
 {
   static const char *const reagents[] = {
     "HCl", "HNO3", "NaOH", "KOH", "NaCl", "KCl", "CH3COOH", "CH3COONa", "H3PO4", "NaH2PO4",
-    "Na2HPO4", "Na3PO4", "KH2PO4", "K2HPO4", "Tris", "TrisHCl", "KHP",
+    "Na2HPO4", "Na3PO4", "KH2PO4", "K2HPO4", "Tris", "TrisHCl", "KHP", "NaHCO3", "Na2CO3",
+    "CO2", "HEPES", "MESNa",
   };
   const int nr = (int)(sizeof reagents / sizeof reagents[0]);
   eqp_ctx *ctx = test_ctx();
