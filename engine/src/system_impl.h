@@ -88,4 +88,12 @@ int eqpi_sys_precond(eqpi_system *sys, const double *u);
 int eqpi_sys_coldstart(eqpi_system *sys, double *u);
 const char *eqpi_sys_row_name(const eqpi_system *sys, int k);
 
+/* solve.c, shared with adjust.c: build or reuse the system for totals (with
+** the components of extra forced present), solve it as prepared, and one
+** KINSOL run from u0. */
+int eqpi_system_prepare(eqp_ctx *ctx, eqpi_system **sysp, const double *totals, double T,
+                        eqpi_model *model, const double *extra);
+int eqpi_system_solve_prepared(eqp_ctx *ctx, eqpi_system *s, int *rcp, eqpi_solve_stats *stats);
+int eqpi_run_kinsol(eqpi_system *s, const double *u0, long *iters);
+
 #endif
