@@ -541,6 +541,14 @@ static void cv_reagent(conv *c)
     h->naliases = 0;
     h->density = NAN;
     h->hydrate = hyd[i];
+    if (base.n == 0) {
+      /* the hydrate of a neutral species releases that species */
+      h->gives = eqpi_arena_alloc(c->ctx, &c->st->arena, sizeof *h->gives);
+      if (!h->gives) return;
+      h->gives[0].name = base.name;
+      h->gives[0].nu = 1;
+      h->n = 1;
+    }
   }
 }
 

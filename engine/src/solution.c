@@ -158,11 +158,14 @@ void eqpi_reagent_dir(const eqp_solution *s, const eqpi_reagent *r, double *a, d
 {
   const eqpi_db *db = &s->ctx->db;
   int water = db->water >= 0 ? db->sp[db->water].component : -1;
+  /* water the reagent releases as such (water itself, water of
+  ** crystallisation, H2O in its release) joins the solvent; the water
+  ** component of other species (OH- = H2O - H+) is not tracked */
   double h2o = r->hydrate;
-  for (int t = 0; t < r->nterm; t++) {
-    if (r->term_comp[t] == water && r->n == 1 && r->sp[0] == db->water) h2o += r->term_nu[t];
-    else a[r->term_comp[t]] += k * r->term_nu[t];
-  }
+  for (int j = 0; j < r->n; j++)
+    if (r->sp[j] == db->water) h2o += r->nu[j];
+  for (int t = 0; t < r->nterm; t++)
+    if (r->term_comp[t] != water) a[r->term_comp[t]] += k * r->term_nu[t];
   *w = h2o * EQPI_M_WATER * 1e-3;
 }
 

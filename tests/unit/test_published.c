@@ -56,6 +56,23 @@ static void test_by_mass(void **state)
   eqp_result_free(r);
 }
 
+/* Secondary standards of the NBS: R. G. Bates and co-workers, "Two new
+** standards for the pH scale", J. Res. NBS 73A, 37 (1969) (abstract, as
+** quoted in DATA.md): 0.05 mol/kg KH2-citrate 3.776, 0.025/0.025 mol/kg
+** NaHCO3/Na2CO3 10.012, and borax 0.01 mol/kg 9.180 at 25 C. */
+static void test_nbs_secondary_standards(void **state)
+{
+  eqp_result *r = test_solve(ctx, "davies", 298.15, "Na2B4O7.10H2O", "0.01 mol/kg", NULL);
+  check(eqp_result_pH(r), 9.180, "borax 0.01 mol/kg");
+  eqp_result_free(r);
+  r = test_solve(ctx, "davies", 298.15, "NaHCO3", "0.025 mol/kg", "Na2CO3", "0.025 mol/kg", NULL);
+  check(eqp_result_pH(r), 10.012, "carbonate 0.025/0.025 mol/kg");
+  eqp_result_free(r);
+  r = test_solve(ctx, "davies", 298.15, "KH2Cit", "0.05 mol/kg", NULL);
+  check(eqp_result_pH(r), 3.776, "potassium dihydrogen citrate 0.05 mol/kg");
+  eqp_result_free(r);
+}
+
 int main(void)
 {
   ctx = test_ctx();
@@ -64,6 +81,7 @@ int main(void)
     cmocka_unit_test(test_physiological_phosphate),
     cmocka_unit_test(test_phthalate),
     cmocka_unit_test(test_by_mass),
+    cmocka_unit_test(test_nbs_secondary_standards),
   };
   int rc = cmocka_run_group_tests(tests, NULL, NULL);
   eqp_ctx_free(ctx);
