@@ -137,6 +137,8 @@ static void arrays_free(eqp_ctx *ctx, eqpi_system *s)
   eqpi_free(ctx, s->u_last, sizeof(double) * n);
   eqpi_free(ctx, s->names, sizeof(char *) * ns);
   eqpi_free(ctx, s->dlng, sizeof(double) * ns);
+  eqpi_free(ctx, s->href, sizeof(double) * nc);
+  eqpi_free(ctx, s->coefH, sizeof(double) * ns);
   eqpi_free(ctx, s->N0, sizeof(double) * nc);
   eqpi_free(ctx, s->adir, sizeof(double) * nc);
 }
@@ -202,6 +204,7 @@ static int build(eqp_ctx *ctx, eqpi_system *s, const unsigned char *mask)
            GROW(ctx, s->piv, nc + 2) && GROW(ctx, s->g, nc + 3) && GROW(ctx, s->d, nc + 2) &&
            GROW(ctx, s->xt, 2 * (nc + 2)) && GROW(ctx, s->u_last, nc + 2) &&
            GROW(ctx, s->names, ns) && GROW(ctx, s->dlng, ns) && GROW(ctx, s->N0, nc) &&
+           GROW(ctx, s->href, nc) && GROW(ctx, s->coefH, ns) &&
            GROW(ctx, s->adir, nc);
   if (!ok) {
     eqpi_free(ctx, loc, sizeof(int) * ((size_t)ncg + 1));
@@ -241,6 +244,7 @@ static int build(eqp_ctx *ctx, eqpi_system *s, const unsigned char *mask)
     }
   }
   s->n = s->nx + 1;
+  for (int i = 0; i < ns; i++) s->coefH[i] = s->nu[(size_t)i * nc + s->hloc];  /* href = 0 */
   s->generation = db->generation;
   s->bound = NULL;
   s->Tk = -1;
@@ -348,6 +352,8 @@ int eqpi_run_kinsol(eqpi_system *s, const double *u0, long *iters)
   ** search fail to find a distinct iterate; accept it as it is. */
   double *F = s->xt + s->n, fmax = 0;
   if (eqpi_sys_eval(s, uu, F) < 0) return KIN_SYSFUNC_FAIL;
+  eqpi_sys_reference(s);        /* the proton reference for this run, from u0 */
+  if (eqpi_sys_eval(s, uu, F) < 0) return KIN_SYSFUNC_FAIL;
   for (int k = 0; k < s->n; k++) fmax = fabs(F[k]) > fmax ? fabs(F[k]) : fmax;
   if (fmax <= FNORM_TOL) return KIN_SUCCESS;
   int flag = KINSol(s->kmem, s->u, KIN_LINESEARCH, s->scale, s->scale);
@@ -389,10 +395,15 @@ static int fail_converge(eqp_ctx *ctx, eqpi_system *s, int flag, long iters)
                    kin_flag_name(flag), iters, s->kin_err[0] ? ": " : "", s->kin_err, res);
 }
 
+/* A direct attempt at the full model: from a good start Newton needs a
+** handful of iterations, so one that has not converged in 60 is better
+** handed to the continuation than left to run. */
 static int solve_from(eqpi_system *s, double *u0, long *iters)
 {
   s->lambda = 1;
+  KINSetNumMaxIters(s->kmem, 60);
   int flag = eqpi_run_kinsol(s, u0, iters);
+  KINSetNumMaxIters(s->kmem, 200);
   return flag;
 }
 

@@ -98,11 +98,22 @@ int eqpi_sys_eval(eqpi_system *sys, const double *u, double *F)
   if (model_pass(sys, I) < 0) return -1;
   for (int k = 0; k < nx; k++) {
     int c = sys->xcomp[k];
-    double R = -sys->tot[c], S = 0;
-    for (int i = 0; i < ns; i++) {
-      double v = sys->nu[(size_t)i * nc + c] * sys->m[i];
-      R += v;
-      S += fabs(v);
+    double R, S = 0;
+    if (c == sys->hloc) {
+      R = -sys->tot[c];
+      for (int d = 0; d < nc; d++) R += sys->href[d] * sys->tot[d];
+      for (int i = 0; i < ns; i++) {
+        double v = sys->coefH[i] * sys->m[i];
+        R += v;
+        S += fabs(v);
+      }
+    } else {
+      R = -sys->tot[c];
+      for (int i = 0; i < ns; i++) {
+        double v = sys->nu[(size_t)i * nc + c] * sys->m[i];
+        R += v;
+        S += fabs(v);
+      }
     }
     F[k] = R / (S > 1e-300 ? S : 1e-300);
   }
@@ -111,6 +122,35 @@ int eqpi_sys_eval(eqpi_system *sys, const double *u, double *F)
   Ic *= 0.5;
   F[nx] = log(Ic > 1e-300 ? Ic : 1e-300) - lnI;
   return 0;
+}
+
+/* For each unknown component other than H+, the species made of it and H+
+** alone that is most abundant now; its protons per unit of the component
+** become the reference of the H+ row. */
+void eqpi_sys_reference(eqpi_system *sys)
+{
+  const int nc = sys->nc, ns = sys->ns;
+  for (int c = 0; c < nc; c++) {
+    sys->href[c] = 0;
+    if (c == sys->hloc || sys->xidx[c] < 0) continue;
+    double best = -1;
+    for (int i = 0; i < ns; i++) {
+      const double *row = sys->nu + (size_t)i * nc;
+      if (row[c] <= 0) continue;
+      int own = 1;
+      for (int d = 0; d < nc && own; d++) own = d == c || d == sys->hloc || row[d] == 0;
+      if (own && sys->m[i] / row[c] > best) {
+        best = sys->m[i] / row[c];
+        sys->href[c] = row[sys->hloc] / row[c];
+      }
+    }
+  }
+  for (int i = 0; i < ns; i++) {
+    const double *row = sys->nu + (size_t)i * nc;
+    double v = row[sys->hloc];
+    for (int c = 0; c < nc; c++) v -= sys->href[c] * row[c];
+    sys->coefH[i] = v;
+  }
 }
 
 double eqpi_sys_verify(eqpi_system *sys, const double *u, int *worst)
@@ -164,13 +204,20 @@ int eqpi_sys_precond(eqpi_system *sys, const double *u)
     double S = 0;
     for (int i = 0; i < ns; i++) S += fabs(sys->nu[(size_t)i * nc + c]) * sys->m[i];
     S = S > 1e-300 ? S : 1e-300;
+    const int hrow = c == sys->hloc;
+    if (hrow) {
+      S = 0;
+      for (int i = 0; i < ns; i++) S += fabs(sys->coefH[i]) * sys->m[i];
+      S = S > 1e-300 ? S : 1e-300;
+    }
     for (int l = 0; l < nx; l++) {
       int d = sys->xcomp[l];
       double v = 0, w = 0;
       for (int i = 0; i < ns; i++) {
         double nd = sys->nu[(size_t)i * nc + d] * sys->m[i];
-        v += sys->nu[(size_t)i * nc + c] * nd;
-        w += fabs(sys->nu[(size_t)i * nc + c]) * nd;
+        double ci = hrow ? sys->coefH[i] : sys->nu[(size_t)i * nc + c];
+        v += ci * nd;
+        w += fabs(ci) * nd;
       }
       J[k * n + l] = (v - F0[k] * w) / S;
     }
@@ -225,8 +272,14 @@ int eqpi_sys_dpH(eqpi_system *sys, const double *a, double w, double W, double d
     int k = sys->xidx[c];
     if (k >= 0) {
       double S = 0;
-      for (int i = 0; i < ns; i++) S += fabs(sys->nu[(size_t)i * nc + c]) * sys->m[i];
-      b[k] = dtot / (S > 1e-300 ? S : 1e-300);     /* -dF/dv for F = (sum nu m - T)/S */
+      if (c == sys->hloc) {
+        /* the H+ row's total is T_H - sum href T_c */
+        for (int d = 0; d < nc; d++) dtot -= sys->href[d] * (a[d] - sys->tot[d] * w) / W;
+        for (int i = 0; i < ns; i++) S += fabs(sys->coefH[i]) * sys->m[i];
+      } else {
+        for (int i = 0; i < ns; i++) S += fabs(sys->nu[(size_t)i * nc + c]) * sys->m[i];
+      }
+      b[k] = dtot / (S > 1e-300 ? S : 1e-300);     /* -dF/dv for F = (sum c m - T)/S */
     } else {
       /* a spectator's molality is its total: it moves I alone */
       b[nx] -= 0.5 * sys->z2[sys->comp_sp[c]] * dtot / Ic;

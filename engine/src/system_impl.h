@@ -40,6 +40,12 @@ struct eqpi_system {
   double *g, *d, *xt;   /* cold start */
   double lambda;        /* continuation weight on ln gamma */
   double *dlng;         /* ns: d ln g / d ln I, from the last preconditioner */
+  /* The H+ row is written relative to the dominant protonation state of
+  ** each component (a proton condition): row_H - sum_c href_c row_c. It
+  ** has the same solution, but a buffer whose protonated form dominates no
+  ** longer cancels two large terms in it. */
+  double *href;         /* nc: protons of the reference species per component */
+  double *coefH;        /* ns: coefficients of the H+ row */
   /* Fixed-activity mode (DESIGN s.3): a(H+) is held at exp(lnaH) and the
   ** amount v of a reagent direction takes H+'s unknown slot; the totals
   ** follow v: tot = (N0 + v adir) / (W0 + v wdir), v = u * vscale. */
@@ -70,6 +76,9 @@ struct eqpi_system {
 /* Evaluate the scaled residual F(u) (n entries). Returns 0, or -1 when the
 ** activity model failed. */
 int eqpi_sys_eval(eqpi_system *sys, const double *u, double *F);
+/* Choose the reference species of the H+ row at the state of the last
+** evaluation (system.c). */
+void eqpi_sys_reference(eqpi_system *sys);
 /* dpH/dv at the last solved state for adding v units of a direction
 ** (a: moles per unit over the system's local components, w: kg of water
 ** per unit) to W kg of water: implicit differentiation through the
