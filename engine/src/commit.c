@@ -56,6 +56,7 @@ void eqpi_stage_free(eqp_ctx *ctx, eqpi_stage *st)
   eqpi_free(ctx, st->in, sizeof *st->in * (size_t)st->capin);
   eqpi_free(ctx, st->bf, sizeof *st->bf * (size_t)st->capbf);
   eqpi_free(ctx, st->gs, sizeof *st->gs * (size_t)st->capgs);
+  eqpi_free(ctx, st->so, sizeof *st->so * (size_t)st->capso);
   eqpi_free(ctx, st->files, sizeof *st->files * (size_t)st->capfiles);
   eqpi_free(ctx, st, sizeof *st);
 }
@@ -81,6 +82,8 @@ typedef struct committer {
   int nbuf, capbuf;
   eqpi_gas *gas;
   int ngas, capgas;
+  eqpi_solid *sol;
+  int nsol, capsol;
 } committer;
 
 static int find_species(const committer *c, const char *name)
@@ -566,6 +569,74 @@ static void add_gases(committer *c)
   }
 }
 
+static void add_solids(committer *c)
+{
+  eqpi_stage *st = c->st;
+  for (int k = 0; k < st->nso; k++) {
+    const st_solid *g = &st->so[k];
+    if (!g->name || !g->formula) continue;
+    eqpi_comp f, sum = {0};
+    char err[256], diff[256];
+    if (eqpi_formula_parse(g->formula, &f, NULL, err, sizeof err) < 0) {
+      eqpi_stage_error(st, g->file, g->line, "solid '%s': %s", g->name, err);
+      continue;
+    }
+    int *sp = eqpi_arena_alloc(c->ctx, &st->arena, sizeof(int) * (size_t)(g->n + 1));
+    double *nu = eqpi_arena_alloc(c->ctx, &st->arena, sizeof(double) * (size_t)(g->n + 1));
+    if (!sp || !nu) { eqpi_stage_error(st, NULL, 0, "out of memory"); return; }
+    int bad = 0;
+    for (int j = 0; j < g->n; j++) {
+      sp[j] = find_species(c, g->dissolves[j].name);
+      nu[j] = g->dissolves[j].nu;
+      if (sp[j] < 0) {
+        eqpi_stage_error(st, g->file, g->line, "solid '%s' dissolves to unknown species '%s'",
+                         g->name, g->dissolves[j].name);
+        bad = 1;
+      } else {
+        eqpi_comp_add(&sum, &c->sp[sp[j]].comp, nu[j]);
+      }
+    }
+    if (bad) continue;
+    if (eqpi_comp_diff(&f, &sum, diff, sizeof diff)) {
+      eqpi_stage_error(st, g->file, g->line, "solid '%s' is unbalanced (%s minus what it "
+                       "dissolves to: %s)", g->name, g->formula, diff);
+      continue;
+    }
+    if (c->nsol == c->capsol) {
+      int nc = c->capsol * 2 + 4;
+      eqpi_solid *p = eqpi_realloc(c->ctx, c->sol, sizeof *p * (size_t)c->capsol, sizeof *p * (size_t)nc);
+      if (!p) { eqpi_stage_error(st, NULL, 0, "out of memory"); return; }
+      c->sol = p;
+      c->capsol = nc;
+    }
+    eqpi_solid *d = &c->sol[c->nsol++];
+    memset(d, 0, sizeof *d);
+    d->name = g->name;
+    d->formula = g->formula;
+    d->n = g->n;
+    d->sp = sp;
+    d->nu = nu;
+    d->ksp.product = -1;
+    d->ksp.logK = g->logKsp;
+    d->ksp.dH = g->dH;
+    d->ksp.dCp = g->dCp;
+    d->ksp.tmodel = g->tmodel;
+    memcpy(d->ksp.fn, g->fn, sizeof d->ksp.fn);
+    d->ksp.Tmin = g->Tmin;
+    d->ksp.Tmax = g->Tmax;
+    d->ksp.source = g->source;
+    d->ksp.file = g->file;
+    d->ksp.line = g->line;
+    if (d->ksp.tmodel == EQPI_T_FUNCTION) {
+      eqpi_tnotes notes = {0, 0};
+      double at25 = eqpi_reaction_logK(&d->ksp, EQPI_T25, &notes);
+      if (!(fabs(at25 - d->ksp.logK) <= 0.02))
+        eqpi_stage_error(st, g->file, g->line, "temperature function for solid '%s' gives %.4f "
+                         "at 298.15 K, but its log Ksp is %.4f", g->name, at25, d->ksp.logK);
+    }
+  }
+}
+
 static void committer_free(committer *c)
 {
   eqp_ctx *ctx = c->ctx;
@@ -577,6 +648,7 @@ static void committer_free(committer *c)
   eqpi_free(ctx, c->pairs, sizeof *c->pairs * (size_t)c->cappairs);
   eqpi_free(ctx, c->buf, sizeof *c->buf * (size_t)c->capbuf);
   eqpi_free(ctx, c->gas, sizeof *c->gas * (size_t)c->capgas);
+  eqpi_free(ctx, c->sol, sizeof *c->sol * (size_t)c->capsol);
 }
 
 int eqpi_db_rebuild_index(eqp_ctx *ctx, eqpi_db *db);
@@ -597,7 +669,7 @@ int eqpi_stage_commit(eqp_ctx *ctx, eqpi_stage *st)
 {
   eqpi_db *db = &ctx->db;
   committer c = {ctx, db, st, NULL, db->nsp, NULL, db->nrx, NULL, db->nrg, 0, db->ncomp,
-                 NULL, NULL, NULL, 0, 0, NULL, 0, 0, NULL, 0, 0};
+                 NULL, NULL, NULL, 0, 0, NULL, 0, 0, NULL, 0, 0, NULL, 0, 0};
   int rc = EQP_E_DATA;
   /* Shape errors found while staging do not stop the checks of names and
   ** balances below, so one run reports every problem; nothing is kept. */
@@ -620,7 +692,8 @@ int eqpi_stage_commit(eqp_ctx *ctx, eqpi_stage *st)
   memset(c.state, 2, (size_t)db->nsp);
   if (dup_array(ctx, (void **)&c.pairs, db->pairs, db->npairs, sizeof *c.pairs, &c.cappairs) < 0 ||
       dup_array(ctx, (void **)&c.buf, db->buffers, db->nbuffers, sizeof *c.buf, &c.capbuf) < 0 ||
-      dup_array(ctx, (void **)&c.gas, db->gases, db->ngases, sizeof *c.gas, &c.capgas) < 0) {
+      dup_array(ctx, (void **)&c.gas, db->gases, db->ngases, sizeof *c.gas, &c.capgas) < 0 ||
+      dup_array(ctx, (void **)&c.sol, db->solids, db->nsolids, sizeof *c.sol, &c.capsol) < 0) {
     rc = EQP_E_NOMEM;
     eqpi_stage_error(st, NULL, 0, "out of memory");
     goto fail;
@@ -628,6 +701,7 @@ int eqpi_stage_commit(eqp_ctx *ctx, eqpi_stage *st)
   c.npairs = db->npairs;
   c.nbuf = db->nbuffers;
   c.ngas = db->ngases;
+  c.nsol = db->nsolids;
   add_species(&c);
   add_reactions(&c);
   for (int i = db->nsp; i < c.nsp; i++)
@@ -642,6 +716,7 @@ int eqpi_stage_commit(eqp_ctx *ctx, eqpi_stage *st)
   add_interactions(&c);
   add_buffers(&c);
   add_gases(&c);
+  add_solids(&c);
   if (st->nerr) goto fail;
   /* Success: nothing below can fail except the index, rebuilt on the
   ** new arrays before the old ones are released. */
@@ -653,6 +728,7 @@ int eqpi_stage_commit(eqp_ctx *ctx, eqpi_stage *st)
   next.pairs = c.pairs; next.npairs = c.npairs; next.cappairs = c.cappairs;
   next.buffers = c.buf; next.nbuffers = c.nbuf; next.capbuffers = c.capbuf;
   next.gases = c.gas; next.ngases = c.ngas; next.capgases = c.capgas;
+  next.solids = c.sol; next.nsolids = c.nsol; next.capsolids = c.capsol;
   next.capcomp = db->ncomp + st->nsp + 1;
   next.hash = NULL;
   next.hashcap = 0;
@@ -681,6 +757,7 @@ int eqpi_stage_commit(eqp_ctx *ctx, eqpi_stage *st)
   eqpi_free(ctx, db->pairs, sizeof *db->pairs * (size_t)db->cappairs);
   eqpi_free(ctx, db->buffers, sizeof *db->buffers * (size_t)db->capbuffers);
   eqpi_free(ctx, db->gases, sizeof *db->gases * (size_t)db->capgases);
+  eqpi_free(ctx, db->solids, sizeof *db->solids * (size_t)db->capsolids);
   eqpi_free(ctx, c.state, maxsp);
   *db = next;
   eqpi_arena_splice(&db->arena, &st->arena);

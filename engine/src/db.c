@@ -118,6 +118,7 @@ void eqpi_db_free(eqp_ctx *ctx, eqpi_db *db)
   eqpi_free(ctx, db->pairs, sizeof *db->pairs * (size_t)db->cappairs);
   eqpi_free(ctx, db->buffers, sizeof *db->buffers * (size_t)db->capbuffers);
   eqpi_free(ctx, db->gases, sizeof *db->gases * (size_t)db->capgases);
+  eqpi_free(ctx, db->solids, sizeof *db->solids * (size_t)db->capsolids);
   eqpi_free(ctx, db->hash, sizeof(int) * (size_t)db->hashcap * 2);
   eqpi_arena_free(ctx, &db->arena);
   memset(db, 0, sizeof *db);

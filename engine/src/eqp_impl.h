@@ -188,6 +188,16 @@ typedef struct eqpi_gas {
   eqpi_reaction kh;
 } eqpi_gas;
 
+/* A solid phase: formula = sum nu species; log10 Ksp of that dissolution
+** and its temperature data held as a reaction. */
+typedef struct eqpi_solid {
+  const char *name, *formula;
+  int n;
+  int *sp;
+  double *nu;
+  eqpi_reaction ksp;
+} eqpi_solid;
+
 typedef struct eqpi_source {
   const char *path;
 } eqpi_source;
@@ -209,6 +219,8 @@ typedef struct eqpi_db {
   int nbuffers, capbuffers;
   eqpi_gas *gases;
   int ngases, capgases;
+  eqpi_solid *solids;
+  int nsolids, capsolids;
   const char **files;
   int nfiles, capfiles;
   /* name hash: species and reagents (reagent entries are ~index) */

@@ -646,6 +646,33 @@ static void cv_gas(conv *c)
   g->line = cv_line(c);
 }
 
+/* { "calcite", formula = "CaCO3", dissolves = { ["Ca+2"] = 1, ["CO3-2"] = 1 },
+**   logKsp = -8.48, logKsp_T = {...}, T_range = {...}, source = } */
+static void cv_solid(conv *c)
+{
+  static const char *const keys[] = {"formula", "dissolves", "logKsp", "dH", "dCp", "logKsp_T",
+                                     "T_range", "source", "note", NULL};
+  cv_keys(c, keys, 1);
+  st_solid *s = STAGE_PUSH(c, so, nso, capso);
+  if (!s) return;
+  s->name = cv_pos_string(c, 1);
+  s->formula = cv_string(c, "formula", 1);
+  s->n = cv_pairs(c, "dissolves", &s->dissolves);
+  if (s->n < 0) s->n = 0;
+  s->logKsp = cv_number(c, "logKsp", -100, 20, 1);
+  s->dH = cv_number(c, "dH", -500, 500, 0);
+  s->dCp = cv_number(c, "dCp", -5000, 5000, 0);
+  cv_push(c, "logKsp_T");
+  lua_getfield(c->L, -1, "logKsp_T");
+  cv_tfunction(c, lua_gettop(c->L), &s->tmodel, s->fn);
+  lua_pop(c->L, 1);
+  cv_pop(c);
+  cv_trange(c, &s->Tmin, &s->Tmax);
+  s->source = cv_source(c, "source", 1);
+  s->file = c->file;
+  s->line = cv_line(c);
+}
+
 /* Run f on each element of the list at key. */
 static void cv_list(conv *c, const char *key, void (*f)(conv *))
 {
@@ -672,7 +699,8 @@ int eqpi_stage_from_table(eqp_ctx *ctx, eqpi_stage *st, lua_State *L, int idx,
 {
   static const char *const keys[] = {"system", "about", "sources", "size_source",
                                      "params_source", "species", "acids", "reactions",
-                                     "reagents", "interactions", "buffers", "gases", NULL};
+                                     "reagents", "interactions", "buffers", "gases",
+                                     "solids", NULL};
   conv c = {ctx, st, L, lm, NULL, {0}, {{0}}, 0, 0, NULL, NULL};
   int before = st->nerr;
   int top = lua_gettop(L);
@@ -699,6 +727,7 @@ int eqpi_stage_from_table(eqp_ctx *ctx, eqpi_stage *st, lua_State *L, int idx,
   cv_list(&c, "interactions", cv_interaction);
   cv_list(&c, "buffers", cv_buffer);
   cv_list(&c, "gases", cv_gas);
+  cv_list(&c, "solids", cv_solid);
   lua_settop(L, top);
   return st->nerr > before ? EQP_E_DATA : EQP_OK;
 }

@@ -152,3 +152,35 @@ int eqp_result_activity(const eqp_result *r, const char *sp, double *out)
     *out = 1.0;   /* the solvent */
   return EQP_OK;
 }
+
+/* Saturation index log10(IAP/Ksp) at the result's temperature; -inf when a
+** species of the solid is absent. */
+int eqp_result_saturation(const eqp_result *r, const char *solid, double *si)
+{
+  if (!r || !solid || !si) return EQP_E_ARG;
+  const eqpi_db *db = &r->ctx->db;
+  const eqpi_solid *s = NULL;
+  for (int i = 0; i < db->nsolids; i++)
+    if (strcmp(db->solids[i].name, solid) == 0) s = &db->solids[i];
+  if (!s) return eqpi_fail(r->ctx, EQP_E_UNKNOWN, "unknown solid '%s'", solid);
+  double iap = 0;
+  for (int j = 0; j < s->n; j++) {
+    if (s->sp[j] == db->water) continue;           /* unit activity */
+    int i = s->sp[j] < r->ndb ? r->loc[s->sp[j]] : -1;
+    if (i < 0 || !(r->m[i] > 0)) {
+      *si = -INFINITY;
+      return EQP_OK;
+    }
+    iap += s->nu[j] * (log10(r->m[i]) + r->lg[i]);
+  }
+  eqpi_tnotes notes = {0, 0};
+  *si = iap - eqpi_reaction_logK(&s->ksp, r->T, &notes);
+  return EQP_OK;
+}
+
+size_t eqp_ctx_solid_count(const eqp_ctx *ctx) { return ctx ? (size_t)ctx->db.nsolids : 0; }
+
+const char *eqp_ctx_solid_name(const eqp_ctx *ctx, size_t i)
+{
+  return ctx && i < (size_t)ctx->db.nsolids ? ctx->db.solids[i].name : NULL;
+}

@@ -61,6 +61,13 @@ typedef struct st_gas {
   int tmodel, line;
 } st_gas;
 
+typedef struct st_solid {
+  const char *name, *formula, *source, *file;
+  st_pair *dissolves;
+  int n, tmodel, line;
+  double logKsp, dH, dCp, fn[6], Tmin, Tmax;
+} st_solid;
+
 struct eqpi_stage {
   eqpi_arena *arena;
   st_species *sp;
@@ -75,6 +82,8 @@ struct eqpi_stage {
   int nbf, capbf;
   st_gas *gs;
   int ngs, capgs;
+  st_solid *so;
+  int nso, capso;
   const char **files;
   int nfiles, capfiles;
   char err[EQPI_ERRLEN];

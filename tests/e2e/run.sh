@@ -118,6 +118,7 @@ check ten_lines 0 "capacity" -- "$EQP" run "$CASES/ten_lines.lua"
 check adjust_unreachable 3 "adjust_unreachable.lua:3: pH 10.000 is out of reach with HCl" -- "$EQP" run "$CASES/adjust_unreachable.lua"
 check titrate_bad_end 3 "needs an end" -- "$EQP" run "$CASES/titrate_no_end.lua"
 "$EQP" run "$EX/unknown_acid.lua" --json --param csv="$TMP/c2.csv" >"$TMP/j3"
+check json_saturation 0 "^[0-9.-]" -- sh -c "'$EQP' run '$CASES/calcite.lua' --json | '$JSON' results.0.saturation_index.calcite"
 check json_curve 0 "^1$" -- "$JSON" curves.0.equivalence_points < "$TMP/j3"
 check json_curve_pH 0 "^8.4" -- "$JSON" curves.0.equivalence_points.0.pH < "$TMP/j3"
 

@@ -268,6 +268,32 @@ static void test_water_open_to_air(void **state)
   eqp_solution_free(s);
 }
 
+/* Saturation index of calcite: log10(a(Ca2+) a(CO3 2-)) - log Ksp(T), with
+** log Ksp from the published equation of Plummer & Busenberg (1982),
+** evaluated here: -171.9065 - 0.077993 T + 2839.319/T + 71.595 log10 T. */
+static void test_saturation_index(void **state)
+{
+  static const double Ts[] = {298.15, 323.15};
+  for (int k = 0; k < 2; k++) {
+    double T = Ts[k];
+    eqp_result *r = test_solve(ctx, "davies", T, "CaCl2", "2 mmol", "NaHCO3", "4 mmol",
+                               "NaOH", "1 mmol", NULL);
+    double aCa, aCO3, si;
+    eqp_result_activity(r, "Ca+2", &aCa);
+    eqp_result_activity(r, "CO3-2", &aCO3);
+    assert_int_equal(eqp_result_saturation(r, "calcite", &si), EQP_OK);
+    double lKsp = -171.9065 - 0.077993 * T + 2839.319 / T + 71.595 * log10(T);
+    assert_close(si, log10(aCa * aCO3) - lKsp, 1e-10);
+    eqp_result_free(r);
+  }
+  eqp_result *r = test_solve(ctx, "ideal", 298.15, "NaCl", "1 mmol", NULL);
+  double si;
+  assert_int_equal(eqp_result_saturation(r, "calcite", &si), EQP_OK);
+  assert_true(isinf(si) && si < 0);           /* no calcium: -inf */
+  assert_int_equal(eqp_result_saturation(r, "quartz", &si), EQP_E_UNKNOWN);
+  eqp_result_free(r);
+}
+
 int main(void)
 {
   ctx = test_ctx();
@@ -280,6 +306,7 @@ int main(void)
     cmocka_unit_test(test_adjust_closed_form),
     cmocka_unit_test(test_conservation),
     cmocka_unit_test(test_water_open_to_air),
+    cmocka_unit_test(test_saturation_index),
   };
   int rc = cmocka_run_group_tests(tests, NULL, NULL);
   eqp_ctx_free(ctx);

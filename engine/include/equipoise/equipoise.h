@@ -327,6 +327,13 @@ EQP_API int eqp_result_molarity(const eqp_result *r, const char *sp, double *out
 EQP_API int eqp_result_activity(const eqp_result *r, const char *sp, double *out);
 EQP_API int eqp_result_gamma(const eqp_result *r, const char *sp, double *out);
 
+/* Saturation index log10(IAP/Ksp) of a solid of the library at the
+** result's temperature (-inf when one of its ions is absent). Positive:
+** supersaturated. Precipitation itself is not modelled. */
+EQP_API int eqp_result_saturation(const eqp_result *r, const char *solid, double *si);
+EQP_API size_t eqp_ctx_solid_count(const eqp_ctx *ctx);
+EQP_API const char *eqp_ctx_solid_name(const eqp_ctx *ctx, size_t i);
+
 /* Species present, by index: 0 .. count-1. Names borrowed from the context. */
 EQP_API size_t eqp_result_species_count(const eqp_result *r);
 EQP_API const char *eqp_result_species_name(const eqp_result *r, size_t i);

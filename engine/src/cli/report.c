@@ -107,7 +107,7 @@ static void add_string(void *ud, const char *text)
   cJSON_AddItemToArray(ud, cJSON_CreateString(text));
 }
 
-static cJSON *result_json(const eqp_result *r)
+static cJSON *result_json(const eqp_result *r, const eqp_ctx *ctx)
 {
   cJSON *o = cJSON_CreateObject();
   cJSON_AddNumberToObject(o, "pH", eqp_result_pH(r));
@@ -127,6 +127,12 @@ static cJSON *result_json(const eqp_result *r)
     cJSON_AddNumberToObject(e, "gamma", pow(10.0, eqp_result_species_log_gamma(r, i)));
     cJSON_AddItemToArray(sp, e);
   }
+  cJSON *sat = cJSON_AddObjectToObject(o, "saturation_index");
+  for (size_t i = 0; ctx && i < eqp_ctx_solid_count(ctx); i++) {
+    double si;
+    if (eqp_result_saturation(r, eqp_ctx_solid_name(ctx, i), &si) == EQP_OK && isfinite(si))
+      cJSON_AddNumberToObject(sat, eqp_ctx_solid_name(ctx, i), si);
+  }
   cJSON *w = cJSON_AddArrayToObject(o, "warnings");
   for (size_t i = 0; i < eqp_result_warning_count(r); i++)
     cJSON_AddItemToArray(w, cJSON_CreateString(eqp_result_warning(r, i)));
@@ -136,6 +142,10 @@ static cJSON *result_json(const eqp_result *r)
 void cli_write_json(lua_State *L, const cli_run *run, int exit_code, const char *error,
                     lua_State *unused)
 {
+  eqp_ctx *ctx = NULL;
+  if (lua_getfield(L, LUA_REGISTRYINDEX, EQPL_CTX ".ptr") == LUA_TLIGHTUSERDATA)
+    ctx = lua_touserdata(L, -1);
+  lua_pop(L, 1);
   cJSON *doc = cJSON_CreateObject();
   cJSON_AddStringToObject(doc, "equipoise", EQP_VERSION_STRING);
   cJSON_AddStringToObject(doc, "script", run->script);
@@ -152,7 +162,7 @@ void cli_write_json(lua_State *L, const cli_run *run, int exit_code, const char 
     for (lua_Integer i = 1; i <= n; i++) {
       lua_rawgeti(L, -1, i);
       eqpl_result *u = luaL_testudata(L, -1, EQPL_RESULT);
-      if (u && u->r) cJSON_AddItemToArray(results, result_json(u->r));
+      if (u && u->r) cJSON_AddItemToArray(results, result_json(u->r, ctx));
       lua_pop(L, 1);
     }
   }
@@ -187,10 +197,6 @@ void cli_write_json(lua_State *L, const cli_run *run, int exit_code, const char 
   cli_each_caution(L, add_string, cautions);
   cJSON *prov = cJSON_AddObjectToObject(doc, "provenance");
   cJSON *files = cJSON_AddArrayToObject(prov, "species_files");
-  eqp_ctx *ctx = NULL;
-  if (lua_getfield(L, LUA_REGISTRYINDEX, EQPL_CTX ".ptr") == LUA_TLIGHTUSERDATA)
-    ctx = lua_touserdata(L, -1);
-  lua_pop(L, 1);
   for (size_t i = 0; ctx && i < eqp_ctx_source_count(ctx); i++)
     cJSON_AddItemToArray(files, cJSON_CreateString(eqp_ctx_source_path(ctx, i)));
   cJSON_AddStringToObject(prov, "water_properties",

@@ -37,6 +37,7 @@ static int result_molality(lua_State *L) { return per_species(L, eqp_result_mola
 static int result_molarity(lua_State *L) { return per_species(L, eqp_result_molarity); }
 static int result_activity(lua_State *L) { return per_species(L, eqp_result_activity); }
 static int result_gamma(lua_State *L) { return per_species(L, eqp_result_gamma); }
+static int result_saturation(lua_State *L) { return per_species(L, eqp_result_saturation); }
 
 /* r:species() -> { {name=, molality=, gamma=}, ... } by decreasing molality */
 typedef struct row { const char *name; double m, lg; } row;
@@ -111,6 +112,7 @@ static const luaL_Reg result_methods[] = {
   {"molarity", result_molarity},
   {"activity", result_activity},
   {"gamma", result_gamma},
+  {"saturation", result_saturation},
   {"species", result_species},
   {NULL, NULL},
 };
