@@ -357,6 +357,14 @@ int eqpi_run_kinsol(eqpi_system *s, const double *u0, long *iters)
   for (int k = 0; k < s->n; k++) fmax = fabs(F[k]) > fmax ? fabs(F[k]) : fmax;
   if (fmax <= FNORM_TOL) return KIN_SUCCESS;
   int flag = KINSol(s->kmem, s->u, KIN_LINESEARCH, s->scale, s->scale);
+  if (flag == KIN_STEP_LT_STPTOL) {
+    /* "steps too small" is a success only if the residual is small too;
+    ** otherwise KINSOL has stalled and the caller's fallback must run */
+    double fm = 0;
+    if (eqpi_sys_eval(s, uu, F) < 0) return KIN_SYSFUNC_FAIL;
+    for (int k = 0; k < s->n; k++) fm = fabs(F[k]) > fm ? fabs(F[k]) : fm;
+    if (!(fm <= 1e-8)) flag = KIN_LINESEARCH_NONCONV;
+  }
   long it = 0;
   KINGetNumNonlinSolvIters(s->kmem, &it);
   if (s->trace) {

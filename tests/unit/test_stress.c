@@ -19,7 +19,7 @@ static void test_random_recipes(void **state)
   static const char *const reagents[] = {
     "HCl", "HNO3", "NaOH", "KOH", "NaCl", "KCl", "CH3COOH", "CH3COONa", "H3PO4", "NaH2PO4",
     "Na2HPO4", "Na3PO4", "KH2PO4", "K2HPO4", "Tris", "TrisHCl", "KHP", "NaHCO3", "Na2CO3",
-    "CO2", "HEPES", "MESNa",
+    "CO2", "HEPES", "MESNa", "CaCl2", "MgCl2", "Na3Cit", "H3BO3", "Gly", "Im",
   };
   const int nr = (int)(sizeof reagents / sizeof reagents[0]);
   eqp_ctx *ctx = test_ctx();
@@ -102,6 +102,7 @@ static void test_random_adjustments(void **state)
 
 int main(void)
 {
+  if (getenv("EQP_STRESS_SEED")) rng ^= strtoull(getenv("EQP_STRESS_SEED"), NULL, 10) * 0x2545F4914F6CDD1DULL;
   const struct CMUnitTest tests[] = {cmocka_unit_test(test_random_recipes),
                                      cmocka_unit_test(test_random_adjustments)};
   return cmocka_run_group_tests(tests, NULL, NULL);
