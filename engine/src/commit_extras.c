@@ -1,0 +1,232 @@
+/* Committing the entries beyond species, reactions and reagents: pair
+** interactions, buffer systems, gases and solids. */
+/* SPDX-License-Identifier: MIT */
+#include "commit_impl.h"
+#include <math.h>
+#include <string.h>
+
+int eqpi_commit_find_species(const committer *c, const char *name)
+{
+  int i = eqpi_db_find_species(c->db, name);
+  if (i >= 0) return i;
+  for (int k = c->db->nsp; k < c->nsp; k++)
+    if (strcmp(c->sp[k].name, name) == 0) return k;
+  return -1;
+}
+
+int eqpi_commit_find_reagent(const committer *c, const char *name, int upto)
+{
+  int i = eqpi_db_find_reagent(c->db, name);
+  if (i >= 0) return i;
+  for (int k = c->db->nrg; k < upto; k++) {
+    if (strcmp(c->rg[k].name, name) == 0) return k;
+    for (int a = 0; a < c->rg[k].naliases; a++)
+      if (strcmp(c->rg[k].aliases[a], name) == 0) return k;
+  }
+  return -1;
+}
+
+/* Resolve the names of each interaction; a pair and key given twice is an
+** error. The new parameters go to c->pairs after the existing ones. */
+void eqpi_commit_interactions(committer *c)
+{
+  eqpi_stage *st = c->st;
+  for (int k = 0; k < st->nin; k++) {
+    const st_inter *in = &st->in[k];
+    if (!in->a || !in->b) continue;
+    int a = eqpi_commit_find_species(c, in->a), b = eqpi_commit_find_species(c, in->b);
+    if (a < 0 || b < 0) {
+      eqpi_stage_error(st, in->file, in->line, "interaction: unknown species '%s'",
+                       a < 0 ? in->a : in->b);
+      continue;
+    }
+    for (int p = 0; p < in->n; p++) {
+      for (int q = 0; q < c->npairs; q++) {
+        const eqpi_pairparam *o = &c->pairs[q];
+        if (((o->a == a && o->b == b) || (o->a == b && o->b == a)) &&
+            strcmp(o->key, in->params[p].name) == 0) {
+          eqpi_stage_error(st, in->file, in->line, "duplicate %s for %s and %s (first at %s:%d)",
+                           o->key, in->a, in->b, o->file, o->line);
+          break;
+        }
+      }
+      if (c->npairs == c->cappairs) {
+        int nc = c->cappairs * 2 + 16;
+        eqpi_pairparam *np = eqpi_realloc(c->ctx, c->pairs, sizeof *np * (size_t)c->cappairs,
+                                          sizeof *np * (size_t)nc);
+        if (!np) { eqpi_stage_error(st, NULL, 0, "out of memory"); return; }
+        c->pairs = np;
+        c->cappairs = nc;
+      }
+      eqpi_pairparam *d = &c->pairs[c->npairs++];
+      d->a = a;
+      d->b = b;
+      d->key = in->params[p].name;
+      d->value = in->params[p].nu;
+      d->source = in->source;
+      d->file = in->file;
+      d->line = in->line;
+    }
+  }
+}
+
+static int buffer_reagent(committer *c, const st_buffer *b, const char *name)
+{
+  if (!name) return -1;
+  int g = eqpi_commit_find_reagent(c, name, c->nrg);
+  if (g < 0)
+    eqpi_stage_error(c->st, b->file, b->line, "buffer '%s': unknown reagent '%s'", b->name, name);
+  return g;
+}
+
+void eqpi_commit_buffers(committer *c)
+{
+  eqpi_stage *st = c->st;
+  for (int k = 0; k < st->nbf; k++) {
+    const st_buffer *b = &st->bf[k];
+    if (!b->name) continue;
+    for (int q = 0; q < c->nbuf; q++)
+      if (strcmp(c->buf[q].name, b->name) == 0) {
+        eqpi_stage_error(st, b->file, b->line, "duplicate buffer '%s' (first at %s:%d)",
+                         b->name, c->buf[q].file, c->buf[q].line);
+        break;
+      }
+    if (c->nbuf == c->capbuf) {
+      int nc = c->capbuf * 2 + 8;
+      eqpi_buffer *p = eqpi_realloc(c->ctx, c->buf, sizeof *p * (size_t)c->capbuf, sizeof *p * (size_t)nc);
+      if (!p) { eqpi_stage_error(st, NULL, 0, "out of memory"); return; }
+      c->buf = p;
+      c->capbuf = nc;
+    }
+    eqpi_buffer *d = &c->buf[c->nbuf++];
+    d->name = b->name;
+    d->acid = buffer_reagent(c, b, b->acid);
+    d->base = buffer_reagent(c, b, b->base);
+    d->free = buffer_reagent(c, b, b->free);
+    d->titrant = buffer_reagent(c, b, b->titrant);
+    d->notes = b->notes;
+    d->nnotes = b->nnotes;
+    d->file = b->file;
+    d->line = b->line;
+  }
+}
+
+void eqpi_commit_gases(committer *c)
+{
+  eqpi_stage *st = c->st;
+  for (int k = 0; k < st->ngs; k++) {
+    const st_gas *g = &st->gs[k];
+    if (!g->name || !g->dissolves) continue;
+    int sp = eqpi_commit_find_species(c, g->dissolves);
+    if (sp < 0) {
+      eqpi_stage_error(st, g->file, g->line, "gas '%s' dissolves as unknown species '%s'",
+                       g->name, g->dissolves);
+      continue;
+    }
+    if (fabs(c->sp[sp].comp.charge) > 1e-9) {
+      eqpi_stage_error(st, g->file, g->line, "gas '%s' must dissolve as a neutral species",
+                       g->name);
+      continue;
+    }
+    for (int q = 0; q < c->ngas; q++)
+      if (strcmp(c->gas[q].name, g->name) == 0)
+        eqpi_stage_error(st, g->file, g->line, "duplicate gas '%s'", g->name);
+    if (c->ngas == c->capgas) {
+      int nc = c->capgas * 2 + 4;
+      eqpi_gas *p = eqpi_realloc(c->ctx, c->gas, sizeof *p * (size_t)c->capgas, sizeof *p * (size_t)nc);
+      if (!p) { eqpi_stage_error(st, NULL, 0, "out of memory"); return; }
+      c->gas = p;
+      c->capgas = nc;
+    }
+    eqpi_gas *d = &c->gas[c->ngas++];
+    memset(d, 0, sizeof *d);
+    d->name = g->name;
+    d->species = sp;
+    d->kh.product = sp;
+    d->kh.logK = g->logKH;
+    d->kh.dH = g->dH;
+    d->kh.dCp = g->dCp;
+    d->kh.tmodel = g->tmodel;
+    memcpy(d->kh.fn, g->fn, sizeof d->kh.fn);
+    d->kh.Tmin = g->Tmin;
+    d->kh.Tmax = g->Tmax;
+    d->kh.source = g->source;
+    d->kh.file = g->file;
+    d->kh.line = g->line;
+    if (d->kh.tmodel == EQPI_T_FUNCTION) {
+      eqpi_tnotes notes = {0, 0};
+      double at25 = eqpi_reaction_logK(&d->kh, EQPI_T25, &notes);
+      if (!(fabs(at25 - d->kh.logK) <= 0.02))
+        eqpi_stage_error(st, g->file, g->line, "temperature function for gas '%s' gives %.4f at "
+                         "298.15 K, but its log K_H is %.4f", g->name, at25, d->kh.logK);
+    }
+  }
+}
+
+void eqpi_commit_solids(committer *c)
+{
+  eqpi_stage *st = c->st;
+  for (int k = 0; k < st->nso; k++) {
+    const st_solid *g = &st->so[k];
+    if (!g->name || !g->formula) continue;
+    eqpi_comp f, sum = {0};
+    char err[256], diff[256];
+    if (eqpi_formula_parse(g->formula, &f, NULL, err, sizeof err) < 0) {
+      eqpi_stage_error(st, g->file, g->line, "solid '%s': %s", g->name, err);
+      continue;
+    }
+    int *sp = eqpi_arena_alloc(c->ctx, &st->arena, sizeof(int) * (size_t)(g->n + 1));
+    double *nu = eqpi_arena_alloc(c->ctx, &st->arena, sizeof(double) * (size_t)(g->n + 1));
+    if (!sp || !nu) { eqpi_stage_error(st, NULL, 0, "out of memory"); return; }
+    int bad = 0;
+    for (int j = 0; j < g->n; j++) {
+      sp[j] = eqpi_commit_find_species(c, g->dissolves[j].name);
+      nu[j] = g->dissolves[j].nu;
+      if (sp[j] < 0) {
+        eqpi_stage_error(st, g->file, g->line, "solid '%s' dissolves to unknown species '%s'",
+                         g->name, g->dissolves[j].name);
+        bad = 1;
+      } else {
+        eqpi_comp_add(&sum, &c->sp[sp[j]].comp, nu[j]);
+      }
+    }
+    if (bad) continue;
+    if (eqpi_comp_diff(&f, &sum, diff, sizeof diff)) {
+      eqpi_stage_error(st, g->file, g->line, "solid '%s' is unbalanced (%s minus what it "
+                       "dissolves to: %s)", g->name, g->formula, diff);
+      continue;
+    }
+    if (c->nsol == c->capsol) {
+      int nc = c->capsol * 2 + 4;
+      eqpi_solid *p = eqpi_realloc(c->ctx, c->sol, sizeof *p * (size_t)c->capsol, sizeof *p * (size_t)nc);
+      if (!p) { eqpi_stage_error(st, NULL, 0, "out of memory"); return; }
+      c->sol = p;
+      c->capsol = nc;
+    }
+    eqpi_solid *d = &c->sol[c->nsol++];
+    memset(d, 0, sizeof *d);
+    d->name = g->name;
+    d->formula = g->formula;
+    d->n = g->n;
+    d->sp = sp;
+    d->nu = nu;
+    d->ksp.product = -1;
+    d->ksp.logK = g->logKsp;
+    d->ksp.dH = g->dH;
+    d->ksp.dCp = g->dCp;
+    d->ksp.tmodel = g->tmodel;
+    memcpy(d->ksp.fn, g->fn, sizeof d->ksp.fn);
+    d->ksp.Tmin = g->Tmin;
+    d->ksp.Tmax = g->Tmax;
+    d->ksp.source = g->source;
+    d->ksp.file = g->file;
+    d->ksp.line = g->line;
+    if (d->ksp.tmodel == EQPI_T_FUNCTION) {
+      eqpi_tnotes notes = {0, 0};
+      double at25 = eqpi_reaction_logK(&d->ksp, EQPI_T25, &notes);
+      if (!(fabs(at25 - d->ksp.logK) <= 0.02))
+        eqpi_stage_error(st, g->file, g->line, "temperature function for solid '%s' gives %.4f "
+                         "at 298.15 K, but its log Ksp is %.4f", g->name, at25, d->ksp.logK);
+    }
+  }
+}

@@ -1,0 +1,40 @@
+/* The state of one commit, shared by commit.c and commit_extras.c. */
+/* SPDX-License-Identifier: MIT */
+#ifndef EQP_COMMIT_IMPL_H
+#define EQP_COMMIT_IMPL_H
+
+#include "stage_impl.h"
+
+typedef struct committer {
+  eqp_ctx *ctx;
+  eqpi_db *db;
+  eqpi_stage *st;
+  eqpi_species *sp;   /* old + new */
+  int nsp;
+  eqpi_reaction *rx;
+  int nrx;
+  eqpi_reagent *rg;
+  int nrg, caprg;
+  int ncomp;
+  int *comp_species;
+  signed char *state; /* per species: 0 todo, 1 resolving, 2 done */
+  eqpi_pairparam *pairs;
+  int npairs, cappairs;
+  eqpi_buffer *buf;
+  int nbuf, capbuf;
+  eqpi_gas *gas;
+  int ngas, capgas;
+  eqpi_solid *sol;
+  int nsol, capsol;
+} committer;
+
+/* A species or reagent by name in the database or in this commit; -1 if none. */
+int eqpi_commit_find_species(const committer *c, const char *name);
+int eqpi_commit_find_reagent(const committer *c, const char *name, int upto);
+/* The entries beyond species, reactions and reagents (commit_extras.c). */
+void eqpi_commit_interactions(committer *c);
+void eqpi_commit_buffers(committer *c);
+void eqpi_commit_gases(committer *c);
+void eqpi_commit_solids(committer *c);
+
+#endif
