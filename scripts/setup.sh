@@ -20,7 +20,7 @@ if [ -n "$missing" ]; then
   fi
   export DEBIAN_FRONTEND=noninteractive
   apt-get update -qq
-  apt-get install -y -qq --no-install-recommends $missing >/dev/null
+  apt-get install -y -qq $missing >/dev/null
 fi
 
 if [ ! -f "$build/CMakeCache.txt" ]; then
