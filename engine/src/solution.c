@@ -351,10 +351,12 @@ int eqp_solution_adjust_pH(eqp_solution *s, double pH, const char *reagent,
   if (!a) return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
   eqpi_adjust aj = {s->total, a, s->water_kg, 0, s->T, &s->model, pH, 0, 0, reagent, ""};
   char what[128], limit[96];
+  double L_per_unit;         /* litres per unit of v: a stock, or a liquid reagent */
   if (stock) {
     for (int c = 0; c < stock->ntotal && c < s->ntotal; c++) a[c] = stock->total[c] / stock->water_kg;
     aj.w = 1;                                 /* v: kg of the stock's water */
     aj.vmax = 20 * s->water_kg;
+    L_per_unit = 1 / eqpi_water_density(stock->T);
     snprintf(what, sizeof what, "the stock solution");
     snprintf(limit, sizeof limit, "20 times the solution's own water");
   } else {
@@ -362,6 +364,7 @@ int eqp_solution_adjust_pH(eqp_solution *s, double pH, const char *reagent,
     if ((rc = eqpi_find_reagent(s, reagent, &r)) < 0) goto out;
     eqpi_reagent_dir(s, r, a, &aj.w, 1.0);          /* v: mol of the reagent */
     aj.vmax = 5 * s->water_kg;
+    L_per_unit = r->molar_mass / (1e3 * r->density); /* NaN for a solid */
     snprintf(what, sizeof what, "%s", reagent);
     snprintf(limit, sizeof limit, "5 mol of %s per kg of water", reagent);
   }
@@ -375,13 +378,7 @@ int eqp_solution_adjust_pH(eqp_solution *s, double pH, const char *reagent,
   for (int c = 0; c < s->ntotal; c++) s->total[c] += v * a[c];
   s->water_kg += v * aj.w;
   if (mol) *mol = stock ? NAN : v;
-  if (litres) {
-    double rho = stock ? eqpi_water_density(stock->T) : 1;
-    *litres = stock ? v / rho : (isnan(ctx->db.rg[eqpi_db_find_reagent(&ctx->db, reagent)].density)
-                                   ? NAN
-                                   : v * ctx->db.rg[eqpi_db_find_reagent(&ctx->db, reagent)].molar_mass /
-                                       (1e3 * ctx->db.rg[eqpi_db_find_reagent(&ctx->db, reagent)].density));
-  }
+  if (litres) *litres = v * L_per_unit;
 out:
   eqpi_free(ctx, a, n * sizeof(double));
   return rc;
