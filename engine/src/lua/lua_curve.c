@@ -16,11 +16,8 @@ static eqp_curve *check_curve(lua_State *L, int idx)
 
 void eqpl_push_curve(lua_State *L, eqp_curve *c)
 {
-  eqpl_curve *u = lua_newuserdatauv(L, sizeof *u, 1);
+  eqpl_curve *u = eqpl_new_handle(L, sizeof *u, EQPL_CURVE);
   u->c = c;
-  luaL_setmetatable(L, EQPL_CURVE);
-  lua_pushvalue(L, lua_upvalueindex(1));
-  lua_setiuservalue(L, -2, 1);
 }
 
 /* Friendlier keys for the fixed columns in Lua rows. */

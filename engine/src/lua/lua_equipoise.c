@@ -13,6 +13,16 @@ eqp_ctx *eqpl_ctx_of(lua_State *L)
   return c->ctx;
 }
 
+void *eqpl_new_handle(lua_State *L, size_t size, const char *meta)
+{
+  void *u = lua_newuserdatauv(L, size, 1);
+  memset(u, 0, size);
+  luaL_setmetatable(L, meta);
+  lua_pushvalue(L, lua_upvalueindex(1));
+  lua_setiuservalue(L, -2, 1);
+  return u;
+}
+
 static int raise_with(lua_State *L, int status, const char *msg)
 {
   luaL_where(L, 1);

@@ -22,6 +22,11 @@ typedef struct eqpl_solution { eqp_solution *s; } eqpl_solution;
 typedef struct eqpl_result { eqp_result *r; } eqpl_result;
 typedef struct eqpl_curve { eqp_curve *c; } eqpl_curve;
 
+/* Push a new handle userdata of the given size, zeroed, with its metatable
+** and a link to the context (the caller's upvalue 1) so that the context
+** outlives it. The handle exists before the C object it will hold, so a
+** failure in between leaves a closed handle, never a dangling one. */
+void *eqpl_new_handle(lua_State *L, size_t size, const char *meta);
 /* The context of this Lua state (upvalue 1 of every binding). */
 eqp_ctx *eqpl_ctx_of(lua_State *L);
 /* Raise a Lua error with the context's message; remembers the engine status

@@ -246,11 +246,7 @@ int eqpl_mix(lua_State *L)
     }
     lua_pop(L, 1);
   }
-  eqpl_solution *u = lua_newuserdatauv(L, sizeof *u, 1);
-  u->s = NULL;
-  luaL_setmetatable(L, EQPL_SOLUTION);
-  lua_pushvalue(L, lua_upvalueindex(1));
-  lua_setiuservalue(L, -2, 1);
+  eqpl_solution *u = eqpl_new_handle(L, sizeof *u, EQPL_SOLUTION);
   int rc = eqp_solution_mix(n, parts, litres, &u->s);
   if (rc < 0) return eqpl_fail(L, ctx, rc);
   return 1;

@@ -145,11 +145,8 @@ static int eq_recipe(lua_State *L)
     return eqpl_fail(L, ctx, rc);
   }
   eqp_recipe_free(r);
-  eqpl_solution *u = lua_newuserdatauv(L, sizeof *u, 1);
+  eqpl_solution *u = eqpl_new_handle(L, sizeof *u, EQPL_SOLUTION);
   u->s = copy;
-  luaL_setmetatable(L, EQPL_SOLUTION);
-  lua_pushvalue(L, lua_upvalueindex(1));
-  lua_setiuservalue(L, -2, 1);
   lua_setfield(L, -2, "solution");
   lua_createtable(L, 0, 1);
   lua_pushcfunction(L, recipe_tostring);

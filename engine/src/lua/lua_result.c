@@ -15,11 +15,8 @@ static eqp_result *check_result(lua_State *L, int idx)
 
 void eqpl_push_result(lua_State *L, eqp_result *r)
 {
-  eqpl_result *u = lua_newuserdatauv(L, sizeof *u, 1);
+  eqpl_result *u = eqpl_new_handle(L, sizeof *u, EQPL_RESULT);
   u->r = r;
-  luaL_setmetatable(L, EQPL_RESULT);
-  lua_pushvalue(L, lua_upvalueindex(1));
-  lua_setiuservalue(L, -2, 1);
 }
 
 typedef int (*per_species_fn)(const eqp_result *, const char *, double *);

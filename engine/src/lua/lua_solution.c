@@ -121,11 +121,7 @@ int eqpl_solution_new(lua_State *L)
     return eqpl_input_error(L, "activity: a model name such as 'davies'");
   }
   eqp_solution *s;
-  eqpl_solution *u = lua_newuserdatauv(L, sizeof *u, 1);
-  u->s = NULL;
-  luaL_setmetatable(L, EQPL_SOLUTION);
-  lua_pushvalue(L, lua_upvalueindex(1));
-  lua_setiuservalue(L, -2, 1);
+  eqpl_solution *u = eqpl_new_handle(L, sizeof *u, EQPL_SOLUTION);
   int rc = eqp_solution_new(ctx, &o, &s);
   if (rc < 0) return eqpl_fail(L, ctx, rc);
   u->s = s;
@@ -186,11 +182,7 @@ static int solution_copy(lua_State *L)
 {
   eqpl_solution *u = eqpl_check_solution(L, 1);
   eqp_ctx *ctx = eqpl_ctx_of(L);
-  eqpl_solution *c = lua_newuserdatauv(L, sizeof *c, 1);
-  c->s = NULL;
-  luaL_setmetatable(L, EQPL_SOLUTION);
-  lua_pushvalue(L, lua_upvalueindex(1));
-  lua_setiuservalue(L, -2, 1);
+  eqpl_solution *c = eqpl_new_handle(L, sizeof *c, EQPL_SOLUTION);
   int rc = eqp_solution_copy(u->s, &c->s);
   if (rc < 0) return eqpl_fail(L, ctx, rc);
   return 1;
