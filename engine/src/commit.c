@@ -61,6 +61,28 @@ void eqpi_stage_free(eqp_ctx *ctx, eqpi_stage *st)
   eqpi_free(ctx, st, sizeof *st);
 }
 
+int eqpi_commit_constant(eqpi_stage *st, const st_const *k, const char *file, int line,
+                         const char *what, eqpi_reaction *d)
+{
+  d->logK = k->logK;
+  d->dH = k->dH;
+  d->dCp = k->dCp;
+  d->tmodel = k->tmodel;
+  memcpy(d->fn, k->fn, sizeof d->fn);
+  d->Tmin = k->Tmin;
+  d->Tmax = k->Tmax;
+  d->source = k->source;
+  d->file = file;
+  d->line = line;
+  if (d->tmodel == EQPI_T_VANTHOFF) return 0;
+  eqpi_tnotes notes = {0, 0};
+  double at25 = eqpi_reaction_logK(d, EQPI_T25, &notes);
+  if (fabs(at25 - d->logK) <= 0.02) return 0;
+  eqpi_stage_error(st, file, line, "temperature function for %s gives %.4f at 298.15 K, but "
+                   "its 25 C value is %.4f", what, at25, d->logK);
+  return -1;
+}
+
 /* --------------------------------------------------------------- commit */
 
 /* The committer and its name look-ups are shared with commit_extras.c. */
@@ -170,27 +192,9 @@ static void add_reactions(committer *c)
     }
     d->product = p;
     d->n = r->n;
-    d->logK = r->logK;
-    d->dH = r->dH;
-    d->dCp = r->dCp;
-    d->tmodel = r->tmodel;
-    memcpy(d->fn, r->fn, sizeof d->fn);
-    d->Tmin = r->Tmin;
-    d->Tmax = r->Tmax;
-    d->source = r->source;
-    if (d->tmodel != EQPI_T_VANTHOFF) {
-      /* a function must reproduce the 25 C constant it stands beside:
-      ** catches a sign or a pK/log K mix-up */
-      eqpi_tnotes notes = {0, 0};
-      double at25 = eqpi_reaction_logK(d, EQPI_T25, &notes);
-      if (!(fabs(at25 - d->logK) <= 0.02)) {
-        eqpi_stage_error(st, r->file, r->line, "temperature function for '%s' gives %.4f at "
-                         "298.15 K, but its log K is %.4f", r->product, at25, d->logK);
-        continue;
-      }
-    }
-    d->file = r->file;
-    d->line = r->line;
+    char what[160];
+    snprintf(what, sizeof what, "'%s'", r->product);
+    if (eqpi_commit_constant(st, &r->k, r->file, r->line, what, d) < 0) continue;
     c->sp[p].rxn = c->nrx++;
   }
 }

@@ -3,6 +3,7 @@
 /* SPDX-License-Identifier: MIT */
 #include "commit_impl.h"
 #include <math.h>
+#include <stdio.h>
 #include <string.h>
 
 int eqpi_commit_find_species(const committer *c, const char *name)
@@ -143,23 +144,9 @@ void eqpi_commit_gases(committer *c)
     d->name = g->name;
     d->species = sp;
     d->kh.product = sp;
-    d->kh.logK = g->logKH;
-    d->kh.dH = g->dH;
-    d->kh.dCp = g->dCp;
-    d->kh.tmodel = g->tmodel;
-    memcpy(d->kh.fn, g->fn, sizeof d->kh.fn);
-    d->kh.Tmin = g->Tmin;
-    d->kh.Tmax = g->Tmax;
-    d->kh.source = g->source;
-    d->kh.file = g->file;
-    d->kh.line = g->line;
-    if (d->kh.tmodel == EQPI_T_FUNCTION) {
-      eqpi_tnotes notes = {0, 0};
-      double at25 = eqpi_reaction_logK(&d->kh, EQPI_T25, &notes);
-      if (!(fabs(at25 - d->kh.logK) <= 0.02))
-        eqpi_stage_error(st, g->file, g->line, "temperature function for gas '%s' gives %.4f at "
-                         "298.15 K, but its log K_H is %.4f", g->name, at25, d->kh.logK);
-    }
+    char what[160];
+    snprintf(what, sizeof what, "gas '%s'", g->name);
+    eqpi_commit_constant(st, &g->k, g->file, g->line, what, &d->kh);
   }
 }
 
@@ -211,22 +198,8 @@ void eqpi_commit_solids(committer *c)
     d->sp = sp;
     d->nu = nu;
     d->ksp.product = -1;
-    d->ksp.logK = g->logKsp;
-    d->ksp.dH = g->dH;
-    d->ksp.dCp = g->dCp;
-    d->ksp.tmodel = g->tmodel;
-    memcpy(d->ksp.fn, g->fn, sizeof d->ksp.fn);
-    d->ksp.Tmin = g->Tmin;
-    d->ksp.Tmax = g->Tmax;
-    d->ksp.source = g->source;
-    d->ksp.file = g->file;
-    d->ksp.line = g->line;
-    if (d->ksp.tmodel == EQPI_T_FUNCTION) {
-      eqpi_tnotes notes = {0, 0};
-      double at25 = eqpi_reaction_logK(&d->ksp, EQPI_T25, &notes);
-      if (!(fabs(at25 - d->ksp.logK) <= 0.02))
-        eqpi_stage_error(st, g->file, g->line, "temperature function for solid '%s' gives %.4f "
-                         "at 298.15 K, but its log Ksp is %.4f", g->name, at25, d->ksp.logK);
-    }
+    char what[160];
+    snprintf(what, sizeof what, "solid '%s'", g->name);
+    eqpi_commit_constant(st, &g->k, g->file, g->line, what, &d->ksp);
   }
 }

@@ -439,14 +439,14 @@ static void cv_acid(conv *c)
     r->r[1].name = "H+";
     r->r[1].nu = 1;
     r->n = 2;
-    r->logK = pKa[k];
-    r->dH = -dH[k];
-    r->dCp = -dCp[k];
-    r->tmodel = tm[k];
-    if (tm[k] == EQPI_T_FUNCTION) memcpy(r->fn, fns[k], sizeof r->fn);
-    r->Tmin = Tmin;
-    r->Tmax = Tmax;
-    r->source = src;
+    r->k.logK = pKa[k];
+    r->k.dH = -dH[k];
+    r->k.dCp = -dCp[k];
+    r->k.tmodel = tm[k];
+    if (tm[k] == EQPI_T_FUNCTION) memcpy(r->k.fn, fns[k], sizeof r->k.fn);
+    r->k.Tmin = Tmin;
+    r->k.Tmax = Tmax;
+    r->k.source = src;
     r->file = c->file;
     cv_push(c, "pKa");
     cv_pushi(c, k + 1);
@@ -454,6 +454,23 @@ static void cv_acid(conv *c)
     cv_pop(c);
     cv_pop(c);
   }
+}
+
+/* The constant at logkey (required, lo..hi) of the entry at the top, with
+** its dH, dCp, temperature function at fkey, T_range and source. */
+static void cv_constant(conv *c, const char *logkey, double lo, double hi, const char *fkey,
+                        st_const *k)
+{
+  k->logK = cv_number(c, logkey, lo, hi, 1);
+  k->dH = cv_number(c, "dH", -500, 500, 0);
+  k->dCp = cv_number(c, "dCp", -5000, 5000, 0);
+  cv_push(c, fkey);
+  lua_getfield(c->L, -1, fkey);
+  cv_tfunction(c, lua_gettop(c->L), &k->tmodel, k->fn);
+  lua_pop(c->L, 1);
+  cv_pop(c);
+  cv_trange(c, &k->Tmin, &k->Tmax);
+  k->source = cv_source(c, "source", 1);
 }
 
 static void cv_reaction(conv *c)
@@ -465,16 +482,7 @@ static void cv_reaction(conv *c)
   if (!r) return;
   r->product = cv_pos_string(c, 1);
   r->n = cv_pairs(c, "from", &r->r);
-  r->logK = cv_number(c, "logK", -100, 100, 1);
-  r->dH = cv_number(c, "dH", -500, 500, 0);
-  r->dCp = cv_number(c, "dCp", -5000, 5000, 0);
-  cv_push(c, "logK_T");
-  lua_getfield(c->L, -1, "logK_T");
-  cv_tfunction(c, lua_gettop(c->L), &r->tmodel, r->fn);
-  lua_pop(c->L, 1);
-  cv_pop(c);
-  cv_trange(c, &r->Tmin, &r->Tmax);
-  r->source = cv_source(c, "source", 1);
+  cv_constant(c, "logK", -100, 100, "logK_T", &r->k);
   r->file = c->file;
   r->line = cv_line(c);
   if (r->n < 0) r->n = 0;
@@ -630,16 +638,7 @@ static void cv_gas(conv *c)
   if (!g) return;
   g->name = cv_pos_string(c, 1);
   g->dissolves = cv_string(c, "dissolves", 1);
-  g->logKH = cv_number(c, "logKH", -20, 20, 1);
-  g->dH = cv_number(c, "dH", -500, 500, 0);
-  g->dCp = cv_number(c, "dCp", -5000, 5000, 0);
-  cv_push(c, "logKH_T");
-  lua_getfield(c->L, -1, "logKH_T");
-  cv_tfunction(c, lua_gettop(c->L), &g->tmodel, g->fn);
-  lua_pop(c->L, 1);
-  cv_pop(c);
-  cv_trange(c, &g->Tmin, &g->Tmax);
-  g->source = cv_source(c, "source", 1);
+  cv_constant(c, "logKH", -20, 20, "logKH_T", &g->k);
   g->file = c->file;
   g->line = cv_line(c);
 }
@@ -657,16 +656,7 @@ static void cv_solid(conv *c)
   s->formula = cv_string(c, "formula", 1);
   s->n = cv_pairs(c, "dissolves", &s->dissolves);
   if (s->n < 0) s->n = 0;
-  s->logKsp = cv_number(c, "logKsp", -100, 20, 1);
-  s->dH = cv_number(c, "dH", -500, 500, 0);
-  s->dCp = cv_number(c, "dCp", -5000, 5000, 0);
-  cv_push(c, "logKsp_T");
-  lua_getfield(c->L, -1, "logKsp_T");
-  cv_tfunction(c, lua_gettop(c->L), &s->tmodel, s->fn);
-  lua_pop(c->L, 1);
-  cv_pop(c);
-  cv_trange(c, &s->Tmin, &s->Tmax);
-  s->source = cv_source(c, "source", 1);
+  cv_constant(c, "logKsp", -100, 20, "logKsp_T", &s->k);
   s->file = c->file;
   s->line = cv_line(c);
 }

@@ -27,13 +27,19 @@ typedef struct st_inter {
   int n, line;
 } st_inter;
 
+/* A constant with its temperature data and its source, as staged. */
+typedef struct st_const {
+  double logK, dH, dCp;   /* dH kJ/mol, dCp J/(K mol); NaN if absent */
+  int tmodel;             /* EQPI_T_* */
+  double fn[6], Tmin, Tmax;
+  const char *source;
+} st_const;
+
 typedef struct st_reaction {
-  const char *product, *source, *file;
+  const char *product, *file;
   st_pair *r;
   int n;
-  double logK, dH, dCp;   /* formation reaction of product */
-  int tmodel;
-  double fn[6], Tmin, Tmax;
+  st_const k;             /* formation reaction of product */
   int line;
 } st_reaction;
 
@@ -56,16 +62,16 @@ typedef struct st_buffer {
 } st_buffer;
 
 typedef struct st_gas {
-  const char *name, *dissolves, *source, *file;
-  double logKH, dH, dCp, fn[6], Tmin, Tmax;
-  int tmodel, line;
+  const char *name, *dissolves, *file;
+  st_const k;             /* log10 K_H */
+  int line;
 } st_gas;
 
 typedef struct st_solid {
-  const char *name, *formula, *source, *file;
+  const char *name, *formula, *file;
   st_pair *dissolves;
-  int n, tmodel, line;
-  double logKsp, dH, dCp, fn[6], Tmin, Tmax;
+  int n, line;
+  st_const k;             /* log10 Ksp */
 } st_solid;
 
 struct eqpi_stage {
@@ -96,6 +102,13 @@ void eqpi_stage_error(eqpi_stage *st, const char *file, int line, const char *fm
   EQPI_PRINTF(4, 5);
 /* Grow one of the stage's arrays by one element; returns it zeroed. */
 void *eqpi_stage_push(eqp_ctx *ctx, eqpi_stage *st, void **arr, int *n, int *cap, size_t elem);
+
+/* Copy a staged constant into d with its file and line, and check that a
+** temperature function reproduces the 25 C value it stands beside (which
+** catches a sign or a pK/log K mix-up). 0, or -1 after recording an error
+** that names what. */
+int eqpi_commit_constant(eqpi_stage *st, const st_const *k, const char *file, int line,
+                         const char *what, eqpi_reaction *d);
 
 /* Convert the species table at idx of L into stage entries. lm may be NULL
 ** (inline tables), then every message carries file as given. */

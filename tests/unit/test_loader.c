@@ -76,6 +76,9 @@ static void test_malformed_entries(void **state)
              " reactions = { { 'Q', from = { H2O = 1 }, logK = 1, source = 'zz' } }\n}\n",
              "t.lua:4:", "unknown source 'zz'");
   expect_bad("return {\n speceis = {},\n}\n", "t.lua:2:", "unknown field 'speceis'");
+  expect_bad("return {\n sources = { s = 'x' },\n species = { { 'Q', formula = 'H2O' } },\n"
+             " reactions = { { 'Q', from = { H2O = 1 }, logK = 1, logK_T = { a = 5 }, source = 's' } }\n}\n",
+             "t.lua:4:", "temperature function for 'Q' gives 5.0000");
   expect_bad("return {\n reagents = {\n  { 'KCl', gives = { ['Na+'] = 1, ['Cl-'] = 1 } },\n }\n}\n",
              "t.lua:3:", "reagent 'KCl' is unbalanced");
   expect_bad("return {\n reagents = {\n  { 'NaCl', gives = { ['Na+'] = 1, ['Cl-'] = 1 } },\n }\n}\n",
