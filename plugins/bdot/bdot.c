@@ -8,11 +8,11 @@
 ** g = 1. Usual range I <= 1 mol/kg in NaCl-dominated solutions. */
 /* SPDX-License-Identifier: MIT */
 #include <equipoise/plugin.h>
+#include "../common/ion_sizes.h"
 #include <math.h>
 #include <stdio.h>
 #include <string.h>
 
-#define DEFAULT_SIZE 4.0
 
 typedef struct bdot_state {
   const eqp_host_api *host;
@@ -58,20 +58,12 @@ static int bd_bind(void *state, const eqp_species_info *info, char *warn, size_t
     return 1;
   }
   st->n = info->n;
-  size_t used = 0;
-  warn[0] = '\0';
   for (size_t i = 0; i < info->n; i++) {
     double a, b;
     st->a[i] = info->param(info->ud, i, "tj_a", &a) == 0 ? a : info->size[i];
     st->b[i] = info->param(info->ud, i, "tj_b", &b) == 0 ? b : NAN;
-    if (info->charge[i] != 0 && !(st->a[i] > 0)) {
-      st->a[i] = DEFAULT_SIZE;
-      if (used < warnlen)
-        used += (size_t)snprintf(warn + used, warnlen - used, "%s%s", used ? ", " : "no ion "
-                                 "size for ", info->name[i]);
-    }
   }
-  if (used && used < warnlen) snprintf(warn + used, warnlen - used, "; 4 A used (bdot)");
+  eqp_default_ion_sizes(info, st->a, warn, warnlen, "bdot");
   return 0;
 }
 
@@ -86,7 +78,7 @@ static int bd_log_gamma(void *state, const eqp_activity_in *in, double *lg, char
       lg[i] = 0;
       continue;
     }
-    double a = i < st->n ? st->a[i] : DEFAULT_SIZE;
+    double a = i < st->n ? st->a[i] : EQP_DEFAULT_ION_SIZE;
     double b = i < st->n && !isnan(st->b[i]) ? st->b[i] : st->bdot;
     lg[i] = -in->A * z * z * s / (1.0 + in->B * a * s) + b * I;
   }

@@ -5,11 +5,11 @@
 ** for singly charged ions; common practice), and the result says so. */
 /* SPDX-License-Identifier: MIT */
 #include <equipoise/plugin.h>
+#include "../common/ion_sizes.h"
 #include <math.h>
 #include <stdio.h>
 #include <string.h>
 
-#define DEFAULT_SIZE 4.0
 
 typedef struct ext_state {
   const eqp_host_api *host;
@@ -51,19 +51,8 @@ static int ext_bind(void *state, const eqp_species_info *info, char *warn, size_
     return 1;
   }
   st->n = info->n;
-  size_t used = 0;
-  warn[0] = '\0';
-  for (size_t i = 0; i < info->n; i++) {
-    st->a[i] = info->size[i];
-    if (info->charge[i] != 0 && !(info->size[i] > 0)) {
-      st->a[i] = DEFAULT_SIZE;
-      if (used < warnlen)
-        used += (size_t)snprintf(warn + used, warnlen - used, "%s%s", used ? ", " : "no ion "
-                                 "size for ", info->name[i]);
-    }
-  }
-  if (used && used < warnlen)
-    snprintf(warn + used, warnlen - used, "; 4 A used (dh-extended)");
+  for (size_t i = 0; i < info->n; i++) st->a[i] = info->size[i];
+  eqp_default_ion_sizes(info, st->a, warn, warnlen, "dh-extended");
   return 0;
 }
 
@@ -74,7 +63,7 @@ static int ext_log_gamma(void *state, const eqp_activity_in *in, double *lg, cha
   double s = sqrt(in->ionic_strength);
   for (size_t i = 0; i < in->n; i++) {
     double z = in->charge[i];
-    double a = i < st->n ? st->a[i] : DEFAULT_SIZE;
+    double a = i < st->n ? st->a[i] : EQP_DEFAULT_ION_SIZE;
     lg[i] = z == 0 ? 0.0 : -in->A * z * z * s / (1.0 + in->B * a * s);
   }
   return 0;
