@@ -183,21 +183,14 @@ static int curve_close(lua_State *L)
   return 0;
 }
 
+static const luaL_Reg curve_meta[] = {
+  {"__len", curve_len},
+  {"__gc", curve_close},
+  {"__tostring", curve_tostring},
+  {NULL, NULL},
+};
+
 void eqpl_open_curve(lua_State *L)
 {
-  int ctx = lua_gettop(L);
-  luaL_newmetatable(L, EQPL_CURVE);
-  lua_pushvalue(L, ctx);
-  luaL_newlibtable(L, curve_methods);
-  lua_pushvalue(L, ctx);
-  luaL_setfuncs(L, curve_methods, 1);
-  lua_pushcclosure(L, curve_index, 2);
-  lua_setfield(L, -2, "__index");
-  lua_pushcfunction(L, curve_len);
-  lua_setfield(L, -2, "__len");
-  lua_pushcfunction(L, curve_close);
-  lua_setfield(L, -2, "__gc");
-  lua_pushcfunction(L, curve_tostring);
-  lua_setfield(L, -2, "__tostring");
-  lua_settop(L, ctx);
+  eqpl_create_meta(L, lua_gettop(L), EQPL_CURVE, curve_methods, curve_index, curve_meta);
 }

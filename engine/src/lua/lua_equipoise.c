@@ -23,6 +23,21 @@ void *eqpl_new_handle(lua_State *L, size_t size, const char *meta)
   return u;
 }
 
+void eqpl_create_meta(lua_State *L, int ctx, const char *name, const luaL_Reg *methods,
+                      lua_CFunction index, const luaL_Reg *meta)
+{
+  luaL_newmetatable(L, name);
+  lua_pushvalue(L, ctx);
+  lua_newtable(L);
+  lua_pushvalue(L, ctx);
+  luaL_setfuncs(L, methods, 1);
+  lua_pushcclosure(L, index, 2);
+  lua_setfield(L, -2, "__index");
+  lua_pushvalue(L, ctx);
+  luaL_setfuncs(L, meta, 1);
+  lua_pop(L, 1);
+}
+
 static int raise_with(lua_State *L, int status, const char *msg)
 {
   luaL_where(L, 1);

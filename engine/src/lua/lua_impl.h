@@ -35,6 +35,11 @@ int eqpl_fail(lua_State *L, eqp_ctx *ctx, int status);
 /* Raise an input error of our own (not from the engine). */
 int eqpl_input_error(lua_State *L, const char *fmt, ...);
 
+/* The metatable `name` of an object whose fields come from `index` (upvalues:
+** the context, then the table of `methods`) and whose other metamethods are
+** `meta` (upvalue: the context). The context userdata is at index ctx. */
+void eqpl_create_meta(lua_State *L, int ctx, const char *name, const luaL_Reg *methods,
+                      lua_CFunction index, const luaL_Reg *meta);
 void eqpl_open_solution(lua_State *L);
 void eqpl_open_result(lua_State *L);
 void eqpl_open_curve(lua_State *L);

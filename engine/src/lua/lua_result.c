@@ -148,21 +148,13 @@ static int result_close(lua_State *L)
   return 0;
 }
 
+static const luaL_Reg result_meta[] = {
+  {"__gc", result_close},
+  {"__tostring", result_tostring},
+  {NULL, NULL},
+};
+
 void eqpl_open_result(lua_State *L)
 {
-  int ctx = lua_gettop(L);
-  luaL_newmetatable(L, EQPL_RESULT);
-  lua_pushvalue(L, ctx);
-  luaL_newlibtable(L, result_methods);
-  lua_pushvalue(L, ctx);
-  luaL_setfuncs(L, result_methods, 1);
-  lua_pushcclosure(L, result_index, 2);
-  lua_setfield(L, -2, "__index");
-  lua_pushvalue(L, ctx);
-  lua_pushcclosure(L, result_close, 1);
-  lua_setfield(L, -2, "__gc");
-  lua_pushvalue(L, ctx);
-  lua_pushcclosure(L, result_tostring, 1);
-  lua_setfield(L, -2, "__tostring");
-  lua_settop(L, ctx);
+  eqpl_create_meta(L, lua_gettop(L), EQPL_RESULT, result_methods, result_index, result_meta);
 }
