@@ -352,8 +352,8 @@ int eqpi_run_kinsol(eqpi_system *s, const double *u0, long *iters)
   ** search fail to find a distinct iterate; accept it as it is. */
   double *F = s->xt + s->n, fmax = 0;
   if (eqpi_sys_eval(s, uu, F) < 0) return KIN_SYSFUNC_FAIL;
-  eqpi_sys_reference(s);        /* the proton reference for this run, from u0 */
-  if (eqpi_sys_eval(s, uu, F) < 0) return KIN_SYSFUNC_FAIL;
+  /* the proton reference for this run, from u0; the H+ row changes with it */
+  if (eqpi_sys_reference(s) && eqpi_sys_eval(s, uu, F) < 0) return KIN_SYSFUNC_FAIL;
   for (int k = 0; k < s->n; k++) fmax = fabs(F[k]) > fmax ? fabs(F[k]) : fmax;
   if (fmax <= FNORM_TOL) return KIN_SUCCESS;
   int flag = KINSol(s->kmem, s->u, KIN_LINESEARCH, s->scale, s->scale);

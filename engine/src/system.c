@@ -127,10 +127,12 @@ int eqpi_sys_eval(eqpi_system *sys, const double *u, double *F)
 /* For each unknown component other than H+, the species made of it and H+
 ** alone that is most abundant now; its protons per unit of the component
 ** become the reference of the H+ row. */
-void eqpi_sys_reference(eqpi_system *sys)
+int eqpi_sys_reference(eqpi_system *sys)
 {
   const int nc = sys->nc, ns = sys->ns;
+  int changed = 0;
   for (int c = 0; c < nc; c++) {
+    double old = sys->href[c];
     sys->href[c] = 0;
     if (c == sys->hloc || sys->xidx[c] < 0) continue;
     double best = -1;
@@ -144,13 +146,16 @@ void eqpi_sys_reference(eqpi_system *sys)
         sys->href[c] = row[sys->hloc] / row[c];
       }
     }
+    changed |= sys->href[c] != old;
   }
+  if (!changed) return 0;
   for (int i = 0; i < ns; i++) {
     const double *row = sys->nu + (size_t)i * nc;
     double v = row[sys->hloc];
     for (int c = 0; c < nc; c++) v -= sys->href[c] * row[c];
     sys->coefH[i] = v;
   }
+  return 1;
 }
 
 double eqpi_sys_verify(eqpi_system *sys, const double *u, int *worst)

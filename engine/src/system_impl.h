@@ -77,8 +77,8 @@ struct eqpi_system {
 ** activity model failed. */
 int eqpi_sys_eval(eqpi_system *sys, const double *u, double *F);
 /* Choose the reference species of the H+ row at the state of the last
-** evaluation (system.c). */
-void eqpi_sys_reference(eqpi_system *sys);
+** evaluation (system.c); 1 if it changed (the H+ row with it). */
+int eqpi_sys_reference(eqpi_system *sys);
 /* dpH/dv at the last solved state for adding v units of a direction
 ** (a: moles per unit over the system's local components, w: kg of water
 ** per unit) to W kg of water: implicit differentiation through the
