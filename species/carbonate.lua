@@ -1,7 +1,7 @@
 -- Dissolved carbon dioxide, bicarbonate and carbonate; CO2 of the air.
 return {
   system = "carbonate",
-  about = "CO2(aq) (standing for CO2(aq) + H2CO3), HCO3-, CO3-2, and CO2 gas.",
+  about = "CO2(aq) (standing for CO2(aq) + H2CO3), HCO3-, CO3^2-, and CO2 gas.",
   sources = {
     pb1982 = "L. N. Plummer, E. Busenberg, 'The solubilities of calcite, aragonite and vaterite in CO2-H2O solutions between 0 and 90 C', Geochim. Cosmochim. Acta 46, 1011-1040 (1982): log K_H, log K1, log K2 as functions of T (0-250 C) [equations as quoted in DATA.md, seen in the abstract]",
     kielland1937 = "J. Kielland, J. Am. Chem. Soc. 59, 1675 (1937): ion-size parameters [ion assignments from memory]",
@@ -10,12 +10,12 @@ return {
   species = {
     { "CO2" },
     { "HCO3-", size = 4.5 },
-    { "CO3-2", size = 4.5 },
+    { "CO3^2-", size = 4.5 },
   },
   acids = {
     -- pK2 = -log K2 of Plummer & Busenberg: log K2 = -107.8871 - 0.03252849 T
     -- + 5151.79/T + 38.92561 log10 T - 563713.9/T^2 (ln T = ln 10 log10 T)
-    { "HCO3-", "CO3-2", pKa = 10.329, source = "pb1982", T_range = { 273.15, 363.15 },
+    { "HCO3-", "CO3^2-", pKa = 10.329, source = "pb1982", T_range = { 273.15, 363.15 },
       pKa_T = { { a = 107.8871, b = 0.03252849, c = -5151.79, d = -38.92561 / math.log(10), e = 563713.9 } } },
   },
   reactions = {
@@ -33,7 +33,7 @@ return {
   },
   reagents = {
     { "NaHCO3", gives = { ["Na+"] = 1, ["HCO3-"] = 1 }, names = { "sodium bicarbonate", "sodium hydrogen carbonate" } },
-    { "Na2CO3", gives = { ["Na+"] = 2, ["CO3-2"] = 1 }, names = { "sodium carbonate" },
+    { "Na2CO3", gives = { ["Na+"] = 2, ["CO3^2-"] = 1 }, names = { "sodium carbonate" },
       hydrates = { 10 }, hazards = { "irritant" } },
     { "KHCO3", gives = { ["K+"] = 1, ["HCO3-"] = 1 }, names = { "potassium bicarbonate" } },
     { "CO2", names = { "carbon dioxide" } },

@@ -9,17 +9,17 @@ return {
   species = {
     { "H3Cit", formula = "C6H8O7" },
     { "H2Cit-", formula = "C6H7O7-", size = 3.5 },
-    { "HCit-2", formula = "C6H6O7-2", size = 4.5 },
-    { "Cit-3", formula = "C6H5O7-3", size = 5 },
+    { "HCit^2-", formula = "C6H6O7^2-", size = 4.5 },
+    { "Cit^3-", formula = "C6H5O7^3-", size = 5 },
   },
   acids = {
-    { "H3Cit", "H2Cit-", "HCit-2", "Cit-3", pKa = { 3.128, 4.761, 6.396 },
+    { "H3Cit", "H2Cit-", "HCit^2-", "Cit^3-", pKa = { 3.128, 4.761, 6.396 },
       dH = { 4.07, 2.23, -3.38 }, dCp = { -131, -178, -254 }, source = "goldberg2002" },
   },
   reagents = {
     { "H3Cit", formula = "C6H8O7", names = { "citric acid" }, hydrates = { 1 },
       hazards = { "irritant" } },
-    { "Na3Cit", formula = "C6H5Na3O7", gives = { ["Na+"] = 3, ["Cit-3"] = 1 },
+    { "Na3Cit", formula = "C6H5Na3O7", gives = { ["Na+"] = 3, ["Cit^3-"] = 1 },
       names = { "trisodium citrate", "sodium citrate" }, hydrates = { 2 } },
     { "NaH2Cit", formula = "C6H7NaO7", gives = { ["Na+"] = 1, ["H2Cit-"] = 1 },
       names = { "sodium dihydrogen citrate", "monosodium citrate" } },

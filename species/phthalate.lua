@@ -9,12 +9,12 @@ return {
   species = {
     { "H2Phthalate", formula = "C8H6O4" },
     { "HPhthalate-", formula = "C8H5O4-" },
-    { "Phthalate-2", formula = "C8H4O4-2", size = 6, size_source = "kielland1937" },
+    { "Phthalate^2-", formula = "C8H4O4^2-", size = 6, size_source = "kielland1937" },
   },
   acids = {
     { "H2Phthalate", "HPhthalate-", pKa = 2.950, source = "hamer1945a" },
     -- pK2 = 2175.83/T - 9.5508 + 0.025694 T
-    { "HPhthalate-", "Phthalate-2", pKa = 5.408, source = "hamer1945b",
+    { "HPhthalate-", "Phthalate^2-", pKa = 5.408, source = "hamer1945b",
       pKa_T = { { a = -9.5508, b = 0.025694, c = 2175.83 } }, T_range = { 273.15, 333.15 } },
   },
   buffers = {

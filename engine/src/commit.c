@@ -134,14 +134,15 @@ static void add_species(committer *c)
 
 static void add_reactions(committer *c)
 {
+  char hint[256];
   eqpi_stage *st = c->st;
   for (int k = 0; k < st->nrx; k++) {
     const st_reaction *r = &st->rx[k];
     if (!r->product) continue;
     int p = eqpi_commit_find_species(c, r->product);
     if (p < 0) {
-      eqpi_stage_error(st, r->file, r->line, "unknown species '%s' (declare it under 'species')",
-                       r->product);
+      eqpi_stage_error(st, r->file, r->line, "unknown species '%s'%s (declare it under 'species')",
+                       r->product, eqpi_name_hint(r->product, hint, sizeof hint));
       continue;
     }
     if (p < c->db->nsp) {
@@ -168,8 +169,8 @@ static void add_reactions(committer *c)
     for (int j = 0; j < r->n; j++) {
       int q = eqpi_commit_find_species(c, r->r[j].name);
       if (q < 0) {
-        eqpi_stage_error(st, r->file, r->line, "reaction for '%s': unknown species '%s'",
-                         r->product, r->r[j].name);
+        eqpi_stage_error(st, r->file, r->line, "reaction for '%s': unknown species '%s'%s",
+                         r->product, r->r[j].name, eqpi_name_hint(r->r[j].name, hint, sizeof hint));
         bad = 1;
         continue;
       }
@@ -273,6 +274,7 @@ static int push_reagent(committer *c)
 /* Resolve a reagent's release onto components; check its balance. */
 static void finish_reagent(committer *c, eqpi_reagent *g, const st_pair *gives, int n)
 {
+  char hint[256];
   eqpi_stage *st = c->st;
   eqpi_comp f, sum = {0};
   char err[256];
@@ -298,8 +300,8 @@ static void finish_reagent(committer *c, eqpi_reagent *g, const st_pair *gives, 
   for (int j = 0; j < n; j++) {
     int q = eqpi_commit_find_species(c, gives[j].name);
     if (q < 0) {
-      eqpi_stage_error(st, g->file, g->line, "reagent '%s' gives unknown species '%s'",
-                       g->name, gives[j].name);
+      eqpi_stage_error(st, g->file, g->line, "reagent '%s' gives unknown species '%s'%s",
+                       g->name, gives[j].name, eqpi_name_hint(gives[j].name, hint, sizeof hint));
       bad = 1;
       continue;
     }

@@ -31,14 +31,15 @@ int eqpi_commit_find_reagent(const committer *c, const char *name, int upto)
 ** error. The new parameters go to c->pairs after the existing ones. */
 void eqpi_commit_interactions(committer *c)
 {
+  char hint[256];
   eqpi_stage *st = c->st;
   for (int k = 0; k < st->nin; k++) {
     const st_inter *in = &st->in[k];
     if (!in->a || !in->b) continue;
     int a = eqpi_commit_find_species(c, in->a), b = eqpi_commit_find_species(c, in->b);
     if (a < 0 || b < 0) {
-      eqpi_stage_error(st, in->file, in->line, "interaction: unknown species '%s'",
-                       a < 0 ? in->a : in->b);
+      eqpi_stage_error(st, in->file, in->line, "interaction: unknown species '%s'%s",
+                       a < 0 ? in->a : in->b, eqpi_name_hint(a < 0 ? in->a : in->b, hint, sizeof hint));
       continue;
     }
     for (int p = 0; p < in->n; p++) {
@@ -114,14 +115,15 @@ void eqpi_commit_buffers(committer *c)
 
 void eqpi_commit_gases(committer *c)
 {
+  char hint[256];
   eqpi_stage *st = c->st;
   for (int k = 0; k < st->ngs; k++) {
     const st_gas *g = &st->gs[k];
     if (!g->name || !g->dissolves) continue;
     int sp = eqpi_commit_find_species(c, g->dissolves);
     if (sp < 0) {
-      eqpi_stage_error(st, g->file, g->line, "gas '%s' dissolves as unknown species '%s'",
-                       g->name, g->dissolves);
+      eqpi_stage_error(st, g->file, g->line, "gas '%s' dissolves as unknown species '%s'%s",
+                       g->name, g->dissolves, eqpi_name_hint(g->dissolves, hint, sizeof hint));
       continue;
     }
     if (fabs(c->sp[sp].comp.charge) > 1e-9) {
@@ -152,6 +154,7 @@ void eqpi_commit_gases(committer *c)
 
 void eqpi_commit_solids(committer *c)
 {
+  char hint[256];
   eqpi_stage *st = c->st;
   for (int k = 0; k < st->nso; k++) {
     const st_solid *g = &st->so[k];
@@ -170,8 +173,9 @@ void eqpi_commit_solids(committer *c)
       sp[j] = eqpi_commit_find_species(c, g->dissolves[j].name);
       nu[j] = g->dissolves[j].nu;
       if (sp[j] < 0) {
-        eqpi_stage_error(st, g->file, g->line, "solid '%s' dissolves to unknown species '%s'",
-                         g->name, g->dissolves[j].name);
+        eqpi_stage_error(st, g->file, g->line, "solid '%s' dissolves to unknown species '%s'%s",
+                         g->name, g->dissolves[j].name,
+                         eqpi_name_hint(g->dissolves[j].name, hint, sizeof hint));
         bad = 1;
       } else {
         eqpi_comp_add(&sum, &c->sp[sp[j]].comp, nu[j]);

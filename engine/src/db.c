@@ -62,9 +62,39 @@ int eqpi_db_rebuild_index(eqp_ctx *ctx, eqpi_db *db)
   return 0;
 }
 
+/* A miss may be a Unicode or variant spelling of a stored name. */
+static int needs_fold(const char *name)
+{
+  for (const unsigned char *p = (const unsigned char *)name; *p; p++)
+    if (*p >= 0x80 || *p == '^') return 1;
+  return 0;
+}
+
+static int find_species(const eqpi_db *db, const char *name);
+static int find_reagent(const eqpi_db *db, const char *name);
+
 int eqpi_db_find_species(const eqpi_db *db, const char *name)
 {
   if (!db->hash || !name) return -1;
+  int i = find_species(db, name);
+  char buf[256];
+  if (i < 0 && needs_fold(name) && eqpi_name_normalize(name, buf, sizeof buf) == 1)
+    i = find_species(db, buf);
+  return i;
+}
+
+int eqpi_db_find_reagent(const eqpi_db *db, const char *name)
+{
+  if (!db->hash || !name) return -1;
+  int i = find_reagent(db, name);
+  char buf[256];
+  if (i < 0 && needs_fold(name) && eqpi_name_normalize(name, buf, sizeof buf) == 1)
+    i = find_reagent(db, buf);
+  return i;
+}
+
+static int find_species(const eqpi_db *db, const char *name)
+{
   unsigned i = hash_str(name) & (unsigned)(db->hashcap - 1);
   while (db->hash[i]) {
     if (strcmp(db->sp[db->hash[i] - 1].name, name) == 0) return db->hash[i] - 1;
@@ -73,9 +103,8 @@ int eqpi_db_find_species(const eqpi_db *db, const char *name)
   return -1;
 }
 
-int eqpi_db_find_reagent(const eqpi_db *db, const char *name)
+static int find_reagent(const eqpi_db *db, const char *name)
 {
-  if (!db->hash || !name) return -1;
   const int *tab = db->hash + db->hashcap;
   unsigned i = hash_str(name) & (unsigned)(db->hashcap - 1);
   while (tab[i]) {

@@ -56,7 +56,7 @@ typedef struct eqpi_comp {
   double charge;
 } eqpi_comp;
 
-/* Parse "Na2HPO4.7H2O", "Ca(OH)2", "HPO4-2", "NH4+". On error writes a
+/* Parse "Na2HPO4.7H2O", "Ca(OH)2", "HPO4^2-", "NH4+". On error writes a
 ** reason into err and returns -1. hydrate, if not NULL, receives the waters
 ** of crystallisation after a '.' (0 if none). */
 int eqpi_formula_parse(const char *f, eqpi_comp *out, double *hydrate,
@@ -71,6 +71,20 @@ double eqpi_comp_mass(const eqpi_comp *c);
 /* "elements differ: C 2 vs 1; charge 0 vs -1" style description of a-b;
 ** returns 0 if equal within 1e-9. */
 int eqpi_comp_diff(const eqpi_comp *a, const eqpi_comp *b, char *buf, size_t len);
+
+/* ---------------------------------------------------------- notation */
+
+/* Fold Unicode sub- and superscripts ("HPO₄²⁻") and ASCII variants ("Na^+")
+** into the canonical ASCII name ("HPO4^2-", "Na+"). Returns 1 if the name
+** changed, 0 if not, -1 if out is too small. */
+int eqpi_name_normalize(const char *in, char *out, size_t len);
+/* If name uses the sign-first charge ("HPO4-2"), write the IUPAC spelling
+** into buf and return 1. */
+int eqpi_name_old_style(const char *name, char *buf, size_t len);
+/* " (did you mean 'HPO4^2-'? ...)" for a sign-first name, else "". */
+const char *eqpi_name_hint(const char *name, char *buf, size_t len);
+/* The display form with Unicode sub- and superscripts ("HPO₄²⁻"). */
+int eqpi_name_pretty(const char *name, char *out, size_t len);
 
 /* ---------------------------------------------------------- units */
 

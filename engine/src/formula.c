@@ -44,7 +44,7 @@ static double fp_number(fparser *fp, double dflt)
   if (!isdigit((unsigned char)*fp->p)) return dflt;
   double v = 0;
   while (isdigit((unsigned char)*fp->p)) v = v * 10 + (*fp->p++ - '0');
-  return v;
+  return v > 1e6 ? INFINITY : v;   /* no real formula has such counts */
 }
 
 static double fp_decimal(fparser *fp, double dflt)
@@ -85,6 +85,7 @@ static int fp_sequence(fparser *fp, eqpi_comp *out, int depth)
     }
     double k = fp_number(fp, 1.0);
     if (!(k > 0)) return fp_fail(fp, "count must be positive");
+    if (!isfinite(k)) return fp_fail(fp, "count too large");
     if (eqpi_comp_add(out, &g, k) < 0) return fp_fail(fp, "too many elements");
     any = 1;
   }
@@ -115,18 +116,31 @@ int eqpi_formula_parse(const char *f, eqpi_comp *out, double *hydrate,
     fp.p += dl;
     double k = fp_decimal(&fp, 1.0);
     if (!(k > 0)) return fp_fail(&fp, "adduct count must be positive");
+    if (!(k <= 1e6)) return fp_fail(&fp, "adduct count too large");
     eqpi_comp a = {0};
     const char *start = fp.p;
     if (fp_sequence(&fp, &a, 0) < 0) return -1;
     if (hydrate && fp.p - start == 3 && memcmp(start, "H2O", 3) == 0) *hydrate += k;
     if (eqpi_comp_add(out, &a, k) < 0) return fp_fail(&fp, "too many elements");
   }
-  if (*fp.p == '+' || *fp.p == '-') {
-    double sign = *fp.p == '+' ? 1.0 : -1.0;
+  /* IUPAC order: "Na+", "Cl-", "HPO4^2-", "Fe^3+" */
+  if (*fp.p == '^') {
     fp.p++;
-    double q = fp_number(&fp, 1.0);
-    if (!(q >= 1) || q != floor(q)) return fp_fail(&fp, "charge must be a whole number");
-    out->charge = sign * q;
+    double q = fp_number(&fp, 0.0);
+    if (!(q >= 2) || !isfinite(q)) return fp_fail(&fp, "a charge after '^' is a number of 2 or more, then "
+                                  "'+' or '-' (a single charge is written 'Na+', 'Cl-')");
+    if (*fp.p != '+' && *fp.p != '-') return fp_fail(&fp, "charge needs its sign after the number");
+    out->charge = (*fp.p == '+' ? 1.0 : -1.0) * q;
+    fp.p++;
+  } else if (*fp.p == '+' || *fp.p == '-') {
+    char good[128];
+    if (isdigit((unsigned char)fp.p[1]) && eqpi_name_old_style(f, good, sizeof good)) {
+      snprintf(err, errlen, "bad formula '%s': charge written sign first; write '%s' "
+               "(number first, then the sign, after a caret)", f, good);
+      return -1;
+    }
+    out->charge = *fp.p == '+' ? 1.0 : -1.0;
+    fp.p++;
   }
   if (*fp.p) return fp_fail(&fp, "unexpected character");
   return 0;

@@ -70,6 +70,20 @@ static const char *cv_str(conv *c, const char *s)
   return eqpi_arena_strdup(c->ctx, &c->st->arena, s);
 }
 
+/* A species or reagent name: Unicode and variant spellings fold to the
+** canonical ASCII form; the sign-first charge ("HPO4-2") is refused. */
+static const char *cv_name(conv *c, const char *s)
+{
+  char buf[256], good[256];
+  if (eqpi_name_old_style(s, good, sizeof good)) {
+    CV_ERR(c, "'%s': charge written sign first; write '%s' (number first, then the sign, "
+           "after a caret)", s, good);
+    return NULL;
+  }
+  if (eqpi_name_normalize(s, buf, sizeof buf) == 1) s = buf;
+  return cv_str(c, s);
+}
+
 /* Field of the table at top; leaves it pushed. Returns its Lua type. */
 static int cv_field(conv *c, const char *key)
 {
@@ -174,7 +188,7 @@ static const char *cv_pos_string(conv *c, lua_Integer i)
   const char *s = NULL;
   cv_pushi(c, i);
   int t = lua_geti(c->L, -1, i);
-  if (t == LUA_TSTRING && lua_rawlen(c->L, -1) > 0) s = cv_str(c, lua_tostring(c->L, -1));
+  if (t == LUA_TSTRING && lua_rawlen(c->L, -1) > 0) s = cv_name(c, lua_tostring(c->L, -1));
   else CV_ERR(c, "expected a name (non-empty string), got %s", lua_typename(c->L, t));
   lua_pop(c->L, 1);
   cv_pop(c);
@@ -220,7 +234,8 @@ static int cv_map(conv *c, const char *key, st_pair **out, int params)
                lua_tostring(c->L, -2), params ? "finite " : "non-zero ");
         bad = 1;
       } else if (p) {
-        p[k].name = cv_str(c, lua_tostring(c->L, -2));
+        p[k].name = params ? cv_str(c, lua_tostring(c->L, -2)) : cv_name(c, lua_tostring(c->L, -2));
+        if (!p[k].name) bad = 1;
         p[k++].nu = v;
       }
     }
@@ -643,7 +658,7 @@ static void cv_gas(conv *c)
   g->line = cv_line(c);
 }
 
-/* { "calcite", formula = "CaCO3", dissolves = { ["Ca+2"] = 1, ["CO3-2"] = 1 },
+/* { "calcite", formula = "CaCO3", dissolves = { ["Ca^2+"] = 1, ["CO3^2-"] = 1 },
 **   logKsp = -8.48, logKsp_T = {...}, T_range = {...}, source = } */
 static void cv_solid(conv *c)
 {

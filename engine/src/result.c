@@ -109,10 +109,11 @@ double eqp_result_species_log_gamma(const eqp_result *r, size_t i)
 ** from this solution, < -1 unknown (message recorded). */
 static int lookup(const eqp_result *r, const char *sp)
 {
+  char hint[256];
   if (!r || !sp) return -2;
   int g = eqpi_db_find_species(&r->ctx->db, sp);
   if (g < 0) {
-    eqpi_fail(r->ctx, EQP_E_UNKNOWN, "unknown species '%s'", sp);
+    eqpi_fail(r->ctx, EQP_E_UNKNOWN, "unknown species '%s'%s", sp, eqpi_name_hint(sp, hint, sizeof hint));
     return -2;
   }
   return g < r->ndb ? r->loc[g] : -1;

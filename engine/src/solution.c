@@ -146,6 +146,9 @@ static int unknown_reagent(eqp_solution *s, const char *name)
   if (sp >= 0)
     return eqpi_fail(s->ctx, EQP_E_UNKNOWN, "'%s' is a charged species, not a reagent: add a "
                      "neutral salt, acid or base that releases it", name);
+  char hint[256];
+  if (*eqpi_name_hint(name, hint, sizeof hint))
+    return eqpi_fail(s->ctx, EQP_E_UNKNOWN, "unknown reagent '%s'%s", name, hint);
   return eqpi_fail(s->ctx, EQP_E_UNKNOWN, "unknown reagent '%s' (see 'equipoise species "
                    "list')", name);
 }

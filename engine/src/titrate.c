@@ -143,6 +143,7 @@ static int check_spec(eqp_ctx *ctx, const eqp_titration *t)
 
 int eqp_solution_titrate(eqp_solution *s, const eqp_titration *spec, eqp_curve **out)
 {
+  char hint[256];
   if (!s || !spec || !out) return eqpi_fail(s ? s->ctx : NULL, EQP_E_ARG, "NULL argument");
   eqp_ctx *ctx = s->ctx;
   *out = NULL;
@@ -150,7 +151,8 @@ int eqp_solution_titrate(eqp_solution *s, const eqp_titration *spec, eqp_curve *
   if (rc < 0) return rc;
   for (size_t k = 0; k < spec->nspecies; k++)
     if (eqpi_db_find_species(&ctx->db, spec->species[k]) < 0)
-      return eqpi_fail(ctx, EQP_E_UNKNOWN, "unknown species '%s'", spec->species[k]);
+      return eqpi_fail(ctx, EQP_E_UNKNOWN, "unknown species '%s'%s", spec->species[k],
+                       eqpi_name_hint(spec->species[k], hint, sizeof hint));
   const char *names[MAX_COLS] = {"amount_mol", "volume_L", "total_volume_L", "pH",
                                  spec->stock ? "dpH_dL" : "dpH_dmol"};
   for (size_t k = 0; k < spec->nspecies; k++) names[COL_SPECIES + k] = spec->species[k];

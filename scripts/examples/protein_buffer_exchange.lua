@@ -20,7 +20,7 @@ local function show(label, s)
   local r = s:equilibrate()
   print(string.format("%-28s pH %.3f  Tris %.3f mM  phosphate %.2f mM  I %.3f mol/kg", label,
                       r.pH, 1e3 * (r:molarity("Tris") + r:molarity("TrisH+")),
-                      1e3 * (r:molarity("H2PO4-") + r:molarity("HPO4-2")), r.ionic_strength))
+                      1e3 * (r:molarity("H2PO4-") + r:molarity("HPO4^2-")), r.ionic_strength))
 end
 
 show("start", sample)

@@ -81,6 +81,12 @@ check species_list 0 "KH2PO4" -- "$EQP" species list
 check species_show 0 "goldberg\|Goldberg" -- "$EQP" species show H2PO4-
 check species_show_unknown 3 "no species or reagent" -- "$EQP" species show Nope
 check species_check_good 0 "ok, 2 species added" -- "$EQP" species check "$CASES/good_species.lua"
+# IUPAC charge notation (number then sign after a caret); Unicode accepted
+check notation_unicode 3 "ok notation" -- "$EQP" run "$CASES/notation.lua"
+check notation_old_style 3 "notation.lua:11: unknown species 'HPO4-2' (did you mean 'HPO4^2-'?" -- "$EQP" run "$CASES/notation.lua"
+check notation_show_unicode 0 "HPO4^2-" -- "$EQP" species show "HPO₄²⁻"
+check notation_file_old 4 "old.lua:7: .*write 'X^2-'" -- "$EQP" species check "$CASES/old_notation/old.lua"
+check notation_file_formula 4 "write 'SeO4^2-'" -- "$EQP" species check "$CASES/old_notation/old.lua"
 check species_check_bad 4 "bad_species.lua:6:" -- "$EQP" species check "$CASES/bad_species.lua"
 check plugins 0 "davies" -- "$EQP" plugins
 

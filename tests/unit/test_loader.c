@@ -91,7 +91,7 @@ static void test_malformed_entries(void **state)
   expect_bad("return {\n sources = { s = 'x' },\n species = { { 'HB', formula = 'HCl' } },\n"
              " acids = { { 'HB', 'Cl-', pKa = { 3, 4 }, source = 's' } },\n}\n",
              "t.lua:4:", "2 values for 1 steps");
-  expect_bad("return {\n species = { { 'Cu+2', size = 6 } },\n}\n", "t.lua:2:", "needs a source");
+  expect_bad("return {\n species = { { 'Cu^2+', size = 6 } },\n}\n", "t.lua:2:", "needs a source");
   expect_bad("return {\n species = { { 'Xq' } },\n}\n", "t.lua:2:", "unknown element");
   expect_bad("return 42\n", "t.lua", "must return a table");
   expect_bad("return {\n species = { { 'A' }\n", "t.lua:", "expected");      /* syntax */
@@ -117,7 +117,7 @@ static void test_library_loads(void **state)
   assert_true(eqp_ctx_species_count(ctx) >= 18);
   char buf[4096];
   assert_int_equal(eqp_ctx_describe(ctx, "H3PO4", buf, sizeof buf), EQP_OK);
-  /* overall log K of H3PO4 from PO4-3 + 3 H+ is pK1 + pK2 + pK3 */
+  /* overall log K of H3PO4 from PO4^3- + 3 H+ is pK1 + pK2 + pK3 */
   assert_contains(buf, "21.6960");
   assert_int_equal(eqp_ctx_describe(ctx, "nope", buf, sizeof buf), EQP_E_UNKNOWN);
   eqp_ctx_free(ctx);

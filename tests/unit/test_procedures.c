@@ -209,7 +209,7 @@ static void test_conservation(void **state)
   assert_int_equal(eqp_solution_mix(2, parts, litres, &m), EQP_OK);
   double g = 0.05 * rho;
   double P, Na, K, Cl, H;
-  eqp_solution_total(m, "PO4-3", &P);
+  eqp_solution_total(m, "PO4^3-", &P);
   eqp_solution_total(m, "Na+", &Na);
   eqp_solution_total(m, "K+", &K);
   eqp_solution_total(m, "Cl-", &Cl);
@@ -279,8 +279,8 @@ static void test_saturation_index(void **state)
     eqp_result *r = test_solve(ctx, "davies", T, "CaCl2", "2 mmol", "NaHCO3", "4 mmol",
                                "NaOH", "1 mmol", NULL);
     double aCa, aCO3, si;
-    eqp_result_activity(r, "Ca+2", &aCa);
-    eqp_result_activity(r, "CO3-2", &aCO3);
+    eqp_result_activity(r, "Ca^2+", &aCa);
+    eqp_result_activity(r, "CO3^2-", &aCO3);
     assert_int_equal(eqp_result_saturation(r, "calcite", &si), EQP_OK);
     double lKsp = -171.9065 - 0.077993 * T + 2839.319 / T + 71.595 * log10(T);
     assert_close(si, log10(aCa * aCO3) - lKsp, 1e-10);
