@@ -306,8 +306,11 @@ int eqpi_lu_factor(double *A, int *piv, int n)
       if (fabs(A[i * n + k]) > best) { best = fabs(A[i * n + k]); p = i; }
     piv[k] = p;
     if (!(best > 0)) return -1;
+    /* swap from column k on only: eqpi_lu_solve applies each interchange
+    ** just before its own column's multipliers, which therefore must stay
+    ** in the rows where they were made */
     if (p != k)
-      for (int j = 0; j < n; j++) {
+      for (int j = k; j < n; j++) {
         double t = A[k * n + j];
         A[k * n + j] = A[p * n + j];
         A[p * n + j] = t;
