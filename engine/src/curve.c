@@ -40,6 +40,19 @@ int eqpi_curve_push(eqp_curve *c, const double *row)
   return EQP_OK;
 }
 
+int eqpi_curve_push_eq(eqp_curve *c, const eqpi_eqpoint *e)
+{
+  if (c->neq == c->capeq) {
+    size_t n = c->capeq ? c->capeq * 2 : 4;
+    eqpi_eqpoint *q = eqpi_realloc(c->ctx, c->eq, sizeof *q * c->capeq, sizeof *q * n);
+    if (!q) return eqpi_fail(c->ctx, EQP_E_NOMEM, "out of memory");
+    c->eq = q;
+    c->capeq = n;
+  }
+  c->eq[c->neq++] = *e;
+  return EQP_OK;
+}
+
 void eqp_curve_free(eqp_curve *c)
 {
   if (!c) return;
@@ -47,6 +60,7 @@ void eqp_curve_free(eqp_curve *c)
   for (int j = 0; j < c->ncols; j++) eqpi_strfree(ctx, c->names[j]);
   eqpi_free(ctx, c->names, sizeof(char *) * (size_t)c->ncols);
   eqpi_free(ctx, c->v, sizeof(double) * c->caprows * (size_t)c->ncols);
+  eqpi_free(ctx, c->eq, sizeof *c->eq * c->capeq);
   eqpi_free(ctx, c, sizeof *c);
 }
 
@@ -63,16 +77,21 @@ double eqp_curve_value(const eqp_curve *c, size_t i, size_t j)
   return c && i < c->nrows && j < (size_t)c->ncols ? c->v[i * (size_t)c->ncols + j] : NAN;
 }
 
-size_t eqp_curve_equivalence_count(const eqp_curve *c) { return c ? (size_t)c->neq : 0; }
+size_t eqp_curve_equivalence_count(const eqp_curve *c) { return c ? c->neq : 0; }
 
 int eqp_curve_equivalence(const eqp_curve *c, size_t k, double *amount, double *litres,
                           double *pH)
 {
-  if (!c || k >= (size_t)c->neq) return EQP_E_ARG;
-  if (amount) *amount = c->eq[k][0];
-  if (litres) *litres = c->eq[k][1];
-  if (pH) *pH = c->eq[k][2];
+  if (!c || k >= c->neq) return EQP_E_ARG;
+  if (amount) *amount = c->eq[k].amount;
+  if (litres) *litres = c->eq[k].litres;
+  if (pH) *pH = c->eq[k].pH;
   return EQP_OK;
+}
+
+double eqp_curve_equivalence_sharpness(const eqp_curve *c, size_t k)
+{
+  return c && k < c->neq ? c->eq[k].sharpness : NAN;
 }
 
 int eqp_curve_write_csv(const eqp_curve *c, FILE *f)
@@ -107,11 +126,12 @@ char *eqp_curve_to_json(const eqp_curve *c)
     cJSON_AddItemToArray(rows, r);
   }
   cJSON *eq = cJSON_AddArrayToObject(o, "equivalence_points");
-  for (int k = 0; k < c->neq; k++) {
+  for (size_t k = 0; k < c->neq; k++) {
     cJSON *e = cJSON_CreateObject();
-    if (!isnan(c->eq[k][0])) cJSON_AddNumberToObject(e, "amount_mol", c->eq[k][0]);
-    if (!isnan(c->eq[k][1])) cJSON_AddNumberToObject(e, "volume_L", c->eq[k][1]);
-    cJSON_AddNumberToObject(e, "pH", c->eq[k][2]);
+    if (!isnan(c->eq[k].amount)) cJSON_AddNumberToObject(e, "amount_mol", c->eq[k].amount);
+    if (!isnan(c->eq[k].litres)) cJSON_AddNumberToObject(e, "volume_L", c->eq[k].litres);
+    cJSON_AddNumberToObject(e, "pH", c->eq[k].pH);
+    cJSON_AddNumberToObject(e, "sharpness", c->eq[k].sharpness);
     cJSON_AddItemToArray(eq, e);
   }
   char *text = cJSON_PrintUnformatted(o);

@@ -5,7 +5,13 @@
 
 #include "eqp_impl.h"
 
-#define EQPI_MAX_EQ 8
+/* An equivalence point: a maximum of |dpH/dv| found on the curve. */
+typedef struct eqpi_eqpoint {
+  double amount;        /* mol of a reagent titrant; NaN for a stock */
+  double litres;        /* L added; NaN for a solid reagent */
+  double pH;
+  double sharpness;     /* |dpH/dv| there over the lowest |dpH/dv| of its flanks */
+} eqpi_eqpoint;
 
 struct eqp_curve {
   eqp_ctx *ctx;
@@ -13,11 +19,12 @@ struct eqp_curve {
   char **names;
   double *v;            /* nrows x ncols */
   size_t nrows, caprows;
-  double eq[EQPI_MAX_EQ][3];   /* amount (mol), volume (L), pH */
-  int neq;
+  eqpi_eqpoint *eq;     /* in the order of the titration */
+  size_t neq, capeq;
 };
 
 eqp_curve *eqpi_curve_new(eqp_ctx *ctx, int ncols, const char *const *names);
 int eqpi_curve_push(eqp_curve *c, const double *row);
+int eqpi_curve_push_eq(eqp_curve *c, const eqpi_eqpoint *e);
 
 #endif

@@ -1,7 +1,7 @@
 /* Titrations: a curve of successive equilibria, with steps that shrink
-** where the pH moves fast, and equivalence points located at the maxima of
-** |dpH/dV| (the derivative from implicit differentiation, the maximum found
-** by golden-section search). */
+** where the pH moves fast, and equivalence points located at the sharp
+** maxima of |dpH/dV| (the derivative from implicit differentiation, the
+** maximum found by golden-section search). */
 /* SPDX-License-Identifier: MIT */
 #include "curve_impl.h"
 #include "solution_impl.h"
@@ -52,9 +52,10 @@ static int push_row(eqp_curve *c, const eqp_solution *w, const titrant *t, doubl
   return eqpi_curve_push(c, row);
 }
 
-/* Golden-section search for the largest |dpH/dv| in [lo, hi]. */
+/* Golden-section search for the largest |dpH/dv| in [lo, hi]: its place,
+** pH and slope. */
 static int refine(eqp_solution *w, const eqp_solution *base, const titrant *t, double lo,
-                  double hi, double *vbest, double *pHbest)
+                  double hi, double *vbest, double *pHbest, double *dbest)
 {
   const double g = 0.6180339887498949;
   double x1 = hi - g * (hi - lo), x2 = lo + g * (hi - lo), p1, p2, d1, d2;
@@ -73,34 +74,58 @@ static int refine(eqp_solution *w, const eqp_solution *base, const titrant *t, d
   }
   if (rc < 0) return rc;
   *vbest = 0.5 * (lo + hi);
-  double d;
-  return state_at(w, base, t, *vbest, pHbest, &d, NULL);
+  rc = state_at(w, base, t, *vbest, pHbest, dbest, NULL);
+  *dbest = fabs(*dbest);
+  return rc;
 }
 
-/* Interior maxima of |dpH/dv| that stand well above the curve on both sides. */
+/* The lowest |slope| of the rows on one side of row i (dir -1 or +1), up to
+** the first row steeper than peak or the end of the curve. */
+static double flank_min(const eqp_curve *c, size_t i, int dir, double peak)
+{
+  size_t nc = (size_t)c->ncols;
+  double m = INFINITY;
+  for (size_t k = dir < 0 ? i - 1 : i + 1; k < c->nrows; k = dir < 0 ? k - 1 : k + 1) {
+    double d = fabs(c->v[k * nc + COL_DPH]);
+    if (d > peak) break;
+    m = fmin(m, d);
+    if (k == 0) break;
+  }
+  return m;
+}
+
+/* Sharpness of a maximum: its slope over the higher of its two flank minima
+** (the prominence of the peak, as a ratio). */
+static double sharpness(const eqp_curve *c, size_t i, double peak)
+{
+  double col = fmax(flank_min(c, i, -1, peak), flank_min(c, i, +1, peak));
+  return col > 0 ? peak / col : INFINITY;
+}
+
+/* Equivalence points: the interior maxima of |dpH/dv| on the rows, refined
+** between their neighbours, kept when sharp enough. A row maximum whose
+** sharpness on the rows is below 1.1 (solver noise on a flat slope, or
+** inflections such as citric acid's that merge) is not refined: the step
+** control samples every peak within about 2 max_dpH, so refining cannot lift
+** it to EQP_EQ_MIN_SHARPNESS. */
 static int find_equivalence(eqp_curve *c, eqp_solution *w, const eqp_solution *base,
                             const titrant *t)
 {
   size_t n = c->nrows, nc = (size_t)c->ncols;
   const double *v = c->v;
-  for (size_t i = 1; i + 1 < n && c->neq < EQPI_MAX_EQ; i++) {
+  int col = t->stock ? COL_VOLUME : COL_AMOUNT;   /* the titrant's own unit */
+  for (size_t i = 1; i + 1 < n; i++) {
     double di = fabs(v[i * nc + COL_DPH]);
     if (!(di > fabs(v[(i - 1) * nc + COL_DPH]) && di >= fabs(v[(i + 1) * nc + COL_DPH])))
       continue;
-    double lmin = INFINITY, rmin = INFINITY;
-    for (size_t k = 0; k < i; k++) lmin = fmin(lmin, fabs(v[k * nc + COL_DPH]));
-    for (size_t k = i + 1; k < n; k++) rmin = fmin(rmin, fabs(v[k * nc + COL_DPH]));
-    if (!(di > 5 * fmax(lmin, rmin))) continue;   /* a shoulder, not an end point */
-    /* the titrant's own unit: litres of a stock, mol of a reagent */
-    int col = t->stock ? COL_VOLUME : COL_AMOUNT;
-    double lo = v[(i - 1) * nc + col], hi = v[(i + 1) * nc + col];
-    double vb, pHb;
-    int rc = refine(w, base, t, lo, hi, &vb, &pHb);
+    if (!(sharpness(c, i, di) >= 1.1)) continue;
+    double vb, pHb, db;
+    int rc = refine(w, base, t, v[(i - 1) * nc + col], v[(i + 1) * nc + col], &vb, &pHb, &db);
     if (rc < 0) return rc;
-    c->eq[c->neq][0] = t->stock ? NAN : vb;
-    c->eq[c->neq][1] = isnan(t->litres) ? NAN : vb * t->litres;
-    c->eq[c->neq][2] = pHb;
-    c->neq++;
+    double peak = fmax(db, di), sh = sharpness(c, i, peak);
+    if (!(sh >= EQP_EQ_MIN_SHARPNESS)) continue;
+    eqpi_eqpoint e = {t->stock ? NAN : vb, isnan(t->litres) ? NAN : vb * t->litres, pHb, sh};
+    if ((rc = eqpi_curve_push_eq(c, &e)) < 0) return rc;
   }
   return EQP_OK;
 }
@@ -177,11 +202,18 @@ int eqp_solution_titrate(eqp_solution *s, const eqp_titration *spec, eqp_curve *
   }
   while (rc == EQP_OK && v < end * (1 - 1e-12) && c->nrows < MAX_ROWS) {
     /* at most max_dpH per step by the local slope, and never below 1/1000 of the step */
-    double h = spec->step;
-    if (fabs(dpH) * h > max_dpH) h = fmax(max_dpH / fabs(dpH), spec->step * 1e-3);
+    double h = spec->step, hmin = spec->step * 1e-3;
+    if (fabs(dpH) * h > max_dpH) h = fmax(max_dpH / fabs(dpH), hmin);
     if (v + h > end) h = end - v;
     double pH1, dpH1;
     if ((rc = state_at(w, base, &t, v + h, &pH1, &dpH1, &r)) < 0) break;
+    /* the slope steepened within the step (a peak ahead): take it again,
+    ** shorter, so that every maximum of the slope is sampled */
+    while (fabs(pH1 - pH) > 2 * max_dpH && h > hmin) {
+      eqp_result_free(r);
+      h = fmax(h * max_dpH / fabs(pH1 - pH), hmin);
+      if ((rc = state_at(w, base, &t, v + h, &pH1, &dpH1, &r)) < 0) goto out;
+    }
     if (until && (pH1 - spec->until_pH) * (pH - spec->until_pH) <= 0) {
       /* crossed: finish exactly at the requested pH, by bisection on v */
       eqp_result_free(r);

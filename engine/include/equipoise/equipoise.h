@@ -236,10 +236,15 @@ typedef struct eqp_titration {
 } eqp_titration;
 
 /* Titrate a copy of s (s is unchanged). Steps shrink so that no step moves
-** the pH by more than max_dpH; equivalence points are the interior maxima
-** of |dpH/dV|, refined by golden-section search. Columns: amount_mol (NaN
-** for a stock), volume_L, total_volume_L, pH, dpH_dmol or dpH_dL, then the
-** requested species (mol/kg). *out is owned by the caller (eqp_curve_free). */
+** the pH by more than max_dpH (a step that moves it by more than twice that
+** is taken again, shorter). Equivalence points are the interior maxima of
+** |dpH/dv| (v: mol or L of titrant), refined by golden-section search on
+** the analytic slope, whose slope is at least EQP_EQ_MIN_SHARPNESS times the
+** lowest slope between it and the next steeper point or the end of the
+** curve on either side (methods.md). Columns: amount_mol (NaN for a stock),
+** volume_L, total_volume_L, pH, dpH_dmol or dpH_dL, then the requested
+** species (mol/kg). *out is owned by the caller (eqp_curve_free). */
+#define EQP_EQ_MIN_SHARPNESS 2.0
 EQP_API int eqp_solution_titrate(eqp_solution *s, const eqp_titration *t, eqp_curve **out);
 EQP_API void eqp_curve_free(eqp_curve *c);
 EQP_API size_t eqp_curve_rows(const eqp_curve *c);
@@ -251,6 +256,9 @@ EQP_API size_t eqp_curve_equivalence_count(const eqp_curve *c);
 ** (L; NaN for a solid reagent) and pH. */
 EQP_API int eqp_curve_equivalence(const eqp_curve *c, size_t k, double *amount, double *litres,
                                   double *pH);
+/* Its sharpness: |dpH/dv| at the point over the lowest |dpH/dv| of its
+** flanks (>= EQP_EQ_MIN_SHARPNESS); NaN when k is out of range. */
+EQP_API double eqp_curve_equivalence_sharpness(const eqp_curve *c, size_t k);
 /* Write the curve as CSV (header line, then one line per row). */
 EQP_API int eqp_curve_write_csv(const eqp_curve *c, FILE *f);
 /* The curve as a JSON text {columns, rows, equivalence_points}; free it

@@ -122,8 +122,9 @@ static int curve_tostring(lua_State *L)
   for (size_t k = 0; k < eqp_curve_equivalence_count(c); k++) {
     double a, v, pH;
     eqp_curve_equivalence(c, k, &a, &v, &pH);
-    snprintf(line, sizeof line, "equivalence point %zu: amount %.6g mol, volume %.6g L, pH %.3f\n",
-             k + 1, a, v, pH);
+    snprintf(line, sizeof line,
+             "equivalence point %zu: amount %.6g mol, volume %.6g L, pH %.3f, sharpness %.3g\n",
+             k + 1, a, v, pH, eqp_curve_equivalence_sharpness(c, k));
     luaL_addstring(&b, line);
   }
   luaL_pushresult(&b);
@@ -154,11 +155,13 @@ static int curve_index(lua_State *L)
     for (size_t e = 0; e < n; e++) {
       double a, v, pH;
       eqp_curve_equivalence(c, e, &a, &v, &pH);
-      lua_createtable(L, 0, 3);
+      lua_createtable(L, 0, 4);
       if (!isnan(a)) { lua_pushnumber(L, a); lua_setfield(L, -2, "amount"); }
       if (!isnan(v)) { lua_pushnumber(L, v); lua_setfield(L, -2, "volume"); }
       lua_pushnumber(L, pH);
       lua_setfield(L, -2, "pH");
+      lua_pushnumber(L, eqp_curve_equivalence_sharpness(c, e));
+      lua_setfield(L, -2, "sharpness");
       lua_rawseti(L, -2, (lua_Integer)e + 1);
     }
     return 1;
