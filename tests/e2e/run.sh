@@ -156,6 +156,8 @@ check json_curve 0 "^1$" -- "$JSON" curves.0.equivalence_points < "$TMP/j3"
 # Kb = Kw/Ka, pKa 4.756 (Goldberg et al. 2002, from memory), pKw 13.995 (IAPWS
 # R11-07), Davies g with A = 0.5108 at I = C: pH 8.404 (closed form)
 check_near json_curve_pH 8.404 0.01 "" -- "$JSON" curves.0.equivalence_points.0.pH < "$TMP/j3"
+# every point carries its sharpness (a number; >= 2 by the rule of docs/methods.md)
+check json_curve_sharpness 0 "^[0-9]" -- "$JSON" curves.0.equivalence_points.0.sharpness < "$TMP/j3"
 
 # the same module in a stock lua5.4
 if command -v lua5.4 >/dev/null; then

@@ -313,6 +313,20 @@ static void test_outputs(void **state)
   eqp_solution_free(s);
 }
 
+/* The slopes above come from the engine's LU solve; a system that needs a
+** row interchange after the first column (as the H+ row near a dominant
+** H2PO4- does) against x chosen here, b = A x. */
+static void test_lu_interchange(void **state)
+{
+  double A[9] = {1, 2, 0, 1, 2.003, 0, 0.5, 0.5, -1}, x[3] = {1, -2, 3}, b[3];
+  for (int i = 0; i < 3; i++) b[i] = A[3 * i] * x[0] + A[3 * i + 1] * x[1] + A[3 * i + 2] * x[2];
+  int piv[3];
+  assert_int_equal(eqpi_lu_factor(A, piv, 3), 0);
+  assert_int_equal(piv[1], 2);                    /* the interchange at column 1 */
+  eqpi_lu_solve(A, piv, 3, b);
+  for (int i = 0; i < 3; i++) assert_close(b[i], x[i], 1e-11);
+}
+
 int main(void)
 {
   ctx = test_ctx();
@@ -324,6 +338,7 @@ int main(void)
     cmocka_unit_test(test_citric),
     cmocka_unit_test(test_step_independence),
     cmocka_unit_test(test_outputs),
+    cmocka_unit_test(test_lu_interchange),
   };
   int rc = cmocka_run_group_tests(tests, NULL, NULL);
   eqp_ctx_free(ctx);
