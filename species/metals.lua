@@ -1,0 +1,163 @@
+-- Metal ions beyond Na+, K+, Ca^2+ and Mg^2+ (Mn^2+, Zn^2+, Cu^2+, Fe^3+),
+-- their salts, and the complexes of all of them with hydroxide, chloride,
+-- acetate, ammonia, phosphate, carbonate, sulfate, citrate and succinate.
+--
+-- Names: metal first, then the ligand as its species is named, then the
+-- charge: "CaOH+", "CuCH3COO+", "Zn(NH3)4^2+", "CaHPO4(aq)", "CaCit-". A
+-- neutral complex takes "(aq)" so that it is never confused with the solid
+-- reagent of the same formula ("CaCO3(aq)" is not calcite nor the reagent
+-- "CaCO3"). Hydroxo complexes are written as formations from OH- (log beta),
+-- so that the ionization of water carries their temperature dependence.
+--
+-- Every log K here is for I = 0 and 25 C. A value published for I = 0.1
+-- mol/L is converted with the Davies equation (docs/methods.md, "Constants
+-- at I = 0"); the published value and its medium stay in the entry's note.
+-- Weak alkali-metal ion pairs (NaHPO4-, KSO4-, ...) are left out on purpose:
+-- the pKa values of this library were extrapolated to I = 0 without them,
+-- so adding them would count the same interaction twice.
+local A, I = 0.5108, 0.1                    -- Davies A at 25 C (molal scale)
+local f = math.sqrt(I) / (1 + math.sqrt(I)) - 0.3 * I
+-- log K at I = 0 from log K at I = 0.1 mol/L of a formation reaction;
+-- dz2 = sum of z^2 of the reactants minus that of the products
+local function I0(logK, dz2) return logK + A * f * dz2 end
+local L10 = math.log(10)
+
+return {
+  system = "metal ions and their complexes",
+  sources = {
+    kielland1937 = "J. Kielland, J. Am. Chem. Soc. 59, 1675 (1937): ion-size parameters [ion assignments from memory]",
+    ms1976 = "A. E. Martell, R. M. Smith, Critical Stability Constants, vols. 1-4, Plenum, New York (1974-1976), 25 C, I = 0, as tabulated in 'E4a: Stepwise association constants', LibreTexts Chemistry reference tables [seen]: acetate log K1 Mg 1.27, Ca 1.18, Mn 1.40, Zn 1.57, Cu 2.22 (K2 1.41); ammonia Cu 4.04, 3.43, 2.80, 1.48, Zn 2.21, 2.29, 2.36, 2.03; chloride Cu 0.40, Fe(III) 1.48, 0.65, Zn 0.43, 0.18, -0.11, -0.3",
+    ms1974ca = "A. E. Martell, R. M. Smith, Critical Stability Constants (1974-1989), 25 C, I = 0.1 mol/L, as quoted in Table 9 of a 2016 paper in J. Appl. Phycol. 28, 2561 [seen]: log K of Ca^2+ with citrate 3.45, succinate 1.25 (and hydroxide 1.0, acetate 0.57, which corroborate the I = 0 values used here)",
+    gimblett1954 = "F. G. R. Gimblett, C. B. Monk, 'E.m.f. studies of electrolytic dissociation, part 7: some alkali and alkaline earth metal hydroxides in water', Trans. Faraday Soc. 50, 965 (1954): Ca^2+ + OH- = CaOH+, log K 1.30 at 25 C, I = 0, the value selected by Martell & Smith [value from memory, medium-high confidence]",
+    baes1976 = "C. F. Baes, R. E. Mesmer, The Hydrolysis of Cations, Wiley, New York (1976), 25 C, I = 0: log *K of M^z+ + n H2O = M(OH)n + n H+: Mg -11.44; Mn -10.59; Zn -8.96, -16.9, -28.4, -40.5 (n = 1-4); Cu -8.0 and Cu2(OH)2^2+ -10.36; Fe(III) -2.19, -5.67, -21.6 (n = 4), Fe2(OH)2^4+ -2.95 [values from memory: Mg, Mn, Zn and Fe medium-high, Cu medium]; log beta = log *K + n pKw with pKw = 13.995 (IAPWS R11-07) [D]",
+    cmn1968 = "A. Chughtai, R. Marshall, G. H. Nancollas, 'Complexes in calcium phosphate solutions', J. Phys. Chem. 72, 208-211 (1968): 25 C, I = 0: CaHPO4 2.739, CaH2PO4+ 1.408, CaPO4- 6.459 [values from memory, medium-high confidence]",
+    mgphos = "MgHPO4 log K 2.87 at 25 C, I = 0, as selected in A. E. Martell, R. M. Smith, Critical Stability Constants [value from memory, medium confidence]",
+    pb1982 = "L. N. Plummer, E. Busenberg, Geochim. Cosmochim. Acta 46, 1011-1040 (1982): log K(CaHCO3+) = 1209.120 + 0.31294 T - 34765.05/T - 478.782 log10 T; log K(CaCO3 aq) = -1228.732 - 0.299444 T + 35512.75/T + 485.818 log10 T, 0-90 C [equations from memory, medium-high confidence: they give the accepted 1.106 and 3.224 at 25 C]",
+    sh1977 = "R. M. Siebert, P. B. Hostetler, 'The stability of the magnesium bicarbonate ion pair from 10 to 90 C' and '... magnesium carbonate ion pair', Am. J. Sci. 277, 697 and 716 (1977): MgHCO3+ log K 1.07, MgCO3 2.98 at 25 C, I = 0 [values from memory, medium confidence]",
+    sulfpairs = "CaSO4 log K 2.30 (R. P. Bell, J. H. B. George, Trans. Faraday Soc. 49, 619 (1953)) and MgSO4 2.23 at 25 C, I = 0, as selected in Martell & Smith [values from memory, medium confidence]",
+  },
+  size_source = "kielland1937",
+  species = {
+    { "Mn^2+", size = 6 }, { "Zn^2+", size = 6 }, { "Cu^2+", size = 6 }, { "Fe^3+", size = 9 },
+    { "CaOH+" }, { "MgOH+" }, { "MnOH+" },
+    { "ZnOH+" }, { "Zn(OH)2(aq)", formula = "Zn(OH)2" }, { "Zn(OH)3-" }, { "Zn(OH)4^2-" },
+    { "CuOH+" }, { "Cu2(OH)2^2+" },
+    { "FeOH^2+" }, { "Fe(OH)2+" }, { "Fe(OH)4-" }, { "Fe2(OH)2^4+" },
+    { "CuCl+" }, { "FeCl^2+" }, { "FeCl2+" },
+    { "ZnCl+" }, { "ZnCl2(aq)", formula = "ZnCl2" }, { "ZnCl3-" }, { "ZnCl4^2-" },
+    { "CaCH3COO+" }, { "MgCH3COO+" }, { "MnCH3COO+" }, { "ZnCH3COO+" }, { "CuCH3COO+" },
+    { "Cu(CH3COO)2(aq)", formula = "Cu(CH3COO)2" },
+    { "Cu(NH3)^2+" }, { "Cu(NH3)2^2+" }, { "Cu(NH3)3^2+" }, { "Cu(NH3)4^2+" },
+    { "Zn(NH3)^2+" }, { "Zn(NH3)2^2+" }, { "Zn(NH3)3^2+" }, { "Zn(NH3)4^2+" },
+    { "CaHPO4(aq)", formula = "CaHPO4" }, { "CaH2PO4+" }, { "CaPO4-" },
+    { "MgHPO4(aq)", formula = "MgHPO4" },
+    { "CaHCO3+" }, { "CaCO3(aq)", formula = "CaCO3" },
+    { "MgHCO3+" }, { "MgCO3(aq)", formula = "MgCO3" },
+    { "CaSO4(aq)", formula = "CaSO4" }, { "MgSO4(aq)", formula = "MgSO4" },
+    { "CaCit-", formula = "C6H5CaO7-" },
+    { "CaSucc(aq)", formula = "C4H4CaO4" },
+  },
+  reactions = {
+    -- hydroxide
+    { "CaOH+", from = { ["Ca^2+"] = 1, ["OH-"] = 1 }, logK = 1.30, source = "gimblett1954" },
+    { "MgOH+", from = { ["Mg^2+"] = 1, ["OH-"] = 1 }, logK = -11.44 + 13.995, source = "baes1976" },
+    { "MnOH+", from = { ["Mn^2+"] = 1, ["OH-"] = 1 }, logK = -10.59 + 13.995, source = "baes1976" },
+    { "ZnOH+", from = { ["Zn^2+"] = 1, ["OH-"] = 1 }, logK = -8.96 + 13.995, source = "baes1976" },
+    { "Zn(OH)2(aq)", from = { ["Zn^2+"] = 1, ["OH-"] = 2 }, logK = -16.9 + 2 * 13.995,
+      source = "baes1976" },
+    { "Zn(OH)3-", from = { ["Zn^2+"] = 1, ["OH-"] = 3 }, logK = -28.4 + 3 * 13.995,
+      source = "baes1976" },
+    { "Zn(OH)4^2-", from = { ["Zn^2+"] = 1, ["OH-"] = 4 }, logK = -40.5 + 4 * 13.995,
+      source = "baes1976" },
+    { "CuOH+", from = { ["Cu^2+"] = 1, ["OH-"] = 1 }, logK = -8.0 + 13.995, source = "baes1976" },
+    { "Cu2(OH)2^2+", from = { ["Cu^2+"] = 2, ["OH-"] = 2 }, logK = -10.36 + 2 * 13.995,
+      source = "baes1976" },
+    { "FeOH^2+", from = { ["Fe^3+"] = 1, ["OH-"] = 1 }, logK = -2.19 + 13.995, source = "baes1976" },
+    { "Fe(OH)2+", from = { ["Fe^3+"] = 1, ["OH-"] = 2 }, logK = -5.67 + 2 * 13.995,
+      source = "baes1976" },
+    { "Fe(OH)4-", from = { ["Fe^3+"] = 1, ["OH-"] = 4 }, logK = -21.6 + 4 * 13.995,
+      source = "baes1976" },
+    { "Fe2(OH)2^4+", from = { ["Fe^3+"] = 2, ["OH-"] = 2 }, logK = -2.95 + 2 * 13.995,
+      source = "baes1976" },
+    -- chloride (stepwise K of the source summed to overall beta)
+    { "CuCl+", from = { ["Cu^2+"] = 1, ["Cl-"] = 1 }, logK = 0.40, source = "ms1976" },
+    { "FeCl^2+", from = { ["Fe^3+"] = 1, ["Cl-"] = 1 }, logK = 1.48, source = "ms1976" },
+    { "FeCl2+", from = { ["Fe^3+"] = 1, ["Cl-"] = 2 }, logK = 1.48 + 0.65, source = "ms1976" },
+    { "ZnCl+", from = { ["Zn^2+"] = 1, ["Cl-"] = 1 }, logK = 0.43, source = "ms1976" },
+    { "ZnCl2(aq)", from = { ["Zn^2+"] = 1, ["Cl-"] = 2 }, logK = 0.43 + 0.18, source = "ms1976" },
+    { "ZnCl3-", from = { ["Zn^2+"] = 1, ["Cl-"] = 3 }, logK = 0.43 + 0.18 - 0.11,
+      source = "ms1976" },
+    { "ZnCl4^2-", from = { ["Zn^2+"] = 1, ["Cl-"] = 4 }, logK = 0.43 + 0.18 - 0.11 - 0.3,
+      source = "ms1976" },
+    -- acetate
+    { "CaCH3COO+", from = { ["Ca^2+"] = 1, ["CH3COO-"] = 1 }, logK = 1.18, source = "ms1976" },
+    { "MgCH3COO+", from = { ["Mg^2+"] = 1, ["CH3COO-"] = 1 }, logK = 1.27, source = "ms1976" },
+    { "MnCH3COO+", from = { ["Mn^2+"] = 1, ["CH3COO-"] = 1 }, logK = 1.40, source = "ms1976" },
+    { "ZnCH3COO+", from = { ["Zn^2+"] = 1, ["CH3COO-"] = 1 }, logK = 1.57, source = "ms1976" },
+    { "CuCH3COO+", from = { ["Cu^2+"] = 1, ["CH3COO-"] = 1 }, logK = 2.22, source = "ms1976" },
+    { "Cu(CH3COO)2(aq)", from = { ["Cu^2+"] = 1, ["CH3COO-"] = 2 }, logK = 2.22 + 1.41,
+      source = "ms1976" },
+    -- ammonia
+    { "Cu(NH3)^2+", from = { ["Cu^2+"] = 1, NH3 = 1 }, logK = 4.04, source = "ms1976" },
+    { "Cu(NH3)2^2+", from = { ["Cu^2+"] = 1, NH3 = 2 }, logK = 4.04 + 3.43, source = "ms1976" },
+    { "Cu(NH3)3^2+", from = { ["Cu^2+"] = 1, NH3 = 3 }, logK = 4.04 + 3.43 + 2.80,
+      source = "ms1976" },
+    { "Cu(NH3)4^2+", from = { ["Cu^2+"] = 1, NH3 = 4 }, logK = 4.04 + 3.43 + 2.80 + 1.48,
+      source = "ms1976" },
+    { "Zn(NH3)^2+", from = { ["Zn^2+"] = 1, NH3 = 1 }, logK = 2.21, source = "ms1976" },
+    { "Zn(NH3)2^2+", from = { ["Zn^2+"] = 1, NH3 = 2 }, logK = 2.21 + 2.29, source = "ms1976" },
+    { "Zn(NH3)3^2+", from = { ["Zn^2+"] = 1, NH3 = 3 }, logK = 2.21 + 2.29 + 2.36,
+      source = "ms1976" },
+    { "Zn(NH3)4^2+", from = { ["Zn^2+"] = 1, NH3 = 4 }, logK = 2.21 + 2.29 + 2.36 + 2.03,
+      source = "ms1976" },
+    -- phosphate
+    { "CaHPO4(aq)", from = { ["Ca^2+"] = 1, ["HPO4^2-"] = 1 }, logK = 2.739, source = "cmn1968" },
+    { "CaH2PO4+", from = { ["Ca^2+"] = 1, ["H2PO4-"] = 1 }, logK = 1.408, source = "cmn1968" },
+    { "CaPO4-", from = { ["Ca^2+"] = 1, ["PO4^3-"] = 1 }, logK = 6.459, source = "cmn1968" },
+    { "MgHPO4(aq)", from = { ["Mg^2+"] = 1, ["HPO4^2-"] = 1 }, logK = 2.87, source = "mgphos" },
+    -- carbonate (log10 T written as ln T / ln 10)
+    { "CaHCO3+", from = { ["Ca^2+"] = 1, ["HCO3-"] = 1 }, logK = 1.106, source = "pb1982",
+      logK_T = { a = 1209.120, b = 0.31294, c = -34765.05, d = -478.782 / L10 },
+      T_range = { 273.15, 363.15 } },
+    { "CaCO3(aq)", from = { ["Ca^2+"] = 1, ["CO3^2-"] = 1 }, logK = 3.224, source = "pb1982",
+      logK_T = { a = -1228.732, b = -0.299444, c = 35512.75, d = 485.818 / L10 },
+      T_range = { 273.15, 363.15 } },
+    { "MgHCO3+", from = { ["Mg^2+"] = 1, ["HCO3-"] = 1 }, logK = 1.07, source = "sh1977" },
+    { "MgCO3(aq)", from = { ["Mg^2+"] = 1, ["CO3^2-"] = 1 }, logK = 2.98, source = "sh1977" },
+    -- sulfate
+    { "CaSO4(aq)", from = { ["Ca^2+"] = 1, ["SO4^2-"] = 1 }, logK = 2.30, source = "sulfpairs" },
+    { "MgSO4(aq)", from = { ["Mg^2+"] = 1, ["SO4^2-"] = 1 }, logK = 2.23, source = "sulfpairs" },
+    -- citrate and succinate, published at I = 0.1 mol/L
+    { "CaCit-", from = { ["Ca^2+"] = 1, ["Cit^3-"] = 1 }, logK = I0(3.45, 4 + 9 - 1),
+      source = "ms1974ca", note = "log K 3.45 at 25 C, I = 0.1 mol/L; Davies to I = 0" },
+    { "CaSucc(aq)", from = { ["Ca^2+"] = 1, ["Succ^2-"] = 1 }, logK = I0(1.25, 4 + 4),
+      source = "ms1974ca", note = "log K 1.25 at 25 C, I = 0.1 mol/L; Davies to I = 0" },
+  },
+  reagents = {
+    { "Ca(OH)2", gives = { ["Ca^2+"] = 1, ["OH-"] = 2 }, names = { "calcium hydroxide",
+      "slaked lime" }, hazards = { "corrosive" },
+      note = "soluble to about 20 mmol/kg at 25 C; more stays undissolved in practice" },
+    { "MgSO4", gives = { ["Mg^2+"] = 1, ["SO4^2-"] = 1 }, names = { "magnesium sulfate" },
+      hydrates = { 7 } },
+    { "Ca(NO3)2", gives = { ["Ca^2+"] = 1, ["NO3-"] = 2 }, names = { "calcium nitrate" },
+      hydrates = { 4 }, hazards = { "oxidizer" } },
+    { "Mg(CH3COO)2", gives = { ["Mg^2+"] = 1, ["CH3COO-"] = 2 }, names = { "magnesium acetate" },
+      hydrates = { 4 } },
+    { "MnCl2", gives = { ["Mn^2+"] = 1, ["Cl-"] = 2 }, names = { "manganese(II) chloride",
+      "manganese chloride" }, hydrates = { 4 }, hazards = { "toxic" } },
+    { "MnSO4", gives = { ["Mn^2+"] = 1, ["SO4^2-"] = 1 }, names = { "manganese(II) sulfate" },
+      hydrates = { 1 }, hazards = { "toxic" } },
+    { "ZnCl2", gives = { ["Zn^2+"] = 1, ["Cl-"] = 2 }, names = { "zinc chloride" },
+      hazards = { "corrosive" } },
+    { "ZnSO4", gives = { ["Zn^2+"] = 1, ["SO4^2-"] = 1 }, names = { "zinc sulfate" },
+      hydrates = { 1, 7 }, hazards = { "irritant" } },
+    { "CuSO4", gives = { ["Cu^2+"] = 1, ["SO4^2-"] = 1 }, names = { "copper(II) sulfate",
+      "copper sulfate" }, hydrates = { 5 }, hazards = { "toxic" } },
+    { "CuCl2", gives = { ["Cu^2+"] = 1, ["Cl-"] = 2 }, names = { "copper(II) chloride" },
+      hydrates = { 2 }, hazards = { "toxic" } },
+    { "FeCl3", gives = { ["Fe^3+"] = 1, ["Cl-"] = 3 }, names = { "iron(III) chloride",
+      "ferric chloride" }, hydrates = { 6 }, hazards = { "corrosive" } },
+    { "Fe(NO3)3", gives = { ["Fe^3+"] = 1, ["NO3-"] = 3 }, names = { "iron(III) nitrate",
+      "ferric nitrate" }, hydrates = { 9 }, hazards = { "oxidizer", "irritant" } },
+  },
+}
