@@ -53,6 +53,9 @@ check bad_param 2 "NAME=VALUE" -- "$EQP" run "$CASES/params.lua" --param acid
 check demo 0 "after 2 mmol HCl" -- "$EQP" run "$SRC/scripts/examples/demo.lua"
 check demo_caution 0 "caution: HCl is corrosive" -- "$EQP" run "$SRC/scripts/examples/demo.lua"
 check iupac_standards 0 "all within 0.02 pH" -- "$EQP" run "$SRC/tests/published/iupac_standards.lua"
+# the buffer catalogue, metal complexes, chelators and gases against published
+# values (sources named beside each check in the script)
+check catalogue 0 "all catalogue checks passed" -- "$EQP" run "$SRC/tests/published/catalogue.lua"
 check result_fields 0 "^ok" -- "$EQP" run "$CASES/result_fields.lua"
 check inline_species 0 "pH 5.500" -- "$EQP" run "$CASES/inline_species.lua"
 # 0.025 m KH2PO4 + 0.025 m Na2HPO4 and 0.008695 m + 0.03043 m are the IUPAC
