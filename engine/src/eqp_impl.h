@@ -146,10 +146,12 @@ typedef struct eqpi_species {
   int nrx;
   int *rx_idx;
   double *rx_c;
-  /* activity-model parameters from the species file (e.g. tj_a, tj_b) */
+  /* activity-model parameters from the species file (e.g. tj_size,
+  ** tj_linear) and their source */
   int nparam;
   const char **pkey;
   double *pval;
+  const char *params_source;
 } eqpi_species;
 
 /* A parameter of a pair of species (e.g. an SIT interaction coefficient). */
@@ -200,6 +202,7 @@ typedef struct eqpi_gas {
   const char *name;
   int species;
   eqpi_reaction kh;
+  int used;             /* a solution was opened to it (provenance) */
 } eqpi_gas;
 
 /* A solid phase: formula = sum nu species; log10 Ksp of that dissolution

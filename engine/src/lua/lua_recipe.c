@@ -184,7 +184,7 @@ static int candidate(lua_State *L, eqp_ctx *ctx, eqp_recipe_spec *sp, double loa
   eqp_result *res = NULL;
   double bkg, bL, pH0 = eqp_recipe_pH(r);
   rc = eqp_solution_copy(eqp_recipe_solution(r), &s);
-  if (rc == EQP_OK) rc = eqp_solution_buffer_capacity(s, &bkg, &bL);
+  if (rc == EQP_OK) rc = eqp_solution_buffer_capacity(s, &bL, &bkg);
   if (rc == EQP_OK) rc = eqp_solution_add(s, load_with, load_mol, EQP_Q_AMOUNT);
   if (rc == EQP_OK) rc = eqp_solution_equilibrate(s, &res);
   if (rc == EQP_OK) {
