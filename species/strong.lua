@@ -10,9 +10,9 @@ return {
   size_source = "kielland1937",
   params_source = "tj1974",
   species = {
-    { "Na+", size = 4.5, params = { tj_a = 4.0, tj_b = 0.075 } },
-    { "K+", size = 3, params = { tj_a = 3.5, tj_b = 0.015 } },
-    { "Cl-", size = 3, params = { tj_a = 3.5, tj_b = 0.015 } },
+    { "Na+", size = 4.5, params = { tj_size = 4.0, tj_linear = 0.075 } },
+    { "K+", size = 3, params = { tj_size = 3.5, tj_linear = 0.015 } },
+    { "Cl-", size = 3, params = { tj_size = 3.5, tj_linear = 0.015 } },
     { "NO3-", size = 3 },
   },
   interactions = {
