@@ -2,9 +2,9 @@
 return {
   system = "phthalate",
   sources = {
-    hamer1945a = "W. J. Hamer, G. D. Pinching, S. F. Acree, 'First dissociation constant of o-phthalic acid from 0 to 60 C', J. Res. Natl. Bur. Stand. 35, 539 (1945): pK1 2.950 at 25 C [from memory, medium confidence]; no temperature function is recorded here",
-    hamer1945b = "W. J. Hamer, S. F. Acree, 'Second dissociation constant of o-phthalic acid', J. Res. Natl. Bur. Stand. 35, 381 (1945): pK2 = 2175.83/T - 9.5508 + 0.025694 T, 0-60 C [from memory, medium-high confidence: it gives the tabulated 5.408 at 25 C and 5.433 at 0 C]",
-    kielland1937 = "J. Kielland, J. Am. Chem. Soc. 59, 1675 (1937): ion-size parameters [ion assignments from memory]",
+    hamer1945a = "W. J. Hamer, G. D. Pinching, S. F. Acree, 'First dissociation constant of o-phthalic acid from 0 to 60 C', J. Res. Natl. Bur. Stand. 35, 539 (1945): pK1 2.950 at 25 C [value and title from memory, medium confidence]; no temperature function is recorded here",
+    hamer1945b = "W. J. Hamer, S. F. Acree, 'Second dissociation constant of o-phthalic acid', J. Res. Natl. Bur. Stand. 35, 381 (1945): pK2 = 2175.83/T - 9.5508 + 0.025694 T, T in K, 0-60 C; it gives 5.408 at 25 C and 5.433 at 0 C [equation and title from memory, medium-high confidence]",
+    kielland1937 = "J. Kielland, 'Individual activity coefficients of ions in aqueous solutions', J. Am. Chem. Soc. 59, 1675-1678 (1937): ion-size parameters [title and ion assignments from memory]",
   },
   species = {
     { "H2Phthalate", formula = "C8H6O4" },

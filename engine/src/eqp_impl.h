@@ -17,7 +17,7 @@
 ** that grams of a hydrate and the water it brings agree */
 #define EQPI_M_WATER (2 * 1.0080 + 15.999)
 #define EQPI_MAX_ELEM 16
-#define EQPI_VERIFY_TOL 1e-10       /* DESIGN s.4: max relative residual */
+#define EQPI_VERIFY_TOL 1e-10       /* largest relative residual a result may have */
 
 #if defined(__GNUC__)
 #define EQPI_PRINTF(a, b) __attribute__((format(printf, a, b)))
@@ -136,8 +136,8 @@ typedef struct eqpi_species {
   const char *size_source;
   const char *file;
   int line;
-  int rxn;              /* defining reaction, -1 for a basis species */
-  int component;        /* component index for a basis species, else -1 */
+  int rxn;              /* defining reaction, -1 for a component */
+  int component;        /* component index, or -1 */
   /* Resolved onto components: species = sum term_nu * component */
   int nterm;
   int *term_comp;

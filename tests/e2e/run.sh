@@ -160,7 +160,7 @@ check outside_bad_abi 6 "plugin ABI 2.0, this engine needs 1.x" -- env EQUIPOISE
 check outside_truncated 6 "descriptor is" -- env EQUIPOISE_PLUGIN_PATH="$TMP/plugins" "$EQP" run "$CASES/outside_plugin.lua" --param model=truncated
 check outside_refused_listed 0 "(refused)" -- env EQUIPOISE_PLUGIN_PATH="$TMP/plugins" "$EQP" plugins
 
-# experiments: volumes, titrations, capacity, adjustment, recipes (issue 4)
+# experiments: volumes, titrations, capacity, adjustment, recipes
 EX=$SRC/scripts/examples
 check ex_exchange 0 "after round 2 .*Tris 0.200 mM" -- "$EQP" run "$EX/protein_buffer_exchange.lua"
 # HEPES from 22 to 37 C: van't Hoff with dH = 20.4 kJ/mol (Goldberg, Kishore &

@@ -230,8 +230,9 @@ static void test_conservation(void **state)
 ** the equations of L. N. Plummer, E. Busenberg, Geochim. Cosmochim. Acta 46,
 ** 1011 (1982) (evaluated here from their published form, log10 T and all),
 ** and the charge balance h^3 - (K1 a + Kw) h - 2 K1 K2 a = 0 with
-** a = K_H p, ideal activities; to 1e-9 in [H+]. pCO2 = 426.9 uatm (NOAA/
-** Scripps Mauna Loa, May 2024, as quoted in DATA.md). */
+** a = K_H p, ideal activities; to 1e-9 in [H+]. pCO2 = 426.9 uatm: the
+** Mauna Loa monthly mean of May 2024, 426.9 umol/mol of dry air (NOAA
+** Global Monitoring Laboratory and Scripps Institution of Oceanography). */
 static void test_water_open_to_air(void **state)
 {
   const double T = 298.15, p = 426.9e-6;

@@ -196,7 +196,7 @@ EQP_API int eqp_solution_mix(size_t n, eqp_solution *const *parts, const double 
                              eqp_solution **out);
 /* Multiply the water by factor (>= 1); solutes stay. */
 EQP_API int eqp_solution_dilute(eqp_solution *s, double factor);
-/* Total moles of a component (basis species such as "Na+", "PO4^3-", "H+"). */
+/* Total moles of a component ("Na+", "PO4^3-", "H+"; docs/methods.md). */
 EQP_API int eqp_solution_total(const eqp_solution *s, const char *component, double *mol);
 
 /* dpH per mol of reagent added, at the present equilibrium, by implicit

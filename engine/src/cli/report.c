@@ -123,8 +123,6 @@ static cJSON *result_json(const eqp_result *r, const eqp_ctx *ctx)
   cJSON_AddStringToObject(o, "activity_model", eqp_result_activity_model(r));
   cJSON_AddNumberToObject(o, "residual", eqp_result_residual(r));
   cJSON_AddNumberToObject(o, "iterations", (double)eqp_result_iterations(r));
-  cJSON_AddStringToObject(o, "concentration_scale",
-                          "molality (mol/kg water); molarity = molality x density of water");
   cJSON *sp = cJSON_AddArrayToObject(o, "species");
   for (size_t i = 0; i < eqp_result_species_count(r); i++) {
     cJSON *e = cJSON_CreateObject();
