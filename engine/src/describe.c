@@ -71,6 +71,14 @@ static void arrow(char *buf, size_t len)
   if (used < len) snprintf(buf + used, len - used, " \u21cc ");
 }
 
+/* Cations before neutral species before anions, then by name. */
+static int before(const eqpi_db *db, int a, int b)
+{
+  double za = db->sp[a].comp.charge, zb = db->sp[b].comp.charge;
+  int ca = za > 0 ? 0 : za == 0 ? 1 : 2, cb = zb > 0 ? 0 : zb == 0 ? 1 : 2;
+  return ca != cb ? ca < cb : strcmp(db->sp[a].name, db->sp[b].name) < 0;
+}
+
 /* Write the participants of one side (coefficient sgn x s > 0 after dir),
 ** `lead` first when it is there, `skip` never. */
 static void side(const eqpi_db *db, const eqpi_reaction *r, double dir, int right, int lead,
@@ -85,10 +93,21 @@ static void side(const eqpi_db *db, const eqpi_reaction *r, double dir, int righ
       if (sp == lead && s * want > 0) term(buf, len, first, fabs(s), db->sp[sp].name);
     }
   }
-  for (int j = 0; j < n; j++) {
-    int sp = j < r->n ? r->reactant[j] : r->product;
-    double s = dir * (j < r->n ? -r->nu[j] : 1);
-    if (sp != lead && sp != skip && s * want > 0) term(buf, len, first, fabs(s), db->sp[sp].name);
+  /* the rest as the ions of a salt are written, cations first, then by
+  ** name: the order of a species file's table is not kept */
+  unsigned done = 0;
+  for (int k = 0; k < n && k < 32; k++) {
+    int best = -1;
+    for (int j = 0; j < n && j < 32; j++) {
+      int sp = j < r->n ? r->reactant[j] : r->product;
+      double s = dir * (j < r->n ? -r->nu[j] : 1);
+      if ((done >> j & 1) || sp == lead || sp == skip || s * want <= 0) continue;
+      if (best < 0 || before(db, sp, best < r->n ? r->reactant[best] : r->product)) best = j;
+    }
+    if (best < 0) break;
+    done |= 1u << best;
+    int sp = best < r->n ? r->reactant[best] : r->product;
+    term(buf, len, first, fabs(dir * (best < r->n ? -r->nu[best] : 1)), db->sp[sp].name);
   }
 }
 
@@ -158,12 +177,15 @@ static void view_phase(const eqpi_db *db, const char *phase, const char *state, 
   arrow(v->equation, sizeof v->equation);
   first = 1;
   /* cations first, as the ions of a salt are written */
-  for (int pass = 0; pass < 3; pass++)
-    for (int j = 0; j < n; j++) {
-      double z = db->sp[sp[j]].comp.charge;
-      if (nu[j] > 0 && (pass == 0 ? z > 0 : pass == 1 ? z == 0 : z < 0))
-        term(v->equation, sizeof v->equation, &first, nu[j], db->sp[sp[j]].name);
-    }
+  unsigned done = 0;
+  for (int k = 0; k < n && k < 32; k++) {
+    int best = -1;
+    for (int j = 0; j < n && j < 32; j++)
+      if (!(done >> j & 1) && nu[j] > 0 && (best < 0 || before(db, sp[j], sp[best]))) best = j;
+    if (best < 0) break;
+    done |= 1u << best;
+    term(v->equation, sizeof v->equation, &first, nu[best], db->sp[sp[best]].name);
+  }
 }
 
 static const char *dependence(const eqpi_reaction *r)
