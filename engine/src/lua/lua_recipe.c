@@ -196,8 +196,8 @@ static int candidate(lua_State *L, eqp_ctx *ctx, eqp_recipe_spec *sp, double loa
     /* the most a monoprotic buffer of total C gives, at its pKa: ln10 C / 4
     ** (Van Slyke 1922); far below that the system is not buffering here */
     double share = bL / (log(10) * sp->total / 4);
-    snprintf(why, len, "%sbeta %.4f mol/(L pH); the load moves the pH by %+.3f",
-             share < 0.2 ? "far from its pKa here; " : "", bL, out[1]);
+    snprintf(why, len, "%sbeta %.1f mM per pH; the load moves the pH by %+.3f",
+             share < 0.2 ? "far from its pKa here; " : "", bL * 1e3, out[1]);
   } else {
     snprintf(why, len, "%s", eqp_ctx_errmsg(ctx));
   }
