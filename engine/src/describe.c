@@ -344,9 +344,17 @@ static cJSON *reagent_json(const eqpi_db *db, int i)
   cJSON_AddStringToObject(o, "name", g->name);
   cJSON_AddStringToObject(o, "formula", g->formula);
   cJSON_AddNumberToObject(o, "molar_mass", g->molar_mass);
+  cJSON_AddStringToObject(o, "molar_mass_source", "T. Prohaska et al. (IUPAC CIAAW), 'Standard "
+                          "atomic weights of the elements 2021', Pure Appl. Chem. 94, 573-600 "
+                          "(2022), abridged values [from memory, high confidence]");
   strings(o, "aliases", g->aliases, g->naliases);
   cJSON *gives = cJSON_AddArrayToObject(o, "gives");
-  for (int j = 0; j < g->n; j++) {
+  unsigned done = 0;   /* cations first, as a salt's ions are written */
+  for (int k = 0; k < g->n && k < 32; k++) {
+    int j = -1;
+    for (int q = 0; q < g->n && q < 32; q++)
+      if (!(done >> q & 1) && (j < 0 || before(db, g->sp[q], g->sp[j]))) j = q;
+    done |= 1u << j;
     cJSON *e = cJSON_CreateObject();
     cJSON_AddStringToObject(e, "species", db->sp[g->sp[j]].name);
     cJSON_AddNumberToObject(e, "count", g->nu[j]);

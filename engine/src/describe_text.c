@@ -102,19 +102,26 @@ static void reagent_text(eqpi_text *t, const cJSON *e)
 {
   eqpi_text_printf(t, "%s: reagent, formula %s, %.3f g/mol\n", str(e, "name"), str(e, "formula"),
                    num(e, "molar_mass")->valuedouble);
+  eqpi_text_printf(t, "      molar mass from: %s\n", str(e, "molar_mass_source"));
   list_names(t, "also called: ", arr(e, "aliases"), "; ");
   eqpi_text_printf(t, "  gives:");
   const cJSON *g;
   int first = 1;
+  double water = 0, hydrate = num(e, "water_of_crystallisation") ?
+                               num(e, "water_of_crystallisation")->valuedouble : 0;
   cJSON_ArrayForEach(g, arr(e, "gives")) {
     double n = num(g, "count")->valuedouble;
-    if (n == 1) eqpi_text_printf(t, "%s %s", first ? "" : " +", str(g, "species"));
+    if (strcmp(str(g, "species"), "H2O") == 0) water += n;   /* written once, net, below */
+    else if (n == 1) eqpi_text_printf(t, "%s %s", first ? "" : " +", str(g, "species"));
     else eqpi_text_printf(t, "%s %g %s", first ? "" : " +", n, str(g, "species"));
     first = 0;
   }
-  if (num(e, "water_of_crystallisation"))
-    eqpi_text_printf(t, " + %g H2O (water of crystallisation)",
-                     num(e, "water_of_crystallisation")->valuedouble);
+  double net = water + hydrate;
+  if (net != 0) eqpi_text_printf(t, " %c %g H2O", net > 0 ? '+' : '-', fabs(net));
+  if (hydrate > 0 && water == 0) eqpi_text_printf(t, " (water of crystallisation)");
+  else if (hydrate > 0)
+    eqpi_text_printf(t, " (%g of crystallisation, %g %s on dissolving)", hydrate, fabs(water),
+                     water < 0 ? "taken up" : "released");
   eqpi_text_printf(t, "\n");
   if (num(e, "density")) eqpi_text_printf(t, "  density %g g/mL\n", num(e, "density")->valuedouble);
   list_names(t, "hazards: ", arr(e, "hazards"), ", ");

@@ -129,6 +129,7 @@ check species_list_bogus 2 "unknown option '--bogus' for 'species list'" -- "$EQ
 check species_show_bogus 2 "unknown option '--bogus'" -- "$EQP" species show H2PO4- --bogus
 check species_show_no_name 2 "takes one argument" -- "$EQP" species show
 check species_show_bad_T 3 "temperature" -- "$EQP" species show H2PO4- --temperature 150
+check plugins_bogus 2 "'plugins' takes no arguments ('--bogus')" -- "$EQP" plugins --bogus
 check species_unknown_command 2 "unknown species command 'lsit'" -- "$EQP" species lsit
 check describe_lua 0 "at 37 °C: pKa $pK37" -- "$EQP" run "$CASES/describe.lua"
 check describe_lua_option 3 "unknown option 'temprature'" -- "$EQP" run "$CASES/describe.lua" --param bad=1

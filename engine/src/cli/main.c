@@ -147,7 +147,11 @@ int main(int argc, char **argv)
   }
   if (strcmp(cmd, "run") == 0) return cmd_run(argc - 2, argv + 2);
   if (strcmp(cmd, "species") == 0) return cli_species(argc - 2, argv + 2);
-  if (strcmp(cmd, "plugins") == 0) return argc == 2 ? cmd_plugins() : EXIT_USAGE;
+  if (strcmp(cmd, "plugins") == 0) {
+    if (argc == 2) return cmd_plugins();
+    fprintf(stderr, "equipoise: 'plugins' takes no arguments ('%s')\n%s", argv[2], cli_usage);
+    return EXIT_USAGE;
+  }
   fprintf(stderr, "equipoise: unknown command '%s'\n%s", cmd, cli_usage);
   return EXIT_USAGE;
 }
