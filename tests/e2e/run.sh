@@ -87,6 +87,9 @@ check_near json_pH 6.865 0.02 "" -- "$JSON" results.0.pH < "$TMP/j1"    # Buck e
 check json_output 0 "^pH [0-9]" -- "$JSON" output.0 < "$TMP/j1"
 check json_provenance 0 "phosphate.lua" -- sh -c "grep -o 'species/phosphate.lua' '$TMP/j1'"
 check json_caution 0 "calibrated meter" -- "$JSON" cautions.0 < "$TMP/j1"
+# the provenance names each constant used, with its source (Goldberg et al. 2002)
+check json_constants 0 "H2PO4- ⇌ H+ + HPO4^2-" -- grep -o '"equation":[[:space:]]*"H2PO4- ⇌ H+ + HPO4^2-"' "$TMP/j1"
+check json_constants_source 0 "Goldberg" -- grep -A12 '"equation":[[:space:]]*"H2PO4- ⇌ H+ + HPO4^2-"' "$TMP/j1"
 [ "$code" -eq 0 ] || { echo "FAIL json exit $code"; fail=$((fail + 1)); }
 "$EQP" run "$CASES/negative.lua" --json >"$TMP/j2"; code=$?
 check json_error_status 0 "error" -- "$JSON" status < "$TMP/j2"

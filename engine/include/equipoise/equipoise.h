@@ -254,7 +254,7 @@ typedef struct eqp_titration {
 ** lowest slope between it and the next steeper point or the end of the
 ** curve on either side (methods.md). Columns (the names Lua, JSON and CSV
 ** share): amount (mol of titrant; NaN for a stock), volume (L of titrant;
-** NaN for a solid reagent), total_volume (L), pH, slope (dpH per mol of a
+** 0 for a solid reagent), total_volume (L), pH, slope (dpH per mol of a
 ** reagent, per L of a stock), then the requested species (mol/kg). *out is
 ** owned by the caller (eqp_curve_free). */
 #define EQP_EQ_MIN_SHARPNESS 2.0
