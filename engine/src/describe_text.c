@@ -180,16 +180,17 @@ void eqpi_list_text(eqpi_text *t, const cJSON *doc)
   eqpi_text_printf(t, "species (%d)\n", cJSON_GetArraySize(a));
   cJSON_ArrayForEach(e, a) {
     charge(z, sizeof z, num(e, "charge")->valuedouble);
-    eqpi_text_printf(t, "  %-16s charge %-4s %s\n", str(e, "name"), z, base_name(str(e, "defined")));
+    eqpi_text_printf(t, "  %-20s charge %-4s %s\n", str(e, "name"), z, base_name(str(e, "defined")));
   }
   a = arr(doc, "reagents");
   eqpi_text_printf(t, "reagents (%d)\n", cJSON_GetArraySize(a));
   cJSON_ArrayForEach(e, a) {
-    eqpi_text_printf(t, "  %-16s", str(e, "name"));
     const cJSON *n;
     int first = 1;
+    if (cJSON_GetArraySize(arr(e, "aliases")) == 0) eqpi_text_printf(t, "  %s", str(e, "name"));
     cJSON_ArrayForEach(n, arr(e, "aliases")) {
-      eqpi_text_printf(t, "%s%s", first ? " also: " : "; ", n->valuestring);
+      if (first) eqpi_text_printf(t, "  %-20s also: %s", str(e, "name"), n->valuestring);
+      else eqpi_text_printf(t, "; %s", n->valuestring);
       first = 0;
     }
     eqpi_text_printf(t, "\n");
@@ -197,7 +198,7 @@ void eqpi_list_text(eqpi_text *t, const cJSON *doc)
   a = arr(doc, "buffer_systems");
   eqpi_text_printf(t, "buffer systems (%d)\n", cJSON_GetArraySize(a));
   cJSON_ArrayForEach(e, a) {
-    eqpi_text_printf(t, "  %-16s", str(e, "name"));
+    eqpi_text_printf(t, "  %-20s", str(e, "name"));
     if (str(e, "acid_form")) eqpi_text_printf(t, " %s + %s", str(e, "acid_form"), str(e, "base_form"));
     if (str(e, "substance"))
       eqpi_text_printf(t, "%s %s with %s", str(e, "acid_form") ? ", or" : "", str(e, "substance"),
@@ -206,11 +207,11 @@ void eqpi_list_text(eqpi_text *t, const cJSON *doc)
   }
   a = arr(doc, "solids");
   eqpi_text_printf(t, "solids (%d)\n", cJSON_GetArraySize(a));
-  cJSON_ArrayForEach(e, a) eqpi_text_printf(t, "  %-16s %s\n", str(e, "name"), str(e, "formula"));
+  cJSON_ArrayForEach(e, a) eqpi_text_printf(t, "  %-20s %s\n", str(e, "name"), str(e, "formula"));
   a = arr(doc, "gases");
   eqpi_text_printf(t, "gases (%d)\n", cJSON_GetArraySize(a));
   cJSON_ArrayForEach(e, a)
-    eqpi_text_printf(t, "  %-16s dissolves as %s\n", str(e, "name"), str(e, "dissolves"));
+    eqpi_text_printf(t, "  %-20s dissolves as %s\n", str(e, "name"), str(e, "dissolves"));
   a = arr(doc, "species_files");
   eqpi_text_printf(t, "species files (%d)\n", cJSON_GetArraySize(a));
   cJSON_ArrayForEach(e, a) eqpi_text_printf(t, "  %s\n", e->valuestring);
