@@ -7,7 +7,7 @@ cd "$(dirname "$0")/.."
 build=${1:-build}
 [ $# -gt 0 ] && shift
 
-packages="build-essential cmake pkg-config liblua5.4-dev lua5.4 libsundials-dev libcmocka-dev libcjson-dev"
+packages="build-essential cmake pkg-config liblua5.4-dev lua5.4 libsundials-dev libcmocka-dev libcjson-dev python3 python3-jsonschema"
 missing=""
 for p in $packages; do
   dpkg-query -W -f='${Status}' "$p" 2>/dev/null | grep -q "install ok installed" || missing="$missing $p"

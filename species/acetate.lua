@@ -3,7 +3,7 @@ return {
   system = "acetate",
   sources = {
     goldberg2002 = "R. N. Goldberg, N. Kishore, R. M. Lennen, 'Thermodynamic quantities for the ionization reactions of buffers', J. Phys. Chem. Ref. Data 31, 231-370 (2002), 298.15 K, I = 0 [values from memory, high confidence]",
-    kielland1937 = "J. Kielland, J. Am. Chem. Soc. 59, 1675 (1937): ion-size parameters [ion assignments from memory]",
+    kielland1937 = "J. Kielland, 'Individual activity coefficients of ions in aqueous solutions', J. Am. Chem. Soc. 59, 1675-1678 (1937): ion-size parameters [title and ion assignments from memory]",
   },
   size_source = "kielland1937",
   species = {
@@ -22,7 +22,7 @@ return {
   reagents = {
     { "CH3COOH", names = { "acetic acid", "glacial acetic acid" }, density = 1.049,
       hazards = { "corrosive", "flammable" },
-      note = "density of the glacial acid near 20 C, CRC Handbook [from memory]" },
+      note = "density of the glacial acid near 20 C: 1.049 g/mL, CRC Handbook of Chemistry and Physics, CRC Press, table of physical constants of organic compounds [value from memory, edition not recorded]" },
     { "CH3COONa", gives = { ["Na+"] = 1, ["CH3COO-"] = 1 }, names = { "sodium acetate" },
       hydrates = { 3 } },
     { "CH3COOK", gives = { ["K+"] = 1, ["CH3COO-"] = 1 }, names = { "potassium acetate" } },

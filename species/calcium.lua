@@ -3,8 +3,8 @@
 return {
   system = "calcium and magnesium",
   sources = {
-    kielland1937 = "J. Kielland, J. Am. Chem. Soc. 59, 1675 (1937): ion-size parameters [ion assignments from memory]",
-    pb1982 = "L. N. Plummer, E. Busenberg, Geochim. Cosmochim. Acta 46, 1011-1040 (1982): log Ksp of calcite = -171.9065 - 0.077993 T + 2839.319/T + 71.595 log10 T, aragonite = -171.9773 - 0.077993 T + 2903.293/T + 71.595 log10 T, 0-90 C [equations from memory, medium-high confidence: they give the accepted -8.48 and -8.34 at 25 C]",
+    kielland1937 = "J. Kielland, 'Individual activity coefficients of ions in aqueous solutions', J. Am. Chem. Soc. 59, 1675-1678 (1937): ion-size parameters [title and ion assignments from memory]",
+    pb1982 = "L. N. Plummer, E. Busenberg, 'The solubilities of calcite, aragonite and vaterite in CO2-H2O solutions between 0 and 90 C, and an evaluation of the aqueous model for the system CaCO3-CO2-H2O', Geochim. Cosmochim. Acta 46, 1011-1040 (1982): log Ksp of calcite = -171.9065 - 0.077993 T + 2839.319/T + 71.595 log10 T, of aragonite = -171.9773 - 0.077993 T + 2903.293/T + 71.595 log10 T, T in K, 0-90 C; at 25 C they give -8.480 and -8.336 [equations from memory, medium-high confidence]",
   },
   size_source = "kielland1937",
   species = {

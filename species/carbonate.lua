@@ -3,8 +3,8 @@ return {
   system = "carbonate",
   about = "CO2(aq) (standing for CO2(aq) + H2CO3), HCO3-, CO3^2-, and CO2 gas.",
   sources = {
-    pb1982 = "L. N. Plummer, E. Busenberg, 'The solubilities of calcite, aragonite and vaterite in CO2-H2O solutions between 0 and 90 C', Geochim. Cosmochim. Acta 46, 1011-1040 (1982): log K_H, log K1, log K2 as functions of T (0-250 C) [equations as quoted in DATA.md, seen in the abstract]",
-    kielland1937 = "J. Kielland, J. Am. Chem. Soc. 59, 1675 (1937): ion-size parameters [ion assignments from memory]",
+    pb1982 = "L. N. Plummer, E. Busenberg, 'The solubilities of calcite, aragonite and vaterite in CO2-H2O solutions between 0 and 90 C, and an evaluation of the aqueous model for the system CaCO3-CO2-H2O', Geochim. Cosmochim. Acta 46, 1011-1040 (1982): log K_H, log K1 and log K2 as functions of T, 0-250 C; at 25 C they give log K_H -1.468, pK1 6.352, pK2 10.329 [the three equations as printed in the paper's abstract]",
+    kielland1937 = "J. Kielland, 'Individual activity coefficients of ions in aqueous solutions', J. Am. Chem. Soc. 59, 1675-1678 (1937): ion-size parameters [title and ion assignments from memory]",
   },
   size_source = "kielland1937",
   species = {

@@ -3,8 +3,8 @@ return {
   system = "Good's buffers",
   sources = {
     goldberg2002 = "R. N. Goldberg, N. Kishore, R. M. Lennen, 'Thermodynamic quantities for the ionization reactions of buffers', J. Phys. Chem. Ref. Data 31, 231-370 (2002), 298.15 K, I = 0 [dH and dCp from memory, medium confidence]",
-    vega1976 = "C. A. Vega, R. G. Bates, Anal. Chem. 48, 1293 (1976): pK2 at 25 C MES 6.270, HEPES 7.565 [as quoted in DATA.md]; dH and dCp from goldberg2002 [from memory, medium]",
-    good1966 = "N. E. Good, G. D. Winget, W. Winter, T. N. Connolly, S. Izawa, R. M. M. Singh, Biochemistry 5, 467 (1966): buffers chosen for negligible metal binding [from memory]",
+    vega1976 = "C. A. Vega, R. G. Bates, 'Buffers for the physiological pH range: thermodynamic constants of four substituted aminoethanesulfonic acids from 5 to 50 C', Anal. Chem. 48, 1293-1296 (1976): pK2 at 25 C, MES 6.270, HEPES 7.565 [values seen in the publication; title from memory]; dH and dCp from R. N. Goldberg, N. Kishore, R. M. Lennen, 'Thermodynamic quantities for the ionization reactions of buffers', J. Phys. Chem. Ref. Data 31, 231-370 (2002) [from memory, medium confidence]",
+    good1966 = "N. E. Good, G. D. Winget, W. Winter, T. N. Connolly, S. Izawa, R. M. M. Singh, 'Hydrogen ion buffers for biological research', Biochemistry 5, 467-477 (1966): buffers chosen for negligible metal binding [from memory]",
   },
   species = {
     { "MES", formula = "C6H13NO4S" },     { "MES-", formula = "C6H12NO4S-" },
@@ -15,7 +15,8 @@ return {
     -- the sulfonic-acid/ammonium zwitterion HL loses the ammonium proton
     { "MES", "MES-", pKa = 6.270, dH = 14.8, dCp = 5, source = "vega1976" },
     { "MOPS", "MOPS-", pKa = 7.184, dH = 21.1, dCp = 25, source = "goldberg2002" },
-    { "HEPES", "HEPES-", pKa = 7.564, dH = 20.4, dCp = 47, source = "vega1976" },
+    -- HEPES 7.565 as Vega & Bates measured it (Goldberg et al. tabulate 7.564)
+    { "HEPES", "HEPES-", pKa = 7.565, dH = 20.4, dCp = 47, source = "vega1976" },
   },
   reagents = {
     { "MES", names = { "MES free acid" }, hazards = { "irritant" } },

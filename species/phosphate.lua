@@ -3,8 +3,8 @@ return {
   system = "phosphate",
   sources = {
     goldberg2002 = "R. N. Goldberg, N. Kishore, R. M. Lennen, 'Thermodynamic quantities for the ionization reactions of buffers', J. Phys. Chem. Ref. Data 31, 231-370 (2002), 298.15 K, I = 0 [values from memory; pK3 and its dH medium-high confidence]",
-    kielland1937 = "J. Kielland, J. Am. Chem. Soc. 59, 1675 (1937): ion-size parameters [ion assignments from memory]",
-    nea2003 = "R. Guillaumont et al., Update on the Chemical Thermodynamics of U, Np, Pu, Am and Tc, OECD/NEA, Elsevier 2003, Appendix B (SIT coefficients, kg/mol) [values from memory, low-medium confidence]",
+    kielland1937 = "J. Kielland, 'Individual activity coefficients of ions in aqueous solutions', J. Am. Chem. Soc. 59, 1675-1678 (1937): ion-size parameters [title and ion assignments from memory]",
+    nea2003 = "R. Guillaumont, T. Fanghaenel, J. Fuger, I. Grenthe, V. Neck, D. A. Palmer, M. H. Rand, 'Update on the Chemical Thermodynamics of Uranium, Neptunium, Plutonium, Americium and Technetium', Chemical Thermodynamics vol. 5, OECD Nuclear Energy Agency, Elsevier, Amsterdam (2003), Appendix B: SIT interaction coefficients, kg/mol [values and co-author list from memory, low-medium confidence]",
   },
   interactions = {
     { "Na+", "H2PO4-", sit = -0.08, source = "nea2003" },

@@ -4,8 +4,8 @@ return {
   sources = {
     hamer1945a = "W. J. Hamer, G. D. Pinching, S. F. Acree, 'First dissociation constant of o-phthalic acid from 0 to 60 C', J. Res. Natl. Bur. Stand. 35, 539 (1945): pK1 = 561.57/T - 1.2843 + 0.0078833 T, 0-60 C [equation from memory, medium confidence: it gives the tabulated 2.950 at 25 C; checked against the 0.05 mol/kg KHP standard of hamer1946]",
     hamer1946 = "W. J. Hamer, G. D. Pinching, S. F. Acree, 'pH standards at various temperatures: aqueous solutions of acid potassium phthalate', J. Res. Natl. Bur. Stand. 36, 47 (1946): pH of 0.05 mol/kg KHP = 1336.08/T - 5.2678 + 0.016069 T, T = t + 273.16, 0-60 C [seen in the abstract]; used by the tests, not by the model",
-    hamer1945b = "W. J. Hamer, S. F. Acree, 'Second dissociation constant of o-phthalic acid', J. Res. Natl. Bur. Stand. 35, 381 (1945): pK2 = 2175.83/T - 9.5508 + 0.025694 T, 0-60 C [from memory, medium-high confidence: it gives the tabulated 5.408 at 25 C and 5.433 at 0 C]",
-    kielland1937 = "J. Kielland, J. Am. Chem. Soc. 59, 1675 (1937): ion-size parameters [ion assignments from memory]",
+    hamer1945b = "W. J. Hamer, S. F. Acree, 'Second dissociation constant of o-phthalic acid', J. Res. Natl. Bur. Stand. 35, 381 (1945): pK2 = 2175.83/T - 9.5508 + 0.025694 T, T in K, 0-60 C; it gives 5.408 at 25 C and 5.433 at 0 C [equation and title from memory, medium-high confidence]",
+    kielland1937 = "J. Kielland, 'Individual activity coefficients of ions in aqueous solutions', J. Am. Chem. Soc. 59, 1675-1678 (1937): ion-size parameters [title and ion assignments from memory]",
   },
   species = {
     { "H2Phthalate", formula = "C8H6O4" },

@@ -3,16 +3,16 @@ return {
   system = "strong electrolytes",
   about = "HCl, HNO3, NaOH, KOH, NaCl, KCl; no ion pairs are formed.",
   sources = {
-    kielland1937 = "J. Kielland, J. Am. Chem. Soc. 59, 1675 (1937): ion-size parameters [ion assignments from memory]",
-    tj1974 = "A. H. Truesdell, B. F. Jones, 'WATEQ, a computer program for calculating chemical equilibria of natural waters', J. Res. U.S. Geol. Surv. 2, 233-248 (1974): ion-specific a and b of the Truesdell-Jones equation [values from memory, medium confidence]",
-    nea2003 = "R. Guillaumont et al., Update on the Chemical Thermodynamics of Uranium, Neptunium, Plutonium, Americium and Technetium, OECD/NEA, Elsevier 2003, Appendix B (SIT interaction coefficients, kg/mol) [values from memory, medium-high confidence for the chloride and nitrate pairs]",
+    kielland1937 = "J. Kielland, 'Individual activity coefficients of ions in aqueous solutions', J. Am. Chem. Soc. 59, 1675-1678 (1937): ion-size parameters [title and ion assignments from memory]",
+    tj1974 = "A. H. Truesdell, B. F. Jones, J. Res. U.S. Geol. Surv. 2, 233-248 (1974), the paper that introduced the equation (its title, which names the authors' computer program, is left out here): ion-specific ion size (tj_size, Angstrom) and extra linear term (tj_linear, kg/mol) of the Truesdell-Jones equation [values from memory, medium confidence]",
+    nea2003 = "R. Guillaumont, T. Fanghaenel, J. Fuger, I. Grenthe, V. Neck, D. A. Palmer, M. H. Rand, 'Update on the Chemical Thermodynamics of Uranium, Neptunium, Plutonium, Americium and Technetium', Chemical Thermodynamics vol. 5, OECD Nuclear Energy Agency, Elsevier, Amsterdam (2003), Appendix B: SIT interaction coefficients, kg/mol [values and co-author list from memory; medium-high confidence for the chloride and nitrate pairs]",
   },
   size_source = "kielland1937",
   params_source = "tj1974",
   species = {
-    { "Na+", size = 4.5, params = { tj_a = 4.0, tj_b = 0.075 } },
-    { "K+", size = 3, params = { tj_a = 3.5, tj_b = 0.015 } },
-    { "Cl-", size = 3, params = { tj_a = 3.5, tj_b = 0.015 } },
+    { "Na+", size = 4.5, params = { tj_size = 4.0, tj_linear = 0.075 } },
+    { "K+", size = 3, params = { tj_size = 3.5, tj_linear = 0.015 } },
+    { "Cl-", size = 3, params = { tj_size = 3.5, tj_linear = 0.015 } },
     { "NO3-", size = 3 },
   },
   interactions = {

@@ -2,7 +2,7 @@
 return {
   system = "Tris",
   sources = {
-    goldberg2002 = "R. N. Goldberg, N. Kishore, R. M. Lennen, 'Thermodynamic quantities for the ionization reactions of buffers', J. Phys. Chem. Ref. Data 31, 231-370 (2002), 298.15 K, I = 0 [values from memory, high confidence; dH agrees with 47.53 kJ/mol of the ORNL study, J. Solution Chem. 16 (1987)]",
+    goldberg2002 = "R. N. Goldberg, N. Kishore, R. M. Lennen, 'Thermodynamic quantities for the ionization reactions of buffers', J. Phys. Chem. Ref. Data 31, 231-370 (2002), 298.15 K, I = 0 [values from memory, high confidence]",
   },
   species = {
     { "Tris", formula = "C4H11NO3" },

@@ -3,10 +3,8 @@ return {
   system = "water",
   about = "The solvent and its ionization.",
   sources = {
-    iapws2007 = "IAPWS R11-07 (2007), 'Release on the ionization constant of H2O', and A. V. Bandura, S. N. Lvov, J. Phys. Chem. Ref. Data 35, 15-30 (2006): pKw = 13.995 at 25 C, 0.1 MPa; the engine evaluates this formulation at every temperature (engine/src/water.c)",
-    hepler1975 = "L. G. Olofsson, L. G. Hepler, J. Solution Chem. 4, 127 (1975): enthalpy of ionization of water 55.81 kJ/mol at 25 C [from memory]",
-    singh1976 = "P. P. Singh, E. M. Woolley, K. G. McCurdy, L. G. Hepler, Can. J. Chem. 54, 3315 (1976): heat capacity of ionization of water -215.2 J/(K mol) at 298 K",
-    kielland1937 = "J. Kielland, J. Am. Chem. Soc. 59, 1675 (1937): ion-size parameters [ion assignments from memory]",
+    iapws2007 = "International Association for the Properties of Water and Steam, 'Release on the Ionization Constant of H2O', IAPWS R11-07 (2007), after A. V. Bandura, S. N. Lvov, 'The ionization constant of water over wide ranges of temperature and density', J. Phys. Chem. Ref. Data 35, 15-30 (2006): pKw 13.995 at 25 C and 0.1 MPa; the engine evaluates this formulation at every temperature. Recorded beside it: dH 55.81 kJ/mol from G. Olofsson, L. G. Hepler, 'Thermodynamics of ionization of water over wide ranges of temperature and pressure', J. Solution Chem. 4, 127-143 (1975) [from memory], and dCp -215.2 J/(K mol) at 298 K from P. P. Singh, E. M. Woolley, K. G. McCurdy, L. G. Hepler, 'Heat capacities of aqueous electrolytes: eight 1:1 electrolytes and ΔCp° for ionization of water at 298 K', Can. J. Chem. 54, 3315-3318 (1976) [title from memory]",
+    kielland1937 = "J. Kielland, 'Individual activity coefficients of ions in aqueous solutions', J. Am. Chem. Soc. 59, 1675-1678 (1937): ion-size parameters [title and ion assignments from memory]",
   },
   size_source = "kielland1937",
   species = {
@@ -20,7 +18,7 @@ return {
     -- the record (a van't Hoff estimate agrees within 0.01 over 0-50 C).
     { "OH-", from = { H2O = 1, ["H+"] = -1 }, logK = -13.995, logK_T = "water-iapws",
       dH = 55.81, dCp = -215.2, T_range = { 273.15, 373.15 },
-      source = "iapws2007", note = "dH from hepler1975, dCp from singh1976" },
+      source = "iapws2007" },
   },
   reagents = {
     { "H2O", name = "water" },

@@ -114,6 +114,7 @@ static void add_species(committer *c)
     d->file = s->file;
     d->line = s->line;
     d->nparam = s->nparams;
+    d->params_source = s->params_source;
     if (s->nparams) {
       d->pkey = eqpi_arena_alloc(c->ctx, &st->arena, sizeof(char *) * (size_t)s->nparams);
       d->pval = eqpi_arena_alloc(c->ctx, &st->arena, sizeof(double) * (size_t)s->nparams);

@@ -110,6 +110,52 @@ int eqp_curve_write_csv(const eqp_curve *c, FILE *f)
   return ferror(f) ? eqpi_fail(c->ctx, EQP_E_IO, "write error") : EQP_OK;
 }
 
+/* Units as a bench chemist reads them: the column's factor from the stored
+** unit and its printed unit. Columns 0..4 are fixed (titrate.c). */
+static double text_unit(const eqp_curve *c, int j, int stock, const char **unit)
+{
+  static const char *const fixed[] = {"mmol", "mL", "mL", "", NULL};
+  if (j < 4) {
+    *unit = fixed[j];
+    return j == 3 ? 1 : 1e3;
+  }
+  if (j == 4) {
+    *unit = stock ? "pH/mL" : "pH/mmol";
+    return 1e-3;
+  }
+  *unit = "mM";
+  return 1e3 * (c->rho > 0 ? c->rho : 1);   /* molality x density: dilute solution */
+}
+
+int eqp_curve_write_text(const eqp_curve *c, FILE *f)
+{
+  if (!c || !f) return EQP_E_ARG;
+  int stock = c->nrows > 0 && isnan(c->v[0]);
+  const char *unit;
+  for (int j = 0; j < c->ncols; j++) fprintf(f, "%s%13s", j ? " " : "", c->names[j]);
+  fputc('\n', f);
+  for (int j = 0; j < c->ncols; j++) {
+    text_unit(c, j, stock, &unit);
+    fprintf(f, "%s%13s", j ? " " : "", unit);
+  }
+  fputc('\n', f);
+  for (size_t i = 0; i < c->nrows; i++) {
+    for (int j = 0; j < c->ncols; j++) {
+      double v = c->v[i * (size_t)c->ncols + j], k = text_unit(c, j, stock, &unit);
+      if (isnan(v)) fprintf(f, "%s%13s", j ? " " : "", "-");
+      else fprintf(f, j == 3 ? "%s%13.3f" : "%s%13.5g", j ? " " : "", v * k);
+    }
+    fputc('\n', f);
+  }
+  for (size_t k = 0; k < c->neq; k++) {
+    fprintf(f, "equivalence point %zu:", k + 1);
+    if (!isnan(c->eq[k].amount)) fprintf(f, " %.5g mmol,", c->eq[k].amount * 1e3);
+    if (!isnan(c->eq[k].litres)) fprintf(f, " %.5g mL,", c->eq[k].litres * 1e3);
+    fprintf(f, " pH %.3f, sharpness %.3g\n", c->eq[k].pH, c->eq[k].sharpness);
+  }
+  return ferror(f) ? eqpi_fail(c->ctx, EQP_E_IO, "write error") : EQP_OK;
+}
+
 char *eqp_curve_to_json(const eqp_curve *c)
 {
   if (!c) return NULL;
@@ -128,8 +174,8 @@ char *eqp_curve_to_json(const eqp_curve *c)
   cJSON *eq = cJSON_AddArrayToObject(o, "equivalence_points");
   for (size_t k = 0; k < c->neq; k++) {
     cJSON *e = cJSON_CreateObject();
-    if (!isnan(c->eq[k].amount)) cJSON_AddNumberToObject(e, "amount_mol", c->eq[k].amount);
-    if (!isnan(c->eq[k].litres)) cJSON_AddNumberToObject(e, "volume_L", c->eq[k].litres);
+    if (!isnan(c->eq[k].amount)) cJSON_AddNumberToObject(e, "amount", c->eq[k].amount);
+    if (!isnan(c->eq[k].litres)) cJSON_AddNumberToObject(e, "volume", c->eq[k].litres);
     cJSON_AddNumberToObject(e, "pH", c->eq[k].pH);
     cJSON_AddNumberToObject(e, "sharpness", c->eq[k].sharpness);
     cJSON_AddItemToArray(eq, e);

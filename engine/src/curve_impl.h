@@ -21,6 +21,7 @@ struct eqp_curve {
   size_t nrows, caprows;
   eqpi_eqpoint *eq;     /* in the order of the titration */
   size_t neq, capeq;
+  double rho;           /* kg/L of water at the titration's temperature */
 };
 
 eqp_curve *eqpi_curve_new(eqp_ctx *ctx, int ncols, const char *const *names);

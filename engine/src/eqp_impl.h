@@ -17,7 +17,7 @@
 ** that grams of a hydrate and the water it brings agree */
 #define EQPI_M_WATER (2 * 1.0080 + 15.999)
 #define EQPI_MAX_ELEM 16
-#define EQPI_VERIFY_TOL 1e-10       /* DESIGN s.4: max relative residual */
+#define EQPI_VERIFY_TOL 1e-10       /* largest relative residual a result may have */
 
 #if defined(__GNUC__)
 #define EQPI_PRINTF(a, b) __attribute__((format(printf, a, b)))
@@ -136,8 +136,8 @@ typedef struct eqpi_species {
   const char *size_source;
   const char *file;
   int line;
-  int rxn;              /* defining reaction, -1 for a basis species */
-  int component;        /* component index for a basis species, else -1 */
+  int rxn;              /* defining reaction, -1 for a component */
+  int component;        /* component index, or -1 */
   /* Resolved onto components: species = sum term_nu * component */
   int nterm;
   int *term_comp;
@@ -146,10 +146,12 @@ typedef struct eqpi_species {
   int nrx;
   int *rx_idx;
   double *rx_c;
-  /* activity-model parameters from the species file (e.g. tj_a, tj_b) */
+  /* activity-model parameters from the species file (e.g. tj_size,
+  ** tj_linear) and their source */
   int nparam;
   const char **pkey;
   double *pval;
+  const char *params_source;
 } eqpi_species;
 
 /* A parameter of a pair of species (e.g. an SIT interaction coefficient). */
@@ -200,6 +202,7 @@ typedef struct eqpi_gas {
   const char *name;
   int species;
   eqpi_reaction kh;
+  int used;             /* a solution was opened to it (provenance) */
 } eqpi_gas;
 
 /* A solid phase: formula = sum nu species; log10 Ksp of that dissolution

@@ -8,7 +8,7 @@
 #include <math.h>
 #include <string.h>
 
-static const eqpi_gas *find_gas(const eqpi_db *db, const char *name)
+static eqpi_gas *find_gas(eqpi_db *db, const char *name)
 {
   for (int i = 0; i < db->ngases; i++)
     if (strcmp(db->gases[i].name, name) == 0) return &db->gases[i];
@@ -34,12 +34,13 @@ int eqp_solution_expose(eqp_solution *s, const char *gas, double p_atm, double *
 {
   if (!s || !gas) return eqpi_fail(s ? s->ctx : NULL, EQP_E_ARG, "NULL argument");
   eqp_ctx *ctx = s->ctx;
-  const eqpi_db *db = &ctx->db;
-  const eqpi_gas *g = find_gas(db, gas);
+  eqpi_db *db = &ctx->db;
+  eqpi_gas *g = find_gas(db, gas);
   if (!g) return eqpi_fail(ctx, EQP_E_UNKNOWN, "unknown gas '%s'", gas);
   if (!(p_atm > 0) || !isfinite(p_atm) || p_atm > 100)
     return eqpi_fail(ctx, EQP_E_INPUT, "partial pressure of %s must be above 0 and at most 100 "
                      "atm", gas);
+  g->used = 1;   /* its K_H joins the provenance of the run */
   eqpi_tnotes notes = {0, 0};
   double target = EQPI_LN10 * eqpi_reaction_logK(&g->kh, s->T, &notes) + log(p_atm);
   int rc = EQP_OK;

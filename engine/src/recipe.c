@@ -211,7 +211,7 @@ int eqp_recipe_make(eqp_ctx *ctx, const eqp_recipe_spec *spec, eqp_recipe **out)
   if ((rc = make_at(ctx, &sp, &p, 0, &s, &v)) < 0) return rc;
   if (p.salt) {
     /* secant on the salt amount: I is nearly linear in it */
-    double I0 = ionic_strength(s), target = sp.ionic_strength, W = eqp_solution_water_kg(s);
+    double I0 = ionic_strength(s), target = sp.ionic_strength, W = eqp_solution_water(s);
     if (!(target >= I0 - 1e-9)) {
       eqp_solution_free(s);
       return eqpi_fail(ctx, EQP_E_INPUT, "recipe: the buffer alone has ionic strength %.4f "

@@ -76,8 +76,8 @@ void eqp_result_free(eqp_result *r)
 
 double eqp_result_pH(const eqp_result *r) { return r ? r->pH : NAN; }
 double eqp_result_ionic_strength(const eqp_result *r) { return r ? r->I : NAN; }
-double eqp_result_temperature(const eqp_result *r) { return r ? r->T : NAN; }
-double eqp_result_water_kg(const eqp_result *r) { return r ? r->water_kg : NAN; }
+double eqp_result_temperature_K(const eqp_result *r) { return r ? r->T : NAN; }
+double eqp_result_water(const eqp_result *r) { return r ? r->water_kg : NAN; }
 double eqp_result_water_density(const eqp_result *r) { return r ? r->rho : NAN; }
 double eqp_result_residual(const eqp_result *r) { return r ? r->residual : NAN; }
 long eqp_result_iterations(const eqp_result *r) { return r ? r->iters : 0; }

@@ -25,8 +25,8 @@ static int grow_totals(eqp_solution *s)
 
 static int check_opts(eqp_ctx *ctx, const eqp_solution_opts *o)
 {
-  if (!(o->water_kg > 0) || !isfinite(o->water_kg) || o->water_kg > 1e6)
-    return eqpi_fail(ctx, EQP_E_INPUT, "mass of water %g kg must be positive", o->water_kg);
+  if (!(o->water > 0) || !isfinite(o->water) || o->water > 1e6)
+    return eqpi_fail(ctx, EQP_E_INPUT, "mass of water %g kg must be positive", o->water);
   if (!(o->temperature_K >= 273.15 && o->temperature_K <= 373.15))
     return eqpi_fail(ctx, EQP_E_INPUT, "temperature %.2f C is outside 0..100 C (liquid water "
                      "at about 1 bar)", o->temperature_K - 273.15);
@@ -43,7 +43,7 @@ int eqp_solution_new(eqp_ctx *ctx, const eqp_solution_opts *opts, eqp_solution *
   eqp_solution *s = eqpi_calloc(ctx, 1, sizeof *s);
   if (!s) return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
   s->ctx = ctx;
-  s->water_kg = opts->water_kg;
+  s->water_kg = opts->water;
   s->T = opts->temperature_K;
   rc = eqpi_model_open(ctx, opts->activity ? opts->activity : "davies", &s->model);
   if (rc == EQP_OK) rc = grow_totals(s);
@@ -116,8 +116,8 @@ int eqp_solution_set_temperature(eqp_solution *s, double T)
   return EQP_OK;
 }
 
-double eqp_solution_water_kg(const eqp_solution *s) { return s ? s->water_kg : NAN; }
-double eqp_solution_temperature(const eqp_solution *s) { return s ? s->T : NAN; }
+double eqp_solution_water(const eqp_solution *s) { return s ? s->water_kg : NAN; }
+double eqp_solution_temperature_K(const eqp_solution *s) { return s ? s->T : NAN; }
 
 double eqp_solution_volume(const eqp_solution *s)
 {
@@ -278,7 +278,7 @@ int eqp_solution_total(const eqp_solution *s, const char *component, double *mol
   const eqpi_db *db = &s->ctx->db;
   int sp = eqpi_db_find_species(db, component);
   if (sp < 0 || db->sp[sp].component < 0)
-    return eqpi_fail(s->ctx, EQP_E_UNKNOWN, "'%s' is not a component (basis species)", component);
+    return eqpi_fail(s->ctx, EQP_E_UNKNOWN, "'%s' is not a component", component);
   int c = db->sp[sp].component;
   *mol = c < s->ntotal ? s->total[c] : 0;
   return EQP_OK;
@@ -325,7 +325,7 @@ int eqp_solution_dpH(eqp_solution *s, const char *reagent, double *dpH_dmol)
   return rc;
 }
 
-int eqp_solution_buffer_capacity(eqp_solution *s, double *beta_kg, double *beta_L)
+int eqp_solution_buffer_capacity(eqp_solution *s, double *per_L, double *per_kg)
 {
   if (!s) return EQP_E_ARG;
   double d;
@@ -333,8 +333,8 @@ int eqp_solution_buffer_capacity(eqp_solution *s, double *beta_kg, double *beta_
   int rc = eqp_solution_dpH(s, "NaOH", &d);
   if (rc < 0) return rc;
   double b = 1.0 / (d * s->water_kg);
-  if (beta_kg) *beta_kg = b;
-  if (beta_L) *beta_L = b * eqpi_water_density(s->T);
+  if (per_L) *per_L = b * eqpi_water_density(s->T);
+  if (per_kg) *per_kg = b;
   return EQP_OK;
 }
 

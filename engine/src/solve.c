@@ -73,7 +73,7 @@ static void kinsol_free(eqpi_system *sys)
   sys->sun = NULL;
 }
 
-/* Order matters (TOOLCHAIN.md): create, user data and error handler, init,
+/* Order matters to KINSOL 6.4: create, user data and error handler, init,
 ** then the linear solver and its hooks, then the other settings. */
 static int kinsol_setup(eqpi_system *sys)
 {

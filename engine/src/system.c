@@ -1,7 +1,7 @@
 /* Tableau assembly and the residual of the equilibrium equations.
 **
 ** Unknowns are x_j = ln m_j of each component's free molality and ln I.
-** Species follow from mass action (DESIGN s.3):
+** Species follow from mass action:
 **   ln m_i = ln K_i + sum_j nu_ij (x_j + ln g_j) - ln g_i
 ** Each mass balance is scaled by sum_i |nu_ij| m_i so every row is O(1);
 ** the ionic strength row is ln(1/2 sum z^2 m) - ln I. Components that form

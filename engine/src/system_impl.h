@@ -46,7 +46,7 @@ struct eqpi_system {
   ** longer cancels two large terms in it. */
   double *href;         /* nc: protons of the reference species per component */
   double *coefH;        /* ns: coefficients of the H+ row */
-  /* Fixed-activity mode (DESIGN s.3): a(H+) is held at exp(lnaH) and the
+  /* Fixed-activity mode: a(H+) is held at exp(lnaH) and the
   ** amount v of a reagent direction takes H+'s unknown slot; the totals
   ** follow v: tot = (N0 + v adir) / (W0 + v wdir), v = u * vscale. */
   int adjust;

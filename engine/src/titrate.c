@@ -178,8 +178,7 @@ int eqp_solution_titrate(eqp_solution *s, const eqp_titration *spec, eqp_curve *
     if (eqpi_db_find_species(&ctx->db, spec->species[k]) < 0)
       return eqpi_fail(ctx, EQP_E_UNKNOWN, "unknown species '%s'%s", spec->species[k],
                        eqpi_name_hint(spec->species[k], hint, sizeof hint));
-  const char *names[MAX_COLS] = {"amount_mol", "volume_L", "total_volume_L", "pH",
-                                 spec->stock ? "dpH_dL" : "dpH_dmol"};
+  const char *names[MAX_COLS] = {"amount", "volume", "total_volume", "pH", "slope"};
   for (size_t k = 0; k < spec->nspecies; k++) names[COL_SPECIES + k] = spec->species[k];
   eqp_solution *base = NULL, *w = NULL;
   titrant t = {0};
@@ -188,6 +187,7 @@ int eqp_solution_titrate(eqp_solution *s, const eqp_titration *spec, eqp_curve *
   if ((rc = make_titrant(base, spec, &t)) < 0) goto out;
   c = eqpi_curve_new(ctx, COL_SPECIES + (int)spec->nspecies, names);
   if (!c) { rc = eqpi_fail(ctx, EQP_E_NOMEM, "out of memory"); goto out; }
+  c->rho = eqpi_water_density(s->T);
   double v = 0, pH, dpH, max_dpH = spec->max_dpH > 0 ? spec->max_dpH : 0.1;
   eqp_result *r;
   if ((rc = state_at(w, base, &t, 0, &pH, &dpH, &r)) < 0) goto out;

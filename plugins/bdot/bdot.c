@@ -1,8 +1,9 @@
 /* B-dot / Truesdell-Jones activity model:
 **   log10 g = -A z^2 sqrt(I) / (1 + B a sqrt(I)) + b I
-** With the ion-specific a and b of A. H. Truesdell, B. F. Jones, J. Res.
-** U.S. Geol. Surv. 2, 233 (1974) where the species files give them
-** (parameters tj_a, tj_b); otherwise a is the ion size and b the B-dot of
+** With the ion-specific a (ion size) and b (the extra linear term) of A. H.
+** Truesdell, B. F. Jones, J. Res. U.S. Geol. Surv. 2, 233 (1974) where the
+** species files give them (parameters tj_size in Angstrom and tj_linear in
+** kg/mol); otherwise a is the ion size and b the B-dot of
 ** H. C. Helgeson, Am. J. Sci. 267, 729 (1969): 0.041 at 25 C (settable as
 ** "bdot"; its temperature dependence is not modelled). Neutral species:
 ** g = 1. Usual range I <= 1 mol/kg in NaCl-dominated solutions. */
@@ -60,8 +61,8 @@ static int bd_bind(void *state, const eqp_species_info *info, char *warn, size_t
   st->n = info->n;
   for (size_t i = 0; i < info->n; i++) {
     double a, b;
-    st->a[i] = info->param(info->ud, i, "tj_a", &a) == 0 ? a : info->size[i];
-    st->b[i] = info->param(info->ud, i, "tj_b", &b) == 0 ? b : NAN;
+    st->a[i] = info->param(info->ud, i, "tj_size", &a) == 0 ? a : info->size[i];
+    st->b[i] = info->param(info->ud, i, "tj_linear", &b) == 0 ? b : NAN;
   }
   eqp_default_ion_sizes(info, st->a, warn, warnlen, "bdot");
   return 0;

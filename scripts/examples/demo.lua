@@ -10,15 +10,15 @@ local recipes = {
   { name = "wash buffer, 10 mM", KH2PO4 = "4 mmol",  Na2HPO4 = "6 mmol" },
 }
 
-print(string.format("%-20s %8s %12s %14s %14s", "recipe", "pH", "I mol/kg",
-                    "H2PO4- mol/kg", "HPO4^2- mol/kg"))
+print(string.format("%-20s %8s %12s %12s %12s", "recipe", "pH", "I (mol/kg)",
+                    "H2PO4- (mM)", "HPO4^2- (mM)"))
 for _, rec in ipairs(recipes) do
   local s = eq.solution{ water = "1 kg", temperature = 25, activity = "davies" }
   s:add("KH2PO4", rec.KH2PO4)
   s:add("Na2HPO4", rec.Na2HPO4)
   local r = s:equilibrate()
-  print(string.format("%-20s %8.3f %12.4f %14.4e %14.4e", rec.name, r.pH, r.ionic_strength,
-                      r:molality("H2PO4-"), r:molality("HPO4^2-")))
+  print(string.format("%-20s %8.3f %12.4f %12.3f %12.3f", rec.name, r.pH, r.ionic_strength,
+                      r:molarity("H2PO4-") * 1e3, r:molarity("HPO4^2-") * 1e3))
 
   -- the same buffer after the spill: a copy, plus 2 mmol of HCl
   local spill = s:copy()

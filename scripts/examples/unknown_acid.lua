@@ -13,7 +13,7 @@ naoh:add("NaOH", "0.1 mol")
 
 local curve = sample:titrate{ with = naoh, step = "0.25 mL", to = "15 mL", species = { "CH3COO-" } }
 print(string.format("%d points", #curve))
-local e = curve.equivalence[1]
+local e = curve.equivalence_points[1]
 local acid_mmol = e.volume * 0.1 * 1e3          -- L x 0.1 mol/L of stock, in mmol
 print(string.format("equivalence at %.3f mL, pH %.2f", e.volume * 1e3, e.pH))
 print(string.format("acid in the sample: %.4f mmol, %.1f mM in the 10 mL taken", acid_mmol,

@@ -90,6 +90,9 @@ check_near json_pH 6.865 0.02 "" -- "$JSON" results.0.pH < "$TMP/j1"    # Buck e
 check json_output 0 "^pH [0-9]" -- "$JSON" output.0 < "$TMP/j1"
 check json_provenance 0 "phosphate.lua" -- sh -c "grep -o 'species/phosphate.lua' '$TMP/j1'"
 check json_caution 0 "calibrated meter" -- "$JSON" cautions.0 < "$TMP/j1"
+# the provenance names each constant used, with its source (Goldberg et al. 2002)
+check json_constants 0 "H2PO4- ⇌ H+ + HPO4^2-" -- grep -o '"equation":[[:space:]]*"H2PO4- ⇌ H+ + HPO4^2-"' "$TMP/j1"
+check json_constants_source 0 "Goldberg" -- grep -A12 '"equation":[[:space:]]*"H2PO4- ⇌ H+ + HPO4^2-"' "$TMP/j1"
 [ "$code" -eq 0 ] || { echo "FAIL json exit $code"; fail=$((fail + 1)); }
 "$EQP" run "$CASES/negative.lua" --json >"$TMP/j2"; code=$?
 check json_error_status 0 "error" -- "$JSON" status < "$TMP/j2"
@@ -101,7 +104,41 @@ check json_error_keeps_output 0 "before the error" -- "$JSON" output.0 < "$TMP/j
 # the library from the command line
 check species_list 0 "KH2PO4" -- "$EQP" species list
 check species_show 0 "goldberg\|Goldberg" -- "$EQP" species show H2PO4-
-check species_show_unknown 3 "no species or reagent" -- "$EQP" species show Nope
+check species_show_unknown 3 "no species, reagent, buffer system, solid or gas named 'Nope'" -- "$EQP" species show Nope
+# entries read as a chemist writes them: the second dissociation of phosphoric
+# acid with its pKa, Goldberg, Kishore & Lennen, J. Phys. Chem. Ref. Data 31,
+# 231 (2002), 7.198 at 25 C; at 37 C from their temperature equation with
+# dH 3.6 kJ/mol and dCp -230 J/(K mol), computed here independently
+pK37=$(awk 'BEGIN { R = 8.314462618 * log(10); t = 298.15; T = 310.15
+  printf "%.3f", 7.198 + 3600 / R * (1 / T - 1 / t) + 230 / R * (t / T - 1 + log(T / t)) }')
+check species_show_pKa 0 "H2PO4- ⇌ H+ + HPO4^2-   pKa 7.198 at 25 °C, ΔrH° 3.6 kJ/mol" -- "$EQP" species show H2PO4-
+check species_show_37 0 "at 37 °C: pKa $pK37 (van't Hoff)" -- "$EQP" species show H2PO4- --temperature 37
+check species_show_kelvin 0 "at 37 °C: pKa $pK37" -- "$EQP" species show H2PO4- --temperature "310.15 K"
+check species_show_no_components 0 "" -- "$EQP" species show H3PO4
+if grep -q "basis\|component" "$TMP/out"; then echo "FAIL species show speaks of components"; fail=$((fail + 1)); fi
+# solids with log Ksp and gases with log K_H (Plummer & Busenberg 1982: -8.48, -1.468)
+check species_show_solid 0 "CaCO3(s) ⇌ Ca^2+ + CO3^2-   log Ksp -8.48 at 25 °C" -- "$EQP" species show calcite
+check species_show_gas 0 "CO2(g) ⇌ CO2   log K_H -1.468 at 25 °C" -- "$EQP" species show "CO2(g)"
+check species_show_buffer 0 "made from NaH2PO4 (acid form) and Na2HPO4 (base form)" -- "$EQP" species show phosphate
+check species_show_buffer_step 0 "H2PO4- ⇌ H+ + HPO4^2-" -- "$EQP" species show phosphate
+check species_show_water 0 "H2O ⇌ H+ + OH-   pKw 13.995" -- "$EQP" species show OH-
+"$EQP" species show H2PO4- --json --temperature 37 >"$TMP/show.json"
+check species_show_json 0 "^H2PO4- ⇌ H+ + HPO4^2-$" -- "$JSON" entries.0.reactions.1.equation < "$TMP/show.json"
+check species_show_json_37 0 "^$pK37$" -- sh -c "'$JSON' entries.0.reactions.1.values.1.value < '$TMP/show.json' | awk '{ printf \"%.3f\\n\", \$1 }'"
+check species_show_json_source 0 "Goldberg" -- "$JSON" entries.0.reactions.1.source < "$TMP/show.json"
+"$EQP" species list --json >"$TMP/list.json"
+check species_list_json_solid 0 "^calcite$" -- "$JSON" solids.0.name < "$TMP/list.json"
+check species_list_json_gas 0 "CO2(g)" -- sh -c "for i in 0 1 2 3 4 5; do '$JSON' gases.\$i.name < '$TMP/list.json'; done; true"
+check species_list_text 0 "sodium dihydrogen phosphate" -- "$EQP" species list
+check species_list_solids 0 "calcite" -- "$EQP" species list
+check species_list_bogus 2 "unknown option '--bogus' for 'species list'" -- "$EQP" species list --bogus
+check species_show_bogus 2 "unknown option '--bogus'" -- "$EQP" species show H2PO4- --bogus
+check species_show_no_name 2 "takes one argument" -- "$EQP" species show
+check species_show_bad_T 3 "temperature" -- "$EQP" species show H2PO4- --temperature 150
+check plugins_bogus 2 "'plugins' takes no arguments ('--bogus')" -- "$EQP" plugins --bogus
+check species_unknown_command 2 "unknown species command 'lsit'" -- "$EQP" species lsit
+check describe_lua 0 "at 37 °C: pKa $pK37" -- "$EQP" run "$CASES/describe.lua"
+check describe_lua_option 3 "unknown option 'temprature'" -- "$EQP" run "$CASES/describe.lua" --param bad=1
 check species_check_good 0 "ok, 2 species added" -- "$EQP" species check "$CASES/good_species.lua"
 # IUPAC charge notation (number then sign after a caret); Unicode accepted
 check notation_unicode 3 "ok notation" -- "$EQP" run "$CASES/notation.lua"
@@ -130,7 +167,7 @@ check outside_bad_abi 6 "plugin ABI 2.0, this engine needs 1.x" -- env EQUIPOISE
 check outside_truncated 6 "descriptor is" -- env EQUIPOISE_PLUGIN_PATH="$TMP/plugins" "$EQP" run "$CASES/outside_plugin.lua" --param model=truncated
 check outside_refused_listed 0 "(refused)" -- env EQUIPOISE_PLUGIN_PATH="$TMP/plugins" "$EQP" plugins
 
-# experiments: volumes, titrations, capacity, adjustment, recipes (issue 4)
+# experiments: volumes, titrations, capacity, adjustment, recipes
 EX=$SRC/scripts/examples
 check ex_exchange 0 "after round 2 .*Tris 0.200 mM" -- "$EQP" run "$EX/protein_buffer_exchange.lua"
 # HEPES from 22 to 37 C: van't Hoff with dH = 20.4 kJ/mol (Goldberg, Kishore &
@@ -138,7 +175,7 @@ check ex_exchange 0 "after round 2 .*Tris 0.200 mM" -- "$EQP" run "$EX/protein_b
 check_near ex_warming -0.175 0.01 "shift" -- "$EQP" run "$EX/culture_medium_warming.lua"
 # 0.85 mmol of acid and 0.1 M NaOH: 8.500 mL by stoichiometry
 check ex_unknown_acid 0 "equivalence at 8.500 mL" -- "$EQP" run "$EX/unknown_acid.lua" --param csv="$TMP/curve.csv"
-check ex_unknown_csv 0 "amount_mol,volume_L,total_volume_L,pH,dpH_dL,CH3COO-" -- head -1 "$TMP/curve.csv"
+check ex_unknown_csv 0 "amount,volume,total_volume,pH,slope,CH3COO-" -- head -1 "$TMP/curve.csv"
 check ex_recipe 0 "re-made from the printed amounts: pH 7.40" -- "$EQP" run "$EX/physiological_recipe.lua"
 check ex_recipe_caution 0 "Check with a pH meter" -- "$EQP" run "$EX/physiological_recipe.lua"
 check ex_assay 0 "best: " -- "$EQP" run "$EX/enzyme_assay_buffer.lua"

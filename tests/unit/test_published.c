@@ -6,7 +6,7 @@
 **   0.025 mol/kg KH2PO4 + 0.025 mol/kg Na2HPO4      6.865
 **   0.008695 mol/kg KH2PO4 + 0.03043 mol/kg Na2HPO4 7.413
 **   0.05 mol/kg potassium hydrogen phthalate          4.005
-** Tolerance 0.02 pH with Davies (issue 2; DESIGN s.9). The standards are
+** Tolerance 0.02 pH with Davies. The standards are
 ** defined with the Bates-Guggenheim convention for Cl-; the Davies model
 ** is known to run about 0.01 high at I = 0.1, so a +0.01 offset here is
 ** expected, not tuned away. */
@@ -57,8 +57,8 @@ static void test_by_mass(void **state)
 }
 
 /* Secondary standards of the NBS: R. G. Bates and co-workers, "Two new
-** standards for the pH scale", J. Res. NBS 73A, 37 (1969) (abstract, as
-** quoted in DATA.md): 0.05 mol/kg KH2-citrate 3.776, 0.025/0.025 mol/kg
+** standards for the pH scale", J. Res. NBS 73A, 37 (1969) (values from its
+** abstract): 0.05 mol/kg KH2-citrate 3.776, 0.025/0.025 mol/kg
 ** NaHCO3/Na2CO3 10.012, and borax 0.01 mol/kg 9.180 at 25 C. */
 static void test_nbs_secondary_standards(void **state)
 {

@@ -155,7 +155,7 @@ static void test_phosphate_ideal_and_davies(void **state)
   eqp_result *r = test_solve(ctx, "ideal", 298.15, "KH2PO4", "25 mmol", "Na2HPO4", "25 mmol", NULL);
   check_h(r, reference_pH(&a, 0), 1e-10);
   eqp_result_free(r);
-  /* DESIGN s.9: agreement with an independent solution to 1e-8 in pH */
+  /* agreement with an independent solution to 1e-8 in pH */
   r = test_solve(ctx, "davies", 298.15, "KH2PO4", "25 mmol", "Na2HPO4", "25 mmol", NULL);
   assert_close(eqp_result_pH(r), reference_pH(&a, 1), 1e-8);
   eqp_result_free(r);

@@ -6,7 +6,7 @@
 ** Recommendations 2002)", Pure Appl. Chem. 74, 2169-2200 (2002), table of
 ** primary-standard values (the NBS/NIST values of R. G. Bates) [from
 ** memory, high confidence for 25 C, medium-high elsewhere].
-** Tolerances from issue 3: 0.02 with extended Debye-Hueckel, 0.03 with
+** Tolerances: 0.02 with extended Debye-Hueckel, 0.03 with
 ** Davies (which runs about 0.01-0.02 high at I = 0.1). The computed minus
 ** certified table is docs/validation.md (tests/published/standards_table.lua).
 **

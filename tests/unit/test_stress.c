@@ -1,6 +1,6 @@
 /* Random recipes, 1e-10 to 5 mol/kg, strong acid to strong base: every
 ** solve converges with closed balances or fails with a message; never a
-** crash, never a result that does not verify (DESIGN s.9). */
+** crash, never a result that does not verify. */
 /* SPDX-License-Identifier: MIT */
 #include "eqp_test.h"
 

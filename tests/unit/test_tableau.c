@@ -36,8 +36,9 @@ static void test_resolution(void **state)
   eqp_ctx_free(ctx);
 }
 
-/* Integrated van't Hoff equation against the pK values DATA.md derives
-** independently from the same Goldberg, Kishore & Lennen (2002) triples:
+/* Integrated van't Hoff equation against pK values computed independently
+** of the engine, with the temperature equation of Goldberg, Kishore &
+** Lennen, J. Phys. Chem. Ref. Data 31, 231 (2002), from their triples:
 ** Tris 7.753 at 37 C, phosphate pK2 7.183 at 37 C, acetic acid 4.779 at 0 C. */
 static void test_vant_hoff(void **state)
 {

@@ -42,7 +42,7 @@ static void test_debye_huckel_25C(void **state)
 }
 
 /* IAPWS R11-07 (2007), Table 3 check values of the formulation of Bandura
-** & Lvov (2006) [from memory, high confidence; DATA.md section 2.1]:
+** & Lvov (2006) [from memory, high confidence]:
 ** pKw = 13.906565 at 300 K and 1.0 g/cm3, 11.203153 at 600 K and 0.7 g/cm3,
 ** 15.089765 at 800 K and 0.2 g/cm3. */
 static void test_pKw_iapws_check_values(void **state)

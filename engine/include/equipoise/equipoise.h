@@ -93,10 +93,20 @@ EQP_API size_t eqp_ctx_species_count(const eqp_ctx *ctx);
 EQP_API const char *eqp_ctx_species_name(const eqp_ctx *ctx, size_t i);
 EQP_API size_t eqp_ctx_reagent_count(const eqp_ctx *ctx);
 EQP_API const char *eqp_ctx_reagent_name(const eqp_ctx *ctx, size_t i);
-/* A human-readable description of a species or reagent by name: its
-** formula, reaction, constants and sources. Writes at most len bytes
-** (always terminated). EQP_E_UNKNOWN if no such name. */
-EQP_API int eqp_ctx_describe(eqp_ctx *ctx, const char *name, char *buf, size_t len);
+/* How a description is written: text for a reader, or a JSON document
+** (docs/json-output.md). */
+typedef enum eqp_format { EQP_FORMAT_TEXT = 0, EQP_FORMAT_JSON = 1 } eqp_format;
+/* Every library entry called `name` -- species, reagent (by name or alias),
+** buffer system, solid, gas -- with its source and each of its constants at
+** 25 C and at T (K): acid steps as dissociations with pKa, complexes as
+** formations with log beta, solids with log Ksp, gases with log K_H. *out
+** is a new string the caller frees with eqp_free_string. EQP_E_UNKNOWN if
+** nothing has that name, EQP_E_INPUT for T outside 273.15..373.15 K. */
+EQP_API int eqp_ctx_describe(eqp_ctx *ctx, const char *name, double T, eqp_format fmt,
+                             char **out);
+/* The library: species, reagents with their aliases, buffer systems,
+** solids, gases and the files they came from. *out as above. */
+EQP_API int eqp_ctx_list(eqp_ctx *ctx, eqp_format fmt, char **out);
 /* Hazard classes recorded for a reagent (name or alias): count, and the
 ** i-th as a borrowed string. 0 / NULL for unknown names. */
 EQP_API size_t eqp_ctx_reagent_hazard_count(const eqp_ctx *ctx, const char *name);
@@ -146,7 +156,7 @@ EQP_API int eqp_formula_molar_mass(eqp_ctx *ctx, const char *formula, double *gm
 /* ----------------------------------------------------------- solution */
 
 typedef struct eqp_solution_opts {
-  double water_kg;          /* mass of water; > 0 */
+  double water;             /* mass of water, kg; > 0 */
   double temperature_K;     /* 273.15 .. 373.15 */
   const char *activity;     /* plugin name; NULL means "davies" */
 } eqp_solution_opts;
@@ -186,15 +196,16 @@ EQP_API int eqp_solution_mix(size_t n, eqp_solution *const *parts, const double 
                              eqp_solution **out);
 /* Multiply the water by factor (>= 1); solutes stay. */
 EQP_API int eqp_solution_dilute(eqp_solution *s, double factor);
-/* Total moles of a component (basis species such as "Na+", "PO4^3-", "H+"). */
+/* Total moles of a component ("Na+", "PO4^3-", "H+"; docs/methods.md). */
 EQP_API int eqp_solution_total(const eqp_solution *s, const char *component, double *mol);
 
 /* dpH per mol of reagent added, at the present equilibrium, by implicit
 ** differentiation of the equilibrium equations (no re-solving). */
 EQP_API int eqp_solution_dpH(eqp_solution *s, const char *reagent, double *dpH_dmol);
-/* Buffer capacity beta = dC(base)/dpH, strong base NaOH, in mol/(kg water
-** . pH) and mol/(L . pH), from the same derivative. */
-EQP_API int eqp_solution_buffer_capacity(eqp_solution *s, double *beta_kg, double *beta_L);
+/* Buffer capacity beta = dC(base)/dpH, strong base NaOH, per litre of
+** solution (mol/(L . pH)) and per kg of water (mol/(kg . pH)), from the same
+** derivative; either pointer may be NULL. Lua returns them in this order. */
+EQP_API int eqp_solution_buffer_capacity(eqp_solution *s, double *per_L, double *per_kg);
 /* Add exactly enough of a reagent, or of a stock solution (reagent NULL),
 ** to bring the pH to target, solved with the H+ activity held fixed and the
 ** amount as the unknown. On success the addition is made and *mol (reagent;
@@ -211,8 +222,8 @@ EQP_API int eqp_solution_adjust_pH(eqp_solution *s, double pH, const char *reage
 ** *mol receives the amount taken up (negative: released). */
 EQP_API int eqp_solution_expose(eqp_solution *s, const char *gas, double p_atm, double *mol);
 
-EQP_API double eqp_solution_water_kg(const eqp_solution *s);
-EQP_API double eqp_solution_temperature(const eqp_solution *s); /* K */
+EQP_API double eqp_solution_water(const eqp_solution *s);         /* kg */
+EQP_API double eqp_solution_temperature_K(const eqp_solution *s);
 /* Volume in L, approximated as the volume of its water at T (dilute). */
 EQP_API double eqp_solution_volume(const eqp_solution *s);
 
@@ -241,9 +252,11 @@ typedef struct eqp_titration {
 ** |dpH/dv| (v: mol or L of titrant), refined by golden-section search on
 ** the analytic slope, whose slope is at least EQP_EQ_MIN_SHARPNESS times the
 ** lowest slope between it and the next steeper point or the end of the
-** curve on either side (methods.md). Columns: amount_mol (NaN for a stock),
-** volume_L, total_volume_L, pH, dpH_dmol or dpH_dL, then the requested
-** species (mol/kg). *out is owned by the caller (eqp_curve_free). */
+** curve on either side (methods.md). Columns (the names Lua, JSON and CSV
+** share): amount (mol of titrant; NaN for a stock), volume (L of titrant;
+** 0 for a solid reagent), total_volume (L), pH, slope (dpH per mol of a
+** reagent, per L of a stock), then the requested species (mol/kg). *out is
+** owned by the caller (eqp_curve_free). */
 #define EQP_EQ_MIN_SHARPNESS 2.0
 EQP_API int eqp_solution_titrate(eqp_solution *s, const eqp_titration *t, eqp_curve **out);
 EQP_API void eqp_curve_free(eqp_curve *c);
@@ -261,6 +274,9 @@ EQP_API int eqp_curve_equivalence(const eqp_curve *c, size_t k, double *amount, 
 EQP_API double eqp_curve_equivalence_sharpness(const eqp_curve *c, size_t k);
 /* Write the curve as CSV (header line, then one line per row). */
 EQP_API int eqp_curve_write_csv(const eqp_curve *c, FILE *f);
+/* Write the curve as a table for a reader: a line of column names, a line
+** of units (mmol, mL, mM), the rows, then the equivalence points. */
+EQP_API int eqp_curve_write_text(const eqp_curve *c, FILE *f);
 /* The curve as a JSON text {columns, rows, equivalence_points}; free it
 ** with eqp_free_string. NULL when memory is exhausted. */
 EQP_API char *eqp_curve_to_json(const eqp_curve *c);
@@ -320,8 +336,8 @@ EQP_API const char *eqp_ctx_buffer_note(const eqp_ctx *ctx, size_t i, size_t k);
 EQP_API void eqp_result_free(eqp_result *r);
 EQP_API double eqp_result_pH(const eqp_result *r);            /* -log10 a(H+) */
 EQP_API double eqp_result_ionic_strength(const eqp_result *r); /* mol/kg */
-EQP_API double eqp_result_temperature(const eqp_result *r);   /* K */
-EQP_API double eqp_result_water_kg(const eqp_result *r);
+EQP_API double eqp_result_temperature_K(const eqp_result *r);
+EQP_API double eqp_result_water(const eqp_result *r);         /* kg */
 EQP_API double eqp_result_water_density(const eqp_result *r); /* kg/L */
 /* Largest relative residual of the balances re-evaluated after the solve. */
 EQP_API double eqp_result_residual(const eqp_result *r);
@@ -351,6 +367,15 @@ EQP_API double eqp_result_species_log_gamma(const eqp_result *r, size_t i);
 /* Warnings attached to the result (a model beyond its range, ...). */
 EQP_API size_t eqp_result_warning_count(const eqp_result *r);
 EQP_API const char *eqp_result_warning(const eqp_result *r, size_t i);
+
+/* The constants n results of this context used -- the reactions of every
+** species present, the solids with a saturation index, the gases a
+** solution was opened to -- each with what it is, its value at 25 C and at
+** every temperature of the results, and its source: a JSON array
+** (docs/json-output.md, "constants"). Free it with eqp_free_string; NULL
+** when memory is exhausted. */
+EQP_API char *eqp_ctx_constants_to_json(eqp_ctx *ctx, const eqp_result *const *results,
+                                        size_t n);
 
 /* ---------------------------------------------------------------- Lua */
 

@@ -72,7 +72,7 @@ typedef struct eqp_species_info {
   const double *charge;
   const double *size;       /* ion-size parameter, Angstrom; NaN if unknown */
   const void *ud;           /* pass back to param() and pair() */
-  /* A numeric parameter of species i from its file (e.g. "tj_b"): 0 and
+  /* A numeric parameter of species i from its file (e.g. "tj_linear"): 0 and
   ** *value set, or -1 if the files do not give it. */
   int (*param)(const void *ud, size_t i, const char *key, double *value);
   /* A parameter of the pair (i, j), in either order (e.g. "sit"). */

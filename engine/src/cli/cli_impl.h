@@ -18,7 +18,15 @@ enum {
   EXIT_NOMEM = 7
 };
 
+/* Version of the --json document's layout (docs/json-output.md): bumped
+** when a key changes meaning or goes away. */
+#define CLI_JSON_SCHEMA_VERSION 1
+
 int cli_exit_code(int status);
+/* The usage lines, printed with every usage error. */
+extern const char cli_usage[];
+/* equipoise species list | show | check (species_cmd.c). */
+int cli_species(int argc, char **argv);
 
 typedef struct cli_run {
   const char *script;

@@ -6,9 +6,10 @@
 #include <limits.h>
 #include <string.h>
 
-static const char usage[] =
+const char cli_usage[] =
   "usage: equipoise run FILE.lua [--param NAME=VALUE ...] [--json] [--verbose]\n"
-  "       equipoise species list | show NAME | check FILE\n"
+  "       equipoise species list [--json] | show NAME [--temperature T] [--json]\n"
+  "       equipoise species check FILE\n"
   "       equipoise plugins\n"
   "       equipoise --help | --version\n";
 
@@ -22,8 +23,12 @@ static const char help[] =
   "    --json            print one JSON document (results, warnings, cautions,\n"
   "                      provenance) instead of the script's text output\n"
   "    --verbose         show a Lua stack trace on errors\n"
-  "  species list        list the species and reagents of the library\n"
-  "  species show NAME   formula, reaction, constants and sources of one entry\n"
+  "  species list        species, reagents (with their other names), buffer\n"
+  "                      systems, solids and gases of the library\n"
+  "  species show NAME   one entry: its reactions as a chemist writes them (pKa,\n"
+  "                      log beta, log Ksp, log K_H) with their sources\n"
+  "    --temperature T   also each constant at T: 37 (C) or '310.15 K'\n"
+  "    --json            a JSON document instead of text (docs/json-output.md)\n"
   "  species check FILE  validate a species file against the library\n"
   "  plugins             list activity models found on the plugin path\n"
   "\n"
@@ -48,75 +53,6 @@ int cli_exit_code(int status)
   case EQP_E_CONVERGE: case EQP_E_VERIFY: return EXIT_CONVERGE;
   }
   return EXIT_SCRIPT;
-}
-
-static int load_library(eqp_ctx *ctx)
-{
-  int rc = eqp_ctx_load_default_library(ctx);
-  if (rc < 0) fprintf(stderr, "equipoise: %s\n", eqp_ctx_errmsg(ctx));
-  return rc;
-}
-
-static int in_library(const eqp_ctx *ctx, const char *path)
-{
-  char a[PATH_MAX], b[PATH_MAX];
-  if (!realpath(path, a)) return 0;
-  for (size_t i = 0; i < eqp_ctx_source_count(ctx); i++)
-    if (realpath(eqp_ctx_source_path(ctx, i), b) && strcmp(a, b) == 0) return 1;
-  return 0;
-}
-
-static int cmd_species(int argc, char **argv)
-{
-  if (argc < 1) {
-    fputs(usage, stderr);
-    return EXIT_USAGE;
-  }
-  eqp_ctx *ctx = eqp_ctx_new(NULL, NULL);
-  if (!ctx) return EXIT_NOMEM;
-  int code = EXIT_OK, rc = load_library(ctx);
-  if (rc < 0) {
-    code = cli_exit_code(rc);
-  } else if (strcmp(argv[0], "list") == 0) {
-    printf("species (%zu):\n", eqp_ctx_species_count(ctx));
-    for (size_t i = 0; i < eqp_ctx_species_count(ctx); i++)
-      printf("  %s\n", eqp_ctx_species_name(ctx, i));
-    printf("reagents (%zu):\n", eqp_ctx_reagent_count(ctx));
-    for (size_t i = 0; i < eqp_ctx_reagent_count(ctx); i++)
-      printf("  %s\n", eqp_ctx_reagent_name(ctx, i));
-    printf("buffer systems (%zu):\n", eqp_ctx_buffer_count(ctx));
-    for (size_t i = 0; i < eqp_ctx_buffer_count(ctx); i++)
-      printf("  %s\n", eqp_ctx_buffer_name(ctx, i));
-    printf("from:\n");
-    for (size_t i = 0; i < eqp_ctx_source_count(ctx); i++)
-      printf("  %s\n", eqp_ctx_source_path(ctx, i));
-  } else if (strcmp(argv[0], "show") == 0 && argc == 2) {
-    static char buf[8192];
-    rc = eqp_ctx_describe(ctx, argv[1], buf, sizeof buf);
-    if (rc < 0) {
-      fprintf(stderr, "equipoise: %s\n", eqp_ctx_errmsg(ctx));
-      code = EXIT_INPUT;
-    } else {
-      fputs(buf, stdout);
-    }
-  } else if (strcmp(argv[0], "check") == 0 && argc == 2 && in_library(ctx, argv[1])) {
-    /* the library loaded, and with it this file: it has passed every check */
-    printf("%s: ok (part of the loaded library)\n", argv[1]);
-  } else if (strcmp(argv[0], "check") == 0 && argc == 2) {
-    size_t before = eqp_ctx_species_count(ctx);
-    rc = eqp_ctx_load_species_file(ctx, argv[1]);
-    if (rc < 0) {
-      fprintf(stderr, "%s\n", eqp_ctx_errmsg(ctx));
-      code = cli_exit_code(rc);
-    } else {
-      printf("%s: ok, %zu species added\n", argv[1], eqp_ctx_species_count(ctx) - before);
-    }
-  } else {
-    fputs(usage, stderr);
-    code = EXIT_USAGE;
-  }
-  eqp_ctx_free(ctx);
-  return code;
 }
 
 static void print_plugin(void *ud, const char *name, const char *version, const char *summary,
@@ -161,7 +97,7 @@ static int cmd_run(int argc, char **argv)
       const char *kv = a[7] == '=' ? a + 8 : (i + 1 < argc ? argv[++i] : NULL);
       const char *eq = kv ? strchr(kv, '=') : NULL;
       if (!eq || eq == kv || run.nparams == 64) {
-        fprintf(stderr, "equipoise: --param needs NAME=VALUE\n%s", usage);
+        fprintf(stderr, "equipoise: --param needs NAME=VALUE\n%s", cli_usage);
         code = EXIT_USAGE;
         goto out;
       }
@@ -171,7 +107,7 @@ static int cmd_run(int argc, char **argv)
       names[run.nparams] = name;
       values[run.nparams++] = eq + 1;
     } else if (a[0] == '-' && a[1]) {
-      fprintf(stderr, "equipoise: unknown option '%s'\n%s", a, usage);
+      fprintf(stderr, "equipoise: unknown option '%s'\n%s", a, cli_usage);
       code = EXIT_USAGE;
       goto out;
     } else if (!run.script) {
@@ -183,7 +119,7 @@ static int cmd_run(int argc, char **argv)
     }
   }
   if (!run.script) {
-    fprintf(stderr, "equipoise: run needs a script\n%s", usage);
+    fprintf(stderr, "equipoise: run needs a script\n%s", cli_usage);
     code = EXIT_USAGE;
     goto out;
   }
@@ -196,12 +132,12 @@ out:
 int main(int argc, char **argv)
 {
   if (argc < 2) {
-    fputs(usage, stderr);
+    fputs(cli_usage, stderr);
     return EXIT_USAGE;
   }
   const char *cmd = argv[1];
   if (strcmp(cmd, "--help") == 0 || strcmp(cmd, "-h") == 0 || strcmp(cmd, "help") == 0) {
-    fputs(usage, stdout);
+    fputs(cli_usage, stdout);
     fputs(help, stdout);
     return EXIT_OK;
   }
@@ -210,8 +146,12 @@ int main(int argc, char **argv)
     return EXIT_OK;
   }
   if (strcmp(cmd, "run") == 0) return cmd_run(argc - 2, argv + 2);
-  if (strcmp(cmd, "species") == 0) return cmd_species(argc - 2, argv + 2);
-  if (strcmp(cmd, "plugins") == 0) return argc == 2 ? cmd_plugins() : EXIT_USAGE;
-  fprintf(stderr, "equipoise: unknown command '%s'\n%s", cmd, usage);
+  if (strcmp(cmd, "species") == 0) return cli_species(argc - 2, argv + 2);
+  if (strcmp(cmd, "plugins") == 0) {
+    if (argc == 2) return cmd_plugins();
+    fprintf(stderr, "equipoise: 'plugins' takes no arguments ('%s')\n%s", argv[2], cli_usage);
+    return EXIT_USAGE;
+  }
+  fprintf(stderr, "equipoise: unknown command '%s'\n%s", cmd, cli_usage);
   return EXIT_USAGE;
 }

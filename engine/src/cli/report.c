@@ -102,6 +102,12 @@ void cli_report_text(lua_State *L)
   cli_each_caution(L, print_caution, NULL);
 }
 
+static const char water_sources[] =
+  "density: G. S. Kell, 'Density, thermal expansivity, and compressibility of liquid water "
+  "from 0 to 150 C', J. Chem. Eng. Data 20, 97-105 (1975); relative permittivity: C. G. "
+  "Malmberg, A. A. Maryott, 'Dielectric constant of water from 0 to 100 C', J. Res. Natl. "
+  "Bur. Stand. 56, 1-8 (1956) [titles from memory]";
+
 static void add_string(void *ud, const char *text)
 {
   cJSON_AddItemToArray(ud, cJSON_CreateString(text));
@@ -112,13 +118,11 @@ static cJSON *result_json(const eqp_result *r, const eqp_ctx *ctx)
   cJSON *o = cJSON_CreateObject();
   cJSON_AddNumberToObject(o, "pH", eqp_result_pH(r));
   cJSON_AddNumberToObject(o, "ionic_strength", eqp_result_ionic_strength(r));
-  cJSON_AddNumberToObject(o, "temperature_C", eqp_result_temperature(r) - 273.15);
-  cJSON_AddNumberToObject(o, "water_kg", eqp_result_water_kg(r));
+  cJSON_AddNumberToObject(o, "temperature", eqp_result_temperature_K(r) - 273.15);
+  cJSON_AddNumberToObject(o, "water", eqp_result_water(r));
   cJSON_AddStringToObject(o, "activity_model", eqp_result_activity_model(r));
-  cJSON_AddNumberToObject(o, "relative_residual", eqp_result_residual(r));
+  cJSON_AddNumberToObject(o, "residual", eqp_result_residual(r));
   cJSON_AddNumberToObject(o, "iterations", (double)eqp_result_iterations(r));
-  cJSON_AddStringToObject(o, "concentration_scale",
-                          "molality (mol/kg water); molarity = molality x density of water");
   cJSON *sp = cJSON_AddArrayToObject(o, "species");
   for (size_t i = 0; i < eqp_result_species_count(r); i++) {
     cJSON *e = cJSON_CreateObject();
@@ -147,6 +151,7 @@ void cli_write_json(lua_State *L, const cli_run *run, int exit_code, const char 
     ctx = lua_touserdata(L, -1);
   lua_pop(L, 1);
   cJSON *doc = cJSON_CreateObject();
+  cJSON_AddNumberToObject(doc, "schema_version", CLI_JSON_SCHEMA_VERSION);
   cJSON_AddStringToObject(doc, "equipoise", EQP_VERSION_STRING);
   cJSON_AddStringToObject(doc, "script", run->script);
   cJSON *params = cJSON_AddObjectToObject(doc, "params");
@@ -157,12 +162,15 @@ void cli_write_json(lua_State *L, const cli_run *run, int exit_code, const char 
   if (error) cJSON_AddStringToObject(doc, "error", error);
   else cJSON_AddNullToObject(doc, "error");
   cJSON *results = cJSON_AddArrayToObject(doc, "results");
+  const eqp_result *used[256];
+  size_t nused = 0;
   if (lua_getfield(L, LUA_REGISTRYINDEX, EQPL_LOG) == LUA_TTABLE) {
     lua_Integer n = (lua_Integer)lua_rawlen(L, -1);
     for (lua_Integer i = 1; i <= n; i++) {
       lua_rawgeti(L, -1, i);
       eqpl_result *u = luaL_testudata(L, -1, EQPL_RESULT);
       if (u && u->r) cJSON_AddItemToArray(results, result_json(u->r, ctx));
+      if (u && u->r && nused < sizeof used / sizeof used[0]) used[nused++] = u->r;
       lua_pop(L, 1);
     }
   }
@@ -199,8 +207,11 @@ void cli_write_json(lua_State *L, const cli_run *run, int exit_code, const char 
   cJSON *files = cJSON_AddArrayToObject(prov, "species_files");
   for (size_t i = 0; ctx && i < eqp_ctx_source_count(ctx); i++)
     cJSON_AddItemToArray(files, cJSON_CreateString(eqp_ctx_source_path(ctx, i)));
-  cJSON_AddStringToObject(prov, "water_properties",
-                          "density: Kell 1975; permittivity: Malmberg & Maryott 1956");
+  cJSON_AddStringToObject(prov, "water_properties", water_sources);
+  char *constants = ctx ? eqp_ctx_constants_to_json(ctx, used, nused) : NULL;
+  cJSON *list = constants ? cJSON_Parse(constants) : NULL;
+  cJSON_AddItemToObject(prov, "constants", list ? list : cJSON_CreateArray());
+  eqp_free_string(constants);
   char *text = cJSON_Print(doc);
   if (text) {
     fputs(text, stdout);

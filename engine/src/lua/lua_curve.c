@@ -20,18 +20,6 @@ void eqpl_push_curve(lua_State *L, eqp_curve *c)
   u->c = c;
 }
 
-/* Friendlier keys for the fixed columns in Lua rows. */
-static const char *row_key(const char *col)
-{
-  static const struct { const char *col, *key; } map[] = {
-    {"amount_mol", "amount"}, {"volume_L", "volume"}, {"total_volume_L", "total_volume"},
-    {"dpH_dmol", "slope"}, {"dpH_dL", "slope"},
-  };
-  for (size_t i = 0; i < sizeof map / sizeof map[0]; i++)
-    if (strcmp(map[i].col, col) == 0) return map[i].key;
-  return col;
-}
-
 static void push_row(lua_State *L, const eqp_curve *c, size_t i)
 {
   lua_createtable(L, 0, (int)eqp_curve_cols(c));
@@ -39,7 +27,7 @@ static void push_row(lua_State *L, const eqp_curve *c, size_t i)
     double v = eqp_curve_value(c, i, j);
     if (isnan(v)) continue;
     lua_pushnumber(L, v);
-    lua_setfield(L, -2, row_key(eqp_curve_col_name(c, j)));
+    lua_setfield(L, -2, eqp_curve_col_name(c, j));
   }
 }
 
@@ -101,33 +89,14 @@ static int curve_write_json(lua_State *L)
 static int curve_tostring(lua_State *L)
 {
   eqp_curve *c = check_curve(L, 1);
-  luaL_Buffer b;
-  char line[512];
-  luaL_buffinit(L, &b);
-  size_t used = 0;
-  for (size_t j = 0; j < eqp_curve_cols(c); j++)
-    used += (size_t)snprintf(line + used, sizeof line - used, "%14s", eqp_curve_col_name(c, j));
-  luaL_addstring(&b, line);
-  luaL_addchar(&b, '\n');
-  for (size_t i = 0; i < eqp_curve_rows(c); i++) {
-    used = 0;
-    for (size_t j = 0; j < eqp_curve_cols(c) && used < sizeof line; j++) {
-      double v = eqp_curve_value(c, i, j);
-      if (isnan(v)) used += (size_t)snprintf(line + used, sizeof line - used, "%14s", "-");
-      else used += (size_t)snprintf(line + used, sizeof line - used, "%14.6g", v);
-    }
-    luaL_addstring(&b, line);
-    luaL_addchar(&b, '\n');
-  }
-  for (size_t k = 0; k < eqp_curve_equivalence_count(c); k++) {
-    double a, v, pH;
-    eqp_curve_equivalence(c, k, &a, &v, &pH);
-    snprintf(line, sizeof line,
-             "equivalence point %zu: amount %.6g mol, volume %.6g L, pH %.3f, sharpness %.3g\n",
-             k + 1, a, v, pH, eqp_curve_equivalence_sharpness(c, k));
-    luaL_addstring(&b, line);
-  }
-  luaL_pushresult(&b);
+  char *buf = NULL;
+  size_t len = 0;
+  FILE *f = open_memstream(&buf, &len);
+  if (!f) return luaL_error(L, "out of memory");
+  eqp_curve_write_text(c, f);
+  fclose(f);
+  lua_pushlstring(L, buf, len);
+  free(buf);
   return 1;
 }
 
@@ -149,7 +118,7 @@ static int curve_index(lua_State *L)
     return 1;
   }
   const char *k = luaL_checkstring(L, 2);
-  if (strcmp(k, "equivalence") == 0) {
+  if (strcmp(k, "equivalence_points") == 0) {
     size_t n = eqp_curve_equivalence_count(c);
     lua_createtable(L, (int)n, 0);
     for (size_t e = 0; e < n; e++) {
@@ -169,7 +138,7 @@ static int curve_index(lua_State *L)
   if (strcmp(k, "columns") == 0) {
     lua_createtable(L, (int)eqp_curve_cols(c), 0);
     for (size_t j = 0; j < eqp_curve_cols(c); j++) {
-      lua_pushstring(L, row_key(eqp_curve_col_name(c, j)));
+      lua_pushstring(L, eqp_curve_col_name(c, j));
       lua_rawseti(L, -2, (lua_Integer)j + 1);
     }
     return 1;

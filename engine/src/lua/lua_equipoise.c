@@ -141,15 +141,37 @@ static int eq_quantity(lua_State *L)
   return 2;
 }
 
-/* eq.describe(name) -> text about a species or reagent */
+/* eq.describe(name [, { temperature = 37 }]) -> text about every library
+** entry of that name, its constants at 25 C and at the temperature */
 static int eq_describe(lua_State *L)
 {
   eqp_ctx *ctx = eqpl_ctx_of(L);
+  const char *name = luaL_checkstring(L, 1);
+  double T = 298.15;
+  if (!lua_isnoneornil(L, 2)) {
+    luaL_checktype(L, 2, LUA_TTABLE);
+    lua_pushnil(L);
+    while (lua_next(L, 2)) {
+      lua_pop(L, 1);
+      if (lua_type(L, -1) != LUA_TSTRING || strcmp(lua_tostring(L, -1), "temperature") != 0)
+        return eqpl_input_error(L, "describe: unknown option '%s' (known: temperature)",
+                                luaL_tolstring(L, -1, NULL));
+    }
+    int ty = lua_getfield(L, 2, "temperature");
+    eqp_quantity k;
+    if (ty == LUA_TNUMBER) T = lua_tonumber(L, -1) + 273.15;
+    else if (ty != LUA_TSTRING)
+      return eqpl_input_error(L, "describe: temperature is a number in C or a string such as "
+                              "'310.15 K'");
+    else if (eqp_parse_quantity(ctx, lua_tostring(L, -1), EQP_Q_TEMPERATURE, &T, &k) < 0)
+      return eqpl_fail(L, ctx, eqp_ctx_errcode(ctx));
+  }
   if (eqp_ctx_load_default_library(ctx) < 0) return eqpl_fail(L, ctx, eqp_ctx_errcode(ctx));
-  char buf[4096];
-  int rc = eqp_ctx_describe(ctx, luaL_checkstring(L, 1), buf, sizeof buf);
+  char *text;
+  int rc = eqp_ctx_describe(ctx, name, T, EQP_FORMAT_TEXT, &text);
   if (rc < 0) return eqpl_fail(L, ctx, rc);
-  lua_pushstring(L, buf);
+  lua_pushstring(L, text);
+  eqp_free_string(text);
   return 1;
 }
 

@@ -65,12 +65,12 @@ static int sol_dilute(lua_State *L)
   return 1;
 }
 
-/* s:buffer_capacity() -> beta in mol/(L pH), beta in mol/(kg pH) */
+/* s:buffer_capacity() -> beta in mol/(L pH), beta in mol/(kg pH), the C order */
 static int sol_buffer_capacity(lua_State *L)
 {
   eqpl_solution *u = eqpl_check_solution(L, 1);
   double bkg, bL;
-  int rc = eqp_solution_buffer_capacity(u->s, &bkg, &bL);
+  int rc = eqp_solution_buffer_capacity(u->s, &bL, &bkg);
   if (rc < 0) return eqpl_fail(L, eqpl_ctx_of(L), rc);
   lua_pushnumber(L, bL);
   lua_pushnumber(L, bkg);

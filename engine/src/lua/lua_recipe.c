@@ -184,7 +184,7 @@ static int candidate(lua_State *L, eqp_ctx *ctx, eqp_recipe_spec *sp, double loa
   eqp_result *res = NULL;
   double bkg, bL, pH0 = eqp_recipe_pH(r);
   rc = eqp_solution_copy(eqp_recipe_solution(r), &s);
-  if (rc == EQP_OK) rc = eqp_solution_buffer_capacity(s, &bkg, &bL);
+  if (rc == EQP_OK) rc = eqp_solution_buffer_capacity(s, &bL, &bkg);
   if (rc == EQP_OK) rc = eqp_solution_add(s, load_with, load_mol, EQP_Q_AMOUNT);
   if (rc == EQP_OK) rc = eqp_solution_equilibrate(s, &res);
   if (rc == EQP_OK) {
@@ -196,8 +196,8 @@ static int candidate(lua_State *L, eqp_ctx *ctx, eqp_recipe_spec *sp, double loa
     /* the most a monoprotic buffer of total C gives, at its pKa: ln10 C / 4
     ** (Van Slyke 1922); far below that the system is not buffering here */
     double share = bL / (log(10) * sp->total / 4);
-    snprintf(why, len, "%sbeta %.4f mol/(L pH); the load moves the pH by %+.3f",
-             share < 0.2 ? "far from its pKa here; " : "", bL, out[1]);
+    snprintf(why, len, "%sbeta %.1f mM per pH; the load moves the pH by %+.3f",
+             share < 0.2 ? "far from its pKa here; " : "", bL * 1e3, out[1]);
   } else {
     snprintf(why, len, "%s", eqp_ctx_errmsg(ctx));
   }

@@ -85,15 +85,17 @@ static int result_tostring(lua_State *L)
   size_t n;
   row *rows = sorted_rows(L, r, &n);
   luaL_buffinit(L, &b);
-  snprintf(line, sizeof line, "pH %.3f   I %.4g mol/kg   %.2f C   model %s\n", eqp_result_pH(r),
-           eqp_result_ionic_strength(r), eqp_result_temperature(r) - 273.15,
-           eqp_result_activity_model(r));
+  double rho = eqp_result_water_density(r);
+  snprintf(line, sizeof line, "pH %.3f   ionic strength %.4g mol/kg   %.2f \u00b0C   activity "
+           "model %s\n", eqp_result_pH(r), eqp_result_ionic_strength(r),
+           eqp_result_temperature_K(r) - 273.15, eqp_result_activity_model(r));
   luaL_addstring(&b, line);
-  snprintf(line, sizeof line, "  %-16s %14s %10s\n", "species", "mol/kg", "gamma");
+  /* mM as a bench chemist reads it (molality x density of water, dilute) */
+  snprintf(line, sizeof line, "  %-16s %12s %14s %8s\n", "species", "mM", "mol/kg", "gamma");
   luaL_addstring(&b, line);
   for (size_t i = 0; i < n; i++) {
-    snprintf(line, sizeof line, "  %-16s %14.6e %10.4f\n", rows[i].name, rows[i].m,
-             pow(10.0, rows[i].lg));
+    snprintf(line, sizeof line, "  %-16s %12.5g %14.6e %8.4f\n", rows[i].name,
+             rows[i].m * rho * 1e3, rows[i].m, pow(10.0, rows[i].lg));
     luaL_addstring(&b, line);
   }
   for (size_t i = 0; i < eqp_result_warning_count(r); i++) {
@@ -121,10 +123,9 @@ static int result_index(lua_State *L)
   const char *k = luaL_checkstring(L, 2);
   if (strcmp(k, "pH") == 0) lua_pushnumber(L, eqp_result_pH(r));
   else if (strcmp(k, "ionic_strength") == 0) lua_pushnumber(L, eqp_result_ionic_strength(r));
-  else if (strcmp(k, "temperature") == 0) lua_pushnumber(L, eqp_result_temperature(r) - 273.15);
-  else if (strcmp(k, "temperature_K") == 0) lua_pushnumber(L, eqp_result_temperature(r));
-  else if (strcmp(k, "water") == 0) lua_pushnumber(L, eqp_result_water_kg(r));
-  else if (strcmp(k, "model") == 0) lua_pushstring(L, eqp_result_activity_model(r));
+  else if (strcmp(k, "temperature") == 0) lua_pushnumber(L, eqp_result_temperature_K(r) - 273.15);
+  else if (strcmp(k, "water") == 0) lua_pushnumber(L, eqp_result_water(r));
+  else if (strcmp(k, "activity_model") == 0) lua_pushstring(L, eqp_result_activity_model(r));
   else if (strcmp(k, "residual") == 0) lua_pushnumber(L, eqp_result_residual(r));
   else if (strcmp(k, "iterations") == 0) lua_pushinteger(L, eqp_result_iterations(r));
   else if (strcmp(k, "warnings") == 0) {

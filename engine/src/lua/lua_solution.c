@@ -103,7 +103,7 @@ int eqpl_solution_new(lua_State *L)
   opt_species(L, 1, ctx);
   eqp_solution_opts o;
   o.temperature_K = opt_temperature(L, 1, ctx);
-  o.water_kg = opt_water(L, 1, ctx, o.temperature_K);
+  o.water = opt_water(L, 1, ctx, o.temperature_K);
   /* activity = "davies" or { "davies", coefficient = 0.2 } */
   int act = lua_getfield(L, 1, "activity");
   int params = 0;
@@ -211,7 +211,7 @@ static int solution_set_temperature(lua_State *L)
 
 static int solution_water(lua_State *L)
 {
-  lua_pushnumber(L, eqp_solution_water_kg(eqpl_check_solution(L, 1)->s));
+  lua_pushnumber(L, eqp_solution_water(eqpl_check_solution(L, 1)->s));
   return 1;
 }
 
@@ -223,7 +223,7 @@ static int solution_volume(lua_State *L)
 
 static int solution_temperature(lua_State *L)
 {
-  lua_pushnumber(L, eqp_solution_temperature(eqpl_check_solution(L, 1)->s) - 273.15);
+  lua_pushnumber(L, eqp_solution_temperature_K(eqpl_check_solution(L, 1)->s) - 273.15);
   return 1;
 }
 
@@ -240,8 +240,8 @@ static int solution_tostring(lua_State *L)
   eqpl_solution *u = luaL_checkudata(L, 1, EQPL_SOLUTION);
   if (!u->s) lua_pushstring(L, "solution (closed)");
   else
-    lua_pushfstring(L, "solution (%f kg water, %f C)", eqp_solution_water_kg(u->s),
-                    eqp_solution_temperature(u->s) - 273.15);
+    lua_pushfstring(L, "solution (%f kg water, %f C)", eqp_solution_water(u->s),
+                    eqp_solution_temperature_K(u->s) - 273.15);
   return 1;
 }
 

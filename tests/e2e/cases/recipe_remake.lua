@@ -1,5 +1,5 @@
 -- Each recipe re-made from its printed quantities gives the target pH back
--- to 0.005 (issue 4). The re-make follows the printed procedure: the
+-- to 0.005. The re-make follows the printed procedure: the
 -- weighed solids, the titrant stock by volume, the make-up water.
 local function remake(r, titrant_M, T)
   local s = eq.solution{ water = string.format("%.9f kg", r.items[#r.items].mL * 1e-3 *
