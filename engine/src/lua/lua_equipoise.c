@@ -38,9 +38,23 @@ void eqpl_create_meta(lua_State *L, int ctx, const char *name, const luaL_Reg *m
   lua_pop(L, 1);
 }
 
+/* The script's file and line: the nearest Lua function on the stack, so
+** that a binding reached through pcall or a tail call still names it. */
+static void where(lua_State *L)
+{
+  lua_Debug ar;
+  for (int level = 1; lua_getstack(L, level, &ar); level++) {
+    if (lua_getinfo(L, "Sl", &ar) && ar.currentline > 0) {
+      lua_pushfstring(L, "%s:%d: ", ar.short_src, ar.currentline);
+      return;
+    }
+  }
+  lua_pushliteral(L, "");
+}
+
 static int raise_with(lua_State *L, int status, const char *msg)
 {
-  luaL_where(L, 1);
+  where(L);
   lua_pushstring(L, msg);
   lua_concat(L, 2);
   /* remember {message, status} so the command knows what kind of error
@@ -83,7 +97,7 @@ void eqpl_load_species(lua_State *L, eqp_ctx *ctx, int idx)
   idx = lua_absindex(L, idx);
   int rc;
   if (lua_type(L, idx) == LUA_TSTRING) {
-    rc = eqp_ctx_load_species_file(ctx, lua_tostring(L, idx));
+    rc = eqp_ctx_load_species_file(ctx, eqpl_check_name(L, idx, "species file"));
   } else if (lua_type(L, idx) == LUA_TTABLE) {
     lua_Debug ar;
     char where[512] = "inline species";
@@ -98,7 +112,9 @@ void eqpl_load_species(lua_State *L, eqp_ctx *ctx, int idx)
     rc = eqpi_stage_commit(ctx, st);
     eqpi_stage_free(ctx, st);
   } else {
-    luaL_argerror(L, idx, "species: a file name or a table");
+    char buf[64];
+    snprintf(buf, sizeof buf, "%s", luaL_typename(L, idx));
+    eqpl_input_error(L, "species must be a file name or a species table; got a %s", buf);
     return;
   }
   if (rc < 0) eqpl_fail(L, ctx, rc);
@@ -118,7 +134,7 @@ static int eq_molar_mass(lua_State *L)
 {
   eqp_ctx *ctx = eqpl_ctx_of(L);
   double m;
-  int rc = eqp_formula_molar_mass(ctx, luaL_checkstring(L, 1), &m);
+  int rc = eqp_formula_molar_mass(ctx, eqpl_check_name(L, 1, "molar_mass: formula"), &m);
   if (rc < 0) return eqpl_fail(L, ctx, rc);
   lua_pushnumber(L, m);
   return 1;
@@ -130,7 +146,7 @@ static int eq_quantity(lua_State *L)
   eqp_ctx *ctx = eqpl_ctx_of(L);
   double v;
   eqp_quantity k;
-  int rc = eqp_parse_quantity(ctx, luaL_checkstring(L, 1), 0xff, &v, &k);
+  int rc = eqp_parse_quantity(ctx, eqpl_check_name(L, 1, "quantity: text"), 0xff, &v, &k);
   if (rc < 0) return eqpl_fail(L, ctx, rc);
   static const char *const kinds[] = {"amount", "mass", "molarity", "molality", "volume",
                                       "temperature", "pressure"};
@@ -147,7 +163,7 @@ static int eq_describe(lua_State *L)
   eqp_ctx *ctx = eqpl_ctx_of(L);
   if (eqp_ctx_load_default_library(ctx) < 0) return eqpl_fail(L, ctx, eqp_ctx_errcode(ctx));
   char buf[4096];
-  int rc = eqp_ctx_describe(ctx, luaL_checkstring(L, 1), buf, sizeof buf);
+  int rc = eqp_ctx_describe(ctx, eqpl_check_name(L, 1, "describe: name"), buf, sizeof buf);
   if (rc < 0) return eqpl_fail(L, ctx, rc);
   lua_pushstring(L, buf);
   return 1;
