@@ -85,7 +85,8 @@ static void test_strings_from_index(void **state)
 {
   tortured("local plain = { buffer = 'phosphate', salt = 'KCl', activity = 'davies', pH = 7.2,\n"
            "  total = '50 mM', ionic_strength = '0.2 M', quiet = true }\n"
-           "local built = { buffer = {'phos','phate'}, salt = {'K','Cl'}, activity = {'dav','ies'} }\n"
+           "local built = { buffer = { 'phos', 'phate' }, salt = { 'K', 'Cl' },\n"
+           "  activity = { 'dav', 'ies' } }\n"
            "local t = setmetatable({ pH = 7.2, total = '50 mM', ionic_strength = '0.2 M',\n"
            "  quiet = true }, { __index = function(_, k)\n"
            "    collectgarbage(); return built[k] and table.concat(built[k]) end })\n"
@@ -98,7 +99,8 @@ static void test_strings_from_index(void **state)
            NULL);
   tortured("local function opts(lw) return setmetatable({ pH = 7, total = '50 mM',\n"
            "  load = '2 mM', quiet = true }, { __index = function(_, k)\n"
-           "    collectgarbage(); if k == 'load_with' then return lw and table.concat(lw) end end })\n"
+           "    collectgarbage()\n"
+           "    if k == 'load_with' then return lw and table.concat(lw) end end })\n"
            "end\n"
            "local a, b = eq.compare_buffers(opts()), eq.compare_buffers(opts{ 'H', 'Cl' })\n"
            "for i = 1, #a do assert(a[i].buffer == b[i].buffer and a[i].shift == b[i].shift) end",
@@ -111,7 +113,8 @@ static void test_strings_from_index(void **state)
            "      return names[k] and { table.concat{ 'CH3', 'COO-' } } end }))\n"
            "assert(c[#c]['CH3COO-'] > 0)\n"
            "local b = s:load_budget(setmetatable({}, { __index = function(_, k) collectgarbage()\n"
-           "  return ({ acid = table.concat{ 'H', 'Cl' }, base = table.concat{ 'Na', 'OH' } })[k] end }))\n"
+           "  return ({ acid = table.concat{ 'H', 'Cl' },\n"
+           "           base = table.concat{ 'Na', 'OH' } })[k] end }))\n"
            "assert(b.acid_mmol > 0 and b.base_mmol > 0)",
            NULL);
   /* the activity table and its parameters, built on demand */
@@ -149,7 +152,8 @@ static void test_unknown_options(void **state)
           "(did you mean 'until_pH'?)");
   refused("eq.solution{}:load_budget{ widow = 0.2 }", 1,
           "load_budget: unknown option 'widow' (did you mean 'window'?)");
-  refused("eq.solution{}:dilute{ too = '2 L' }", 1, "dilute: unknown option 'too' (did you mean 'to'?)");
+  refused("eq.solution{}:dilute{ too = '2 L' }", 1,
+          "dilute: unknown option 'too' (did you mean 'to'?)");
   refused("local s = eq.solution{}\neq.mix{ s, s, volume = '1 L' }", 2,
           "eq.mix: unknown option 'volume'; it takes no named options");
   refused("local s = eq.solution{}\neq.mix{ { s, '1 mL', scale = 2 } }", 2,
@@ -179,7 +183,8 @@ static void test_types_and_ranges(void **state)
   refused("eq.solution{}:titrate{ with = 'NaOH', step = '0.1 mmol', to = '1 mmol',\n"
           "  species = 'OH-' }", 1, "titrate: species must be a list of names");
   refused("eq.solution{}:titrate{ with = 'NaOH', step = '0.1 mmol', to = '1 mmol',\n"
-          "  species = { 'OH-', x = 'H+' } }", 1, "species must be a list of names; it has the key");
+          "  species = { 'OH-', x = 'H+' } }", 1,
+          "species must be a list of names; it has the key");
   refused("eq.solution{}:titrate{ with = 'NaOH', step = '0 mmol', to = '1 mmol' }", 1,
           "titrate: step = '0 mmol' is out of range (greater than 0 mol)");
   refused("eq.solution{}:titrate{ with = 42, step = '1 mmol' }", 1,
@@ -237,7 +242,8 @@ static void test_types_and_ranges(void **state)
   refused("eq.solution{}.add('NaCl', '1 mmol')", 1, "with a colon (s:add(...))");
   refused("eq.solution{}:adjust_pH(7)", 1, "adjust_pH: the reagent must be a reagent name or a "
           "stock solution; got nothing");
-  refused("eq.solution{}:expose('CO2(g)', '1e9 atm')", 1, "is out of range (between 0 and 100 atm)");
+  refused("eq.solution{}:expose('CO2(g)', '1e9 atm')", 1,
+          "is out of range (between 0 and 100 atm)");
   refused("eq.solution{}:set_temperature({ 37 })", 1, "set_temperature: temperature must be");
 }
 

@@ -75,7 +75,8 @@ const char *eqpl_describe(lua_State *L, int idx, char *buf, size_t len)
   case LUA_TNIL: return "nothing";
   case LUA_TBOOLEAN: return lua_toboolean(L, idx) ? "true" : "false";
   case LUA_TNUMBER:
-    if (lua_isinteger(L, idx)) snprintf(buf, len, "the number %lld", (long long)lua_tointeger(L, idx));
+    if (lua_isinteger(L, idx))
+      snprintf(buf, len, "the number %lld", (long long)lua_tointeger(L, idx));
     else {
       char num[32];
       snprintf(buf, len, "the number %s", eqpl_fmt(lua_tonumber(L, idx), num, sizeof num));
@@ -102,7 +103,8 @@ const char *eqpl_describe(lua_State *L, int idx, char *buf, size_t len)
 static int wrong_type(lua_State *L, int idx, const char *what, const char *wanted)
 {
   char buf[96];
-  return eqpl_input_error(L, "%s must be %s; got %s", what, wanted, eqpl_describe(L, idx, buf, sizeof buf));
+  return eqpl_input_error(L, "%s must be %s; got %s", what, wanted,
+                          eqpl_describe(L, idx, buf, sizeof buf));
 }
 
 const char *eqpl_check_name(lua_State *L, int idx, const char *what)
@@ -122,7 +124,8 @@ static void range_text(char *buf, size_t len, double min, double max, unsigned f
 {
   const char *sp = *unit ? " " : "";
   if (isinf(max))
-    snprintf(buf, len, "%s %g%s%s", flags & EQPL_ABOVE ? "greater than" : "at least", min, sp, unit);
+    snprintf(buf, len, "%s %g%s%s", flags & EQPL_ABOVE ? "greater than" : "at least", min, sp,
+             unit);
   else if (flags & EQPL_ABOVE)
     snprintf(buf, len, "greater than %g%s%s and at most %g%s%s", min, sp, unit, max, sp, unit);
   else
@@ -286,7 +289,8 @@ static int unknown_options(lua_State *L, const char *call, const eqpl_opt *spec,
   }
   qsort(keys, nkeys, sizeof *keys, by_name);
   int far = 0;
-  m += (size_t)snprintf(msg + m, sizeof msg - m, "%s: unknown option%s ", call, nkeys > 1 ? "s" : "");
+  m += (size_t)snprintf(msg + m, sizeof msg - m, "%s: unknown option%s ", call,
+                        nkeys > 1 ? "s" : "");
   for (size_t i = 0; i < nkeys && m < sizeof msg; i++) {
     const char *near = n ? eqpl_nearest(keys[i], strlen(keys[i]), names, n) : NULL;
     far |= !near;
@@ -338,7 +342,8 @@ size_t eqpl_options(lua_State *L, int idx, const char *call, const eqpl_opt *spe
   int given = !lua_isnoneornil(L, idx);
   if (given && !lua_istable(L, idx)) {
     char want[96], what[96];
-    snprintf(want, sizeof want, "a table, such as { %s = ... }", spec[0].name ? spec[0].name : "name");
+    snprintf(want, sizeof want, "a table, such as { %s = ... }",
+             spec[0].name ? spec[0].name : "name");
     snprintf(what, sizeof what, "%s: the options", call);
     wrong_type(L, idx, what, want);
   }
@@ -356,7 +361,8 @@ size_t eqpl_options(lua_State *L, int idx, const char *call, const eqpl_opt *spe
     v->given = !lua_isnil(L, -1);
     if (!v->given) {
       if (o->flags & EQPL_REQUIRED)
-        eqpl_input_error(L, "%s is required%s%s", what, o->hint ? ": " : "", o->hint ? o->hint : "");
+        eqpl_input_error(L, "%s is required%s%s", what, o->hint ? ": " : "",
+                         o->hint ? o->hint : "");
       continue;
     }
     switch (o->type) {

@@ -262,7 +262,8 @@ int eqpl_mix(lua_State *L)
   if (!lua_istable(L, 1))
     return eqpl_input_error(L, "eq.mix: a list of solutions, or of { solution, volume } pairs");
   size_t n = eqpl_options(L, 1, "eq.mix", no_opts, NULL, EQPL_LIST);
-  if (n == 0 || n > 64) return eqpl_input_error(L, "eq.mix: a list of 1 to 64 solutions; got %zu", n);
+  if (n == 0 || n > 64)
+    return eqpl_input_error(L, "eq.mix: a list of 1 to 64 solutions; got %zu", n);
   eqp_solution *parts[64];
   double litres[64];
   for (size_t i = 0; i < n; i++) {

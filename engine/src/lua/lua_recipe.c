@@ -89,8 +89,9 @@ static int eq_recipe(lua_State *L)
 {
   eqp_ctx *ctx = eqpl_ctx_of(L);
   eqpl_val v[R_RECIPE_N];
-  if (!lua_istable(L, 1)) return eqpl_input_error(L, "eq.recipe: a table of options, such as "
-                                                  "{ buffer = 'phosphate', pH = 7.4, total = '50 mM' }");
+  if (!lua_istable(L, 1))
+    return eqpl_input_error(L, "eq.recipe: a table of options, such as { buffer = 'phosphate', "
+                            "pH = 7.4, total = '50 mM' }");
   eqpl_options(L, 1, "eq.recipe", recipe_opts, v, 0);
   eqp_recipe_spec sp;
   fill_spec(L, "eq.recipe", v, &sp);
@@ -220,8 +221,9 @@ static int eq_compare(lua_State *L)
 {
   eqp_ctx *ctx = eqpl_ctx_of(L);
   eqpl_val v[C_COMPARE_N];
-  if (!lua_istable(L, 1)) return eqpl_input_error(L, "eq.compare_buffers: a table of options, "
-                                                  "such as { pH = 7.2, total = '50 mM', load = '2 mM' }");
+  if (!lua_istable(L, 1))
+    return eqpl_input_error(L, "eq.compare_buffers: a table of options, such as { pH = 7.2, "
+                            "total = '50 mM', load = '2 mM' }");
   eqpl_options(L, 1, "eq.compare_buffers", compare_opts, v, 0);
   eqp_recipe_spec base;
   fill_spec(L, "eq.compare_buffers", v, &base);

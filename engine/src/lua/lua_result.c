@@ -25,7 +25,8 @@ static int per_species(lua_State *L, per_species_fn f)
 {
   eqp_result *r = check_result(L, 1);
   double v;
-  if (f(r, eqpl_check_name(L, 2, "species"), &v) < 0) return eqpl_fail(L, eqpl_ctx_of(L), EQP_E_UNKNOWN);
+  if (f(r, eqpl_check_name(L, 2, "species"), &v) < 0)
+    return eqpl_fail(L, eqpl_ctx_of(L), EQP_E_UNKNOWN);
   lua_pushnumber(L, v);
   return 1;
 }

@@ -40,7 +40,8 @@ static const char *read_activity(lua_State *L, const eqpl_val *v, int *params)
 {
   *params = 0;
   if (!v->given) return NULL;
-  if (lua_type(L, v->idx) == LUA_TSTRING) return eqpl_check_name(L, v->idx, "eq.solution: activity");
+  if (lua_type(L, v->idx) == LUA_TSTRING)
+    return eqpl_check_name(L, v->idx, "eq.solution: activity");
   if (lua_type(L, v->idx) != LUA_TTABLE) {
     char buf[96];
     eqpl_input_error(L, "eq.solution: activity must be a model name such as 'davies', or "
