@@ -5,20 +5,27 @@
 #include <stdio.h>
 #include <string.h>
 
+/* Raise: what is at idx is not a solution. A method called with a dot
+** instead of a colon gets the hint. */
+static eqpl_solution *not_a_solution(lua_State *L, int idx)
+{
+  lua_Debug ar;
+  memset(&ar, 0, sizeof ar);
+  const char *fn = "?";
+  if (lua_getstack(L, 0, &ar) && lua_getinfo(L, "n", &ar) && ar.name) fn = ar.name;
+  char buf[96];
+  if (idx == 1 && !(ar.namewhat && strcmp(ar.namewhat, "method") == 0))
+    eqpl_input_error(L, "%s: call it on a solution, with a colon (s:%s(...)); got %s first", fn,
+                     fn, eqpl_describe(L, idx, buf, sizeof buf));
+  eqpl_input_error(L, "%s: argument %d must be a solution; got %s", fn, idx,
+                   eqpl_describe(L, idx, buf, sizeof buf));
+  return NULL;
+}
+
 eqpl_solution *eqpl_check_solution(lua_State *L, int idx)
 {
   eqpl_solution *u = luaL_testudata(L, idx, EQPL_SOLUTION);
-  if (!u) {
-    lua_Debug ar;
-    const char *fn = lua_getstack(L, 0, &ar) && lua_getinfo(L, "n", &ar) && ar.name ? ar.name
-                                                                                    : "?";
-    char buf[96];
-    if (idx == 1 && ar.namewhat && strcmp(ar.namewhat, "method") != 0)
-      eqpl_input_error(L, "%s: call it on a solution, with a colon (s:%s(...)); got %s first",
-                       fn, fn, eqpl_describe(L, idx, buf, sizeof buf));
-    eqpl_input_error(L, "%s: argument %d must be a solution; got %s", fn, idx,
-                     eqpl_describe(L, idx, buf, sizeof buf));
-  }
+  if (!u) return not_a_solution(L, idx);
   if (!u->s) eqpl_input_error(L, "argument %d: the solution is closed", idx);
   return u;
 }
