@@ -15,7 +15,9 @@ typedef struct unit_def {
   double offset;       /* temperatures only */
 } unit_def;
 
-/* "u" stands for micro; "µ" (U+00B5) and "μ" (U+03BC) are mapped to it. */
+/* "u" stands for micro; "µ" (U+00B5) and "μ" (U+03BC) are mapped to it.
+** The litre is written L or l, both in common use (the CGPM allowed both
+** symbols in 1979); unit_sym() maps a final or lone 'l' to 'L'. */
 static const unit_def units[] = {
   {"mol", EQP_Q_AMOUNT, 1.0, 0},     {"mmol", EQP_Q_AMOUNT, 1e-3, 0},
   {"umol", EQP_Q_AMOUNT, 1e-6, 0},   {"nmol", EQP_Q_AMOUNT, 1e-9, 0},
@@ -24,6 +26,7 @@ static const unit_def units[] = {
   {"M", EQP_Q_MOLARITY, 1.0, 0},     {"mM", EQP_Q_MOLARITY, 1e-3, 0},
   {"uM", EQP_Q_MOLARITY, 1e-6, 0},   {"nM", EQP_Q_MOLARITY, 1e-9, 0},
   {"mol/L", EQP_Q_MOLARITY, 1.0, 0}, {"mmol/L", EQP_Q_MOLARITY, 1e-3, 0},
+  {"umol/L", EQP_Q_MOLARITY, 1e-6, 0},
   {"mol/kg", EQP_Q_MOLALITY, 1.0, 0},{"mmol/kg", EQP_Q_MOLALITY, 1e-3, 0},
   {"umol/kg", EQP_Q_MOLALITY, 1e-6, 0},
   {"L", EQP_Q_VOLUME, 1.0, 0},       {"mL", EQP_Q_VOLUME, 1e-3, 0},
@@ -67,6 +70,8 @@ static int normalise_unit(const char *p, char *out, size_t len)
   }
   out[o] = '\0';
   while (o > 0 && isspace((unsigned char)out[o - 1])) out[--o] = '\0';
+  /* the litre's lower-case symbol: "l", "ml", "ul", "mol/l", "mmol/l" */
+  if (o > 0 && out[o - 1] == 'l' && (o == 1 || strchr("mu/", out[o - 2]))) out[o - 1] = 'L';
   return *p ? -1 : 0;
 }
 
@@ -79,8 +84,8 @@ int eqpi_parse_quantity(const char *text, unsigned allowed, double *value,
   errno = 0;
   char *end;
   double v = strtod(p, &end);
-  if (end == p || errno == ERANGE || !isfinite(v) ||
-      (end > p && (end[-1] == '.' && end - p == 1))) {
+  int range = errno == ERANGE;
+  if (end == p || (!range && !isfinite(v)) || (end > p && (end[-1] == '.' && end - p == 1))) {
     snprintf(err, errlen, "'%s' is not a number with a unit (expected %s)", text,
              kind_names(allowed, want, sizeof want));
     return -1;
@@ -91,6 +96,12 @@ int eqpi_parse_quantity(const char *text, unsigned allowed, double *value,
       snprintf(err, errlen, "'%s' is not a plain decimal number", text);
       return -1;
     }
+  /* too large or too small for a double: the number is fine, its size is not */
+  if (range) {
+    snprintf(err, errlen, "'%s' is out of range (%s)", text,
+             fabs(v) > 1 ? "too large" : "too small to tell from zero");
+    return -1;
+  }
   while (isspace((unsigned char)*end)) end++;
   if (!*end) {
     snprintf(err, errlen, "'%s' has no unit (expected %s)", text,

@@ -45,6 +45,33 @@ static void test_base_units(void **state)
   assert_close(parse("0 mol", all, &k), 0.0, 0);
 }
 
+/* The litre's two symbols, L and l, are both accepted (16th CGPM, 1979,
+** Resolution 6; SI Brochure, 9th ed., 2019, Table 8); lower case is common
+** practice on labels and in lab notebooks. 1 mL = 1e-3 L by definition. */
+static void test_litre_symbols(void **state)
+{
+  eqp_quantity k;
+  const unsigned all = 0xff;
+  assert_close(parse("250 ml", all, &k), 0.25, 1e-16);
+  assert_int_equal(k, EQP_Q_VOLUME);
+  assert_close(parse("2 l", all, &k), 2.0, 0);
+  assert_int_equal(k, EQP_Q_VOLUME);
+  assert_close(parse("10 ul", all, &k), 1e-5, 1e-20);
+  assert_close(parse("10 \xc2\xb5l", all, &k), 1e-5, 1e-20);   /* micro sign */
+  assert_close(parse("0.1 mol/l", all, &k), 0.1, 0);
+  assert_int_equal(k, EQP_Q_MOLARITY);
+  assert_close(parse("20 mmol/l", all, &k), 0.02, 1e-17);
+  assert_close(parse("5 umol/L", all, &k), 5e-6, 1e-21);
+  /* the amount units that end in 'l' are not litres */
+  assert_close(parse("2 mol", all, &k), 2.0, 0);
+  assert_int_equal(k, EQP_Q_AMOUNT);
+  assert_close(parse("2 mmol", all, &k), 2e-3, 1e-18);
+  assert_int_equal(k, EQP_Q_AMOUNT);
+  double v;
+  assert_int_equal(eqp_parse_quantity(ctx, "2 dl", all, &v, &k), EQP_E_INPUT);
+  assert_contains(eqp_ctx_errmsg(ctx), "unknown unit 'dl'");
+}
+
 static void expect_error(const char *text, unsigned allowed, const char *needle)
 {
   double v;
@@ -63,7 +90,10 @@ static void test_errors_name_the_value(void **state)
   expect_error("inf mol", amounts, "not a");
   expect_error("nan mol", amounts, "not a");
   expect_error("0x10 mol", amounts, "not a plain decimal");
-  expect_error("1e999 mol", amounts, "not a number");
+  /* a number beyond a double is out of range, not "not a number" */
+  expect_error("1e999 mol", amounts, "'1e999 mol' is out of range (too large)");
+  expect_error("1e-999 mol", amounts, "'1e-999 mol' is out of range (too small");
+  expect_error("1e-310 mol", amounts, "out of range");    /* subnormal: precision lost */
   expect_error("10 mL", amounts, "'10 mL' is a volume");
   expect_error("1 mol", EQP_Q_VOLUME, "expected a volume");
   expect_error("", amounts, "not a number");
@@ -75,6 +105,7 @@ int main(void)
   ctx = eqp_ctx_new(NULL, NULL);
   const struct CMUnitTest tests[] = {
     cmocka_unit_test(test_base_units),
+    cmocka_unit_test(test_litre_symbols),
     cmocka_unit_test(test_errors_name_the_value),
   };
   int rc = cmocka_run_group_tests(tests, NULL, NULL);

@@ -54,7 +54,7 @@ static int curve_csv(lua_State *L)
 static int curve_write_csv(lua_State *L)
 {
   eqp_curve *c = check_curve(L, 1);
-  const char *path = luaL_checkstring(L, 2);
+  const char *path = eqpl_check_name(L, 2, "write_csv: path");
   FILE *f = fopen(path, "w");
   if (!f) return eqpl_input_error(L, "cannot write '%s'", path);
   int rc = eqp_curve_write_csv(c, f);
@@ -74,7 +74,7 @@ static int curve_json(lua_State *L)
 
 static int curve_write_json(lua_State *L)
 {
-  const char *path = luaL_checkstring(L, 2);
+  const char *path = eqpl_check_name(L, 2, "write_json: path");
   curve_json(L);
   FILE *f = fopen(path, "w");
   if (!f) return eqpl_input_error(L, "cannot write '%s'", path);
@@ -117,7 +117,9 @@ static int curve_index(lua_State *L)
     push_row(L, c, (size_t)i - 1);
     return 1;
   }
-  const char *k = luaL_checkstring(L, 2);
+  size_t len;
+  const char *k = luaL_checklstring(L, 2, &len);
+  if (strlen(k) != len) return 0;    /* no field has a NUL in its name */
   if (strcmp(k, "equivalence_points") == 0) {
     size_t n = eqp_curve_equivalence_count(c);
     lua_createtable(L, (int)n, 0);

@@ -38,9 +38,23 @@ void eqpl_create_meta(lua_State *L, int ctx, const char *name, const luaL_Reg *m
   lua_pop(L, 1);
 }
 
+/* The script's file and line: the nearest Lua function on the stack, so
+** that a binding reached through pcall or a tail call still names it. */
+static void where(lua_State *L)
+{
+  lua_Debug ar;
+  for (int level = 1; lua_getstack(L, level, &ar); level++) {
+    if (lua_getinfo(L, "Sl", &ar) && ar.currentline > 0) {
+      lua_pushfstring(L, "%s:%d: ", ar.short_src, ar.currentline);
+      return;
+    }
+  }
+  lua_pushliteral(L, "");
+}
+
 static int raise_with(lua_State *L, int status, const char *msg)
 {
-  luaL_where(L, 1);
+  where(L);
   lua_pushstring(L, msg);
   lua_concat(L, 2);
   /* remember {message, status} so the command knows what kind of error
@@ -83,7 +97,7 @@ void eqpl_load_species(lua_State *L, eqp_ctx *ctx, int idx)
   idx = lua_absindex(L, idx);
   int rc;
   if (lua_type(L, idx) == LUA_TSTRING) {
-    rc = eqp_ctx_load_species_file(ctx, lua_tostring(L, idx));
+    rc = eqp_ctx_load_species_file(ctx, eqpl_check_name(L, idx, "species file"));
   } else if (lua_type(L, idx) == LUA_TTABLE) {
     lua_Debug ar;
     char where[512] = "inline species";
@@ -98,7 +112,9 @@ void eqpl_load_species(lua_State *L, eqp_ctx *ctx, int idx)
     rc = eqpi_stage_commit(ctx, st);
     eqpi_stage_free(ctx, st);
   } else {
-    luaL_argerror(L, idx, "species: a file name or a table");
+    char buf[64];
+    snprintf(buf, sizeof buf, "%s", luaL_typename(L, idx));
+    eqpl_input_error(L, "species must be a file name or a species table; got a %s", buf);
     return;
   }
   if (rc < 0) eqpl_fail(L, ctx, rc);
@@ -118,7 +134,7 @@ static int eq_molar_mass(lua_State *L)
 {
   eqp_ctx *ctx = eqpl_ctx_of(L);
   double m;
-  int rc = eqp_formula_molar_mass(ctx, luaL_checkstring(L, 1), &m);
+  int rc = eqp_formula_molar_mass(ctx, eqpl_check_name(L, 1, "molar_mass: formula"), &m);
   if (rc < 0) return eqpl_fail(L, ctx, rc);
   lua_pushnumber(L, m);
   return 1;
@@ -130,7 +146,7 @@ static int eq_quantity(lua_State *L)
   eqp_ctx *ctx = eqpl_ctx_of(L);
   double v;
   eqp_quantity k;
-  int rc = eqp_parse_quantity(ctx, luaL_checkstring(L, 1), 0xff, &v, &k);
+  int rc = eqp_parse_quantity(ctx, eqpl_check_name(L, 1, "quantity: text"), 0xff, &v, &k);
   if (rc < 0) return eqpl_fail(L, ctx, rc);
   static const char *const kinds[] = {"amount", "mass", "molarity", "molality", "volume",
                                       "temperature", "pressure"};
@@ -143,29 +159,18 @@ static int eq_quantity(lua_State *L)
 
 /* eq.describe(name [, { temperature = 37 }]) -> text about every library
 ** entry of that name, its constants at 25 C and at the temperature */
+static const eqpl_opt describe_opts[] = {
+  {"temperature", EQPL_TEMPERATURE, 0, 0, 0, 0, NULL},
+  {NULL, 0, 0, 0, 0, 0, NULL},
+};
+
 static int eq_describe(lua_State *L)
 {
   eqp_ctx *ctx = eqpl_ctx_of(L);
-  const char *name = luaL_checkstring(L, 1);
-  double T = 298.15;
-  if (!lua_isnoneornil(L, 2)) {
-    luaL_checktype(L, 2, LUA_TTABLE);
-    lua_pushnil(L);
-    while (lua_next(L, 2)) {
-      lua_pop(L, 1);
-      if (lua_type(L, -1) != LUA_TSTRING || strcmp(lua_tostring(L, -1), "temperature") != 0)
-        return eqpl_input_error(L, "describe: unknown option '%s' (known: temperature)",
-                                luaL_tolstring(L, -1, NULL));
-    }
-    int ty = lua_getfield(L, 2, "temperature");
-    eqp_quantity k;
-    if (ty == LUA_TNUMBER) T = lua_tonumber(L, -1) + 273.15;
-    else if (ty != LUA_TSTRING)
-      return eqpl_input_error(L, "describe: temperature is a number in C or a string such as "
-                              "'310.15 K'");
-    else if (eqp_parse_quantity(ctx, lua_tostring(L, -1), EQP_Q_TEMPERATURE, &T, &k) < 0)
-      return eqpl_fail(L, ctx, eqp_ctx_errcode(ctx));
-  }
+  const char *name = eqpl_check_name(L, 1, "describe: name");
+  eqpl_val v[1];
+  eqpl_options(L, 2, "eq.describe", describe_opts, v, 0);
+  double T = v[0].given ? v[0].num : 298.15;
   if (eqp_ctx_load_default_library(ctx) < 0) return eqpl_fail(L, ctx, eqp_ctx_errcode(ctx));
   char *text;
   int rc = eqp_ctx_describe(ctx, name, T, EQP_FORMAT_TEXT, &text);

@@ -55,4 +55,71 @@ eqpl_solution *eqpl_check_solution(lua_State *L, int idx);
 /* Load species given as a file name or an inline table at idx. */
 void eqpl_load_species(lua_State *L, eqp_ctx *ctx, int idx);
 
+/* ---- checks of arguments and options (lua_options.c) ----
+** Each raises an input error naming `what` (the user's word for the value,
+** such as "eq.recipe: temperature") and returns only a good value. Strings
+** returned are those at idx: they live while that stack slot does. */
+
+#define EQPL_T_MIN 273.15            /* K: liquid water at about 1 bar */
+#define EQPL_T_MAX 373.15
+#define EQPL_MAX_WATER 1e6           /* kg (and L): the engine's bound */
+#define EQPL_PH_MIN (-1.0)           /* targets: the recipe engine's bounds */
+#define EQPL_PH_MAX 15.0
+#define EQPL_MAX_PRESSURE 100.0      /* atm: far beyond Henry's law already */
+#define EQPL_MAX_COLUMNS 24          /* species columns of a titration */
+
+enum { EQPL_ANY, EQPL_NUMBER, EQPL_NAME, EQPL_BOOLEAN, EQPL_TEMPERATURE, EQPL_QUANTITY,
+       EQPL_NAMES };
+enum { EQPL_REQUIRED = 1, EQPL_ABOVE = 2 /* min is excluded */, EQPL_LIST = 4 };
+
+/* One option of a call: its name, type, accepted units (EQP_Q_* mask) and
+** range [min, max] (quantities in base units; for EQPL_NAMES max is the
+** largest count); hint says what is expected, in "NAME is required: HINT"
+** and, for names, "NAME must be HINT". */
+typedef struct eqpl_opt {
+  const char *name;
+  int type;
+  unsigned units;
+  double min, max;
+  unsigned flags;
+  const char *hint;
+} eqpl_opt;
+
+/* What was given for one option; idx is its stack slot, which anchors str
+** and names until the binding returns. */
+typedef struct eqpl_val {
+  int given, idx;
+  double num;                 /* number, boolean, quantity (base units), temperature (K) */
+  eqp_quantity unit;          /* the kind of quantity given */
+  const char *str;            /* EQPL_NAME */
+  const char *const *names;   /* EQPL_NAMES */
+  size_t count;
+} eqpl_val;
+
+/* Read the options table at idx (none or nil: all defaults) against spec
+** (ended by a NULL name) into out[i] for spec[i]. An unknown key is refused
+** with the nearest known name; EQPL_LIST also allows positions 1..n and
+** returns n. Pushes one slot per option. */
+size_t eqpl_options(lua_State *L, int idx, const char *call, const eqpl_opt *spec, eqpl_val *out,
+                    unsigned flags);
+/* A string without NUL characters, not empty. */
+const char *eqpl_check_name(lua_State *L, int idx, const char *what);
+double eqpl_check_number(lua_State *L, int idx, const char *what, double min, double max,
+                         unsigned flags);
+int eqpl_check_boolean(lua_State *L, int idx, const char *what);
+/* A number in C or a string with its unit; returns K, within 0..100 C. */
+double eqpl_check_temperature(lua_State *L, int idx, const char *what);
+/* A string "value unit" of one of units; returns base units, in range. */
+double eqpl_check_quantity(lua_State *L, int idx, const char *what, unsigned units, double min,
+                           double max, unsigned flags, eqp_quantity *kind);
+/* A list of at most max names; pushes the anchor of the copies it returns. */
+const char *const *eqpl_check_names(lua_State *L, int idx, const char *what, size_t max,
+                                    size_t *n);
+/* A number as a script would read it ("nan" for any NaN); returns buf. */
+const char *eqpl_fmt(double v, char *buf, size_t len);
+/* How the value at idx reads in a message: "the number 3", "a table". */
+const char *eqpl_describe(lua_State *L, int idx, char *buf, size_t len);
+/* The name in names[0..n) nearest to key (edit distance), or NULL if none is near. */
+const char *eqpl_nearest(const char *key, size_t len, const char *const *names, size_t n);
+
 #endif

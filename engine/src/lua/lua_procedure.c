@@ -3,31 +3,23 @@
 /* SPDX-License-Identifier: MIT */
 #include "lua_impl.h"
 #include <math.h>
+#include <stdio.h>
 #include <string.h>
 
 double eqpl_check_volume(lua_State *L, int idx, const char *what)
 {
-  eqp_ctx *ctx = eqpl_ctx_of(L);
-  if (lua_type(L, idx) != LUA_TSTRING)
-    return eqpl_input_error(L, "%s: a volume with its unit, such as '10 mL'", what);
-  double v;
-  eqp_quantity k;
-  if (eqp_parse_quantity(ctx, lua_tostring(L, idx), EQP_Q_VOLUME, &v, &k) < 0)
-    return eqpl_fail(L, ctx, eqp_ctx_errcode(ctx));
-  return v;
+  return eqpl_check_quantity(L, idx, what, EQP_Q_VOLUME, 0, EQPL_MAX_WATER, 0, NULL);
 }
 
 /* An amount of a reagent ("2 mmol", "0.5 g") in mol. */
 static double check_amount(lua_State *L, int idx, const char *reagent, const char *what)
 {
   eqp_ctx *ctx = eqpl_ctx_of(L);
-  if (lua_type(L, idx) != LUA_TSTRING)
-    return eqpl_input_error(L, "%s: an amount with its unit, such as '0.1 mmol'", what);
-  double v, M;
   eqp_quantity k;
-  if (eqp_parse_quantity(ctx, lua_tostring(L, idx), EQP_Q_AMOUNT | EQP_Q_MASS, &v, &k) < 0)
-    return eqpl_fail(L, ctx, eqp_ctx_errcode(ctx));
+  double v = eqpl_check_quantity(L, idx, what, EQP_Q_AMOUNT | EQP_Q_MASS, 0, HUGE_VAL,
+                                 EQPL_ABOVE, &k);
   if (k == EQP_Q_MASS) {
+    double M;
     if (eqp_ctx_reagent_molar_mass(ctx, reagent, &M) < 0) return eqpl_fail(L, ctx, EQP_E_UNKNOWN);
     v = v * 1e3 / M;
   }
@@ -39,12 +31,18 @@ static int sol_pour(lua_State *L)
 {
   eqpl_solution *u = eqpl_check_solution(L, 1);
   eqpl_solution *k = eqpl_check_solution(L, 2);
-  double V = eqpl_check_volume(L, 3, "pour");
+  double V = eqpl_check_volume(L, 3, "pour: volume");
   int rc = eqp_solution_pour(u->s, k->s, V);
   if (rc < 0) return eqpl_fail(L, eqpl_ctx_of(L), rc);
   lua_settop(L, 1);
   return 1;
 }
+
+static const eqpl_opt dilute_opts[] = {
+  {"to", EQPL_QUANTITY, EQP_Q_VOLUME, 0, EQPL_MAX_WATER, EQPL_ABOVE | EQPL_REQUIRED,
+   "the final volume, such as '1 L'"},
+  {NULL, 0, 0, 0, 0, 0, NULL},
+};
 
 /* s:dilute(2) doubles the volume; s:dilute{ to = "1 L" } makes it up to 1 L */
 static int sol_dilute(lua_State *L)
@@ -52,12 +50,19 @@ static int sol_dilute(lua_State *L)
   eqpl_solution *u = eqpl_check_solution(L, 1);
   double f;
   if (lua_type(L, 2) == LUA_TNUMBER) {
-    f = lua_tonumber(L, 2);
+    f = eqpl_check_number(L, 2, "dilute: the factor", 1, 1e6, 0);
   } else if (lua_type(L, 2) == LUA_TTABLE) {
-    lua_getfield(L, 2, "to");
-    f = eqpl_check_volume(L, -1, "dilute{ to = ... }") / eqp_solution_volume(u->s);
+    eqpl_val to;
+    eqpl_options(L, 2, "dilute", dilute_opts, &to, 0);
+    double V = eqp_solution_volume(u->s);
+    if (to.num < V)
+      return eqpl_input_error(L, "dilute: to = '%s' is less than the solution's volume, %.6g mL "
+                              "(water cannot be taken away)", lua_tostring(L, to.idx), V * 1e3);
+    f = to.num / V;
   } else {
-    return eqpl_input_error(L, "dilute: a factor (2) or { to = '500 mL' }");
+    char buf[96];
+    return eqpl_input_error(L, "dilute: a factor (2) or { to = '500 mL' }; got %s",
+                            eqpl_describe(L, 2, buf, sizeof buf));
   }
   int rc = eqp_solution_dilute(u->s, f);
   if (rc < 0) return eqpl_fail(L, eqpl_ctx_of(L), rc);
@@ -77,15 +82,32 @@ static int sol_buffer_capacity(lua_State *L)
   return 2;
 }
 
+/* A reagent name or a stock solution at idx. */
+static void reagent_or_stock(lua_State *L, int idx, const char *what, const char **reagent,
+                             const eqp_solution **stock)
+{
+  *reagent = NULL;
+  *stock = NULL;
+  if (lua_type(L, idx) == LUA_TSTRING) {
+    *reagent = eqpl_check_name(L, idx, what);
+  } else if (luaL_testudata(L, idx, EQPL_SOLUTION)) {
+    *stock = eqpl_check_solution(L, idx)->s;
+  } else {
+    char buf[96];
+    eqpl_input_error(L, "%s must be a reagent name or a stock solution; got %s", what,
+                     eqpl_describe(L, idx, buf, sizeof buf));
+  }
+}
+
 /* s:adjust_pH(7.4, "NaOH" | stock) -> mol (nil for a stock), litres (nil for a solid) */
 static int sol_adjust(lua_State *L)
 {
   eqpl_solution *u = eqpl_check_solution(L, 1);
-  double pH = luaL_checknumber(L, 2), mol, litres;
-  const char *reagent = NULL;
-  const eqp_solution *stock = NULL;
-  if (lua_type(L, 3) == LUA_TSTRING) reagent = lua_tostring(L, 3);
-  else stock = eqpl_check_solution(L, 3)->s;
+  double pH = eqpl_check_number(L, 2, "adjust_pH: the target pH", EQPL_PH_MIN, EQPL_PH_MAX, 0);
+  double mol, litres;
+  const char *reagent;
+  const eqp_solution *stock;
+  reagent_or_stock(L, 3, "adjust_pH: the reagent", &reagent, &stock);
   int rc = eqp_solution_adjust_pH(u->s, pH, reagent, stock, &mol, &litres);
   if (rc < 0) return eqpl_fail(L, eqpl_ctx_of(L), rc);
   if (isnan(mol)) lua_pushnil(L);
@@ -95,19 +117,22 @@ static int sol_adjust(lua_State *L)
   return 2;
 }
 
+static const eqpl_opt budget_opts[] = {
+  {"window", EQPL_NUMBER, 0, 0, 7, EQPL_ABOVE, NULL},
+  {"acid", EQPL_NAME, 0, 0, 0, 0, "a reagent name, such as 'HCl'"},
+  {"base", EQPL_NAME, 0, 0, 0, 0, "a reagent name, such as 'NaOH'"},
+  {NULL, 0, 0, 0, 0, 0, NULL},
+};
+
 /* s:load_budget{ window = 0.1, acid = "HCl", base = "NaOH" } -> table */
 static int sol_load_budget(lua_State *L)
 {
   eqpl_solution *u = eqpl_check_solution(L, 1);
   eqp_ctx *ctx = eqpl_ctx_of(L);
-  double window = 0.1;
-  const char *acid = "HCl", *base = "NaOH";
-  if (lua_istable(L, 2)) {
-    if (lua_getfield(L, 2, "window") == LUA_TNUMBER) window = lua_tonumber(L, -1);
-    if (lua_getfield(L, 2, "acid") == LUA_TSTRING) acid = lua_tostring(L, -1);
-    if (lua_getfield(L, 2, "base") == LUA_TSTRING) base = lua_tostring(L, -1);
-  }
-  if (!(window > 0 && window < 7)) return eqpl_input_error(L, "load_budget: window must be > 0");
+  eqpl_val v[3];
+  eqpl_options(L, 2, "load_budget", budget_opts, v, 0);
+  double window = v[0].given ? v[0].num : 0.1;
+  const char *acid = v[1].given ? v[1].str : "HCl", *base = v[2].given ? v[2].str : "NaOH";
   eqp_result *r;
   int rc = eqp_solution_equilibrate(u->s, &r);
   if (rc < 0) return eqpl_fail(L, ctx, rc);
@@ -144,13 +169,9 @@ static int sol_expose(lua_State *L)
 {
   eqpl_solution *u = eqpl_check_solution(L, 1);
   eqp_ctx *ctx = eqpl_ctx_of(L);
-  const char *gas = luaL_checkstring(L, 2);
-  if (lua_type(L, 3) != LUA_TSTRING)
-    return eqpl_input_error(L, "expose: a partial pressure with its unit, such as '427 uatm'");
-  double p, mol;
-  eqp_quantity k;
-  if (eqp_parse_quantity(ctx, lua_tostring(L, 3), EQP_Q_PRESSURE, &p, &k) < 0)
-    return eqpl_fail(L, ctx, eqp_ctx_errcode(ctx));
+  const char *gas = eqpl_check_name(L, 2, "expose: the gas");
+  double mol, p = eqpl_check_quantity(L, 3, "expose: the partial pressure", EQP_Q_PRESSURE, 0,
+                                      EQPL_MAX_PRESSURE, 0, NULL);
   int rc = eqp_solution_expose(u->s, gas, p, &mol);
   if (rc < 0) return eqpl_fail(L, ctx, rc);
   lua_pushnumber(L, mol);
@@ -162,44 +183,53 @@ static int sol_total(lua_State *L)
 {
   eqpl_solution *u = eqpl_check_solution(L, 1);
   double mol;
-  int rc = eqp_solution_total(u->s, luaL_checkstring(L, 2), &mol);
+  int rc = eqp_solution_total(u->s, eqpl_check_name(L, 2, "total: the component"), &mol);
   if (rc < 0) return eqpl_fail(L, eqpl_ctx_of(L), rc);
   lua_pushnumber(L, mol);
   return 1;
 }
+
+static const eqpl_opt titrate_opts[] = {
+  {"with", EQPL_ANY, 0, 0, 0, EQPL_REQUIRED, "a reagent name or a stock solution"},
+  {"step", EQPL_ANY, 0, 0, 0, EQPL_REQUIRED, "the largest step, such as '0.1 mL' or '0.05 mmol'"},
+  {"to", EQPL_ANY, 0, 0, 0, 0, NULL},
+  {"until_pH", EQPL_NUMBER, 0, EQPL_PH_MIN, EQPL_PH_MAX, 0, NULL},
+  {"max_dpH", EQPL_NUMBER, 0, 0, 14, EQPL_ABOVE, NULL},
+  {"species", EQPL_NAMES, 0, 0, EQPL_MAX_COLUMNS, 0, NULL},
+  {NULL, 0, 0, 0, 0, 0, NULL},
+};
+enum { T_WITH, T_STEP, T_TO, T_UNTIL, T_MAXDPH, T_SPECIES, T_N };
 
 /* s:titrate{ with = ..., step = ..., to = ... | until_pH = ..., species = {...} } */
 static int sol_titrate(lua_State *L)
 {
   eqpl_solution *u = eqpl_check_solution(L, 1);
   eqp_ctx *ctx = eqpl_ctx_of(L);
-  luaL_checktype(L, 2, LUA_TTABLE);
-  eqp_titration t = {NULL, NULL, 0, 0, NAN, 0, NULL, 0};
-  lua_getfield(L, 2, "with");
-  if (lua_type(L, -1) == LUA_TSTRING) t.reagent = lua_tostring(L, -1);
-  else if (luaL_testudata(L, -1, EQPL_SOLUTION)) t.stock = eqpl_check_solution(L, -1)->s;
-  else return eqpl_input_error(L, "titrate: 'with' is a reagent name or a stock solution");
-  const char *what = t.reagent ? t.reagent : "stock";
-  lua_getfield(L, 2, "step");
-  t.step = t.stock ? eqpl_check_volume(L, -1, "titrate step")
-                   : check_amount(L, lua_gettop(L), what, "titrate step");
-  if (lua_getfield(L, 2, "to") != LUA_TNIL)
-    t.to = t.stock ? eqpl_check_volume(L, -1, "titrate to")
-                   : check_amount(L, lua_gettop(L), what, "titrate to");
-  if (lua_getfield(L, 2, "until_pH") != LUA_TNIL) t.until_pH = luaL_checknumber(L, -1);
-  if (lua_getfield(L, 2, "max_dpH") != LUA_TNIL) t.max_dpH = luaL_checknumber(L, -1);
-  const char *names[24];
-  if (lua_getfield(L, 2, "species") == LUA_TTABLE) {
-    size_t n = lua_rawlen(L, -1);
-    if (n > 24) return eqpl_input_error(L, "titrate: at most 24 species");
-    for (size_t i = 0; i < n; i++) {
-      lua_rawgeti(L, -1, (lua_Integer)i + 1);
-      names[i] = luaL_checkstring(L, -1);   /* kept alive by the table */
-      lua_pop(L, 1);
-    }
-    t.species = names;
-    t.nspecies = n;
+  if (!lua_istable(L, 2)) {
+    char buf[96];
+    return eqpl_input_error(L, "titrate: a table of options, such as { with = 'NaOH', step = "
+                            "'0.1 mmol', to = '5 mmol' }; got %s",
+                            eqpl_describe(L, 2, buf, sizeof buf));
   }
+  eqpl_val v[T_N];
+  eqpl_options(L, 2, "titrate", titrate_opts, v, 0);
+  eqp_titration t = {NULL, NULL, 0, 0, NAN, 0, NULL, 0};
+  reagent_or_stock(L, v[T_WITH].idx, "titrate: with", &t.reagent, &t.stock);
+  const char *what = t.reagent ? t.reagent : "stock";
+  if (t.stock) {
+    t.step = eqpl_check_quantity(L, v[T_STEP].idx, "titrate: step", EQP_Q_VOLUME, 0,
+                                 EQPL_MAX_WATER, EQPL_ABOVE, NULL);
+    if (v[T_TO].given)
+      t.to = eqpl_check_quantity(L, v[T_TO].idx, "titrate: to", EQP_Q_VOLUME, 0, EQPL_MAX_WATER,
+                                 EQPL_ABOVE, NULL);
+  } else {
+    t.step = check_amount(L, v[T_STEP].idx, what, "titrate: step");
+    if (v[T_TO].given) t.to = check_amount(L, v[T_TO].idx, what, "titrate: to");
+  }
+  if (v[T_UNTIL].given) t.until_pH = v[T_UNTIL].num;
+  if (v[T_MAXDPH].given) t.max_dpH = v[T_MAXDPH].num;
+  t.species = v[T_SPECIES].names;   /* anchored in v[T_SPECIES].idx */
+  t.nspecies = v[T_SPECIES].count;
   eqp_curve *c;
   int rc = eqp_solution_titrate(u->s, &t, &c);
   if (rc < 0) return eqpl_fail(L, ctx, rc);
@@ -223,28 +253,48 @@ static const luaL_Reg procedure_methods[] = {
   {NULL, NULL},
 };
 
+static const eqpl_opt no_opts[] = {{NULL, 0, 0, 0, 0, 0, NULL}};
+
 /* eq.mix{ a, b } or eq.mix{ { a, "10 mL" }, { b, "90 mL" } } -> new solution */
 int eqpl_mix(lua_State *L)
 {
   eqp_ctx *ctx = eqpl_ctx_of(L);
-  luaL_checktype(L, 1, LUA_TTABLE);
-  size_t n = lua_rawlen(L, 1);
-  if (n == 0 || n > 64) return eqpl_input_error(L, "mix: a list of 1 to 64 solutions");
+  if (!lua_istable(L, 1))
+    return eqpl_input_error(L, "eq.mix: a list of solutions, or of { solution, volume } pairs");
+  size_t n = eqpl_options(L, 1, "eq.mix", no_opts, NULL, EQPL_LIST);
+  if (n == 0 || n > 64)
+    return eqpl_input_error(L, "eq.mix: a list of 1 to 64 solutions; got %zu", n);
   eqp_solution *parts[64];
   double litres[64];
   for (size_t i = 0; i < n; i++) {
+    char what[64];
+    snprintf(what, sizeof what, "eq.mix: part %zu", i + 1);
     lua_rawgeti(L, 1, (lua_Integer)i + 1);
-    if (lua_istable(L, -1)) {
-      lua_rawgeti(L, -1, 1);
-      parts[i] = eqpl_check_solution(L, -1)->s;
-      lua_rawgeti(L, -2, 2);
-      litres[i] = eqpl_check_volume(L, -1, "mix");
-      lua_pop(L, 2);
+    int part = lua_gettop(L);
+    if (lua_istable(L, part)) {
+      if (eqpl_options(L, part, what, no_opts, NULL, EQPL_LIST) != 2)
+        return eqpl_input_error(L, "%s must be a solution or a pair { solution, '10 mL' }", what);
+      lua_rawgeti(L, part, 1);
+      lua_rawgeti(L, part, 2);
     } else {
-      parts[i] = eqpl_check_solution(L, -1)->s;
-      litres[i] = eqp_solution_volume(parts[i]);
+      lua_pushvalue(L, part);
+      lua_pushnil(L);
     }
-    lua_pop(L, 1);
+    eqpl_solution *s = luaL_testudata(L, -2, EQPL_SOLUTION);
+    if (!s || !s->s) {
+      char buf[96];
+      return eqpl_input_error(L, "%s must be a solution or a pair { solution, '10 mL' }; got %s",
+                              what, eqpl_describe(L, -2, buf, sizeof buf));
+    }
+    parts[i] = s->s;
+    if (lua_isnil(L, -1)) {
+      litres[i] = eqp_solution_volume(parts[i]);
+    } else {
+      strncat(what, ": volume", sizeof what - strlen(what) - 1);
+      litres[i] = eqpl_check_quantity(L, -1, what, EQP_Q_VOLUME, 0, EQPL_MAX_WATER, EQPL_ABOVE,
+                                      NULL);
+    }
+    lua_settop(L, part - 1);
   }
   eqpl_solution *u = eqpl_new_handle(L, sizeof *u, EQPL_SOLUTION);
   int rc = eqp_solution_mix(n, parts, litres, &u->s);

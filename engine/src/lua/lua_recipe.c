@@ -6,72 +6,65 @@
 #include <stdio.h>
 #include <string.h>
 
-static double opt_quantity(lua_State *L, int t, const char *key, unsigned kinds, double dflt,
-                           eqp_quantity *kind)
-{
-  eqp_ctx *ctx = eqpl_ctx_of(L);
-  double v = dflt;
-  eqp_quantity k = EQP_Q_NONE;
-  int ty = lua_getfield(L, t, key);
-  if (ty == LUA_TSTRING) {
-    if (eqp_parse_quantity(ctx, lua_tostring(L, -1), kinds, &v, &k) < 0)
-      eqpl_fail(L, ctx, eqp_ctx_errcode(ctx));
-  } else if (ty != LUA_TNIL) {
-    eqpl_input_error(L, "%s: a quantity with its unit, as a string", key);
-  }
-  lua_pop(L, 1);
-  if (kind) *kind = k;
-  return v;
-}
+#define MAX_TOTAL 5.0        /* mol/L: the engine is tested to 5 mol/kg */
+#define MAX_IONIC 10.0       /* mol/kg (or mol/L) */
+#define MAX_TITRANT 20.0     /* mol/L: 50 % NaOH is about 19 M */
 
-static double opt_temperature(lua_State *L, int t)
-{
-  eqp_ctx *ctx = eqpl_ctx_of(L);
-  double T = 298.15;
-  eqp_quantity k;
-  int ty = lua_getfield(L, t, "temperature");
-  if (ty == LUA_TNUMBER) T = lua_tonumber(L, -1) + 273.15;
-  else if (ty == LUA_TSTRING &&
-           eqp_parse_quantity(ctx, lua_tostring(L, -1), EQP_Q_TEMPERATURE, &T, &k) < 0)
-    eqpl_fail(L, ctx, eqp_ctx_errcode(ctx));
-  lua_pop(L, 1);
-  return T;
-}
+/* The options of eq.recipe; eq.compare_buffers takes those from pH on, and
+** its own. The two tables share their order so that one reader fills both. */
+#define COMMON_OPTS                                                                         \
+  {"pH", EQPL_NUMBER, 0, EQPL_PH_MIN, EQPL_PH_MAX, EQPL_REQUIRED, "a number, such as 7.4"},  \
+  {"total", EQPL_QUANTITY, EQP_Q_MOLARITY, 0, MAX_TOTAL, EQPL_ABOVE | EQPL_REQUIRED,         \
+   "the buffer concentration, such as '50 mM'"},                                           \
+  {"volume", EQPL_QUANTITY, EQP_Q_VOLUME, 0, EQPL_MAX_WATER, EQPL_ABOVE, NULL},             \
+  {"temperature", EQPL_TEMPERATURE, 0, 0, 0, 0, NULL},                                     \
+  {"ionic_strength", EQPL_QUANTITY, EQP_Q_MOLALITY | EQP_Q_MOLARITY, 0, MAX_IONIC, 0, NULL}, \
+  {"salt", EQPL_NAME, 0, 0, 0, 0, "a reagent name, such as 'NaCl'"},                       \
+  {"titrant", EQPL_QUANTITY, EQP_Q_MOLARITY, 0, MAX_TITRANT, EQPL_ABOVE, NULL},            \
+  {"activity", EQPL_NAME, 0, 0, 0, 0,                                                       \
+   "a model name, such as 'davies' (eq.recipe takes no model parameters)"},                \
+  {"quiet", EQPL_BOOLEAN, 0, 0, 0, 0, NULL}
 
-/* Fill spec from the options table at t. names holds the 'using' strings. */
-static void read_spec(lua_State *L, int t, eqp_recipe_spec *sp, const char **names)
+enum { R_PH, R_TOTAL, R_VOLUME, R_T, R_I, R_SALT, R_TITRANT, R_ACTIVITY, R_QUIET, R_COMMON };
+
+static const eqpl_opt recipe_opts[] = {
+  COMMON_OPTS,
+  {"buffer", EQPL_NAME, 0, 0, 0, 0, "the name of a buffer system, such as 'phosphate'"},
+  {"using", EQPL_NAMES, 0, 0, 2, 0, NULL},
+  {NULL, 0, 0, 0, 0, 0, NULL},
+};
+enum { R_BUFFER = R_COMMON, R_USING, R_RECIPE_N };
+
+static const eqpl_opt compare_opts[] = {
+  COMMON_OPTS,
+  {"load", EQPL_QUANTITY, EQP_Q_MOLARITY, 0, MAX_TOTAL, EQPL_ABOVE | EQPL_REQUIRED,
+   "the acid or base load as a concentration, such as '2 mM'"},
+  {"load_with", EQPL_NAME, 0, 0, 0, 0, "a reagent name, such as 'HCl'"},
+  {"window", EQPL_NUMBER, 0, 0, 7, EQPL_ABOVE, NULL},
+  {NULL, 0, 0, 0, 0, 0, NULL},
+};
+enum { C_LOAD = R_COMMON, C_LOAD_WITH, C_WINDOW, C_COMPARE_N };
+
+/* Fill sp from the checked options v (the common part). */
+static void fill_spec(lua_State *L, const char *call, const eqpl_val *v, eqp_recipe_spec *sp)
 {
   memset(sp, 0, sizeof *sp);
+  sp->pH = v[R_PH].num;
+  sp->total = v[R_TOTAL].num;
+  sp->volume = v[R_VOLUME].given ? v[R_VOLUME].num : 1.0;
+  sp->T = v[R_T].given ? v[R_T].num : 298.15;
   sp->ionic_strength = NAN;
-  if (lua_getfield(L, t, "buffer") == LUA_TSTRING) sp->buffer = lua_tostring(L, -1);
-  lua_pop(L, 1);
-  if (lua_getfield(L, t, "using") == LUA_TTABLE) {
-    sp->nreagents = lua_rawlen(L, -1) > 2 ? 3 : lua_rawlen(L, -1);
-    for (size_t i = 0; i < sp->nreagents && i < 2; i++) {
-      lua_rawgeti(L, -1, (lua_Integer)i + 1);
-      names[i] = luaL_checkstring(L, -1);
-      lua_pop(L, 1);
-    }
-    sp->reagents = names;
+  if (v[R_I].given) {
+    /* I on the molar scale converts to molal through the density of water */
+    double I = v[R_I].num;
+    sp->ionic_strength = v[R_I].unit == EQP_Q_MOLARITY ? I / eqp_water_density(sp->T) : I;
+  } else if (v[R_SALT].given) {
+    eqpl_input_error(L, "%s: salt = '%s' needs an ionic_strength to reach, such as '0.15 M'",
+                     call, v[R_SALT].str);
   }
-  lua_pop(L, 1);    /* strings stay alive in the options table */
-  if (lua_getfield(L, t, "pH") != LUA_TNUMBER) eqpl_input_error(L, "recipe: 'pH' is a number");
-  sp->pH = lua_tonumber(L, -1);
-  lua_pop(L, 1);
-  eqp_quantity k;
-  double total = opt_quantity(L, t, "total", EQP_Q_MOLARITY, NAN, &k);
-  if (isnan(total)) eqpl_input_error(L, "recipe: 'total' is the buffer concentration ('50 mM')");
-  sp->total = total;
-  sp->volume = opt_quantity(L, t, "volume", EQP_Q_VOLUME, 1.0, &k);
-  sp->T = opt_temperature(L, t);
-  double I = opt_quantity(L, t, "ionic_strength", EQP_Q_MOLALITY | EQP_Q_MOLARITY, NAN, &k);
-  /* I on the molar scale converts to molal through the density of water */
-  sp->ionic_strength = k == EQP_Q_MOLARITY ? I / eqp_water_density(sp->T) : I;
-  if (lua_getfield(L, t, "salt") == LUA_TSTRING) sp->salt = lua_tostring(L, -1);
-  lua_pop(L, 1);
-  if (lua_getfield(L, t, "activity") == LUA_TSTRING) sp->activity = lua_tostring(L, -1);
-  lua_pop(L, 1);
-  sp->titrant_molar = opt_quantity(L, t, "titrant", EQP_Q_MOLARITY, 1.0, &k);
+  sp->salt = v[R_SALT].str;
+  sp->titrant_molar = v[R_TITRANT].given ? v[R_TITRANT].num : 1.0;
+  sp->activity = v[R_ACTIVITY].str;
 }
 
 static const char *role_name(int role)
@@ -95,11 +88,27 @@ static int recipe_tostring(lua_State *L)
 static int eq_recipe(lua_State *L)
 {
   eqp_ctx *ctx = eqpl_ctx_of(L);
-  luaL_checktype(L, 1, LUA_TTABLE);
-  if (eqp_ctx_load_default_library(ctx) < 0) return eqpl_fail(L, ctx, eqp_ctx_errcode(ctx));
+  eqpl_val v[R_RECIPE_N];
+  if (!lua_istable(L, 1))
+    return eqpl_input_error(L, "eq.recipe: a table of options, such as { buffer = 'phosphate', "
+                            "pH = 7.4, total = '50 mM' }");
+  eqpl_options(L, 1, "eq.recipe", recipe_opts, v, 0);
   eqp_recipe_spec sp;
-  const char *names[2];
-  read_spec(L, 1, &sp, names);
+  fill_spec(L, "eq.recipe", v, &sp);
+  sp.buffer = v[R_BUFFER].str;
+  if (v[R_USING].given) {
+    if (v[R_USING].count != 2)
+      return eqpl_input_error(L, "eq.recipe: using lists two reagents: the acid and base forms, "
+                              "or the buffer substance and a strong acid or base; got %zu",
+                              v[R_USING].count);
+    sp.reagents = v[R_USING].names;   /* anchored in v[R_USING].idx */
+    sp.nreagents = 2;
+  }
+  if (!sp.buffer && !sp.reagents)
+    return eqpl_input_error(L, "eq.recipe: name a buffer (buffer = 'phosphate') or the reagents "
+                            "(using = { 'Tris', 'HCl' })");
+  int quiet = v[R_QUIET].given && v[R_QUIET].num != 0;
+  if (eqp_ctx_load_default_library(ctx) < 0) return eqpl_fail(L, ctx, eqp_ctx_errcode(ctx));
   eqp_recipe *r;
   int rc = eqp_recipe_make(ctx, &sp, &r);
   if (rc < 0) return eqpl_fail(L, ctx, rc);
@@ -152,13 +161,12 @@ static int eq_recipe(lua_State *L)
   lua_pushcfunction(L, recipe_tostring);
   lua_setfield(L, -2, "__tostring");
   lua_setmetatable(L, -2);
-  if (lua_getfield(L, 1, "quiet"), !lua_toboolean(L, -1)) {
-    lua_getfield(L, -2, "procedure");
+  if (!quiet) {
+    lua_getfield(L, -1, "procedure");
     lua_getglobal(L, "print");     /* through print, so --json captures it */
     lua_insert(L, -2);
     lua_call(L, 1, 0);
   }
-  lua_pop(L, 1);
   return 1;
 }
 
@@ -212,20 +220,18 @@ static int candidate(lua_State *L, eqp_ctx *ctx, eqp_recipe_spec *sp, double loa
 static int eq_compare(lua_State *L)
 {
   eqp_ctx *ctx = eqpl_ctx_of(L);
-  luaL_checktype(L, 1, LUA_TTABLE);
-  if (eqp_ctx_load_default_library(ctx) < 0) return eqpl_fail(L, ctx, eqp_ctx_errcode(ctx));
+  eqpl_val v[C_COMPARE_N];
+  if (!lua_istable(L, 1))
+    return eqpl_input_error(L, "eq.compare_buffers: a table of options, such as { pH = 7.2, "
+                            "total = '50 mM', load = '2 mM' }");
+  eqpl_options(L, 1, "eq.compare_buffers", compare_opts, v, 0);
   eqp_recipe_spec base;
-  const char *names[2];
-  read_spec(L, 1, &base, names);
-  eqp_quantity k;
-  double load = opt_quantity(L, 1, "load", EQP_Q_MOLARITY, NAN, &k);
-  if (isnan(load)) return eqpl_input_error(L, "compare_buffers: 'load' is a concentration ('2 mM')");
-  const char *load_with = "HCl";
-  if (lua_getfield(L, 1, "load_with") == LUA_TSTRING) load_with = lua_tostring(L, -1);
-  lua_pop(L, 1);
-  double window = 0.1;
-  if (lua_getfield(L, 1, "window") == LUA_TNUMBER) window = lua_tonumber(L, -1);
-  lua_pop(L, 1);
+  fill_spec(L, "eq.compare_buffers", v, &base);
+  double load = v[C_LOAD].num;
+  const char *load_with = v[C_LOAD_WITH].given ? v[C_LOAD_WITH].str : "HCl";
+  double window = v[C_WINDOW].given ? v[C_WINDOW].num : 0.1;
+  int quiet = v[R_QUIET].given && v[R_QUIET].num != 0;
+  if (eqp_ctx_load_default_library(ctx) < 0) return eqpl_fail(L, ctx, eqp_ctx_errcode(ctx));
   size_t nb = eqp_ctx_buffer_count(ctx);
   lua_createtable(L, (int)nb, 0);
   int list = lua_gettop(L), n = 0;
@@ -266,9 +272,6 @@ static int eq_compare(lua_State *L)
                      "if not a.possible then return a.buffer < b.buffer end\n"
                      "return math.abs(a.shift) < math.abs(b.shift)");
   lua_call(L, 2, 0);
-  lua_pop(L, 1);
-  lua_getfield(L, 1, "quiet");
-  int quiet = lua_toboolean(L, -1);
   lua_pop(L, 1);
   if (!quiet) {
     char line[768];

@@ -25,7 +25,8 @@ static int per_species(lua_State *L, per_species_fn f)
 {
   eqp_result *r = check_result(L, 1);
   double v;
-  if (f(r, luaL_checkstring(L, 2), &v) < 0) return eqpl_fail(L, eqpl_ctx_of(L), EQP_E_UNKNOWN);
+  if (f(r, eqpl_check_name(L, 2, "species"), &v) < 0)
+    return eqpl_fail(L, eqpl_ctx_of(L), EQP_E_UNKNOWN);
   lua_pushnumber(L, v);
   return 1;
 }
@@ -120,7 +121,9 @@ static const luaL_Reg result_methods[] = {
 static int result_index(lua_State *L)
 {
   eqp_result *r = check_result(L, 1);
-  const char *k = luaL_checkstring(L, 2);
+  size_t len;
+  const char *k = luaL_checklstring(L, 2, &len);
+  if (strlen(k) != len) return 0;    /* no field has a NUL in its name */
   if (strcmp(k, "pH") == 0) lua_pushnumber(L, eqp_result_pH(r));
   else if (strcmp(k, "ionic_strength") == 0) lua_pushnumber(L, eqp_result_ionic_strength(r));
   else if (strcmp(k, "temperature") == 0) lua_pushnumber(L, eqp_result_temperature_K(r) - 273.15);

@@ -2,124 +2,135 @@
 /* SPDX-License-Identifier: MIT */
 #include "lua_impl.h"
 #include <math.h>
+#include <stdio.h>
 #include <string.h>
+
+/* Raise: what is at idx is not a solution. A method called with a dot
+** instead of a colon gets the hint. */
+static eqpl_solution *not_a_solution(lua_State *L, int idx)
+{
+  lua_Debug ar;
+  memset(&ar, 0, sizeof ar);
+  const char *fn = "?";
+  if (lua_getstack(L, 0, &ar) && lua_getinfo(L, "n", &ar) && ar.name) fn = ar.name;
+  char buf[96];
+  if (idx == 1 && !(ar.namewhat && strcmp(ar.namewhat, "method") == 0))
+    eqpl_input_error(L, "%s: call it on a solution, with a colon (s:%s(...)); got %s first", fn,
+                     fn, eqpl_describe(L, idx, buf, sizeof buf));
+  eqpl_input_error(L, "%s: argument %d must be a solution; got %s", fn, idx,
+                   eqpl_describe(L, idx, buf, sizeof buf));
+  return NULL;
+}
 
 eqpl_solution *eqpl_check_solution(lua_State *L, int idx)
 {
-  eqpl_solution *u = luaL_checkudata(L, idx, EQPL_SOLUTION);
-  if (!u->s) luaL_argerror(L, idx, "solution is closed");
+  eqpl_solution *u = luaL_testudata(L, idx, EQPL_SOLUTION);
+  if (!u) return not_a_solution(L, idx);
+  if (!u->s) eqpl_input_error(L, "argument %d: the solution is closed", idx);
   return u;
 }
 
-static double opt_temperature(lua_State *L, int t, eqp_ctx *ctx)
-{
-  double T = 298.15;
-  int ty = lua_getfield(L, t, "temperature");
-  if (ty == LUA_TNUMBER) {
-    T = lua_tonumber(L, -1) + 273.15;
-  } else if (ty == LUA_TSTRING) {
-    eqp_quantity k;
-    if (eqp_parse_quantity(ctx, lua_tostring(L, -1), EQP_Q_TEMPERATURE, &T, &k) < 0)
-      eqpl_fail(L, ctx, eqp_ctx_errcode(ctx));
-  } else if (ty != LUA_TNIL) {
-    eqpl_input_error(L, "temperature: a number in C or a string such as '310.15 K'");
-  }
-  lua_pop(L, 1);
-  return T;
-}
+static const eqpl_opt solution_opts[] = {
+  {"volume", EQPL_QUANTITY, EQP_Q_VOLUME, 0, EQPL_MAX_WATER, EQPL_ABOVE, NULL},
+  {"water", EQPL_QUANTITY, EQP_Q_MASS, 0, EQPL_MAX_WATER, EQPL_ABOVE, NULL},
+  {"temperature", EQPL_TEMPERATURE, 0, 0, 0, 0, NULL},
+  {"activity", EQPL_ANY, 0, 0, 0, 0, NULL},
+  {"species", EQPL_ANY, 0, 0, 0, 0, NULL},
+  {NULL, 0, 0, 0, 0, 0, NULL},
+};
+enum { O_VOLUME, O_WATER, O_TEMPERATURE, O_ACTIVITY, O_SPECIES, O_N };
 
-static double opt_water(lua_State *L, int t, eqp_ctx *ctx, double T)
+/* activity = "davies" or { "davies", coefficient = 0.2 }: the model's name;
+** *params is the slot of a checked copy of the parameters (0: none), so
+** that nothing the script does later can change what is passed on. */
+static const char *read_activity(lua_State *L, const eqpl_val *v, int *params)
 {
-  int tw = lua_getfield(L, t, "water");
-  int tv = lua_getfield(L, t, "volume");
-  double kg = 1.0, v;
-  eqp_quantity k;
-  if (tw != LUA_TNIL && tv != LUA_TNIL)
-    eqpl_input_error(L, "give either 'water' (a mass) or 'volume', not both");
-  if (tw == LUA_TSTRING) {
-    if (eqp_parse_quantity(ctx, lua_tostring(L, -2), EQP_Q_MASS, &kg, &k) < 0)
-      eqpl_fail(L, ctx, eqp_ctx_errcode(ctx));
-  } else if (tw != LUA_TNIL) {
-    eqpl_input_error(L, "water: a mass with its unit, such as '1 kg'");
+  *params = 0;
+  if (!v->given) return NULL;
+  if (lua_type(L, v->idx) == LUA_TSTRING)
+    return eqpl_check_name(L, v->idx, "eq.solution: activity");
+  if (lua_type(L, v->idx) != LUA_TTABLE) {
+    char buf[96];
+    eqpl_input_error(L, "eq.solution: activity must be a model name such as 'davies', or "
+                     "{ 'davies', coefficient = 0.2 }; got %s",
+                     eqpl_describe(L, v->idx, buf, sizeof buf));
   }
-  if (tv == LUA_TSTRING) {
-    if (eqp_parse_quantity(ctx, lua_tostring(L, -1), EQP_Q_VOLUME, &v, &k) < 0)
-      eqpl_fail(L, ctx, eqp_ctx_errcode(ctx));
-    kg = v * eqp_water_density(T);   /* volume of water at T, dilute approximation */
-  } else if (tv != LUA_TNIL) {
-    eqpl_input_error(L, "volume: a volume with its unit, such as '500 mL'");
-  }
-  lua_pop(L, 2);
-  if (!(kg > 0)) eqpl_input_error(L, "the amount of water must be positive");
-  return kg;
-}
-
-static void opt_species(lua_State *L, int t, eqp_ctx *ctx)
-{
-  if (lua_getfield(L, t, "species") == LUA_TTABLE) {
-    int sp = lua_gettop(L);
-    lua_getfield(L, sp, "species");
-    lua_getfield(L, sp, "acids");
-    lua_getfield(L, sp, "reactions");
-    lua_getfield(L, sp, "reagents");
-    int single = !lua_isnil(L, -1) || !lua_isnil(L, -2) || !lua_isnil(L, -3) || !lua_isnil(L, -4);
-    lua_settop(L, sp);
-    if (single) {
-      eqpl_load_species(L, ctx, sp);
-    } else {
-      lua_Integer n = (lua_Integer)lua_rawlen(L, sp);
-      for (lua_Integer i = 1; i <= n; i++) {
-        lua_geti(L, sp, i);
-        eqpl_load_species(L, ctx, -1);
-        lua_pop(L, 1);
-      }
+  lua_rawgeti(L, v->idx, 1);      /* stays on the stack: anchors the name */
+  const char *name = eqpl_check_name(L, -1, "eq.solution: activity[1], the model name,");
+  lua_newtable(L);
+  int copy = lua_gettop(L);
+  lua_pushnil(L);
+  while (lua_next(L, v->idx)) {
+    if (lua_type(L, -2) == LUA_TSTRING) {
+      char what[128];
+      size_t len;
+      const char *k = lua_tolstring(L, -2, &len);
+      if (strlen(k) != len)
+        eqpl_input_error(L, "eq.solution: activity parameter '%s' is followed by a NUL "
+                         "character", k);
+      snprintf(what, sizeof what, "eq.solution: activity parameter '%s'", k);
+      eqpl_check_number(L, -1, what, -HUGE_VAL, HUGE_VAL, 0);
+      lua_pushvalue(L, -2);
+      lua_pushvalue(L, -2);
+      lua_rawset(L, copy);
+    } else if (!(lua_isinteger(L, -2) && lua_tointeger(L, -2) == 1)) {
+      char buf[96];
+      eqpl_input_error(L, "eq.solution: activity parameters go by name, such as { 'davies', "
+                       "coefficient = 0.2 }; got %s without a name",
+                       eqpl_describe(L, -1, buf, sizeof buf));
     }
-  } else if (!lua_isnil(L, -1)) {
-    eqpl_input_error(L, "species: a species table, or a list of file names and tables");
+    lua_pop(L, 1);
   }
-  lua_pop(L, 1);
+  *params = copy;
+  return name;
+}
+
+/* species = a species table, or a list of file names and species tables */
+static void load_species(lua_State *L, eqp_ctx *ctx, const eqpl_val *v)
+{
+  if (!v->given) return;
+  int sp = v->idx;
+  if (!lua_istable(L, sp))
+    eqpl_input_error(L, "eq.solution: species must be a species table, or a list of file "
+                     "names and species tables");
+  lua_getfield(L, sp, "species");
+  lua_getfield(L, sp, "acids");
+  lua_getfield(L, sp, "reactions");
+  lua_getfield(L, sp, "reagents");
+  int single = !lua_isnil(L, -1) || !lua_isnil(L, -2) || !lua_isnil(L, -3) || !lua_isnil(L, -4);
+  lua_pop(L, 4);
+  if (single) {
+    eqpl_load_species(L, ctx, sp);
+    return;
+  }
+  lua_Integer n = (lua_Integer)lua_rawlen(L, sp);
+  for (lua_Integer i = 1; i <= n; i++) {
+    lua_rawgeti(L, sp, i);
+    eqpl_load_species(L, ctx, -1);
+    lua_pop(L, 1);
+  }
 }
 
 int eqpl_solution_new(lua_State *L);
 
 int eqpl_solution_new(lua_State *L)
 {
-  static const char *const keys[] = {"volume", "water", "temperature", "activity", "species",
-                                     NULL};
   eqp_ctx *ctx = eqpl_ctx_of(L);
-  if (lua_isnoneornil(L, 1)) lua_newtable(L);
-  luaL_checktype(L, 1, LUA_TTABLE);
-  lua_pushnil(L);
-  while (lua_next(L, 1)) {
-    lua_pop(L, 1);
-    int ok = 0;
-    if (lua_type(L, -1) == LUA_TSTRING)
-      for (int i = 0; keys[i]; i++) ok |= strcmp(keys[i], lua_tostring(L, -1)) == 0;
-    if (!ok)
-      eqpl_input_error(L, "eq.solution: unknown option '%s' (known: volume, water, "
-                       "temperature, activity, species)", luaL_tolstring(L, -1, NULL));
-  }
-  if (eqp_ctx_load_default_library(ctx) < 0) return eqpl_fail(L, ctx, eqp_ctx_errcode(ctx));
-  opt_species(L, 1, ctx);
+  eqpl_val v[O_N];
+  eqpl_options(L, 1, "eq.solution", solution_opts, v, 0);
+  if (v[O_WATER].given && v[O_VOLUME].given)
+    return eqpl_input_error(L, "eq.solution: give either 'water' (a mass) or 'volume', not both");
   eqp_solution_opts o;
-  o.temperature_K = opt_temperature(L, 1, ctx);
-  o.water = opt_water(L, 1, ctx, o.temperature_K);
-  /* activity = "davies" or { "davies", coefficient = 0.2 } */
-  int act = lua_getfield(L, 1, "activity");
-  int params = 0;
-  if (act == LUA_TTABLE) {
-    params = lua_gettop(L);
-    lua_geti(L, params, 1);
-    if (lua_type(L, -1) != LUA_TSTRING)
-      return eqpl_input_error(L, "activity = { 'model name', parameter = value, ... }");
-    o.activity = lua_tostring(L, -1);
-  } else if (act == LUA_TSTRING) {
-    o.activity = lua_tostring(L, -1);
-  } else if (act == LUA_TNIL) {
-    o.activity = NULL;
-  } else {
-    return eqpl_input_error(L, "activity: a model name such as 'davies'");
-  }
+  o.temperature_K = v[O_TEMPERATURE].given ? v[O_TEMPERATURE].num : 298.15;
+  o.water = 1.0;
+  if (v[O_WATER].given) o.water = v[O_WATER].num;
+  /* a volume of water at T, the dilute approximation */
+  if (v[O_VOLUME].given) o.water = v[O_VOLUME].num * eqp_water_density(o.temperature_K);
+  int params;
+  o.activity = read_activity(L, &v[O_ACTIVITY], &params);
+  /* every option is checked before anything is loaded or made */
+  if (eqp_ctx_load_default_library(ctx) < 0) return eqpl_fail(L, ctx, eqp_ctx_errcode(ctx));
+  load_species(L, ctx, &v[O_SPECIES]);
   eqp_solution *s;
   eqpl_solution *u = eqpl_new_handle(L, sizeof *u, EQPL_SOLUTION);
   int rc = eqp_solution_new(ctx, &o, &s);
@@ -128,13 +139,8 @@ int eqpl_solution_new(lua_State *L)
   if (params) {
     lua_pushnil(L);
     while (lua_next(L, params)) {
-      if (lua_type(L, -2) == LUA_TSTRING) {
-        if (lua_type(L, -1) != LUA_TNUMBER)
-          return eqpl_input_error(L, "activity parameter '%s' must be a number",
-                                  lua_tostring(L, -2));
-        rc = eqp_solution_set_activity_param(s, lua_tostring(L, -2), lua_tonumber(L, -1));
-        if (rc < 0) return eqpl_fail(L, ctx, rc);
-      }
+      rc = eqp_solution_set_activity_param(s, lua_tostring(L, -2), lua_tonumber(L, -1));
+      if (rc < 0) return eqpl_fail(L, ctx, rc);
       lua_pop(L, 1);
     }
   }
@@ -146,13 +152,17 @@ static int solution_add(lua_State *L)
 {
   eqpl_solution *u = eqpl_check_solution(L, 1);
   eqp_ctx *ctx = eqpl_ctx_of(L);
-  const char *reagent = luaL_checkstring(L, 2);
-  if (lua_type(L, 3) == LUA_TNUMBER)
+  const char *reagent = eqpl_check_name(L, 2, "add: the reagent");
+  if (lua_type(L, 3) == LUA_TNUMBER) {
+    lua_pushvalue(L, 3);     /* converted in a slot of its own, which anchors it */
     return eqpl_input_error(L, "amount of %s: %s has no unit (write it as a string with its "
-                            "unit, such as '10 mmol' or '1.5 g')", reagent, lua_tostring(L, 3));
+                            "unit, such as '10 mmol' or '1.5 g')", reagent, lua_tostring(L, -1));
+  }
   if (lua_type(L, 3) != LUA_TSTRING)
     return eqpl_input_error(L, "amount of %s: expected a string such as '10 mmol'", reagent);
-  int rc = eqp_solution_add_str(u->s, reagent, lua_tostring(L, 3));
+  char what[160];
+  snprintf(what, sizeof what, "amount of %s", reagent);
+  int rc = eqp_solution_add_str(u->s, reagent, eqpl_check_name(L, 3, what));
   if (rc < 0) return eqpl_fail(L, ctx, rc);
   lua_getfield(L, LUA_REGISTRYINDEX, EQPL_USED);
   lua_pushboolean(L, 1);
@@ -193,16 +203,7 @@ static int solution_set_temperature(lua_State *L)
 {
   eqpl_solution *u = eqpl_check_solution(L, 1);
   eqp_ctx *ctx = eqpl_ctx_of(L);
-  double T;
-  if (lua_type(L, 2) == LUA_TNUMBER) {
-    T = lua_tonumber(L, 2) + 273.15;
-  } else if (lua_type(L, 2) == LUA_TSTRING) {
-    eqp_quantity k;
-    if (eqp_parse_quantity(ctx, lua_tostring(L, 2), EQP_Q_TEMPERATURE, &T, &k) < 0)
-      return eqpl_fail(L, ctx, eqp_ctx_errcode(ctx));
-  } else {
-    return eqpl_input_error(L, "set_temperature: a number in C or a string such as '37 C'");
-  }
+  double T = eqpl_check_temperature(L, 2, "set_temperature: temperature");
   int rc = eqp_solution_set_temperature(u->s, T);
   if (rc < 0) return eqpl_fail(L, ctx, rc);
   lua_settop(L, 1);
