@@ -312,7 +312,12 @@ struct eqp_ctx {
   eqpi_plugin_handle *plugins;
   int nplugins, capplugins;
   eqp_host_api host;
+  eqp_progress_fn progress;   /* long operations report here (eqp_ctx_set_progress) */
+  void *progress_ud;
 };
+
+/* Tell the progress callback, if any, how far a long operation is. */
+void eqpi_progress(eqp_ctx *ctx, const char *what, size_t done, size_t total);
 
 extern const eqp_host_api eqpi_host_template;
 

@@ -282,6 +282,123 @@ EQP_API int eqp_curve_write_text(const eqp_curve *c, FILE *f);
 EQP_API char *eqp_curve_to_json(const eqp_curve *c);
 EQP_API void eqp_free_string(char *s);
 
+/* ----------------------------------------------------- sweeps, progress */
+
+/* Fractions of each form of an acid or ligand system against pH, in a
+** constant ionic medium: the activity coefficients of the chosen model at
+** the stated ionic strength (set by the medium salt), log K at T. */
+typedef struct eqp_distribution_spec {
+  const char *system;        /* any species or reagent of the system: "HPO4^2-", "citric acid" */
+  double pH_lo, pH_hi;       /* 0, 0: 0 .. 14 */
+  size_t points;             /* 0: 281 */
+  double T;                  /* K; 0: 298.15 */
+  double ionic_strength;     /* mol/kg; 0: infinite dilution */
+  const char *activity;      /* model; NULL: "davies" */
+  const char *medium;        /* salt setting the ionic strength; NULL: "NaCl" */
+} eqp_distribution_spec;
+
+/* Columns: pH, then the fraction (0..1) of each form, most protonated
+** first. A system with a polynuclear form (two or more of the ligand in one
+** species) is EQP_E_INPUT: its fractions depend on the total. */
+EQP_API int eqp_distribution(eqp_ctx *ctx, const eqp_distribution_spec *d, eqp_curve **out);
+
+/* Buffer capacity against pH of buffer systems made by recipe (eqp_recipe_make)
+** at the same total, one column each after pH; NaN where a buffer cannot be
+** made at that pH. */
+typedef struct eqp_capacity_spec {
+  const char *const *buffers; /* buffer systems; NULL: all of the library */
+  size_t nbuffers;
+  double total;              /* mol/L */
+  double volume;             /* L; 0: 1 */
+  double T;                  /* K; 0: 298.15 */
+  const char *activity;      /* NULL: davies */
+  double pH_lo, pH_hi;       /* range swept */
+  size_t points;             /* 0: 61 */
+  double window_lo, window_hi; /* the working window, shaded in plots; NaN: none */
+} eqp_capacity_spec;
+EQP_API int eqp_capacity_sweep(eqp_ctx *ctx, const eqp_capacity_spec *c, eqp_curve **out);
+
+/* pH of s at points temperatures from T0 to T1 (K), the composition kept
+** (s unchanged). Columns: temperature_C, pH, ionic_strength. */
+EQP_API int eqp_solution_temperature_sweep(eqp_solution *s, double T0, double T1, size_t points,
+                                           eqp_curve **out);
+
+/* Progress of long operations (titrations, sweeps): what, and done of
+** total steps (total 0 when unknown). Called from inside the operation;
+** it must not call back into the engine. NULL removes the callback. */
+typedef void (*eqp_progress_fn)(void *ud, const char *what, size_t done, size_t total);
+EQP_API void eqp_ctx_set_progress(eqp_ctx *ctx, eqp_progress_fn fn, void *ud);
+
+/* Provenance: every constant that the species formed by the given names
+** (species or reagents, plus water) depend on. The callback sees each once. */
+typedef struct eqp_constant {
+  const char *kind;          /* "pKa", "log K", "log Ksp", "log K_H", "ion size", "interaction" */
+  const char *equation;      /* "H2PO4- = HPO4^2- + H+"; borrowed for the call */
+  double value;              /* at 25 C (Angstrom for ion sizes, kg/mol for interactions) */
+  double dH, dCp;            /* kJ/mol, J/(K mol) of the reaction as written; NaN: none */
+  const char *temperature;   /* how it changes with temperature, in words */
+  const char *source;        /* the citation the species file gives */
+  const char *file;
+  int line;
+} eqp_constant;
+typedef void (*eqp_constant_fn)(void *ud, const eqp_constant *c);
+EQP_API int eqp_ctx_constants(eqp_ctx *ctx, const char *const *names, size_t n,
+                              eqp_constant_fn fn, void *ud);
+
+/* ---------------------------------------------------------------- plots */
+
+/* A figure: lines, markers, shaded bands, axes with units and a legend,
+** drawn with PLplot's cairo drivers in our colour-blind-safe palette.
+** Species names given as labels are shown with sub- and superscripts. */
+typedef struct eqp_plot eqp_plot;
+typedef enum eqp_plot_format { EQP_PLOT_SVG = 1, EQP_PLOT_PNG = 2, EQP_PLOT_PDF = 3 } eqp_plot_format;
+
+EQP_API int eqp_plot_new(eqp_ctx *ctx, eqp_plot **out);
+EQP_API void eqp_plot_free(eqp_plot *p);
+EQP_API int eqp_plot_set_title(eqp_plot *p, const char *title);
+/* axis 0 is x, 1 is y: the quantity ("added volume"), its unit ("mL"; NULL:
+** none) and the range (NaN, NaN: from the data). */
+EQP_API int eqp_plot_set_axis(eqp_plot *p, int axis, const char *label, const char *unit,
+                              double lo, double hi);
+/* Size in points (1/72 in; pixels for PNG); default 720 x 480. */
+EQP_API int eqp_plot_set_size(eqp_plot *p, int width, int height);
+/* A line through n points; a NaN breaks it. label NULL: no legend entry.
+** The arrays are copied. EQP_E_INPUT for an infinite value. */
+EQP_API int eqp_plot_add_line(eqp_plot *p, const char *label, size_t n, const double *x,
+                              const double *y);
+/* A marked point with a dashed vertical rule through it, labelled. */
+EQP_API int eqp_plot_add_marker(eqp_plot *p, double x, double y, const char *label);
+/* A shaded band from x0 to x1 (a working window), in the legend as label. */
+EQP_API int eqp_plot_add_band(eqp_plot *p, double x0, double x1, const char *label);
+/* A dotted horizontal reference line, labelled at its right end. */
+EQP_API int eqp_plot_add_hline(eqp_plot *p, double y, const char *label);
+/* EQP_PLOT_* from a file name's extension (.svg, .png, .pdf); 0 if none. */
+EQP_API int eqp_plot_format_of(const char *path);
+/* Draw into memory: *data is malloc'd (free with eqp_free_buffer). */
+EQP_API int eqp_plot_render(eqp_plot *p, eqp_plot_format fmt, char **data, size_t *len);
+/* Draw and write path atomically (a temporary file in the same folder,
+** then rename); the format from the extension. EQP_E_IO on failure. */
+EQP_API int eqp_plot_write(eqp_plot *p, const char *path);
+EQP_API void eqp_free_buffer(void *p);
+/* The display form of a species name with Unicode sub- and superscripts
+** ("HPO4^2-" -> "HPO₄²⁻"). EQP_E_ARG if out is too small. */
+EQP_API int eqp_name_display(const char *name, char *out, size_t len);
+
+/* Ready-made figures. The curve is borrowed for the call. */
+/* pH against the titrant added (mL of a stock or of a liquid reagent,
+** otherwise mmol), each equivalence point marked. */
+EQP_API int eqp_plot_titration(const eqp_curve *c, const char *title, eqp_plot **out);
+/* Fractions (in %) of each form against pH, with the 50 % line. */
+EQP_API int eqp_plot_distribution(const eqp_curve *c, const eqp_distribution_spec *d,
+                                  eqp_plot **out);
+/* beta against pH of each buffer, the window shaded. */
+EQP_API int eqp_plot_capacity(const eqp_curve *c, const eqp_capacity_spec *s, eqp_plot **out);
+/* Columns of any curve against one column: ycols NULL plots every other
+** column. Units follow the column names (volume_L in mL, amount_mol in
+** mmol, temperature_C in degrees C, species in mol/kg). */
+EQP_API int eqp_plot_columns(const eqp_curve *c, const char *xcol, const char *const *ycols,
+                             size_t ny, const char *title, eqp_plot **out);
+
 /* ------------------------------------------------------------ recipes */
 
 typedef struct eqp_recipe eqp_recipe;

@@ -105,6 +105,7 @@ static const luaL_Reg curve_methods[] = {
   {"write_csv", curve_write_csv},
   {"json", curve_json},
   {"write_json", curve_write_json},
+  {"plot", eqpl_curve_plot},
   {NULL, NULL},
 };
 

@@ -229,6 +229,7 @@ int eqp_lua_open(lua_State *L)
   lua_pushvalue(L, ctxidx);
   luaL_setfuncs(L, eq_funcs, 1);
   eqpl_open_recipe(L, ctxidx);
+  eqpl_open_plot(L, ctxidx);
   lua_pushstring(L, EQP_VERSION_STRING);
   lua_setfield(L, -2, "version");
   lua_pushvalue(L, -1);

@@ -16,6 +16,9 @@
 #define EQPL_LOG "equipoise.log"            /* registry: results of the run, in order */
 #define EQPL_USED "equipoise.used"          /* registry: set of reagent names added */
 #define EQPL_HOOKS "equipoise.hooks"        /* registry: host callbacks (CLI) */
+#define EQPL_PLOT "equipoise.plot"
+#define EQPL_PLOTS "equipoise.plots"        /* registry: {plot, file, line} of the run */
+#define EQPL_CURVEKIND "equipoise.curvekind" /* registry: curve -> how it was made (weak) */
 
 typedef struct eqpl_ctx { eqp_ctx *ctx; } eqpl_ctx;
 typedef struct eqpl_solution { eqp_solution *s; } eqpl_solution;
@@ -46,6 +49,9 @@ void eqpl_open_curve(lua_State *L);
 void eqpl_open_procedure(lua_State *L);
 int eqpl_mix(lua_State *L);
 void eqpl_open_recipe(lua_State *L, int ctx);
+void eqpl_open_plot(lua_State *L, int ctx);
+/* curve:plot (lua_plot.c) */
+int eqpl_curve_plot(lua_State *L);
 void eqpl_push_curve(lua_State *L, eqp_curve *c);
 /* A volume string ("10 mL") at idx, in L; raises on anything else. */
 double eqpl_check_volume(lua_State *L, int idx, const char *what);

@@ -1,0 +1,174 @@
+/* Provenance: the constants a set of species and reagents depends on, each
+** with its value, its temperature dependence and its source, as the
+** species files give them. Acid steps are shown as dissociations with pKa,
+** other reactions as formations with log K (DESIGN s.4, notation). */
+/* SPDX-License-Identifier: MIT */
+#include "eqp_impl.h"
+#include <math.h>
+#include <stdio.h>
+#include <string.h>
+
+typedef struct walk {
+  eqp_ctx *ctx;
+  unsigned char *comp;      /* components involved */
+  unsigned char *sp;        /* species that can form from them */
+  unsigned char *rx;        /* reactions already reported */
+  eqp_constant_fn fn;
+  void *ud;
+} walk;
+
+static void mark_terms(walk *w, int nterm, const int *term_comp, const double *term_nu)
+{
+  for (int t = 0; t < nterm; t++)
+    if (term_nu[t] != 0) w->comp[term_comp[t]] = 1;
+}
+
+static int formed(const walk *w, const eqpi_species *s)
+{
+  for (int t = 0; t < s->nterm; t++)
+    if (s->term_nu[t] != 0 && !w->comp[s->term_comp[t]]) return 0;
+  return 1;
+}
+
+static void temperature_words(const eqpi_reaction *r, char *buf, size_t len)
+{
+  if (r->tmodel == EQPI_T_WATER)
+    snprintf(buf, len, "IAPWS R11-07 formulation of Kw (Bandura & Lvov 2006) at every temperature");
+  else if (r->tmodel == EQPI_T_FUNCTION && !isnan(r->Tmin))
+    snprintf(buf, len, "published function of T, %.2f to %.2f K", r->Tmin, r->Tmax);
+  else if (r->tmodel == EQPI_T_FUNCTION)
+    snprintf(buf, len, "published function of T");
+  else if (!isnan(r->dH) && !isnan(r->dCp))
+    snprintf(buf, len, "van't Hoff with dH and dCp");
+  else if (!isnan(r->dH))
+    snprintf(buf, len, "van't Hoff with dH (dCp taken as 0)");
+  else
+    snprintf(buf, len, "none given: the 25 C value is used at every temperature");
+}
+
+static void report_reaction(walk *w, const eqpi_reaction *r, const char *kind_hint,
+                            const char *equation)
+{
+  const eqpi_db *db = &w->ctx->db;
+  char eq[512], tw[160];
+  size_t used = 0;
+  eqp_constant k = {0};
+  int acid = r->n == 2 && r->product >= 0 &&
+             ((r->reactant[1] == db->h_plus && r->nu[1] == 1 && r->nu[0] == 1) ||
+              (r->reactant[0] == db->h_plus && r->nu[0] == 1 && r->nu[1] == 1));
+  if (equation) {
+    snprintf(eq, sizeof eq, "%s", equation);
+    k.kind = kind_hint;
+    k.dH = r->dH;
+    k.dCp = r->dCp;
+  } else if (acid && !kind_hint) {
+    /* HA = A + H+ with pKa: the formation constant of HA from A and H+ */
+    int base = r->reactant[0] == db->h_plus ? r->reactant[1] : r->reactant[0];
+    snprintf(eq, sizeof eq, "%s = %s + H+", db->sp[r->product].name, db->sp[base].name);
+    k.kind = "pKa";
+    k.dH = -r->dH;
+    k.dCp = -r->dCp;
+  } else {
+    if (r->product >= 0) used += (size_t)snprintf(eq, sizeof eq, "%s =", db->sp[r->product].name);
+    else used += (size_t)snprintf(eq, sizeof eq, "=");
+    for (int j = 0; j < r->n && used < sizeof eq; j++)
+      used += (size_t)snprintf(eq + used, sizeof eq - used, "%s %s%g %s", j ? " +" : "",
+                               r->nu[j] < 0 ? "- " : "", fabs(r->nu[j]),
+                               db->sp[r->reactant[j]].name);
+    k.kind = kind_hint ? kind_hint : "log K";
+    k.dH = r->dH;
+    k.dCp = r->dCp;
+  }
+  temperature_words(r, tw, sizeof tw);
+  k.equation = eq;
+  k.value = r->logK;
+  k.temperature = tw;
+  k.source = r->source ? r->source : "";
+  k.file = r->file ? r->file : "";
+  k.line = r->line;
+  w->fn(w->ud, &k);
+}
+
+static int add_name(walk *w, const char *name)
+{
+  const eqpi_db *db = &w->ctx->db;
+  int i = eqpi_db_find_species(db, name);
+  if (i >= 0) {
+    mark_terms(w, db->sp[i].nterm, db->sp[i].term_comp, db->sp[i].term_nu);
+    return EQP_OK;
+  }
+  int g = eqpi_db_find_reagent(db, name);
+  if (g < 0) return eqpi_fail(w->ctx, EQP_E_UNKNOWN, "no species or reagent '%s'", name);
+  mark_terms(w, db->rg[g].nterm, db->rg[g].term_comp, db->rg[g].term_nu);
+  return EQP_OK;
+}
+
+static void report_all(walk *w)
+{
+  const eqpi_db *db = &w->ctx->db;
+  for (int i = 0; i < db->nsp; i++) w->sp[i] = formed(w, &db->sp[i]);
+  for (int i = 0; i < db->nsp; i++) {
+    if (!w->sp[i]) continue;
+    const eqpi_species *s = &db->sp[i];
+    for (int k = 0; k < s->nrx; k++)
+      if (!w->rx[s->rx_idx[k]]) {
+        w->rx[s->rx_idx[k]] = 1;
+        report_reaction(w, &db->rx[s->rx_idx[k]], NULL, NULL);
+      }
+  }
+  char eq[512];
+  for (int g = 0; g < db->ngases; g++) {
+    if (!w->sp[db->gases[g].species]) continue;
+    snprintf(eq, sizeof eq, "%s = %s", db->gases[g].name, db->sp[db->gases[g].species].name);
+    report_reaction(w, &db->gases[g].kh, "log K_H", eq);
+  }
+  for (int q = 0; q < db->nsolids; q++) {
+    const eqpi_solid *so = &db->solids[q];
+    int all = 1;
+    size_t used = (size_t)snprintf(eq, sizeof eq, "%s =", so->name);
+    for (int j = 0; j < so->n; j++) {
+      all &= w->sp[so->sp[j]];
+      if (used < sizeof eq)
+        used += (size_t)snprintf(eq + used, sizeof eq - used, "%s %g %s", j ? " +" : "",
+                                 so->nu[j], db->sp[so->sp[j]].name);
+    }
+    if (all) report_reaction(w, &so->ksp, "log Ksp", eq);
+  }
+  for (int i = 0; i < db->nsp; i++) {
+    const eqpi_species *s = &db->sp[i];
+    if (!w->sp[i] || isnan(s->size)) continue;
+    eqp_constant k = {"ion size", s->name, s->size, NAN, NAN, "none", s->size_source ?
+                      s->size_source : "", s->file ? s->file : "", s->line};
+    w->fn(w->ud, &k);
+  }
+  for (int p = 0; p < db->npairs; p++) {
+    const eqpi_pairparam *pp = &db->pairs[p];
+    if (!w->sp[pp->a] || !w->sp[pp->b]) continue;
+    snprintf(eq, sizeof eq, "%s(%s, %s)", pp->key, db->sp[pp->a].name, db->sp[pp->b].name);
+    eqp_constant k = {"interaction", eq, pp->value, NAN, NAN, "none", pp->source ? pp->source : "",
+                      pp->file ? pp->file : "", pp->line};
+    w->fn(w->ud, &k);
+  }
+}
+
+int eqp_ctx_constants(eqp_ctx *ctx, const char *const *names, size_t n, eqp_constant_fn fn,
+                      void *ud)
+{
+  if (!ctx || !fn || (n && !names)) return eqpi_fail(ctx, EQP_E_ARG, "NULL argument");
+  int rc = eqp_ctx_load_default_library(ctx);
+  if (rc < 0) return rc;
+  const eqpi_db *db = &ctx->db;
+  size_t nc = (size_t)db->ncomp + 1, ns = (size_t)db->nsp + 1, nr = (size_t)db->nrx + 1;
+  walk w = {ctx, eqpi_calloc(ctx, nc, 1), eqpi_calloc(ctx, ns, 1), eqpi_calloc(ctx, nr, 1), fn,
+            ud};
+  if (!w.comp || !w.sp || !w.rx) rc = eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
+  /* water and its ions are in every solution */
+  for (int c = 0; rc == EQP_OK && c < db->ncomp; c++)
+    if (db->comp_species[c] == db->h_plus || db->comp_species[c] == db->water) w.comp[c] = 1;
+  for (size_t i = 0; rc == EQP_OK && i < n; i++) rc = add_name(&w, names[i]);
+  if (rc == EQP_OK) report_all(&w);
+  eqpi_free(ctx, w.comp, nc);
+  eqpi_free(ctx, w.sp, ns);
+  eqpi_free(ctx, w.rx, nr);
+  return rc;
+}
