@@ -208,3 +208,26 @@ int eqp_plot_columns(const eqp_curve *c, const char *xcol, const char *const *yc
   }
   return finish(p, rc, out);
 }
+
+int eqp_curve_from_table(eqp_ctx *ctx, size_t ncols, const char *const *names, size_t nrows,
+                         const double *values, eqp_curve **out)
+{
+  if (!ctx || !names || !out || (nrows && !values)) return eqpi_fail(ctx, EQP_E_ARG, "NULL argument");
+  *out = NULL;
+  if (ncols < 1 || ncols > 1000) return eqpi_fail(ctx, EQP_E_INPUT, "1 to 1000 columns");
+  for (size_t j = 0; j < ncols; j++)
+    if (!names[j] || !names[j][0]) return eqpi_fail(ctx, EQP_E_INPUT, "column %zu has no name",
+                                                    j + 1);
+  for (size_t i = 0; i < nrows * ncols; i++)
+    if (isinf(values[i])) return eqpi_fail(ctx, EQP_E_INPUT, "row %zu holds an infinite value",
+                                           i / ncols + 1);
+  eqp_curve *c = eqpi_curve_new(ctx, (int)ncols, names);
+  if (!c) return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
+  for (size_t i = 0; i < nrows; i++)
+    if (eqpi_curve_push(c, values + i * ncols) < 0) {
+      eqp_curve_free(c);
+      return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
+    }
+  *out = c;
+  return EQP_OK;
+}

@@ -231,6 +231,8 @@ int eqp_solution_titrate(eqp_solution *s, const eqp_titration *spec, eqp_curve *
     }
     rc = push_row(c, w, &t, v + h, pH1, dpH1, r, spec);
     eqp_result_free(r);
+    eqpi_progress(ctx, "titration", isfinite(end) ? (size_t)(1000 * (v + h) / end) : c->nrows,
+                  isfinite(end) ? 1000 : 0);
     v += h;
     pH = pH1;
     dpH = dpH1;

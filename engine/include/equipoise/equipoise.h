@@ -384,6 +384,11 @@ EQP_API void eqp_free_buffer(void *p);
 ** ("HPO4^2-" -> "HPO₄²⁻"). EQP_E_ARG if out is too small. */
 EQP_API int eqp_name_display(const char *name, char *out, size_t len);
 
+/* A curve from a table of numbers of the caller's own (nrows x ncols,
+** row-major, NaN for a gap), for plotting, CSV or JSON. */
+EQP_API int eqp_curve_from_table(eqp_ctx *ctx, size_t ncols, const char *const *names,
+                                 size_t nrows, const double *values, eqp_curve **out);
+
 /* Ready-made figures. The curve is borrowed for the call. */
 /* pH against the titrant added (mL of a stock or of a liquid reagent,
 ** otherwise mmol), each equivalence point marked. */

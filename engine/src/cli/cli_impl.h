@@ -34,6 +34,7 @@ typedef struct cli_run {
   int verbose;
   const char **param_names, **param_values;
   int nparams;
+  const char *report;  /* --report FILE.html, or NULL */
 } cli_run;
 
 int cli_run_script(const cli_run *run);
@@ -44,5 +45,15 @@ void cli_write_json(lua_State *L, const cli_run *run, int exit_code, const char 
 void cli_report_text(lua_State *L);
 /* Collect a standard caution for each hazardous reagent used; calls f. */
 void cli_each_caution(lua_State *L, void (*f)(void *, const char *), void *ud);
+
+/* Record every call of the module and of solution and curve methods, and
+** printed lines, for the report (journal.c). */
+void cli_journal_install(lua_State *L);
+/* A progress line on stderr for long operations, when stderr is a terminal. */
+void cli_progress_attach(lua_State *L);
+/* Write the HTML report of a finished run to run->report (report_html.c). */
+int cli_write_report(lua_State *L, const cli_run *run, int exit_code, const char *error);
+/* equipoise plot ... (plot_cmd.c) */
+int cli_plot(int argc, char **argv);
 
 #endif

@@ -7,7 +7,9 @@
 #include <string.h>
 
 const char cli_usage[] =
-  "usage: equipoise run FILE.lua [--param NAME=VALUE ...] [--json] [--verbose]\n"
+  "usage: equipoise run FILE.lua [--param NAME=VALUE ...] [--json] [--report OUT.html]\n"
+  "                                [--verbose]\n"
+  "       equipoise plot distribution|capacity|csv ... -o OUT.svg|.png|.pdf\n"
   "       equipoise species list [--json] | show NAME [--temperature T] [--json]\n"
   "       equipoise species check FILE\n"
   "       equipoise plugins\n"
@@ -22,7 +24,14 @@ static const char help[] =
   "    --param N=V       set params.N = \"V\" in the script (repeatable)\n"
   "    --json            print one JSON document (results, warnings, cautions,\n"
   "                      provenance) instead of the script's text output\n"
+  "    --report OUT.html write one self-contained HTML page of the run: each\n"
+  "                      step with its results, tables, figures, warnings,\n"
+  "                      cautions and the provenance of every constant\n"
   "    --verbose         show a Lua stack trace on errors\n"
+  "  plot distribution SYSTEM  fractions of each form against pH\n"
+  "  plot capacity BUFFER ...  buffer capacity against pH at one total\n"
+  "  plot csv FILE.csv         columns of a saved curve or table\n"
+  "                      (equipoise plot --help for the options)\n"
   "  species list        species, reagents (with their other names), buffer\n"
   "                      systems, solids and gases of the library\n"
   "  species show NAME   one entry: its reactions as a chemist writes them (pKa,\n"
@@ -93,6 +102,8 @@ static int cmd_run(int argc, char **argv)
     const char *a = argv[i];
     if (strcmp(a, "--json") == 0) run.json = 1;
     else if (strcmp(a, "--verbose") == 0) run.verbose = 1;
+    else if (strcmp(a, "--report") == 0 && i + 1 < argc) run.report = argv[++i];
+    else if (strncmp(a, "--report=", 9) == 0 && a[9]) run.report = a + 9;
     else if (strcmp(a, "--param") == 0 || strncmp(a, "--param=", 8) == 0) {
       const char *kv = a[7] == '=' ? a + 8 : (i + 1 < argc ? argv[++i] : NULL);
       const char *eq = kv ? strchr(kv, '=') : NULL;
@@ -147,6 +158,7 @@ int main(int argc, char **argv)
   }
   if (strcmp(cmd, "run") == 0) return cmd_run(argc - 2, argv + 2);
   if (strcmp(cmd, "species") == 0) return cli_species(argc - 2, argv + 2);
+  if (strcmp(cmd, "plot") == 0) return cli_plot(argc - 2, argv + 2);
   if (strcmp(cmd, "plugins") == 0) {
     if (argc == 2) return cmd_plugins();
     fprintf(stderr, "equipoise: 'plugins' takes no arguments ('%s')\n%s", argv[2], cli_usage);

@@ -93,6 +93,8 @@ int cli_run_script(const cli_run *run)
     lua_pushcfunction(L, captured_print);
     lua_setglobal(L, "print");
   }
+  cli_progress_attach(L);
+  if (run->report) cli_journal_install(L);
   int lrc = luaL_loadfilex(L, run->script, "t");
   if (lrc != LUA_OK) {
     err = lua_tostring(L, -1);
@@ -113,6 +115,8 @@ report:
     if (err) fprintf(stderr, "equipoise: %s\n", err);
     cli_report_text(L);
   }
+  if (run->report && cli_write_report(L, run, code, err) < 0 && code == EXIT_OK)
+    code = EXIT_DATA;
   fflush(stdout);
   lua_close(L);
   return code;

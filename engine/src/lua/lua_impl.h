@@ -24,6 +24,7 @@ typedef struct eqpl_ctx { eqp_ctx *ctx; } eqpl_ctx;
 typedef struct eqpl_solution { eqp_solution *s; } eqpl_solution;
 typedef struct eqpl_result { eqp_result *r; } eqpl_result;
 typedef struct eqpl_curve { eqp_curve *c; } eqpl_curve;
+typedef struct eqpl_plot { eqp_plot *p; } eqpl_plot;
 
 /* Push a new handle userdata of the given size, zeroed, with its metatable
 ** and a link to the context (the caller's upvalue 1) so that the context

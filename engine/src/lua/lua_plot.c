@@ -8,7 +8,6 @@
 #include <stdlib.h>
 #include <string.h>
 
-typedef struct eqpl_plot { eqp_plot *p; } eqpl_plot;
 
 #define EQP_PLOT_MAX_Y 64
 
