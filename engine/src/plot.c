@@ -141,6 +141,14 @@ int eqp_plot_add_line(eqp_plot *p, const char *label, size_t n, const double *x,
   return EQP_OK;
 }
 
+int eqp_plot_add_points(eqp_plot *p, const char *label, size_t n, const double *x,
+                        const double *y)
+{
+  int rc = eqp_plot_add_line(p, label, n, x, y);
+  if (rc == EQP_OK) p->line[p->nline - 1].points = 1;
+  return rc;
+}
+
 static int add_mark(eqp_plot *p, eqpi_mark *list, int *count, double a, double b,
                     const char *label)
 {

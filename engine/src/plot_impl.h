@@ -13,6 +13,7 @@ typedef struct eqpi_series {
   char label[EQPI_PLOT_TEXT];   /* display form; "" for no legend entry */
   size_t n;
   double *x, *y;
+  int points;                   /* a dot at every point too */
 } eqpi_series;
 
 typedef struct eqpi_mark {

@@ -124,9 +124,15 @@ int eqp_plot_distribution(const eqp_curve *c, const eqp_distribution_spec *d, eq
   long ph = column_index(c, "pH");
   if (ph != 0) return finish(p, eqpi_fail(c->ctx, EQP_E_INPUT, "not a distribution (pH is "
                                           "not its first column)"), out);
-  char cond[128], title[EQPI_PLOT_TEXT];
+  char cond[96], title[EQPI_PLOT_TEXT * 2], sys[64];
   conditions(cond, sizeof cond, d->T > 0 ? d->T : EQPI_T25, d->ionic_strength, d->activity);
-  snprintf(title, sizeof title, "Distribution of the %s system\n%s", d->system, cond);
+  /* a formula (NaHCO3) with its subscripts; a name (phosphate) as it is */
+  if (eqpi_db_find_reagent(&c->ctx->db, d->system) < 0 &&
+      eqpi_db_find_species(&c->ctx->db, d->system) < 0)
+    snprintf(sys, sizeof sys, "%s", d->system);
+  else if (eqpi_name_pretty(d->system, sys, sizeof sys) != 0)
+    snprintf(sys, sizeof sys, "%s", d->system);
+  snprintf(title, sizeof title, "Distribution of the %s system\n%s", sys, cond);
   rc = eqp_plot_set_title(p, title);
   double lo = eqp_curve_value(c, 0, 0), hi = eqp_curve_value(c, eqp_curve_rows(c) - 1, 0);
   if (rc == EQP_OK) rc = eqp_plot_set_axis(p, 0, "pH", NULL, lo < hi ? lo : NAN,

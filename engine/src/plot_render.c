@@ -114,7 +114,8 @@ static void draw_lines(const eqp_plot *p)
       size_t start = k;
       while (k < s->n && !isnan(s->x[k]) && !isnan(s->y[k])) k++;
       if (k - start >= 2) plline((PLINT)(k - start), s->x + start, s->y + start);
-      else if (k - start == 1) plstring(1, s->x + start, s->y + start, "\xE2\x80\xA2");
+      if (k - start == 1 || (s->points && k > start))
+        plstring((PLINT)(k - start), s->x + start, s->y + start, "\xE2\x97\x8F");
     }
   }
   pllsty(1);
@@ -162,6 +163,8 @@ static void draw_direct_labels(const eqp_plot *p, double r[2][2])
   for (int i = 0; i < p->nline; i++) labelled += p->line[i].label[0] != 0;
   if (labelled < 2) return;
   double dy = (r[1][1] - r[1][0]) * 0.025;
+  double placed[EQPI_PLOT_MAX_ITEMS][4];   /* boxes of the labels drawn, x0 x1 y0 y1 */
+  int nplaced = 0;
   plschr(0, 0.9);
   for (int i = 0; i < p->nline; i++) {
     const eqpi_series *s = &p->line[i];
@@ -179,6 +182,17 @@ static void draw_direct_labels(const eqp_plot *p, double r[2][2])
     double f = (s->x[best] - r[0][0]) / (r[0][1] - r[0][0]);
     double just = f < 0.08 ? 0.0 : f > 0.92 ? 1.0 : 0.5;
     double dx = (r[0][1] - r[0][0]) * (just == 0.0 ? 0.01 : just == 1.0 ? -0.01 : 0);
+    /* a label that would sit on another is left to the legend */
+    int chars = 0;
+    for (const char *c = s->label; *c; c++) chars += ((unsigned char)*c & 0xC0) != 0x80;
+    double w = (r[0][1] - r[0][0]) * 0.0125 * chars * 720.0 / p->width;
+    double x0 = s->x[best] + dx - just * w, box[4] = {x0, x0 + w, y - dy, y + 1.5 * dy};
+    int clash = 0;
+    for (int k = 0; k < nplaced; k++)
+      clash |= box[0] < placed[k][1] && placed[k][0] < box[1] && box[2] < placed[k][3] &&
+               placed[k][2] < box[3];
+    if (clash) continue;
+    memcpy(placed[nplaced++], box, sizeof box);
     plptex(s->x[best] + dx, y, 1, 0, just, text);
   }
   plschr(0, 1.0);

@@ -26,3 +26,6 @@ print(string.format("to read 7.40 at 37 C: %.2f mmol NaOH; at 22 C it then reads
                     mol37 * 1e3, t:equilibrate().pH))
 local beta = t:set_temperature(37):buffer_capacity()
 print(string.format("buffer capacity at 37 C: %.2f mM per pH unit", beta * 1e3))
+
+-- pH of the bench-made saline (7.40 at 22 C) from the cold room to the incubator
+s:temperature_sweep{ from = 4, to = 40 }:plot(params.plot or "saline_temperature.svg")

@@ -33,3 +33,8 @@ print("Full speciation of the 50 mM wash buffer:")
 local s = eq.solution{ water = "1 kg", activity = "davies" }
 s:add("KH2PO4", "20 mmol"):add("Na2HPO4", "30 mmol")
 print(s:equilibrate())
+
+-- the phosphate forms against pH at the ionic strength of the 50 mM buffer
+local I = s:equilibrate().ionic_strength
+eq.distribution{ system = "phosphate", ionic_strength = I, pH = { 4, 10 } }
+  :plot(params.plot or "phosphate_distribution.svg")

@@ -14,3 +14,11 @@ local r = eq.recipe{ buffer = best.buffer, pH = 7.2, total = "100 mM", volume = 
 local b = r.solution:load_budget{ window = 0.05 }
 print(string.format("%s budget within +-0.05: %.2f mM acid, %.2f mM base", best.buffer, b.acid_mM,
                     b.base_mM))
+
+-- capacity against pH of the four best candidates, the assay's window shaded
+local names = {}
+for i = 1, #ranked do
+  if ranked[i].possible and #names < 4 then names[#names + 1] = ranked[i].buffer end
+end
+eq.capacity{ buffers = names, total = "100 mM", temperature = 30, pH = { 5.5, 9.5 },
+             window = { 7.15, 7.25 } }:plot(params.plot or "assay_capacity.svg")

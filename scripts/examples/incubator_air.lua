@@ -22,3 +22,7 @@ print(string.format("open on the bench (air, 22 C), at equilibrium: pH %.2f, %.2
                     bench:equilibrate().pH, -lost * 1e3))
 print(string.format("buffer capacity in the incubator: %.1f mM per pH unit",
                     incubator:buffer_capacity() * 1e3))
+
+-- the carbonate forms against pH at 37 C and the medium's ionic strength
+eq.distribution{ system = "NaHCO3", ionic_strength = r.ionic_strength, temperature = 37,
+                 pH = { 4, 12 } }:plot(params.plot or "carbonate_distribution.svg")

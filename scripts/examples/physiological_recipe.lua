@@ -16,3 +16,7 @@ end
 local pH = s:equilibrate().pH
 print(string.format("re-made from the printed amounts: pH %.4f at 37 C", pH))
 assert(math.abs(pH - 7.40) <= 0.005, "the printed recipe does not give its pH back")
+
+-- the buffer's capacity around its target, made the same way at each pH
+eq.capacity{ buffers = { "phosphate" }, total = "50 mM", temperature = 37, pH = { 5.5, 9 },
+             window = { 7.35, 7.45 } }:plot(params.plot or "phosphate_capacity.svg")

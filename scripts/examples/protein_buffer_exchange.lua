@@ -23,11 +23,26 @@ local function show(label, s)
                       1e3 * (r:molarity("H2PO4-") + r:molarity("HPO4^2-")), r.ionic_strength))
 end
 
+local rounds, pHs, tris = {}, {}, {}
+local function track(round, s)
+  local r = s:equilibrate()
+  rounds[#rounds + 1] = round
+  pHs[#pHs + 1] = r.pH
+  tris[#tris + 1] = 1e3 * (r:molarity("Tris") + r:molarity("TrisH+"))
+end
+
 show("start", sample)
+track(0, sample)
 for round = 1, 2 do
   local mixed = eq.mix{ { sample, "0.5 mL" }, { exchange, "4.5 mL" } }
   -- spinning down keeps the concentrations and removes volume: the retained
   -- 0.5 mL has the composition of the mixture
   sample = eq.mix{ { mixed, "0.5 mL" } }
   show("after round " .. round, sample)
+  track(round, sample)
 end
+
+eq.plot{ file = params.plot or "exchange_rounds.svg", title = "Buffer exchange at 4 \u{B0}C",
+         x = { label = "round" }, y = { label = "pH" },
+         lines = { { x = rounds, y = pHs, label = "pH", points = true } },
+         hlines = { { y = exchange:equilibrate().pH, label = "exchange buffer" } } }

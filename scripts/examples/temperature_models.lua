@@ -26,6 +26,20 @@ for _, m in ipairs(models) do
   print(row)
   for w in pairs(warnings) do print("    note: " .. w) end
 end
+
+-- pH against temperature under each model, 4 to 37 C
+local lines = {}
+for _, m in ipairs(models) do
+  local s = eq.solution{ volume = "1 L", temperature = 25, activity = m }
+  s:add("Tris", "6.057 g"):add("TrisHCl", "3.940 g"):add("NaCl", "100 mmol")
+  local sweep = s:temperature_sweep{ from = 4, to = 37 }
+  local T, pH = {}, {}
+  for i, row in ipairs(sweep) do T[i], pH[i] = row.temperature_C, row.pH end
+  lines[#lines + 1] = { x = T, y = pH, label = m }
+end
+eq.plot{ file = params.plot or "tris_temperature.svg", title = "Tris buffer against temperature",
+         x = { label = "temperature", unit = "\u{B0}C" }, y = "pH", lines = lines }
+
 print()
 print("Tris loses about 0.03 pH per degree warming: adjust the pH at the")
 print("temperature of use, and confirm it there with a calibrated meter.")

@@ -26,3 +26,5 @@ for i, row in ipairs(curve) do
     break
   end
 end
+-- the curve as a figure, its equivalence point marked
+curve:plot(params.plot or "titration.svg")

@@ -366,6 +366,9 @@ EQP_API int eqp_plot_set_size(eqp_plot *p, int width, int height);
 ** The arrays are copied. EQP_E_INPUT for an infinite value. */
 EQP_API int eqp_plot_add_line(eqp_plot *p, const char *label, size_t n, const double *x,
                               const double *y);
+/* The same, with a dot at every point (few points, such as rounds). */
+EQP_API int eqp_plot_add_points(eqp_plot *p, const char *label, size_t n, const double *x,
+                                const double *y);
 /* A marked point with a dashed vertical rule through it, labelled. */
 EQP_API int eqp_plot_add_marker(eqp_plot *p, double x, double y, const char *label);
 /* A shaded band from x0 to x1 (a working window), in the legend as label. */

@@ -251,7 +251,7 @@ static int set_axis(lua_State *L, eqp_plot *p, int t, const char *key, int axis)
 
 static int add_lines(lua_State *L, eqp_plot *p, int t)
 {
-  static const char *const keys[] = {"x", "y", "label", NULL};
+  static const char *const keys[] = {"x", "y", "label", "points", NULL};
   int rc = EQP_OK;
   if (lua_getfield(L, t, "lines") != LUA_TTABLE) {
     lua_pop(L, 1);
@@ -271,7 +271,11 @@ static int add_lines(lua_State *L, eqp_plot *p, int t)
     double *y = number_list(L, lua_gettop(L), &ny, "eq.plot line y");
     if (nx != ny) return eqpl_input_error(L, "eq.plot: line %d has %d x and %d y values", (int)i,
                                           (int)nx, (int)ny);
-    rc = eqp_plot_add_line(p, opt_string(L, l, "label", "eq.plot line"), nx, x, y);
+    lua_getfield(L, l, "points");
+    int dots = lua_toboolean(L, -1);
+    lua_pop(L, 1);
+    const char *label = opt_string(L, l, "label", "eq.plot line");
+    rc = dots ? eqp_plot_add_points(p, label, nx, x, y) : eqp_plot_add_line(p, label, nx, x, y);
     lua_settop(L, base);
   }
   lua_pop(L, 1);
