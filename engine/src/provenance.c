@@ -69,12 +69,19 @@ static void report_reaction(walk *w, const eqpi_reaction *r, const char *kind_hi
     k.dH = -r->dH;
     k.dCp = -r->dCp;
   } else {
-    if (r->product >= 0) used += (size_t)snprintf(eq, sizeof eq, "%s =", db->sp[r->product].name);
-    else used += (size_t)snprintf(eq, sizeof eq, "=");
-    for (int j = 0; j < r->n && used < sizeof eq; j++)
-      used += (size_t)snprintf(eq + used, sizeof eq - used, "%s %s%g %s", j ? " +" : "",
-                               r->nu[j] < 0 ? "- " : "", fabs(r->nu[j]),
-                               db->sp[r->reactant[j]].name);
+    const char *prod = r->product >= 0 ? db->sp[r->product].name : "?";
+    used += (size_t)snprintf(eq, sizeof eq, "%s =", prod);
+    /* H2O first where it appears, so that "OH- = H2O - H+" reads naturally */
+    for (int pass = 0; pass < 2; pass++)
+      for (int j = 0; j < r->n && used < sizeof eq; j++) {
+        int first = used == strlen(prod) + 2;
+        if ((r->nu[j] > 0) != (pass == 0)) continue;
+        char coef[32] = "";
+        if (fabs(r->nu[j]) != 1) snprintf(coef, sizeof coef, "%g ", fabs(r->nu[j]));
+        used += (size_t)snprintf(eq + used, sizeof eq - used, " %s%s%s",
+                                 r->nu[j] < 0 ? "- " : first ? "" : "+ ", coef,
+                                 db->sp[r->reactant[j]].name);
+      }
     k.kind = kind_hint ? kind_hint : "log K";
     k.dH = r->dH;
     k.dCp = r->dCp;
@@ -144,7 +151,7 @@ static void report_all(walk *w)
   for (int p = 0; p < db->npairs; p++) {
     const eqpi_pairparam *pp = &db->pairs[p];
     if (!w->sp[pp->a] || !w->sp[pp->b]) continue;
-    snprintf(eq, sizeof eq, "%s(%s, %s)", pp->key, db->sp[pp->a].name, db->sp[pp->b].name);
+    snprintf(eq, sizeof eq, "%s / %s (%s)", db->sp[pp->a].name, db->sp[pp->b].name, pp->key);
     eqp_constant k = {"interaction", eq, pp->value, NAN, NAN, "none", pp->source ? pp->source : "",
                       pp->file ? pp->file : "", pp->line};
     w->fn(w->ud, &k);

@@ -179,8 +179,12 @@ int cli_plot(int argc, char **argv)
     return EXIT_OK;
   }
   opts o;
-  if (argc < 2 || parse(argc, argv, &o) < 0 || o.npos < 2) {
+  if (argc < 2 || parse(argc, argv, &o) < 0) {
     if (argc < 2) fputs(plot_usage, stderr);
+    return EXIT_USAGE;
+  }
+  if (o.npos < 2) {
+    fprintf(stderr, "equipoise plot: which figure, of what?\n%s", plot_usage);
     return EXIT_USAGE;
   }
   eqp_ctx *ctx = eqp_ctx_new(NULL, NULL);

@@ -454,7 +454,10 @@ static void one_constant(void *ud, const eqp_constant *k)
   char eq[512];
   snprintf(eq, sizeof eq, "%s", k->equation);
   for (char *tok = strtok(eq, " "); tok; tok = strtok(NULL, " ")) {
-    esc_name(f, tok);
+    /* names get sub- and superscripts; "+", "=", "-", numbers and "(sit)" do not */
+    int name = tok[0] != '(' && strpbrk(tok, "ABCDEFGHIJKLMNOPQRSTUVWXYZ") != NULL;
+    if (name) esc_name(f, tok);
+    else esc(f, tok);
     fputc(' ', f);
   }
   fputs("</td>", f);
