@@ -13,14 +13,13 @@ typedef struct colunit {
 } colunit;
 
 static const colunit known[] = {
-  {"volume_L", "titrant volume", "mL", 1e3},
-  {"total_volume_L", "total volume", "mL", 1e3},
-  {"amount_mol", "titrant amount", "mmol", 1e3},
-  {"temperature_C", "temperature", "\xC2\xB0" "C", 1},
+  {"volume", "titrant volume", "mL", 1e3},
+  {"total_volume", "total volume", "mL", 1e3},
+  {"amount", "titrant amount", "mmol", 1e3},
+  {"temperature", "temperature", "\xC2\xB0" "C", 1},
   {"pH", "pH", NULL, 1},
   {"ionic_strength", "ionic strength", "mol/kg", 1},
-  {"dpH_dmol", "dpH/dn", "pH/mmol", 1e-3},
-  {"dpH_dL", "dpH/dV", "pH/mL", 1e-3},
+  {"slope", "slope dpH/d(added)", "pH/mol or pH/L", 1},
 };
 
 /* Label, unit and scale of a column; species columns are molalities. */
@@ -74,11 +73,11 @@ int eqp_plot_titration(const eqp_curve *c, const char *title, eqp_plot **out)
   eqp_plot *p;
   int rc = eqp_plot_new(c->ctx, &p);
   if (rc < 0) return rc;
-  long am = column_index(c, "amount_mol"), vol = column_index(c, "volume_L");
+  long am = column_index(c, "amount"), vol = column_index(c, "volume");
   long ph = column_index(c, "pH");
   if (am < 0 || vol < 0 || ph < 0)
-    return finish(p, eqpi_fail(c->ctx, EQP_E_INPUT, "not a titration curve (no amount_mol, "
-                               "volume_L and pH columns)"), out);
+    return finish(p, eqpi_fail(c->ctx, EQP_E_INPUT, "not a titration curve (no amount, volume "
+                               "and pH columns)"), out);
   /* millilitres when the titrant is a liquid (a stock, or a reagent with a
   ** density), millimoles of a solid */
   int by_volume = 0;
@@ -87,9 +86,8 @@ int eqp_plot_titration(const eqp_curve *c, const char *title, eqp_plot **out)
       by_volume = 1;
   long x = by_volume ? vol : am;
   rc = eqp_plot_set_title(p, title ? title : "Titration curve");
-  if (rc == EQP_OK)
-    rc = eqp_plot_set_axis(p, 0, by_volume ? "titrant added" : "titrant added",
-                           by_volume ? "mL" : "mmol", NAN, NAN);
+  if (rc == EQP_OK) rc = eqp_plot_set_axis(p, 0, "titrant added", by_volume ? "mL" : "mmol",
+                                           NAN, NAN);
   if (rc == EQP_OK) rc = eqp_plot_set_axis(p, 1, "pH", NULL, NAN, NAN);
   if (rc == EQP_OK) rc = add_column(p, c, x, 1e3, ph, 1, NULL);
   for (size_t k = 0; rc == EQP_OK && k < eqp_curve_equivalence_count(c); k++) {

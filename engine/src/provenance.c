@@ -64,17 +64,18 @@ static void report_reaction(walk *w, const eqpi_reaction *r, const char *kind_hi
   } else if (acid && !kind_hint) {
     /* HA = A + H+ with pKa: the formation constant of HA from A and H+ */
     int base = r->reactant[0] == db->h_plus ? r->reactant[1] : r->reactant[0];
-    snprintf(eq, sizeof eq, "%s = %s + H+", db->sp[r->product].name, db->sp[base].name);
+    snprintf(eq, sizeof eq, "%s \xE2\x87\x8C H+ + %s", db->sp[r->product].name,
+             db->sp[base].name);
     k.kind = "pKa";
     k.dH = -r->dH;
     k.dCp = -r->dCp;
   } else {
     const char *prod = r->product >= 0 ? db->sp[r->product].name : "?";
-    used += (size_t)snprintf(eq, sizeof eq, "%s =", prod);
+    used += (size_t)snprintf(eq, sizeof eq, "%s \xE2\x87\x8C", prod);
     /* H2O first where it appears, so that "OH- = H2O - H+" reads naturally */
     for (int pass = 0; pass < 2; pass++)
       for (int j = 0; j < r->n && used < sizeof eq; j++) {
-        int first = used == strlen(prod) + 2;
+        int first = used == strlen(prod) + 4;   /* "X ⇌" */
         if ((r->nu[j] > 0) != (pass == 0)) continue;
         char coef[32] = "";
         if (fabs(r->nu[j]) != 1) snprintf(coef, sizeof coef, "%g ", fabs(r->nu[j]));
@@ -82,7 +83,7 @@ static void report_reaction(walk *w, const eqpi_reaction *r, const char *kind_hi
                                  r->nu[j] < 0 ? "- " : first ? "" : "+ ", coef,
                                  db->sp[r->reactant[j]].name);
       }
-    k.kind = kind_hint ? kind_hint : "log K";
+    k.kind = kind_hint ? kind_hint : "log \xCE\xB2";
     k.dH = r->dH;
     k.dCp = r->dCp;
   }
@@ -126,18 +127,20 @@ static void report_all(walk *w)
   char eq[512];
   for (int g = 0; g < db->ngases; g++) {
     if (!w->sp[db->gases[g].species]) continue;
-    snprintf(eq, sizeof eq, "%s = %s", db->gases[g].name, db->sp[db->gases[g].species].name);
+    snprintf(eq, sizeof eq, "%s \xE2\x87\x8C %s", db->gases[g].name,
+             db->sp[db->gases[g].species].name);
     report_reaction(w, &db->gases[g].kh, "log K_H", eq);
   }
   for (int q = 0; q < db->nsolids; q++) {
     const eqpi_solid *so = &db->solids[q];
     int all = 1;
-    size_t used = (size_t)snprintf(eq, sizeof eq, "%s =", so->name);
+    size_t used = (size_t)snprintf(eq, sizeof eq, "%s \xE2\x87\x8C", so->name);
     for (int j = 0; j < so->n; j++) {
       all &= w->sp[so->sp[j]];
       if (used < sizeof eq)
-        used += (size_t)snprintf(eq + used, sizeof eq - used, "%s %g %s", j ? " +" : "",
-                                 so->nu[j], db->sp[so->sp[j]].name);
+        used += (size_t)snprintf(eq + used, sizeof eq - used, "%s %.*g%s%s", j ? " +" : "",
+                                 so->nu[j] == 1 ? 0 : 6, so->nu[j] == 1 ? 0.0 : so->nu[j],
+                                 so->nu[j] == 1 ? "" : " ", db->sp[so->sp[j]].name);
     }
     if (all) report_reaction(w, &so->ksp, "log Ksp", eq);
   }

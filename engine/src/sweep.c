@@ -7,7 +7,7 @@
 #include <stdio.h>
 #include <string.h>
 
-#define MAX_BUFFERS 31
+#define MAX_BUFFERS 64
 
 void eqp_ctx_set_progress(eqp_ctx *ctx, eqp_progress_fn fn, void *ud)
 {
@@ -70,7 +70,9 @@ int eqp_capacity_sweep(eqp_ctx *ctx, const eqp_capacity_spec *s, eqp_curve **out
   const char *names[MAX_BUFFERS + 1] = {"pH"};
   size_t nb = s->buffers ? s->nbuffers : eqp_ctx_buffer_count(ctx);
   if (nb == 0 || nb > MAX_BUFFERS)
-    return eqpi_fail(ctx, EQP_E_INPUT, "1 to %d buffer systems", MAX_BUFFERS);
+    return eqpi_fail(ctx, EQP_E_INPUT, "%s %d buffer systems at most: name the candidates",
+                     s->buffers ? "a capacity sweep takes" : "the library holds more than the",
+                     MAX_BUFFERS);
   for (size_t b = 0; b < nb; b++) {
     names[b + 1] = s->buffers ? s->buffers[b] : eqp_ctx_buffer_name(ctx, b);
     size_t k = 0;
@@ -109,7 +111,7 @@ int eqp_solution_temperature_sweep(eqp_solution *s, double T0, double T1, size_t
     return eqpi_fail(ctx, EQP_E_INPUT, "temperatures %g .. %g K: low first, within 273.15 .. "
                      "373.15", T0, T1);
   if (points < 2 || points > 10001) return eqpi_fail(ctx, EQP_E_INPUT, "2 to 10001 points");
-  static const char *const names[] = {"temperature_C", "pH", "ionic_strength"};
+  static const char *const names[] = {"temperature", "pH", "ionic_strength"};
   eqp_solution *w;
   int rc = eqp_solution_copy(s, &w);
   if (rc < 0) return rc;

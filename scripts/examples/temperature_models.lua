@@ -34,7 +34,7 @@ for _, m in ipairs(models) do
   s:add("Tris", "6.057 g"):add("TrisHCl", "3.940 g"):add("NaCl", "100 mmol")
   local sweep = s:temperature_sweep{ from = 4, to = 37 }
   local T, pH = {}, {}
-  for i, row in ipairs(sweep) do T[i], pH[i] = row.temperature_C, row.pH end
+  for i, row in ipairs(sweep) do T[i], pH[i] = row.temperature, row.pH end
   lines[#lines + 1] = { x = T, y = pH, label = m }
 end
 eq.plot{ file = params.plot or "tris_temperature.svg", title = "Tris buffer against temperature",

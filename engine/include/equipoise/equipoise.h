@@ -319,7 +319,7 @@ typedef struct eqp_capacity_spec {
 EQP_API int eqp_capacity_sweep(eqp_ctx *ctx, const eqp_capacity_spec *c, eqp_curve **out);
 
 /* pH of s at points temperatures from T0 to T1 (K), the composition kept
-** (s unchanged). Columns: temperature_C, pH, ionic_strength. */
+** (s unchanged). Columns: temperature (C), pH, ionic_strength (mol/kg). */
 EQP_API int eqp_solution_temperature_sweep(eqp_solution *s, double T0, double T1, size_t points,
                                            eqp_curve **out);
 
@@ -332,8 +332,8 @@ EQP_API void eqp_ctx_set_progress(eqp_ctx *ctx, eqp_progress_fn fn, void *ud);
 /* Provenance: every constant that the species formed by the given names
 ** (species or reagents, plus water) depend on. The callback sees each once. */
 typedef struct eqp_constant {
-  const char *kind;          /* "pKa", "log K", "log Ksp", "log K_H", "ion size", "interaction" */
-  const char *equation;      /* "H2PO4- = HPO4^2- + H+"; borrowed for the call */
+  const char *kind;          /* "pKa", "log β", "log Ksp", "log K_H", "ion size", "interaction" */
+  const char *equation;      /* "H2PO4- ⇌ H+ + HPO4^2-"; borrowed for the call */
   double value;              /* at 25 C (Angstrom for ion sizes, kg/mol for interactions) */
   double dH, dCp;            /* kJ/mol, J/(K mol) of the reaction as written; NaN: none */
   const char *temperature;   /* how it changes with temperature, in words */
@@ -402,8 +402,8 @@ EQP_API int eqp_plot_distribution(const eqp_curve *c, const eqp_distribution_spe
 /* beta against pH of each buffer, the window shaded. */
 EQP_API int eqp_plot_capacity(const eqp_curve *c, const eqp_capacity_spec *s, eqp_plot **out);
 /* Columns of any curve against one column: ycols NULL plots every other
-** column. Units follow the column names (volume_L in mL, amount_mol in
-** mmol, temperature_C in degrees C, species in mol/kg). */
+** column. Units follow the column names (volume in mL, amount in mmol,
+** temperature in degrees C, species in mol/kg). */
 EQP_API int eqp_plot_columns(const eqp_curve *c, const char *xcol, const char *const *ycols,
                              size_t ny, const char *title, eqp_plot **out);
 

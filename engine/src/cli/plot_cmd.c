@@ -157,8 +157,8 @@ static int csv_plot(eqp_ctx *ctx, const opts *o, eqp_plot **p)
   const char *x = o->x ? o->x : eqp_curve_col_name(c, 0);
   const char *ys[64];
   size_t ny = 0;
-  int titration = strcmp(eqp_curve_col_name(c, 0), "amount_mol") == 0;
-  if (!o->x && titration) x = "volume_L";
+  int titration = strcmp(eqp_curve_col_name(c, 0), "amount") == 0;
+  if (!o->x && titration) x = "volume";
   char ybuf[1024];
   if (o->y) {
     snprintf(ybuf, sizeof ybuf, "%s", o->y);

@@ -141,8 +141,8 @@ static void result_block(report *rp, const eqp_result *r)
              "</th></tr><tr>");
   num(f, eqp_result_pH(r));
   num(f, eqp_result_ionic_strength(r));
-  num(f, eqp_result_temperature(r) - 273.15);
-  num(f, eqp_result_water_kg(r));
+  num(f, eqp_result_temperature_K(r) - 273.15);
+  num(f, eqp_result_water(r));
   fputs("<td>", f);
   esc(f, eqp_result_activity_model(r));
   fputs("</td>", f);

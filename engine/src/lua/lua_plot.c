@@ -13,50 +13,28 @@
 
 /* ------------------------------------------------------------ options */
 
-static size_t edit_distance(const char *a, const char *b)
-{
-  size_t na = strlen(a), nb = strlen(b), row[64];
-  if (na >= 63 || nb >= 63) return 99;
-  for (size_t j = 0; j <= nb; j++) row[j] = j;
-  for (size_t i = 1; i <= na; i++) {
-    size_t diag = row[0];
-    row[0] = i;
-    for (size_t j = 1; j <= nb; j++) {
-      size_t up = row[j], best = diag + (a[i - 1] != b[j - 1]);
-      if (up + 1 < best) best = up + 1;
-      if (row[j - 1] + 1 < best) best = row[j - 1] + 1;
-      diag = up;
-      row[j] = best;
-    }
-  }
-  return row[nb];
-}
-
 /* Every string key of the table at t must be one of keys; an unknown one
-** is an error naming the nearest known key. */
+** is refused with the nearest known key, worded as lua_options.c words it. */
 static void check_keys(lua_State *L, int t, const char *const *keys, const char *what)
 {
+  size_t n = 0;
+  while (keys[n]) n++;
   lua_pushnil(L);
   while (lua_next(L, t)) {
     lua_pop(L, 1);
     if (lua_type(L, -1) != LUA_TSTRING) continue;   /* list part */
-    const char *k = lua_tostring(L, -1);
-    const char *near = NULL;
-    size_t best = 99;
+    size_t len;
+    const char *k = lua_tolstring(L, -1, &len);
     int ok = 0;
-    for (int i = 0; keys[i]; i++) {
-      size_t d = edit_distance(k, keys[i]);
-      ok |= d == 0;
-      if (d < best) { best = d; near = keys[i]; }
-    }
+    for (size_t i = 0; i < n; i++) ok |= strcmp(k, keys[i]) == 0;
     if (ok) continue;
-    if (near && best <= 3)
-      eqpl_input_error(L, "%s: unknown option '%s' (did you mean '%s'?)", what, k, near);
+    const char *near = eqpl_nearest(k, len, keys, n);
+    if (near) eqpl_input_error(L, "%s: unknown option '%s' (did you mean '%s'?)", what, k, near);
     char known[512] = "";
-    for (int i = 0; keys[i]; i++)
+    for (size_t i = 0; i < n; i++)
       snprintf(known + strlen(known), sizeof known - strlen(known), "%s%s", i ? ", " : "",
                keys[i]);
-    eqpl_input_error(L, "%s: unknown option '%s' (known: %s)", what, k, known);
+    eqpl_input_error(L, "%s: unknown option '%s'; its options are %s", what, k, known);
   }
 }
 
@@ -363,14 +341,6 @@ static void set_kind(lua_State *L, int curve)
   lua_pop(L, 2);
 }
 
-static void log_curve(lua_State *L, int curve)
-{
-  lua_getfield(L, LUA_REGISTRYINDEX, EQPL_CURVES);
-  lua_pushvalue(L, curve);
-  lua_rawseti(L, -2, (lua_Integer)lua_rawlen(L, -2) + 1);
-  lua_pop(L, 1);
-}
-
 /* eq.distribution{ system =, ionic_strength =, temperature =, activity =,
 **                  medium =, pH = { lo, hi }, points = } -> curve */
 static int eq_distribution(lua_State *L)
@@ -415,7 +385,6 @@ static int eq_distribution(lua_State *L)
   lua_pushnumber(L, d.T); lua_setfield(L, -2, "T");
   if (d.activity) { lua_pushstring(L, d.activity); lua_setfield(L, -2, "activity"); }
   set_kind(L, curve);
-  log_curve(L, curve);
   return 1;
 }
 
@@ -431,12 +400,12 @@ static int eq_capacity(lua_State *L)
   eqp_capacity_spec s;
   memset(&s, 0, sizeof s);
   s.window_lo = s.window_hi = NAN;
-  const char *names[32];
+  const char *names[64];
   int ty = lua_getfield(L, 1, "buffers");
   if (ty == LUA_TTABLE) {
     s.nbuffers = lua_rawlen(L, -1);
-    if (s.nbuffers == 0 || s.nbuffers > 31)
-      return eqpl_input_error(L, "eq.capacity: 'buffers' lists 1 to 31 buffer systems");
+    if (s.nbuffers == 0 || s.nbuffers > 64)
+      return eqpl_input_error(L, "eq.capacity: 'buffers' lists 1 to 64 buffer systems");
     for (size_t i = 0; i < s.nbuffers; i++) {
       lua_rawgeti(L, -1, (lua_Integer)i + 1);
       if (lua_type(L, -1) != LUA_TSTRING)
@@ -480,7 +449,6 @@ static int eq_capacity(lua_State *L)
   lua_pushnumber(L, s.window_hi); lua_setfield(L, -2, "window_hi");
   if (s.activity) { lua_pushstring(L, s.activity); lua_setfield(L, -2, "activity"); }
   set_kind(L, curve);
-  log_curve(L, curve);
   return 1;
 }
 
@@ -507,7 +475,6 @@ static int sol_temperature_sweep(lua_State *L)
   lua_pushstring(L, "temperature");
   lua_setfield(L, -2, "kind");
   set_kind(L, curve);
-  log_curve(L, curve);
   return 1;
 }
 
@@ -563,10 +530,10 @@ static int curve_figure(lua_State *L, int curve, eqp_curve *c, int opts, eqp_plo
   }
   if (kind && strcmp(kind, "temperature") == 0) {
     const char *y[] = {"pH"};
-    return eqp_plot_columns(c, "temperature_C", y, 1, title ? title : "pH against temperature",
+    return eqp_plot_columns(c, "temperature", y, 1, title ? title : "pH against temperature",
                             p);
   }
-  if (!kind && eqp_curve_cols(c) >= 4 && strcmp(eqp_curve_col_name(c, 0), "amount_mol") == 0)
+  if (!kind && eqp_curve_cols(c) >= 4 && strcmp(eqp_curve_col_name(c, 0), "amount") == 0)
     return eqp_plot_titration(c, title, p);
   /* any other table: columns against x (default: the first) */
   const char *ys[EQP_PLOT_MAX_Y];
