@@ -199,9 +199,11 @@ static double crossing(const eqp_curve *c, size_t j)
 
 /* For HA = A + H+, Ka = a(H+) g(A) m(A) / (g(HA) m(HA)); where m(A) = m(HA)
 ** the pH (-log10 a(H+)) is pKa + log10(g(A)/g(HA)). Each form falls through
-** 50 % there, less the tiny share of the third form (below 1e-4 here, so
-** within the 0.003 allowed: A's uncertainty of about 0.001 times z^2 up
-** to 9). */
+** 50 % there, less the tiny share of the third form (below 1e-4 here). The
+** 0.003 allowed covers the spread of A at 25 C between sources (0.509 to
+** 0.512; the engine derives its own from the density and permittivity of
+** water) times the change of z^2 (up to 5) times the Davies term at
+** I = 0.1 (0.21); at I = 0 the crossings are the pKa values themselves. */
 static void distribution_phosphate(void **state)
 {
   (void)state;
