@@ -1,5 +1,8 @@
 -- Amine buffers outside the Good family: Bis-Tris, glycylglycine,
 -- ethanolamine and triethanolamine. The protonated amine is "<name>H+".
+-- Hazard classes (GHS keys, docs/species-format.md): the harmonised classification
+-- of Regulation (EC) No 1272/2008, Annex VI, where one exists, else suppliers' safety
+-- data sheets [from memory; the safety data sheet of the product in hand decides].
 return {
   system = "amine buffers",
   sources = {
@@ -23,19 +26,19 @@ return {
     { "TEAH+", "TEA", pKa = 7.762, dH = 33.6, dCp = 50, source = "goldberg2002" },
   },
   reagents = {
-    { "BisTris", names = { "Bis-Tris", "bis-tris methane" }, hazards = { "irritant" } },
+    { "BisTris", names = { "Bis-Tris", "bis-tris methane" }, hazards = { "skin-irritation", "eye-irritation" } },
     { "BisTrisHCl", formula = "C8H19NO5.HCl", gives = { ["BisTrisH+"] = 1, ["Cl-"] = 1 },
-      names = { "Bis-Tris hydrochloride" }, hazards = { "irritant" } },
+      names = { "Bis-Tris hydrochloride" }, hazards = { "skin-irritation", "eye-irritation" } },
     { "GlyGly", names = { "glycylglycine", "Gly-Gly" } },
     { "Ethanolamine", names = { "ethanolamine", "2-aminoethanol", "monoethanolamine" },
-      density = 1.012, hazards = { "corrosive", "toxic" },
+      density = 1.012, hazards = { "toxic-oral", "toxic-dermal", "toxic-inhaled", "skin-corrosion", "eye-damage", "organ-toxic-single" },
       note = "density from crc_density [from memory]" },
     { "EthanolamineHCl", formula = "C2H7NO.HCl", gives = { ["EthanolamineH+"] = 1, ["Cl-"] = 1 },
-      names = { "ethanolamine hydrochloride" }, hazards = { "irritant" } },
-    { "TEA", names = { "triethanolamine", "TEOA" }, density = 1.124, hazards = { "irritant" },
+      names = { "ethanolamine hydrochloride" }, hazards = { "skin-irritation", "eye-irritation" } },
+    { "TEA", names = { "triethanolamine", "TEOA" }, density = 1.124, hazards = { "skin-irritation", "eye-irritation" },
       note = "density from crc_density [from memory]" },
     { "TEAHCl", formula = "C6H15NO3.HCl", gives = { ["TEAH+"] = 1, ["Cl-"] = 1 },
-      names = { "triethanolamine hydrochloride" }, hazards = { "irritant" } },
+      names = { "triethanolamine hydrochloride" }, hazards = { "skin-irritation", "eye-irritation" } },
   },
   buffers = {
     { "Bis-Tris", pair = { "BisTrisHCl", "BisTris" }, free = "BisTris", titrant = "HCl",

@@ -1,4 +1,7 @@
 -- Glycine and imidazole.
+-- Hazard classes (GHS keys, docs/species-format.md): the harmonised classification
+-- of Regulation (EC) No 1272/2008, Annex VI, where one exists, else suppliers' safety
+-- data sheets [from memory; the safety data sheet of the product in hand decides].
 return {
   system = "glycine and imidazole",
   sources = {
@@ -20,7 +23,7 @@ return {
   },
   reagents = {
     { "Gly", names = { "glycine" } },
-    { "Im", names = { "imidazole" }, hazards = { "corrosive", "toxic" } },
+    { "Im", names = { "imidazole" }, hazards = { "toxic-oral", "skin-corrosion", "eye-damage", "reproductive-toxicant" } },
   },
   buffers = {
     { "glycine", free = "Gly", titrant = "NaOH",

@@ -1,4 +1,7 @@
 -- Ammonium and ammonia, and ammonia gas.
+-- Hazard classes (GHS keys, docs/species-format.md): the harmonised classification
+-- of Regulation (EC) No 1272/2008, Annex VI, where one exists, else suppliers' safety
+-- data sheets [from memory; the safety data sheet of the product in hand decides].
 return {
   system = "ammonia",
   sources = {
@@ -21,9 +24,9 @@ return {
                   c = 3917.507 / math.log(10) } },
   },
   reagents = {
-    { "NH3", names = { "ammonia" }, hazards = { "corrosive", "toxic" } },
+    { "NH3", names = { "ammonia" }, hazards = { "skin-corrosion", "eye-damage", "organ-toxic-single", "aquatic-acute" } },
     { "NH4Cl", gives = { ["NH4+"] = 1, ["Cl-"] = 1 }, names = { "ammonium chloride" },
-      hazards = { "irritant" } },
+      hazards = { "toxic-oral", "eye-irritation" } },
     { "(NH4)2SO4", gives = { ["NH4+"] = 2, ["SO4^2-"] = 1 }, names = { "ammonium sulfate" } },
     { "CH3COONH4", gives = { ["NH4+"] = 1, ["CH3COO-"] = 1 }, names = { "ammonium acetate" } },
     { "HCOONH4", gives = { ["NH4+"] = 1, ["HCOO-"] = 1 }, names = { "ammonium formate" } },

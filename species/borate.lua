@@ -1,4 +1,7 @@
 -- Boric acid and borate.
+-- Hazard classes (GHS keys, docs/species-format.md): the harmonised classification
+-- of Regulation (EC) No 1272/2008, Annex VI, where one exists, else suppliers' safety
+-- data sheets [from memory; the safety data sheet of the product in hand decides].
 return {
   system = "borate",
   sources = {
@@ -18,10 +21,10 @@ return {
       dCp = 240, source = "goldberg2002" },
   },
   reagents = {
-    { "H3BO3", gives = { ["B(OH)3"] = 1 }, names = { "boric acid" }, hazards = { "toxic" } },
+    { "H3BO3", gives = { ["B(OH)3"] = 1 }, names = { "boric acid" }, hazards = { "reproductive-toxicant" } },
     -- borax: Na2B4O7.10H2O = 2 Na+ + 2 B(OH)4- + 2 B(OH)3 + 3 H2O
     { "Na2B4O7", gives = { ["Na+"] = 2, ["B(OH)4-"] = 2, ["B(OH)3"] = 2, H2O = -7 },
-      names = { "sodium tetraborate" }, hydrates = { 10 }, hazards = { "toxic" } },
+      names = { "sodium tetraborate" }, hydrates = { 10 }, hazards = { "reproductive-toxicant" } },
   },
   buffers = {
     { "borate", free = "H3BO3", titrant = "NaOH",

@@ -1,4 +1,7 @@
 -- Cacodylic (dimethylarsinic) acid and sodium cacodylate.
+-- Hazard classes (GHS keys, docs/species-format.md): the harmonised classification
+-- of Regulation (EC) No 1272/2008, Annex VI, where one exists, else suppliers' safety
+-- data sheets [from memory; the safety data sheet of the product in hand decides].
 return {
   system = "cacodylate",
   sources = {
@@ -13,9 +16,9 @@ return {
   },
   reagents = {
     { "HCacodylate", names = { "cacodylic acid", "dimethylarsinic acid" },
-      hazards = { "toxic", "carcinogen" } },
+      hazards = { "toxic-oral", "toxic-inhaled", "carcinogen", "aquatic-acute", "aquatic-chronic" } },
     { "NaCacodylate", formula = "C2H6AsNaO2", gives = { ["Na+"] = 1, ["Cacodylate-"] = 1 },
-      names = { "sodium cacodylate" }, hydrates = { 3 }, hazards = { "toxic", "carcinogen" } },
+      names = { "sodium cacodylate" }, hydrates = { 3 }, hazards = { "toxic-oral", "toxic-inhaled", "carcinogen", "aquatic-acute", "aquatic-chronic" } },
   },
   buffers = {
     { "cacodylate", free = "NaCacodylate", titrant = "HCl",

@@ -1,5 +1,8 @@
 -- Calcium and magnesium ions, their chlorides and carbonates, and the
 -- calcium carbonate solids (saturation indices).
+-- Hazard classes (GHS keys, docs/species-format.md): the harmonised classification
+-- of Regulation (EC) No 1272/2008, Annex VI, where one exists, else suppliers' safety
+-- data sheets [from memory; the safety data sheet of the product in hand decides].
 return {
   system = "calcium and magnesium",
   sources = {
@@ -13,7 +16,7 @@ return {
   },
   reagents = {
     { "CaCl2", gives = { ["Ca^2+"] = 1, ["Cl-"] = 2 }, names = { "calcium chloride" },
-      hydrates = { 2, 6 }, hazards = { "irritant" } },
+      hydrates = { 2, 6 }, hazards = { "eye-irritation" } },
     { "MgCl2", gives = { ["Mg^2+"] = 1, ["Cl-"] = 2 }, names = { "magnesium chloride" },
       hydrates = { 6 } },
     { "CaCO3", gives = { ["Ca^2+"] = 1, ["CO3^2-"] = 1 }, names = { "calcium carbonate" } },

@@ -1,4 +1,7 @@
 -- Dissolved carbon dioxide, bicarbonate and carbonate; CO2 of the air.
+-- Hazard classes (GHS keys, docs/species-format.md): the harmonised classification
+-- of Regulation (EC) No 1272/2008, Annex VI, where one exists, else suppliers' safety
+-- data sheets [from memory; the safety data sheet of the product in hand decides].
 return {
   system = "carbonate",
   about = "CO2(aq) (standing for CO2(aq) + H2CO3), HCO3-, CO3^2-, and CO2 gas.",
@@ -34,7 +37,7 @@ return {
   reagents = {
     { "NaHCO3", gives = { ["Na+"] = 1, ["HCO3-"] = 1 }, names = { "sodium bicarbonate", "sodium hydrogen carbonate" } },
     { "Na2CO3", gives = { ["Na+"] = 2, ["CO3^2-"] = 1 }, names = { "sodium carbonate" },
-      hydrates = { 10 }, hazards = { "irritant" } },
+      hydrates = { 10 }, hazards = { "eye-irritation" } },
     { "KHCO3", gives = { ["K+"] = 1, ["HCO3-"] = 1 }, names = { "potassium bicarbonate" } },
     { "CO2", names = { "carbon dioxide" } },
   },

@@ -1,4 +1,7 @@
 -- Formic, succinic, oxalic and L-tartaric acids and their salts.
+-- Hazard classes (GHS keys, docs/species-format.md): the harmonised classification
+-- of Regulation (EC) No 1272/2008, Annex VI, where one exists, else suppliers' safety
+-- data sheets [from memory; the safety data sheet of the product in hand decides].
 return {
   system = "carboxylates",
   sources = {
@@ -25,19 +28,19 @@ return {
     { "H2Tart", "HTart-", "Tart^2-", pKa = { 3.036, 4.366 }, source = "bates1951" },
   },
   reagents = {
-    { "HCOOH", names = { "formic acid" }, density = 1.22, hazards = { "corrosive" },
+    { "HCOOH", names = { "formic acid" }, density = 1.22, hazards = { "flammable-liquid", "toxic-oral", "toxic-inhaled", "skin-corrosion", "eye-damage" },
       note = "density of the concentrated acid (about 98 %), CRC Handbook [from memory]" },
     { "HCOONa", gives = { ["Na+"] = 1, ["HCOO-"] = 1 }, names = { "sodium formate" } },
     { "HCOOK", gives = { ["K+"] = 1, ["HCOO-"] = 1 }, names = { "potassium formate" } },
-    { "H2Succ", names = { "succinic acid" }, hazards = { "irritant" } },
+    { "H2Succ", names = { "succinic acid" }, hazards = { "eye-damage" } },
     { "Na2Succ", formula = "C4H4Na2O4", gives = { ["Na+"] = 2, ["Succ^2-"] = 1 },
       names = { "disodium succinate", "sodium succinate" }, hydrates = { 6 } },
-    { "H2C2O4", names = { "oxalic acid" }, hydrates = { 2 }, hazards = { "toxic", "corrosive" } },
+    { "H2C2O4", names = { "oxalic acid" }, hydrates = { 2 }, hazards = { "toxic-oral", "toxic-dermal", "eye-damage" } },
     { "Na2C2O4", gives = { ["Na+"] = 2, ["C2O4^2-"] = 1 }, names = { "sodium oxalate" },
-      hazards = { "toxic" } },
+      hazards = { "toxic-oral", "toxic-dermal" } },
     { "K2C2O4", gives = { ["K+"] = 2, ["C2O4^2-"] = 1 }, names = { "potassium oxalate" },
-      hydrates = { 1 }, hazards = { "toxic" } },
-    { "H2Tart", names = { "tartaric acid", "L-tartaric acid" }, hazards = { "irritant" } },
+      hydrates = { 1 }, hazards = { "toxic-oral", "toxic-dermal" } },
+    { "H2Tart", names = { "tartaric acid", "L-tartaric acid" }, hazards = { "eye-damage" } },
     { "KHTart", formula = "C4H5KO6", gives = { ["K+"] = 1, ["HTart-"] = 1 },
       names = { "potassium hydrogen tartrate", "potassium bitartrate" } },
     { "Na2Tart", formula = "C4H4Na2O6", gives = { ["Na+"] = 2, ["Tart^2-"] = 1 },

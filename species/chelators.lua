@@ -19,6 +19,9 @@ local function I0(logK, dz2) return logK + A * f * dz2 end
 -- pKa at I = 0 of HA (charge z) = A (charge z - 1) + H+, from I = 0.1
 local function pK0(pKa, z) return pKa + A * f * ((z - 1) ^ 2 + 1 - z ^ 2) end
 
+-- Hazard classes (GHS keys, docs/species-format.md): the harmonised classification
+-- of Regulation (EC) No 1272/2008, Annex VI, where one exists, else suppliers' safety
+-- data sheets [from memory; the safety data sheet of the product in hand decides].
 return {
   system = "chelators",
   sources = {
@@ -69,18 +72,18 @@ return {
       source = "nist46_egta" },
   },
   reagents = {
-    { "H4EDTA", names = { "EDTA free acid", "edetic acid" }, hazards = { "irritant" },
+    { "H4EDTA", names = { "EDTA free acid", "edetic acid" }, hazards = { "toxic-inhaled", "organ-toxic-repeated", "eye-irritation" },
       note = "dissolves only as NaOH is added" },
     { "Na2H2EDTA", formula = "C10H14N2Na2O8", gives = { ["Na+"] = 2, ["H2EDTA^2-"] = 1 },
       names = { "disodium EDTA", "disodium edetate" }, hydrates = { 2 },
-      hazards = { "irritant" } },
+      hazards = { "toxic-inhaled", "organ-toxic-repeated" } },
     { "K2H2EDTA", formula = "C10H14K2N2O8", gives = { ["K+"] = 2, ["H2EDTA^2-"] = 1 },
-      names = { "dipotassium EDTA" }, hydrates = { 2 }, hazards = { "irritant" } },
+      names = { "dipotassium EDTA" }, hydrates = { 2 }, hazards = { "toxic-inhaled", "organ-toxic-repeated" } },
     { "Na4EDTA", formula = "C10H12N2Na4O8", gives = { ["Na+"] = 4, ["EDTA^4-"] = 1 },
-      names = { "tetrasodium EDTA" }, hydrates = { 2, 4 }, hazards = { "corrosive" } },
+      names = { "tetrasodium EDTA" }, hydrates = { 2, 4 }, hazards = { "toxic-oral", "toxic-inhaled", "eye-damage", "organ-toxic-repeated" } },
     { "CaNa2EDTA", formula = "C10H12CaN2Na2O8", gives = { ["Na+"] = 2, ["CaEDTA^2-"] = 1 },
       names = { "calcium disodium EDTA", "edetate calcium disodium" }, hydrates = { 2 } },
-    { "H4EGTA", names = { "EGTA", "EGTA free acid", "egtazic acid" }, hazards = { "irritant" },
+    { "H4EGTA", names = { "EGTA", "EGTA free acid", "egtazic acid" }, hazards = { "skin-irritation", "eye-irritation" },
       note = "dissolves only as NaOH or KOH is added" },
   },
 }

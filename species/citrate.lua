@@ -1,4 +1,7 @@
 -- Citric acid and its sodium salts.
+-- Hazard classes (GHS keys, docs/species-format.md): the harmonised classification
+-- of Regulation (EC) No 1272/2008, Annex VI, where one exists, else suppliers' safety
+-- data sheets [from memory; the safety data sheet of the product in hand decides].
 return {
   system = "citrate",
   sources = {
@@ -18,7 +21,7 @@ return {
   },
   reagents = {
     { "H3Cit", formula = "C6H8O7", names = { "citric acid" }, hydrates = { 1 },
-      hazards = { "irritant" } },
+      hazards = { "eye-irritation" } },
     { "Na3Cit", formula = "C6H5Na3O7", gives = { ["Na+"] = 3, ["Cit^3-"] = 1 },
       names = { "trisodium citrate", "sodium citrate" }, hydrates = { 2 } },
     { "NaH2Cit", formula = "C6H7NaO7", gives = { ["Na+"] = 1, ["H2Cit-"] = 1 },

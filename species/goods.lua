@@ -1,4 +1,8 @@
 -- Zwitterionic buffers of the Good et al. (1966) family: MES, MOPS, HEPES.
+-- Hazard classes (GHS keys, docs/species-format.md): the harmonised classification
+-- of Regulation (EC) No 1272/2008, Annex VI, where one exists, else suppliers' safety
+-- data sheets [from memory; the safety data sheet of the product in hand decides].
+-- Suppliers differ for MES, MOPS and HEPES: some do not classify them at all.
 return {
   system = "Good's buffers",
   sources = {
@@ -19,11 +23,11 @@ return {
     { "HEPES", "HEPES-", pKa = 7.565, dH = 20.4, dCp = 47, source = "vega1976" },
   },
   reagents = {
-    { "MES", names = { "MES free acid" }, hazards = { "irritant" } },
+    { "MES", names = { "MES free acid" }, hazards = { "skin-irritation", "eye-irritation" } },
     { "MESNa", formula = "C6H12NNaO4S", gives = { ["Na+"] = 1, ["MES-"] = 1 }, names = { "MES sodium salt" } },
-    { "MOPS", names = { "MOPS free acid" }, hazards = { "irritant" } },
+    { "MOPS", names = { "MOPS free acid" }, hazards = { "skin-irritation", "eye-irritation" } },
     { "MOPSNa", formula = "C7H14NNaO4S", gives = { ["Na+"] = 1, ["MOPS-"] = 1 }, names = { "MOPS sodium salt" } },
-    { "HEPES", names = { "HEPES free acid" }, hazards = { "irritant" } },
+    { "HEPES", names = { "HEPES free acid" }, hazards = { "skin-irritation", "eye-irritation" } },
     { "HEPESNa", formula = "C8H17N2NaO4S", gives = { ["Na+"] = 1, ["HEPES-"] = 1 }, names = { "HEPES sodium salt" } },
   },
   buffers = {

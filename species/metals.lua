@@ -22,6 +22,9 @@ local f = math.sqrt(I) / (1 + math.sqrt(I)) - 0.3 * I
 local function I0(logK, dz2) return logK + A * f * dz2 end
 local L10 = math.log(10)
 
+-- Hazard classes (GHS keys, docs/species-format.md): the harmonised classification
+-- of Regulation (EC) No 1272/2008, Annex VI, where one exists, else suppliers' safety
+-- data sheets [from memory; the safety data sheet of the product in hand decides].
 return {
   system = "metal ions and their complexes",
   sources = {
@@ -135,29 +138,29 @@ return {
   },
   reagents = {
     { "Ca(OH)2", gives = { ["Ca^2+"] = 1, ["OH-"] = 2 }, names = { "calcium hydroxide",
-      "slaked lime" }, hazards = { "corrosive" },
+      "slaked lime" }, hazards = { "skin-irritation", "eye-damage", "organ-toxic-single" },
       note = "soluble to about 20 mmol/kg at 25 C; more stays undissolved in practice" },
     { "MgSO4", gives = { ["Mg^2+"] = 1, ["SO4^2-"] = 1 }, names = { "magnesium sulfate" },
       hydrates = { 7 } },
     { "Ca(NO3)2", gives = { ["Ca^2+"] = 1, ["NO3-"] = 2 }, names = { "calcium nitrate" },
-      hydrates = { 4 }, hazards = { "oxidizer" } },
+      hydrates = { 4 }, hazards = { "oxidizing-solid", "toxic-oral", "eye-damage" } },
     { "Mg(CH3COO)2", gives = { ["Mg^2+"] = 1, ["CH3COO-"] = 2 }, names = { "magnesium acetate" },
       hydrates = { 4 } },
     { "MnCl2", gives = { ["Mn^2+"] = 1, ["Cl-"] = 2 }, names = { "manganese(II) chloride",
-      "manganese chloride" }, hydrates = { 4 }, hazards = { "toxic" } },
+      "manganese chloride" }, hydrates = { 4 }, hazards = { "toxic-oral", "eye-damage", "organ-toxic-repeated", "aquatic-chronic" } },
     { "MnSO4", gives = { ["Mn^2+"] = 1, ["SO4^2-"] = 1 }, names = { "manganese(II) sulfate" },
-      hydrates = { 1 }, hazards = { "toxic" } },
+      hydrates = { 1 }, hazards = { "organ-toxic-repeated", "aquatic-chronic" } },
     { "ZnCl2", gives = { ["Zn^2+"] = 1, ["Cl-"] = 2 }, names = { "zinc chloride" },
-      hazards = { "corrosive" } },
+      hazards = { "toxic-oral", "skin-corrosion", "eye-damage", "aquatic-acute", "aquatic-chronic" } },
     { "ZnSO4", gives = { ["Zn^2+"] = 1, ["SO4^2-"] = 1 }, names = { "zinc sulfate" },
-      hydrates = { 1, 7 }, hazards = { "irritant" } },
+      hydrates = { 1, 7 }, hazards = { "toxic-oral", "eye-damage", "aquatic-acute", "aquatic-chronic" } },
     { "CuSO4", gives = { ["Cu^2+"] = 1, ["SO4^2-"] = 1 }, names = { "copper(II) sulfate",
-      "copper sulfate" }, hydrates = { 5 }, hazards = { "toxic" } },
+      "copper sulfate" }, hydrates = { 5 }, hazards = { "toxic-oral", "skin-irritation", "eye-irritation", "aquatic-acute", "aquatic-chronic" } },
     { "CuCl2", gives = { ["Cu^2+"] = 1, ["Cl-"] = 2 }, names = { "copper(II) chloride" },
-      hydrates = { 2 }, hazards = { "toxic" } },
+      hydrates = { 2 }, hazards = { "toxic-oral", "skin-irritation", "eye-damage", "aquatic-acute", "aquatic-chronic" } },
     { "FeCl3", gives = { ["Fe^3+"] = 1, ["Cl-"] = 3 }, names = { "iron(III) chloride",
-      "ferric chloride" }, hydrates = { 6 }, hazards = { "corrosive" } },
+      "ferric chloride" }, hydrates = { 6 }, hazards = { "toxic-oral", "skin-irritation", "eye-damage", "metal-corrosive" } },
     { "Fe(NO3)3", gives = { ["Fe^3+"] = 1, ["NO3-"] = 3 }, names = { "iron(III) nitrate",
-      "ferric nitrate" }, hydrates = { 9 }, hazards = { "oxidizer", "irritant" } },
+      "ferric nitrate" }, hydrates = { 9 }, hazards = { "oxidizing-solid", "skin-irritation", "eye-irritation" } },
   },
 }

@@ -1,4 +1,7 @@
 -- Orthophosphoric acid and its sodium and potassium salts.
+-- Hazard classes (GHS keys, docs/species-format.md): the harmonised classification
+-- of Regulation (EC) No 1272/2008, Annex VI, where one exists, else suppliers' safety
+-- data sheets [from memory; the safety data sheet of the product in hand decides].
 return {
   system = "phosphate",
   sources = {
@@ -33,18 +36,18 @@ return {
       notes = { "metals: precipitates Ca2+ and Mg2+ (common practice)" } },
   },
   reagents = {
-    { "H3PO4", names = { "phosphoric acid", "orthophosphoric acid" }, hazards = { "corrosive" } },
+    { "H3PO4", names = { "phosphoric acid", "orthophosphoric acid" }, hazards = { "skin-corrosion", "eye-damage", "metal-corrosive" } },
     { "NaH2PO4", gives = { ["Na+"] = 1, ["H2PO4-"] = 1 },
       names = { "sodium dihydrogen phosphate", "monosodium phosphate" }, hydrates = { 1, 2 } },
     { "Na2HPO4", gives = { ["Na+"] = 2, ["HPO4^2-"] = 1 },
       names = { "disodium hydrogen phosphate", "disodium phosphate" }, hydrates = { 2, 7, 12 } },
     { "Na3PO4", gives = { ["Na+"] = 3, ["PO4^3-"] = 1 }, names = { "trisodium phosphate" },
-      hydrates = { 12 }, hazards = { "irritant" } },
+      hydrates = { 12 }, hazards = { "skin-irritation", "eye-irritation" } },
     { "KH2PO4", gives = { ["K+"] = 1, ["H2PO4-"] = 1 },
       names = { "potassium dihydrogen phosphate", "monopotassium phosphate" } },
     { "K2HPO4", gives = { ["K+"] = 2, ["HPO4^2-"] = 1 },
       names = { "dipotassium hydrogen phosphate", "dipotassium phosphate" }, hydrates = { 3 } },
     { "K3PO4", gives = { ["K+"] = 3, ["PO4^3-"] = 1 }, names = { "tripotassium phosphate" },
-      hazards = { "irritant" } },
+      hazards = { "skin-irritation", "eye-irritation" } },
   },
 }

@@ -1,4 +1,7 @@
 -- Strong acids and bases and their common salts, fully dissociated.
+-- Hazard classes (GHS keys, docs/species-format.md): the harmonised classification
+-- of Regulation (EC) No 1272/2008, Annex VI, where one exists, else suppliers' safety
+-- data sheets [from memory; the safety data sheet of the product in hand decides].
 return {
   system = "strong electrolytes",
   about = "HCl, HNO3, NaOH, KOH, NaCl, KCl; no ion pairs are formed.",
@@ -27,18 +30,18 @@ return {
   },
   reagents = {
     { "HCl", gives = { ["H+"] = 1, ["Cl-"] = 1 }, names = { "hydrochloric acid", "hydrogen chloride" },
-      hazards = { "corrosive" } },
+      hazards = { "skin-corrosion", "eye-damage", "organ-toxic-single", "metal-corrosive" } },
     { "HNO3", gives = { ["H+"] = 1, ["NO3-"] = 1 }, names = { "nitric acid" },
-      hazards = { "corrosive", "oxidizer" } },
+      hazards = { "oxidizing-liquid", "skin-corrosion", "eye-damage", "toxic-inhaled", "metal-corrosive" } },
     { "NaOH", gives = { ["Na+"] = 1, ["OH-"] = 1 }, names = { "sodium hydroxide" },
-      hazards = { "corrosive" } },
+      hazards = { "skin-corrosion", "eye-damage", "metal-corrosive" } },
     { "KOH", gives = { ["K+"] = 1, ["OH-"] = 1 }, names = { "potassium hydroxide" },
-      hazards = { "corrosive" } },
+      hazards = { "toxic-oral", "skin-corrosion", "eye-damage", "metal-corrosive" } },
     { "NaCl", gives = { ["Na+"] = 1, ["Cl-"] = 1 }, names = { "sodium chloride" } },
     { "KCl", gives = { ["K+"] = 1, ["Cl-"] = 1 }, names = { "potassium chloride" } },
     { "NaNO3", gives = { ["Na+"] = 1, ["NO3-"] = 1 }, names = { "sodium nitrate" },
-      hazards = { "oxidizer" } },
+      hazards = { "oxidizing-solid", "eye-irritation" } },
     { "KNO3", gives = { ["K+"] = 1, ["NO3-"] = 1 }, names = { "potassium nitrate" },
-      hazards = { "oxidizer" } },
+      hazards = { "oxidizing-solid" } },
   },
 }

@@ -1,4 +1,7 @@
 -- Hydrogen sulfate and sulfate, and their common salts.
+-- Hazard classes (GHS keys, docs/species-format.md): the harmonised classification
+-- of Regulation (EC) No 1272/2008, Annex VI, where one exists, else suppliers' safety
+-- data sheets [from memory; the safety data sheet of the product in hand decides].
 return {
   system = "sulfate",
   sources = {
@@ -15,15 +18,15 @@ return {
   },
   reagents = {
     { "H2SO4", gives = { ["H+"] = 1, ["HSO4-"] = 1 }, names = { "sulfuric acid" },
-      density = 1.83, hazards = { "corrosive" },
+      density = 1.83, hazards = { "skin-corrosion", "eye-damage", "metal-corrosive" },
       note = "density of the concentrated acid (about 96 %), CRC Handbook [from memory]; the first ionization is complete" },
     { "Na2SO4", gives = { ["Na+"] = 2, ["SO4^2-"] = 1 }, names = { "sodium sulfate" },
       hydrates = { 10 } },
     { "K2SO4", gives = { ["K+"] = 2, ["SO4^2-"] = 1 }, names = { "potassium sulfate" } },
     { "NaHSO4", gives = { ["Na+"] = 1, ["HSO4-"] = 1 }, names = { "sodium hydrogen sulfate",
-      "sodium bisulfate" }, hydrates = { 1 }, hazards = { "corrosive" } },
+      "sodium bisulfate" }, hydrates = { 1 }, hazards = { "eye-damage" } },
     { "KHSO4", gives = { ["K+"] = 1, ["HSO4-"] = 1 }, names = { "potassium hydrogen sulfate" },
-      hazards = { "corrosive" } },
+      hazards = { "skin-corrosion", "eye-damage", "organ-toxic-single" } },
   },
   buffers = {
     { "sulfate", pair = { "NaHSO4", "Na2SO4" },

@@ -1,4 +1,7 @@
 -- Tris(hydroxymethyl)aminomethane and its hydrochloride.
+-- Hazard classes (GHS keys, docs/species-format.md): the harmonised classification
+-- of Regulation (EC) No 1272/2008, Annex VI, where one exists, else suppliers' safety
+-- data sheets [from memory; the safety data sheet of the product in hand decides].
 return {
   system = "Tris",
   sources = {
@@ -19,8 +22,8 @@ return {
   },
   reagents = {
     { "Tris", names = { "Tris base", "tromethamine", "tris(hydroxymethyl)aminomethane" },
-      hazards = { "irritant" } },
+      hazards = { "skin-irritation", "eye-irritation" } },
     { "TrisHCl", formula = "C4H11NO3.HCl", gives = { ["TrisH+"] = 1, ["Cl-"] = 1 },
-      names = { "Tris hydrochloride", "Tris-HCl" }, hazards = { "irritant" } },
+      names = { "Tris hydrochloride", "Tris-HCl" }, hazards = { "skin-irritation", "eye-irritation" } },
   },
 }

@@ -5,61 +5,8 @@
 #include "commit_impl.h"
 #include <math.h>
 #include <stdio.h>
+#include <stdlib.h>
 #include <string.h>
-
-void eqpi_stage_error(eqpi_stage *st, const char *file, int line, const char *fmt, ...)
-{
-  st->nerr++;
-  if (st->errused + 2 >= sizeof st->err) return;
-  char *p = st->err + st->errused;
-  size_t left = sizeof st->err - st->errused;
-  int k = 0;
-  if (st->errused) k = snprintf(p, left, "\n");
-  if (file && line > 0) k += snprintf(p + k, left - (size_t)k, "%s:%d: ", file, line);
-  else if (file) k += snprintf(p + k, left - (size_t)k, "%s: ", file);
-  va_list ap;
-  va_start(ap, fmt);
-  if ((size_t)k < left) k += vsnprintf(p + k, left - (size_t)k, fmt, ap);
-  va_end(ap);
-  st->errused += (size_t)k < left ? (size_t)k : left - 1;
-}
-
-void *eqpi_stage_push(eqp_ctx *ctx, eqpi_stage *st, void **arr, int *n, int *cap, size_t elem)
-{
-  if (*n == *cap) {
-    int nc = *cap ? *cap * 2 : 16;
-    void *p = eqpi_realloc(ctx, *arr, elem * (size_t)*cap, elem * (size_t)nc);
-    if (!p) {
-      eqpi_stage_error(st, NULL, 0, "out of memory");
-      return NULL;
-    }
-    *arr = p;
-    *cap = nc;
-  }
-  void *e = (char *)*arr + elem * (size_t)(*n)++;
-  memset(e, 0, elem);
-  return e;
-}
-
-eqpi_stage *eqpi_stage_new(eqp_ctx *ctx)
-{
-  return eqpi_calloc(ctx, 1, sizeof(eqpi_stage));
-}
-
-void eqpi_stage_free(eqp_ctx *ctx, eqpi_stage *st)
-{
-  if (!st) return;
-  eqpi_arena_free(ctx, &st->arena);
-  eqpi_free(ctx, st->sp, sizeof *st->sp * (size_t)st->capsp);
-  eqpi_free(ctx, st->rx, sizeof *st->rx * (size_t)st->caprx);
-  eqpi_free(ctx, st->rg, sizeof *st->rg * (size_t)st->caprg);
-  eqpi_free(ctx, st->in, sizeof *st->in * (size_t)st->capin);
-  eqpi_free(ctx, st->bf, sizeof *st->bf * (size_t)st->capbf);
-  eqpi_free(ctx, st->gs, sizeof *st->gs * (size_t)st->capgs);
-  eqpi_free(ctx, st->so, sizeof *st->so * (size_t)st->capso);
-  eqpi_free(ctx, st->files, sizeof *st->files * (size_t)st->capfiles);
-  eqpi_free(ctx, st, sizeof *st);
-}
 
 int eqpi_commit_constant(eqpi_stage *st, const st_const *k, const char *file, int line,
                          const char *what, eqpi_reaction *d)
@@ -129,6 +76,10 @@ static void add_species(committer *c)
     }
     d->rxn = -1;
     d->component = -1;
+    if (eqpi_index_put(c->ctx, &c->spnew, d->name, c->nsp, NULL) < 0) {
+      eqpi_stage_error(st, NULL, 0, "out of memory");
+      return;
+    }
     c->nsp++;
   }
 }
@@ -201,64 +152,105 @@ static void add_reactions(committer *c)
   }
 }
 
-/* Express species i on components, and its log K on reactions. */
+static int sparse_init(eqp_ctx *ctx, eqpi_sparse *a, int n)
+{
+  a->n = n;
+  a->nidx = 0;
+  a->v = eqpi_calloc(ctx, (size_t)n + 1, sizeof *a->v);
+  a->idx = eqpi_malloc(ctx, sizeof *a->idx * ((size_t)n + 1));
+  a->on = eqpi_calloc(ctx, (size_t)n + 1, 1);
+  return a->v && a->idx && a->on ? 0 : -1;
+}
+
+static void sparse_free(eqp_ctx *ctx, eqpi_sparse *a)
+{
+  eqpi_free(ctx, a->v, sizeof *a->v * ((size_t)a->n + 1));
+  eqpi_free(ctx, a->idx, sizeof *a->idx * ((size_t)a->n + 1));
+  eqpi_free(ctx, a->on, (size_t)a->n + 1);
+  memset(a, 0, sizeof *a);
+}
+
+static void sparse_add(eqpi_sparse *a, int i, double x)
+{
+  if (!a->on[i]) {
+    a->on[i] = 1;
+    a->idx[a->nidx++] = i;
+  }
+  a->v[i] += x;
+}
+
+static int cmp_int(const void *x, const void *y)
+{
+  int a = *(const int *)x, b = *(const int *)y;
+  return (a > b) - (a < b);
+}
+
+/* The non-zero entries of a, in slot order, as arena arrays; a is reset.
+** Returns their number, or -1 when out of memory. */
+static int sparse_take(committer *c, eqpi_sparse *a, int **slot, double **val)
+{
+  qsort(a->idx, (size_t)a->nidx, sizeof *a->idx, cmp_int);
+  int n = 0;
+  for (int k = 0; k < a->nidx; k++) n += fabs(a->v[a->idx[k]]) > 1e-12;
+  int *s = eqpi_arena_alloc(c->ctx, &c->st->arena, sizeof(int) * (size_t)(n + 1));
+  double *v = eqpi_arena_alloc(c->ctx, &c->st->arena, sizeof(double) * (size_t)(n + 1));
+  n = 0;
+  for (int k = 0; k < a->nidx; k++) {
+    int i = a->idx[k];
+    if (s && v && fabs(a->v[i]) > 1e-12) {
+      s[n] = i;
+      v[n++] = a->v[i];
+    }
+    a->v[i] = 0;
+    a->on[i] = 0;
+  }
+  a->nidx = 0;
+  *slot = s;
+  *val = v;
+  return s && v ? n : -1;
+}
+
+/* Express species i on components, and its log K on reactions: its
+** reactants first, then the sum of theirs. */
 static int resolve(committer *c, int i, int depth)
 {
   eqpi_species *s = &c->sp[i];
   if (c->state[i] == 2) return 0;
-  if (c->state[i] == 1 || depth > 64) {
+  if (c->state[i] == 1) {
     eqpi_stage_error(c->st, s->file, s->line, "reactions form a cycle through '%s'", s->name);
     return -1;
   }
+  if (depth > 64) {
+    eqpi_stage_error(c->st, s->file, s->line, "reactions nest more than 64 deep at '%s'",
+                     s->name);
+    return -1;
+  }
   c->state[i] = 1;
-  int nterm = 0, nrx = 0;
-  int *tc = NULL, *ri = NULL;
-  double *tn = NULL, *rc = NULL;
-  double *acc = eqpi_calloc(c->ctx, (size_t)c->ncomp + 1, sizeof(double));
-  double *racc = eqpi_calloc(c->ctx, (size_t)c->nrx + 1, sizeof(double));
-  int rc_ = -1;
-  if (!acc || !racc) goto out;
   if (s->rxn < 0) {
-    acc[s->component] = 1;
+    sparse_add(&c->comp, s->component, 1);
   } else {
     const eqpi_reaction *r = &c->rx[s->rxn];
-    racc[s->rxn] = 1;
+    for (int j = 0; j < r->n; j++)
+      if (resolve(c, r->reactant[j], depth + 1) < 0) return -1;
+    sparse_add(&c->rxn, s->rxn, 1);
     for (int j = 0; j < r->n; j++) {
-      if (resolve(c, r->reactant[j], depth + 1) < 0) goto out;
       const eqpi_species *q = &c->sp[r->reactant[j]];
-      for (int t = 0; t < q->nterm; t++) acc[q->term_comp[t]] += r->nu[j] * q->term_nu[t];
-      for (int t = 0; t < q->nrx; t++) racc[q->rx_idx[t]] += r->nu[j] * q->rx_c[t];
+      for (int t = 0; t < q->nterm; t++) sparse_add(&c->comp, q->term_comp[t], r->nu[j] * q->term_nu[t]);
+      for (int t = 0; t < q->nrx; t++) sparse_add(&c->rxn, q->rx_idx[t], r->nu[j] * q->rx_c[t]);
     }
   }
-  for (int t = 0; t < c->ncomp; t++) nterm += fabs(acc[t]) > 1e-12;
-  for (int t = 0; t < c->nrx; t++) nrx += fabs(racc[t]) > 1e-12;
-  tc = eqpi_arena_alloc(c->ctx, &c->st->arena, sizeof(int) * (size_t)(nterm + 1));
-  tn = eqpi_arena_alloc(c->ctx, &c->st->arena, sizeof(double) * (size_t)(nterm + 1));
-  ri = eqpi_arena_alloc(c->ctx, &c->st->arena, sizeof(int) * (size_t)(nrx + 1));
-  rc = eqpi_arena_alloc(c->ctx, &c->st->arena, sizeof(double) * (size_t)(nrx + 1));
-  if (!tc || !tn || !ri || !rc) goto out;
-  nterm = nrx = 0;
-  for (int t = 0; t < c->ncomp; t++)
-    if (fabs(acc[t]) > 1e-12) { tc[nterm] = t; tn[nterm++] = acc[t]; }
-  for (int t = 0; t < c->nrx; t++)
-    if (fabs(racc[t]) > 1e-12) { ri[nrx] = t; rc[nrx++] = racc[t]; }
-  s->term_comp = tc;
-  s->term_nu = tn;
-  s->nterm = nterm;
-  s->rx_idx = ri;
-  s->rx_c = rc;
-  s->nrx = nrx;
-  c->state[i] = 2;
-  rc_ = 0;
-out:
-  if (rc_ < 0 && (!acc || !racc || !tc || !tn || !ri || !rc))
+  s->nterm = sparse_take(c, &c->comp, &s->term_comp, &s->term_nu);
+  s->nrx = sparse_take(c, &c->rxn, &s->rx_idx, &s->rx_c);
+  if (s->nterm < 0 || s->nrx < 0) {
     eqpi_stage_error(c->st, NULL, 0, "out of memory");
-  eqpi_free(c->ctx, acc, sizeof(double) * ((size_t)c->ncomp + 1));
-  eqpi_free(c->ctx, racc, sizeof(double) * ((size_t)c->nrx + 1));
-  return rc_;
+    return -1;
+  }
+  c->state[i] = 2;
+  return 0;
 }
 
-static int push_reagent(committer *c)
+/* A new reagent entry under name (indexed); its index, or -1. */
+static int push_reagent(committer *c, const char *name)
 {
   if (c->nrg == c->caprg) {
     int nc = c->caprg * 2 + 16;
@@ -269,6 +261,8 @@ static int push_reagent(committer *c)
     c->caprg = nc;
   }
   memset(&c->rg[c->nrg], 0, sizeof c->rg[0]);
+  c->rg[c->nrg].name = name;
+  if (eqpi_index_put(c->ctx, &c->rgnew, name, c->nrg, NULL) < 0) return -1;
   return c->nrg++;
 }
 
@@ -291,10 +285,8 @@ static void finish_reagent(committer *c, eqpi_reagent *g, const st_pair *gives, 
   g->molar_mass = eqpi_comp_mass(&f);
   g->sp = eqpi_arena_alloc(c->ctx, &st->arena, sizeof(int) * (size_t)(n + 1));
   g->nu = eqpi_arena_alloc(c->ctx, &st->arena, sizeof(double) * (size_t)(n + 1));
-  double *acc = eqpi_calloc(c->ctx, (size_t)c->ncomp + 1, sizeof(double));
-  if (!g->sp || !g->nu || !acc) {
+  if (!g->sp || !g->nu) {
     eqpi_stage_error(st, NULL, 0, "out of memory");
-    eqpi_free(c->ctx, acc, sizeof(double) * ((size_t)c->ncomp + 1));
     return;
   }
   int bad = 0;
@@ -310,7 +302,7 @@ static void finish_reagent(committer *c, eqpi_reagent *g, const st_pair *gives, 
     g->nu[j] = gives[j].nu;
     eqpi_comp_add(&sum, &c->sp[q].comp, gives[j].nu);
     for (int t = 0; t < c->sp[q].nterm; t++)
-      acc[c->sp[q].term_comp[t]] += gives[j].nu * c->sp[q].term_nu[t];
+      sparse_add(&c->comp, c->sp[q].term_comp[t], gives[j].nu * c->sp[q].term_nu[t]);
   }
   g->n = n;
   if (!bad && g->hydrate > 0) {
@@ -324,17 +316,11 @@ static void finish_reagent(committer *c, eqpi_reagent *g, const st_pair *gives, 
   else if (!bad && fabs(f.charge) > 1e-9)
     eqpi_stage_error(st, g->file, g->line, "reagent '%s' is charged; reagents are neutral",
                      g->name);
-  int nterm = 0;
-  for (int t = 0; t < c->ncomp; t++) nterm += fabs(acc[t]) > 1e-12;
-  g->term_comp = eqpi_arena_alloc(c->ctx, &st->arena, sizeof(int) * (size_t)(nterm + 1));
-  g->term_nu = eqpi_arena_alloc(c->ctx, &st->arena, sizeof(double) * (size_t)(nterm + 1));
-  if (g->term_comp && g->term_nu) {
-    nterm = 0;
-    for (int t = 0; t < c->ncomp; t++)
-      if (fabs(acc[t]) > 1e-12) { g->term_comp[nterm] = t; g->term_nu[nterm++] = acc[t]; }
-    g->nterm = nterm;
+  g->nterm = sparse_take(c, &c->comp, &g->term_comp, &g->term_nu);
+  if (g->nterm < 0) {
+    g->nterm = 0;
+    eqpi_stage_error(st, NULL, 0, "out of memory");
   }
-  eqpi_free(c->ctx, acc, sizeof(double) * ((size_t)c->ncomp + 1));
 }
 
 static void add_reagents(committer *c)
@@ -343,20 +329,24 @@ static void add_reagents(committer *c)
   for (int k = 0; k < st->nrg; k++) {
     const st_reagent *r = &st->rg[k];
     if (!r->name) continue;
-    int prev = eqpi_commit_find_reagent(c, r->name, c->nrg);
+    int prev = eqpi_commit_find_reagent(c, r->name);
     if (prev >= 0) {
       eqpi_stage_error(st, r->file, r->line, "duplicate reagent '%s' (first at %s:%d)",
                        r->name, c->rg[prev].file, c->rg[prev].line);
       continue;
     }
     for (int a = 0; a < r->naliases; a++)
-      if (r->aliases[a] && (prev = eqpi_commit_find_reagent(c, r->aliases[a], c->nrg)) >= 0)
+      if (r->aliases[a] && (prev = eqpi_commit_find_reagent(c, r->aliases[a])) >= 0)
         eqpi_stage_error(st, r->file, r->line, "name '%s' is taken by reagent '%s' (%s:%d)",
                          r->aliases[a], c->rg[prev].name, c->rg[prev].file, c->rg[prev].line);
-    int i = push_reagent(c);
+    int i = push_reagent(c, r->name);
     if (i < 0) { eqpi_stage_error(st, NULL, 0, "out of memory"); return; }
+    for (int a = 0; a < r->naliases; a++)
+      if (r->aliases[a] && eqpi_index_put(c->ctx, &c->rgnew, r->aliases[a], i, NULL) < 0) {
+        eqpi_stage_error(st, NULL, 0, "out of memory");
+        return;
+      }
     eqpi_reagent *g = &c->rg[i];
-    g->name = r->name;
     g->formula = r->formula;
     g->aliases = r->aliases;
     g->naliases = r->naliases;
@@ -383,11 +373,10 @@ static void add_reagents(committer *c)
   for (int i = c->db->nsp; i < c->nsp; i++) {
     const eqpi_species *s = &c->sp[i];
     if (fabs(s->comp.charge) > 1e-9 || strcmp(s->name, "H2O") == 0) continue;
-    if (eqpi_commit_find_reagent(c, s->name, c->nrg) >= 0) continue;
-    int k = push_reagent(c);
+    if (eqpi_commit_find_reagent(c, s->name) >= 0) continue;
+    int k = push_reagent(c, s->name);
     if (k < 0) { eqpi_stage_error(st, NULL, 0, "out of memory"); return; }
     eqpi_reagent *g = &c->rg[k];
-    g->name = s->name;
     g->formula = s->formula;
     g->density = NAN;
     g->file = s->file;
@@ -409,9 +398,11 @@ static void committer_free(committer *c)
   eqpi_free(ctx, c->buf, sizeof *c->buf * (size_t)c->capbuf);
   eqpi_free(ctx, c->gas, sizeof *c->gas * (size_t)c->capgas);
   eqpi_free(ctx, c->sol, sizeof *c->sol * (size_t)c->capsol);
+  eqpi_index_free(ctx, &c->spnew);
+  eqpi_index_free(ctx, &c->rgnew);
+  sparse_free(ctx, &c->comp);
+  sparse_free(ctx, &c->rxn);
 }
-
-int eqpi_db_rebuild_index(eqp_ctx *ctx, eqpi_db *db);
 
 /* A growable copy of the n elements at src (none: stays NULL, cap 0). */
 static int dup_array(eqp_ctx *ctx, void **dst, const void *src, int n, size_t elem, int *cap)
@@ -428,8 +419,15 @@ static int dup_array(eqp_ctx *ctx, void **dst, const void *src, int n, size_t el
 int eqpi_stage_commit(eqp_ctx *ctx, eqpi_stage *st)
 {
   eqpi_db *db = &ctx->db;
-  committer c = {ctx, db, st, NULL, db->nsp, NULL, db->nrx, NULL, db->nrg, 0, db->ncomp,
-                 NULL, NULL, NULL, 0, 0, NULL, 0, 0, NULL, 0, 0, NULL, 0, 0};
+  committer c;
+  memset(&c, 0, sizeof c);
+  c.ctx = ctx;
+  c.db = db;
+  c.st = st;
+  c.nsp = db->nsp;
+  c.nrx = db->nrx;
+  c.nrg = db->nrg;
+  c.ncomp = db->ncomp;
   int rc = EQP_E_DATA;
   /* Shape errors found while staging do not stop the checks of names and
   ** balances below, so one run reports every problem; nothing is kept. */
@@ -470,6 +468,11 @@ int eqpi_stage_commit(eqp_ctx *ctx, eqpi_stage *st)
       c.comp_species[c.ncomp++] = i;
     }
   if (st->nerr) goto fail;
+  if (sparse_init(ctx, &c.comp, c.ncomp) < 0 || sparse_init(ctx, &c.rxn, c.nrx) < 0) {
+    rc = EQP_E_NOMEM;
+    eqpi_stage_error(st, NULL, 0, "out of memory");
+    goto fail;
+  }
   for (int i = db->nsp; i < c.nsp; i++)
     if (resolve(&c, i, 0) < 0) goto fail;
   add_reagents(&c);
@@ -490,8 +493,8 @@ int eqpi_stage_commit(eqp_ctx *ctx, eqpi_stage *st)
   next.gases = c.gas; next.ngases = c.ngas; next.capgases = c.capgas;
   next.solids = c.sol; next.nsolids = c.nsol; next.capsolids = c.capsol;
   next.capcomp = db->ncomp + st->nsp + 1;
-  next.hash = NULL;
-  next.hashcap = 0;
+  memset(&next.spidx, 0, sizeof next.spidx);
+  memset(&next.rgidx, 0, sizeof next.rgidx);
   if (eqpi_db_rebuild_index(ctx, &next) < 0) {
     rc = EQP_E_NOMEM;
     eqpi_stage_error(st, NULL, 0, "out of memory");
@@ -513,12 +516,17 @@ int eqpi_stage_commit(eqp_ctx *ctx, eqpi_stage *st)
   eqpi_free(ctx, db->rx, sizeof *db->rx * (size_t)db->caprx);
   eqpi_free(ctx, db->rg, sizeof *db->rg * (size_t)db->caprg);
   eqpi_free(ctx, db->comp_species, sizeof(int) * (size_t)db->capcomp);
-  eqpi_free(ctx, db->hash, sizeof(int) * (size_t)db->hashcap * 2);
+  eqpi_index_free(ctx, &db->spidx);
+  eqpi_index_free(ctx, &db->rgidx);
   eqpi_free(ctx, db->pairs, sizeof *db->pairs * (size_t)db->cappairs);
   eqpi_free(ctx, db->buffers, sizeof *db->buffers * (size_t)db->capbuffers);
   eqpi_free(ctx, db->gases, sizeof *db->gases * (size_t)db->capgases);
   eqpi_free(ctx, db->solids, sizeof *db->solids * (size_t)db->capsolids);
   eqpi_free(ctx, c.state, maxsp);
+  eqpi_index_free(ctx, &c.spnew);
+  eqpi_index_free(ctx, &c.rgnew);
+  sparse_free(ctx, &c.comp);
+  sparse_free(ctx, &c.rxn);
   *db = next;
   eqpi_arena_splice(&db->arena, &st->arena);
   db->h_plus = eqpi_db_find_species(db, "H+");

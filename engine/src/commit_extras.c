@@ -9,30 +9,36 @@
 int eqpi_commit_find_species(const committer *c, const char *name)
 {
   int i = eqpi_db_find_species(c->db, name);
-  if (i >= 0) return i;
-  for (int k = c->db->nsp; k < c->nsp; k++)
-    if (strcmp(c->sp[k].name, name) == 0) return k;
-  return -1;
+  return i >= 0 ? i : eqpi_index_get(&c->spnew, name);
 }
 
-int eqpi_commit_find_reagent(const committer *c, const char *name, int upto)
+int eqpi_commit_find_reagent(const committer *c, const char *name)
 {
   int i = eqpi_db_find_reagent(c->db, name);
-  if (i >= 0) return i;
-  for (int k = c->db->nrg; k < upto; k++) {
-    if (strcmp(c->rg[k].name, name) == 0) return k;
-    for (int a = 0; a < c->rg[k].naliases; a++)
-      if (strcmp(c->rg[k].aliases[a], name) == 0) return k;
-  }
-  return -1;
+  return i >= 0 ? i : eqpi_index_get(&c->rgnew, name);
 }
 
 /* Resolve the names of each interaction; a pair and key given twice is an
 ** error. The new parameters go to c->pairs after the existing ones. */
+/* "a b key" with a <= b: the name of a pair parameter in an index. */
+static const char *pair_key(committer *c, eqpi_arena **tmp, int a, int b, const char *key)
+{
+  char buf[320];
+  snprintf(buf, sizeof buf, "%d %d %s", a < b ? a : b, a < b ? b : a, key);
+  return eqpi_arena_strdup(c->ctx, tmp, buf);
+}
+
 void eqpi_commit_interactions(committer *c)
 {
   char hint[256];
   eqpi_stage *st = c->st;
+  if (!st->nin) return;
+  eqpi_arena *tmp = NULL;
+  eqpi_index seen = {0};
+  for (int q = 0; q < c->npairs; q++) {
+    const char *k = pair_key(c, &tmp, c->pairs[q].a, c->pairs[q].b, c->pairs[q].key);
+    if (!k || eqpi_index_put(c->ctx, &seen, k, q, NULL) < 0) goto nomem;
+  }
   for (int k = 0; k < st->nin; k++) {
     const st_inter *in = &st->in[k];
     if (!in->a || !in->b) continue;
@@ -43,20 +49,19 @@ void eqpi_commit_interactions(committer *c)
       continue;
     }
     for (int p = 0; p < in->n; p++) {
-      for (int q = 0; q < c->npairs; q++) {
+      const char *pk = pair_key(c, &tmp, a, b, in->params[p].name);
+      int q, put = pk ? eqpi_index_put(c->ctx, &seen, pk, c->npairs, &q) : -1;
+      if (put < 0) goto nomem;
+      if (put == 1) {
         const eqpi_pairparam *o = &c->pairs[q];
-        if (((o->a == a && o->b == b) || (o->a == b && o->b == a)) &&
-            strcmp(o->key, in->params[p].name) == 0) {
-          eqpi_stage_error(st, in->file, in->line, "duplicate %s for %s and %s (first at %s:%d)",
-                           o->key, in->a, in->b, o->file, o->line);
-          break;
-        }
+        eqpi_stage_error(st, in->file, in->line, "duplicate %s for %s and %s (first at %s:%d)",
+                         o->key, in->a, in->b, o->file, o->line);
       }
       if (c->npairs == c->cappairs) {
         int nc = c->cappairs * 2 + 16;
         eqpi_pairparam *np = eqpi_realloc(c->ctx, c->pairs, sizeof *np * (size_t)c->cappairs,
                                           sizeof *np * (size_t)nc);
-        if (!np) { eqpi_stage_error(st, NULL, 0, "out of memory"); return; }
+        if (!np) goto nomem;
         c->pairs = np;
         c->cappairs = nc;
       }
@@ -70,12 +75,37 @@ void eqpi_commit_interactions(committer *c)
       d->line = in->line;
     }
   }
+  goto out;
+nomem:
+  eqpi_stage_error(st, NULL, 0, "out of memory");
+out:
+  eqpi_index_free(c->ctx, &seen);
+  eqpi_arena_free(c->ctx, &tmp);
+}
+
+/* An index of the names of n entries of size elem whose name is the
+** first member; -1 when out of memory. */
+static int index_names(committer *c, eqpi_index *ix, const void *arr, int n, size_t elem)
+{
+  for (int q = 0; q < n; q++) {
+    const char *name = *(const char *const *)(const void *)((const char *)arr + elem * (size_t)q);
+    if (eqpi_index_put(c->ctx, ix, name, q, NULL) < 0) return -1;
+  }
+  return 0;
+}
+
+/* Record name at position q in ix; 1 and *first set when it is taken. */
+static int name_taken(committer *c, eqpi_index *ix, const char *name, int q, int *first)
+{
+  int put = eqpi_index_put(c->ctx, ix, name, q, first);
+  if (put < 0) eqpi_stage_error(c->st, NULL, 0, "out of memory");
+  return put == 1;
 }
 
 static int buffer_reagent(committer *c, const st_buffer *b, const char *name)
 {
   if (!name) return -1;
-  int g = eqpi_commit_find_reagent(c, name, c->nrg);
+  int g = eqpi_commit_find_reagent(c, name);
   if (g < 0)
     eqpi_stage_error(c->st, b->file, b->line, "buffer '%s': unknown reagent '%s'", b->name, name);
   return g;
@@ -84,19 +114,24 @@ static int buffer_reagent(committer *c, const st_buffer *b, const char *name)
 void eqpi_commit_buffers(committer *c)
 {
   eqpi_stage *st = c->st;
+  eqpi_index seen = {0};
+  if (!st->nbf) return;
+  if (index_names(c, &seen, c->buf, c->nbuf, sizeof *c->buf) < 0) {
+    eqpi_stage_error(st, NULL, 0, "out of memory");
+    eqpi_index_free(c->ctx, &seen);
+    return;
+  }
   for (int k = 0; k < st->nbf; k++) {
     const st_buffer *b = &st->bf[k];
     if (!b->name) continue;
-    for (int q = 0; q < c->nbuf; q++)
-      if (strcmp(c->buf[q].name, b->name) == 0) {
-        eqpi_stage_error(st, b->file, b->line, "duplicate buffer '%s' (first at %s:%d)",
-                         b->name, c->buf[q].file, c->buf[q].line);
-        break;
-      }
+    int q;
+    if (name_taken(c, &seen, b->name, c->nbuf, &q))
+      eqpi_stage_error(st, b->file, b->line, "duplicate buffer '%s' (first at %s:%d)",
+                       b->name, c->buf[q].file, c->buf[q].line);
     if (c->nbuf == c->capbuf) {
       int nc = c->capbuf * 2 + 8;
       eqpi_buffer *p = eqpi_realloc(c->ctx, c->buf, sizeof *p * (size_t)c->capbuf, sizeof *p * (size_t)nc);
-      if (!p) { eqpi_stage_error(st, NULL, 0, "out of memory"); return; }
+      if (!p) { eqpi_stage_error(st, NULL, 0, "out of memory"); break; }
       c->buf = p;
       c->capbuf = nc;
     }
@@ -111,12 +146,20 @@ void eqpi_commit_buffers(committer *c)
     d->file = b->file;
     d->line = b->line;
   }
+  eqpi_index_free(c->ctx, &seen);
 }
 
 void eqpi_commit_gases(committer *c)
 {
   char hint[256];
   eqpi_stage *st = c->st;
+  eqpi_index seen = {0};
+  if (!st->ngs) return;
+  if (index_names(c, &seen, c->gas, c->ngas, sizeof *c->gas) < 0) {
+    eqpi_stage_error(st, NULL, 0, "out of memory");
+    eqpi_index_free(c->ctx, &seen);
+    return;
+  }
   for (int k = 0; k < st->ngs; k++) {
     const st_gas *g = &st->gs[k];
     if (!g->name || !g->dissolves) continue;
@@ -131,13 +174,14 @@ void eqpi_commit_gases(committer *c)
                        g->name);
       continue;
     }
-    for (int q = 0; q < c->ngas; q++)
-      if (strcmp(c->gas[q].name, g->name) == 0)
-        eqpi_stage_error(st, g->file, g->line, "duplicate gas '%s'", g->name);
+    int q;
+    if (name_taken(c, &seen, g->name, c->ngas, &q))
+      eqpi_stage_error(st, g->file, g->line, "duplicate gas '%s' (first at %s:%d)", g->name,
+                       c->gas[q].kh.file, c->gas[q].kh.line);
     if (c->ngas == c->capgas) {
       int nc = c->capgas * 2 + 4;
       eqpi_gas *p = eqpi_realloc(c->ctx, c->gas, sizeof *p * (size_t)c->capgas, sizeof *p * (size_t)nc);
-      if (!p) { eqpi_stage_error(st, NULL, 0, "out of memory"); return; }
+      if (!p) { eqpi_stage_error(st, NULL, 0, "out of memory"); break; }
       c->gas = p;
       c->capgas = nc;
     }
@@ -150,15 +194,29 @@ void eqpi_commit_gases(committer *c)
     snprintf(what, sizeof what, "gas '%s'", g->name);
     eqpi_commit_constant(st, &g->k, g->file, g->line, what, &d->kh);
   }
+  eqpi_index_free(c->ctx, &seen);
 }
 
 void eqpi_commit_solids(committer *c)
 {
   char hint[256];
   eqpi_stage *st = c->st;
+  eqpi_index seen = {0};
+  if (!st->nso) return;
+  if (index_names(c, &seen, c->sol, c->nsol, sizeof *c->sol) < 0) {
+    eqpi_stage_error(st, NULL, 0, "out of memory");
+    eqpi_index_free(c->ctx, &seen);
+    return;
+  }
   for (int k = 0; k < st->nso; k++) {
     const st_solid *g = &st->so[k];
     if (!g->name || !g->formula) continue;
+    int q = eqpi_index_get(&seen, g->name);
+    if (q >= 0) {
+      eqpi_stage_error(st, g->file, g->line, "duplicate solid '%s' (first at %s:%d)", g->name,
+                       c->sol[q].ksp.file, c->sol[q].ksp.line);
+      continue;
+    }
     eqpi_comp f, sum = {0};
     char err[256], diff[256];
     if (eqpi_formula_parse(g->formula, &f, NULL, err, sizeof err) < 0) {
@@ -167,7 +225,7 @@ void eqpi_commit_solids(committer *c)
     }
     int *sp = eqpi_arena_alloc(c->ctx, &st->arena, sizeof(int) * (size_t)(g->n + 1));
     double *nu = eqpi_arena_alloc(c->ctx, &st->arena, sizeof(double) * (size_t)(g->n + 1));
-    if (!sp || !nu) { eqpi_stage_error(st, NULL, 0, "out of memory"); return; }
+    if (!sp || !nu) { eqpi_stage_error(st, NULL, 0, "out of memory"); break; }
     int bad = 0;
     for (int j = 0; j < g->n; j++) {
       sp[j] = eqpi_commit_find_species(c, g->dissolves[j].name);
@@ -190,10 +248,11 @@ void eqpi_commit_solids(committer *c)
     if (c->nsol == c->capsol) {
       int nc = c->capsol * 2 + 4;
       eqpi_solid *p = eqpi_realloc(c->ctx, c->sol, sizeof *p * (size_t)c->capsol, sizeof *p * (size_t)nc);
-      if (!p) { eqpi_stage_error(st, NULL, 0, "out of memory"); return; }
+      if (!p) { eqpi_stage_error(st, NULL, 0, "out of memory"); break; }
       c->sol = p;
       c->capsol = nc;
     }
+    if (name_taken(c, &seen, g->name, c->nsol, &q)) break;   /* only out of memory */
     eqpi_solid *d = &c->sol[c->nsol++];
     memset(d, 0, sizeof *d);
     d->name = g->name;
@@ -206,4 +265,5 @@ void eqpi_commit_solids(committer *c)
     snprintf(what, sizeof what, "solid '%s'", g->name);
     eqpi_commit_constant(st, &g->k, g->file, g->line, what, &d->ksp);
   }
+  eqpi_index_free(c->ctx, &seen);
 }

@@ -5,6 +5,16 @@
 
 #include "stage_impl.h"
 
+/* A sparse sum over n slots: v holds the values, idx the slots touched
+** since the last reset, so that building each species' resolved terms
+** costs the size of its terms, not the number of components. */
+typedef struct eqpi_sparse {
+  double *v;
+  int *idx;
+  unsigned char *on;
+  int n, nidx;
+} eqpi_sparse;
+
 typedef struct committer {
   eqp_ctx *ctx;
   eqpi_db *db;
@@ -26,11 +36,14 @@ typedef struct committer {
   int ngas, capgas;
   eqpi_solid *sol;
   int nsol, capsol;
+  eqpi_index spnew;   /* names of the species of this load */
+  eqpi_index rgnew;   /* names and aliases of the reagents of this load */
+  eqpi_sparse comp, rxn; /* scratch sums over components and reactions */
 } committer;
 
 /* A species or reagent by name in the database or in this commit; -1 if none. */
 int eqpi_commit_find_species(const committer *c, const char *name);
-int eqpi_commit_find_reagent(const committer *c, const char *name, int upto);
+int eqpi_commit_find_reagent(const committer *c, const char *name);
 /* The entries beyond species, reactions and reagents (commit_extras.c). */
 void eqpi_commit_interactions(committer *c);
 void eqpi_commit_buffers(committer *c);

@@ -1,19 +1,11 @@
-/* The context: allocator, error message, species library, plugin path. */
+/* The context: allocator, error message, loading species files and
+** folders (the library and its path are in library.c), plugin path. */
 /* SPDX-License-Identifier: MIT */
 #include "stage_impl.h"
-#include <dirent.h>
 #include <errno.h>
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
-#include <sys/stat.h>
-
-#ifndef EQP_BUILD_SPECIES_DIR
-#define EQP_BUILD_SPECIES_DIR ""
-#endif
-#ifndef EQP_INSTALL_SPECIES_DIR
-#define EQP_INSTALL_SPECIES_DIR ""
-#endif
 
 static void *default_alloc(void *ud, void *ptr, size_t osize, size_t nsize)
 {
@@ -43,13 +35,13 @@ void eqp_ctx_free(eqp_ctx *ctx)
   eqpi_plugins_free(ctx);
   for (int i = 0; i < ctx->nplugin_dirs; i++) eqpi_strfree(ctx, ctx->plugin_dirs[i]);
   eqpi_free(ctx, ctx->plugin_dirs, sizeof(char *) * (size_t)ctx->nplugin_dirs);
+  eqpi_library_free(ctx);
+  eqpi_cautions_free(ctx);
   eqpi_db_free(ctx, &ctx->db);
   ctx->alloc(ctx->ud, ctx, sizeof *ctx, 0);
 }
 
-/* Read a whole file through the context's allocator. */
-static int read_file(eqp_ctx *ctx, const char *path, char **text, size_t *len,
-                     size_t *capp)
+int eqpi_read_file(eqp_ctx *ctx, const char *path, char **text, size_t *len, size_t *capp)
 {
   FILE *f = fopen(path, "rb");
   if (!f) return eqpi_fail(ctx, EQP_E_IO, "%s: cannot open: %s", path, strerror(errno));
@@ -82,12 +74,29 @@ static int read_file(eqp_ctx *ctx, const char *path, char **text, size_t *len,
   return EQP_OK;
 }
 
-static int stage_file(eqp_ctx *ctx, eqpi_stage *st, const char *path)
+/* A file read for a load: its key and content hash, for the record of
+** what is loaded. */
+typedef struct src_id {
+  char key[4096];
+  unsigned long long hash;
+} src_id;
+
+/* Stage the file at path unless exactly this file is loaded already
+** (then *skipped is set). */
+static int stage_file(eqp_ctx *ctx, eqpi_stage *st, const char *path, src_id *id, int *skipped)
 {
   char *text = NULL;
   size_t len = 0, cap = 0;
-  int rc = read_file(ctx, path, &text, &len, &cap);
+  *skipped = 0;
+  int rc = eqpi_read_file(ctx, path, &text, &len, &cap);
   if (rc < 0) return rc;
+  eqpi_file_key(path, id->key, sizeof id->key);
+  id->hash = eqpi_hash_bytes(text, len, 0);
+  if (eqpi_loaded_has(ctx, id->key, id->hash)) {
+    *skipped = 1;
+    eqpi_free(ctx, text, cap);
+    return EQP_OK;
+  }
   const char *p = eqpi_arena_strdup(ctx, &st->arena, path);
   if (p) {
     const char **slot = eqpi_stage_push(ctx, st, (void **)&st->files, &st->nfiles,
@@ -111,89 +120,58 @@ int eqp_ctx_load_species_file(eqp_ctx *ctx, const char *path)
   if (!ctx || !path) return eqpi_fail(ctx, EQP_E_ARG, "NULL argument");
   eqpi_stage *st = eqpi_stage_new(ctx);
   if (!st) return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
-  int rc = stage_file(ctx, st, path);
-  if (rc < 0) {
+  src_id id;
+  int skipped, rc = stage_file(ctx, st, path, &id, &skipped);
+  if (rc < 0 || skipped) {
     eqpi_stage_free(ctx, st);
     return rc;
   }
-  return finish(ctx, st);
+  rc = finish(ctx, st);
+  if (rc == EQP_OK) eqpi_loaded_add(ctx, id.key, id.hash);
+  return rc;
 }
 
 int eqp_ctx_load_species_text(eqp_ctx *ctx, const char *text, size_t len, const char *source)
 {
   if (!ctx || !text || !source) return eqpi_fail(ctx, EQP_E_ARG, "NULL argument");
+  unsigned long long hash = eqpi_hash_bytes(text, len, 0);
+  if (eqpi_loaded_has(ctx, source, hash)) return EQP_OK;
   eqpi_stage *st = eqpi_stage_new(ctx);
   if (!st) return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
   eqpi_load_text(ctx, st, text, len, source);
-  return finish(ctx, st);
-}
-
-static int cmp_str(const void *a, const void *b)
-{
-  return strcmp(*(char *const *)a, *(char *const *)b);
+  int rc = finish(ctx, st);
+  if (rc == EQP_OK) eqpi_loaded_add(ctx, source, hash);
+  return rc;
 }
 
 int eqp_ctx_load_species_dir(eqp_ctx *ctx, const char *dir)
 {
   if (!ctx || !dir) return eqpi_fail(ctx, EQP_E_ARG, "NULL argument");
-  DIR *d = opendir(dir);
-  if (!d) return eqpi_fail(ctx, EQP_E_IO, "%s: cannot open folder: %s", dir, strerror(errno));
-  char *names[512];
+  char **names = NULL;
   int n = 0;
-  struct dirent *e;
-  while ((e = readdir(d)) && n < 512) {
-    size_t l = strlen(e->d_name);
-    if (l > 4 && strcmp(e->d_name + l - 4, ".lua") == 0 && e->d_name[0] != '.') {
-      names[n] = eqpi_strdup(ctx, e->d_name);
-      if (names[n]) n++;
-    }
-  }
-  closedir(d);
-  qsort(names, (size_t)n, sizeof *names, cmp_str);
-  eqpi_stage *st = eqpi_stage_new(ctx);
-  int rc = st ? EQP_OK : eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
-  for (int i = 0; i < n; i++) {
-    if (rc == EQP_OK) {
-      char path[4096];
-      snprintf(path, sizeof path, "%s/%s", dir, names[i]);
-      rc = stage_file(ctx, st, path);
-    }
-    eqpi_strfree(ctx, names[i]);
-  }
-  if (rc < 0) {
-    eqpi_stage_free(ctx, st);
-    return rc;
-  }
-  return finish(ctx, st);
-}
-
-static int is_dir(const char *p)
-{
-  struct stat sb;
-  return p && *p && stat(p, &sb) == 0 && S_ISDIR(sb.st_mode);
-}
-
-int eqp_ctx_load_default_library(eqp_ctx *ctx)
-{
-  if (!ctx) return EQP_E_ARG;
-  if (ctx->default_loaded) return EQP_OK;
-  const char *env = getenv("EQUIPOISE_SPECIES_PATH");
-  const char *dir = is_dir(env) ? env
-                  : is_dir(EQP_BUILD_SPECIES_DIR) ? EQP_BUILD_SPECIES_DIR
-                  : is_dir(EQP_INSTALL_SPECIES_DIR) ? EQP_INSTALL_SPECIES_DIR : NULL;
-  if (env && *env && !is_dir(env))
-    return eqpi_fail(ctx, EQP_E_IO, "EQUIPOISE_SPECIES_PATH: '%s' is not a folder", env);
-  if (!dir) return eqpi_fail(ctx, EQP_E_IO, "no species library found (set EQUIPOISE_SPECIES_PATH)");
-  int rc = eqp_ctx_load_species_dir(ctx, dir);
+  int rc = eqpi_list_species_files(ctx, dir, &names, &n);
   if (rc < 0) return rc;
-  ctx->default_loaded = true;
-  char user[4096];
-  const char *xdg = getenv("XDG_DATA_HOME"), *home = getenv("HOME");
-  if (xdg && *xdg) snprintf(user, sizeof user, "%s/equipoise/species", xdg);
-  else if (home && *home) snprintf(user, sizeof user, "%s/.local/share/equipoise/species", home);
-  else user[0] = '\0';
-  if (is_dir(user)) return eqp_ctx_load_species_dir(ctx, user);
-  return EQP_OK;
+  eqpi_stage *st = eqpi_stage_new(ctx);
+  src_id *ids = n ? eqpi_malloc(ctx, sizeof *ids * (size_t)n) : NULL;
+  char *loaded = n ? eqpi_calloc(ctx, (size_t)n, 1) : NULL;
+  rc = st && (!n || (ids && loaded)) ? EQP_OK : eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
+  for (int i = 0; i < n && rc == EQP_OK; i++) {
+    char path[4096];
+    int skipped;
+    snprintf(path, sizeof path, "%s/%s", dir, names[i]);
+    rc = stage_file(ctx, st, path, &ids[i], &skipped);
+    loaded[i] = (char)(rc == EQP_OK && !skipped);
+  }
+  if (rc == EQP_OK) {
+    rc = eqpi_stage_commit(ctx, st);
+    for (int i = 0; i < n && rc == EQP_OK; i++)
+      if (loaded[i]) eqpi_loaded_add(ctx, ids[i].key, ids[i].hash);
+  }
+  eqpi_stage_free(ctx, st);
+  eqpi_free(ctx, ids, sizeof *ids * (size_t)n);
+  eqpi_free(ctx, loaded, (size_t)n);
+  eqpi_free_names(ctx, names, n);
+  return rc;
 }
 
 int eqp_ctx_add_plugin_dir(eqp_ctx *ctx, const char *dir)

@@ -6,60 +6,27 @@
 #include <stdio.h>
 #include <string.h>
 
-static unsigned hash_str(const char *s)
-{
-  unsigned h = 2166136261u;           /* FNV-1a */
-  while (*s) h = (h ^ (unsigned char)*s++) * 16777619u;
-  return h;
-}
-
-/* Two open-addressed tables in one array: species in [0, cap), reagent
-** names and aliases in [cap, 2 cap). Slots hold index + 1, 0 when empty. */
-static int hash_insert(int *tab, int cap, const char *key, int val,
-                       const char *(*name_of)(const eqpi_db *, int), const eqpi_db *db)
-{
-  unsigned i = hash_str(key) & (unsigned)(cap - 1);
-  while (tab[i]) {
-    if (strcmp(name_of(db, tab[i] - 1), key) == 0) return 0;  /* first wins */
-    i = (i + 1) & (unsigned)(cap - 1);
-  }
-  tab[i] = val + 1;
-  return 0;
-}
-
-static const char *species_key(const eqpi_db *db, int i) { return db->sp[i].name; }
-
-/* Reagent slots store (reagent << 5 | alias + 1) so aliases share the table. */
-static const char *reagent_key(const eqpi_db *db, int v)
-{
-  const eqpi_reagent *g = &db->rg[v >> 5];
-  int a = v & 31;
-  return a == 0 ? g->name : g->aliases[a - 1];
-}
-
-int eqpi_db_rebuild_index(eqp_ctx *ctx, eqpi_db *db);
-
+/* The name index of a database: every species, and every reagent under its
+** name and each alias (the first holder of a name keeps it). */
 int eqpi_db_rebuild_index(eqp_ctx *ctx, eqpi_db *db)
 {
-  int need = db->nsp;
-  int nnames = 0;
-  for (int i = 0; i < db->nrg; i++) nnames += 1 + db->rg[i].naliases;
-  if (nnames > need) need = nnames;
-  int cap = 64;
-  while (cap < need * 2) cap *= 2;
-  int *tab = eqpi_calloc(ctx, (size_t)cap * 2, sizeof(int));
-  if (!tab) return -1;
+  eqpi_index sp = {0}, rg = {0};
   for (int i = 0; i < db->nsp; i++)
-    hash_insert(tab, cap, db->sp[i].name, i, species_key, db);
+    if (eqpi_index_put(ctx, &sp, db->sp[i].name, i, NULL) < 0) goto nomem;
   for (int i = 0; i < db->nrg; i++) {
-    hash_insert(tab + cap, cap, db->rg[i].name, i << 5, reagent_key, db);
-    for (int a = 0; a < db->rg[i].naliases && a < 31; a++)
-      hash_insert(tab + cap, cap, db->rg[i].aliases[a], i << 5 | (a + 1), reagent_key, db);
+    if (eqpi_index_put(ctx, &rg, db->rg[i].name, i, NULL) < 0) goto nomem;
+    for (int a = 0; a < db->rg[i].naliases; a++)
+      if (eqpi_index_put(ctx, &rg, db->rg[i].aliases[a], i, NULL) < 0) goto nomem;
   }
-  eqpi_free(ctx, db->hash, sizeof(int) * (size_t)db->hashcap * 2);
-  db->hash = tab;
-  db->hashcap = cap;
+  eqpi_index_free(ctx, &db->spidx);
+  eqpi_index_free(ctx, &db->rgidx);
+  db->spidx = sp;
+  db->rgidx = rg;
   return 0;
+nomem:
+  eqpi_index_free(ctx, &sp);
+  eqpi_index_free(ctx, &rg);
+  return -1;
 }
 
 /* A miss may be a Unicode or variant spelling of a stored name. */
@@ -70,48 +37,24 @@ static int needs_fold(const char *name)
   return 0;
 }
 
-static int find_species(const eqpi_db *db, const char *name);
-static int find_reagent(const eqpi_db *db, const char *name);
+static int find_folded(const eqpi_index *ix, const char *name)
+{
+  if (!name) return -1;
+  int i = eqpi_index_get(ix, name);
+  char buf[256];
+  if (i < 0 && needs_fold(name) && eqpi_name_normalize(name, buf, sizeof buf) == 1)
+    i = eqpi_index_get(ix, buf);
+  return i;
+}
 
 int eqpi_db_find_species(const eqpi_db *db, const char *name)
 {
-  if (!db->hash || !name) return -1;
-  int i = find_species(db, name);
-  char buf[256];
-  if (i < 0 && needs_fold(name) && eqpi_name_normalize(name, buf, sizeof buf) == 1)
-    i = find_species(db, buf);
-  return i;
+  return find_folded(&db->spidx, name);
 }
 
 int eqpi_db_find_reagent(const eqpi_db *db, const char *name)
 {
-  if (!db->hash || !name) return -1;
-  int i = find_reagent(db, name);
-  char buf[256];
-  if (i < 0 && needs_fold(name) && eqpi_name_normalize(name, buf, sizeof buf) == 1)
-    i = find_reagent(db, buf);
-  return i;
-}
-
-static int find_species(const eqpi_db *db, const char *name)
-{
-  unsigned i = hash_str(name) & (unsigned)(db->hashcap - 1);
-  while (db->hash[i]) {
-    if (strcmp(db->sp[db->hash[i] - 1].name, name) == 0) return db->hash[i] - 1;
-    i = (i + 1) & (unsigned)(db->hashcap - 1);
-  }
-  return -1;
-}
-
-static int find_reagent(const eqpi_db *db, const char *name)
-{
-  const int *tab = db->hash + db->hashcap;
-  unsigned i = hash_str(name) & (unsigned)(db->hashcap - 1);
-  while (tab[i]) {
-    if (strcmp(reagent_key(db, tab[i] - 1), name) == 0) return (tab[i] - 1) >> 5;
-    i = (i + 1) & (unsigned)(db->hashcap - 1);
-  }
-  return -1;
+  return find_folded(&db->rgidx, name);
 }
 
 int eqpi_db_species_param(const eqpi_db *db, int i, const char *key, double *v)
@@ -148,7 +91,8 @@ void eqpi_db_free(eqp_ctx *ctx, eqpi_db *db)
   eqpi_free(ctx, db->buffers, sizeof *db->buffers * (size_t)db->capbuffers);
   eqpi_free(ctx, db->gases, sizeof *db->gases * (size_t)db->capgases);
   eqpi_free(ctx, db->solids, sizeof *db->solids * (size_t)db->capsolids);
-  eqpi_free(ctx, db->hash, sizeof(int) * (size_t)db->hashcap * 2);
+  eqpi_index_free(ctx, &db->spidx);
+  eqpi_index_free(ctx, &db->rgidx);
   eqpi_arena_free(ctx, &db->arena);
   memset(db, 0, sizeof *db);
   db->h_plus = db->water = -1;

@@ -519,6 +519,10 @@ int eqp_ctx_describe(eqp_ctx *ctx, const char *name, double T, eqp_format fmt, c
     if (strcmp(db->gases[i].name, name) == 0) cJSON_AddItemToArray(e, gas_json(db, i, Ts, nT));
   if (cJSON_GetArraySize(e) == 0) {
     cJSON_Delete(doc);
+    const char *left_out = eqpi_library_note(ctx, name);
+    if (left_out)
+      return eqpi_fail(ctx, EQP_E_UNKNOWN, "no species, reagent, buffer system, solid or gas "
+                       "named '%s': %s", name, left_out);
     return eqpi_fail(ctx, EQP_E_UNKNOWN, "no species, reagent, buffer system, solid or gas "
                      "named '%s' (equipoise species list shows them all)", name);
   }

@@ -102,6 +102,24 @@ double eqpi_water_pKw(double T);
 /* Same formulation at a given density (g/cm3), for the published checks. */
 double eqpi_water_pKw_rho(double T, double rho);
 
+/* ---------------------------------------------------------- index */
+
+/* A map from borrowed strings to non-negative ints: open addressing,
+** grown at half full, so loading n names costs O(n) whatever n is. */
+typedef struct eqpi_index {
+  const char **key;
+  int *val;
+  int cap, n;
+} eqpi_index;
+
+/* Insert key -> val unless key is present (the first stays). Returns 0
+** when inserted, 1 when present (*old, if not NULL, gets its value), -1
+** when memory is exhausted. key must outlive the index. */
+int eqpi_index_put(eqp_ctx *ctx, eqpi_index *ix, const char *key, int val, int *old);
+/* The value of key, or -1. */
+int eqpi_index_get(const eqpi_index *ix, const char *key);
+void eqpi_index_free(eqp_ctx *ctx, eqpi_index *ix);
+
 /* ---------------------------------------------------------- database */
 
 enum { EQPI_T_VANTHOFF = 0, EQPI_T_FUNCTION = 1, EQPI_T_WATER = 2 };
@@ -240,15 +258,17 @@ typedef struct eqpi_db {
   int nsolids, capsolids;
   const char **files;
   int nfiles, capfiles;
-  /* name hash: species and reagents (reagent entries are ~index) */
-  int *hash;
-  int hashcap;
+  eqpi_index spidx;     /* species by name */
+  eqpi_index rgidx;     /* reagents by name and by alias */
   int h_plus, water;    /* species indexes, -1 until loaded */
   unsigned generation;  /* bumps on every commit */
 } eqpi_db;
 
 int eqpi_db_find_species(const eqpi_db *db, const char *name);
 int eqpi_db_find_reagent(const eqpi_db *db, const char *name);
+/* Index every species and reagent name of db anew; -1 when out of memory
+** (db is then unchanged). */
+int eqpi_db_rebuild_index(eqp_ctx *ctx, eqpi_db *db);
 /* Parameter key of species i, or of the pair (i, j) in either order:
 ** 0 and *v set when present, -1 otherwise. */
 int eqpi_db_species_param(const eqpi_db *db, int i, const char *key, double *v);
@@ -263,6 +283,12 @@ double eqpi_reaction_logK(const eqpi_reaction *r, double T, eqpi_tnotes *notes);
 typedef struct eqpi_stage eqpi_stage;
 int eqpi_load_text(eqp_ctx *ctx, eqpi_stage *st, const char *text, size_t len,
                    const char *source);
+struct lua_State;
+/* Load the species table at idx of L (a script's inline species) under the
+** source name where: read with raw access under lua_pcall, so neither a
+** metamethod nor a memory error can leave the staging area behind. The
+** same table loaded again from the same place is a no-op. */
+int eqpi_load_table(eqp_ctx *ctx, struct lua_State *L, int idx, const char *where);
 eqpi_stage *eqpi_stage_new(eqp_ctx *ctx);
 void eqpi_stage_free(eqp_ctx *ctx, eqpi_stage *st);
 int eqpi_stage_commit(eqp_ctx *ctx, eqpi_stage *st);
@@ -287,9 +313,53 @@ typedef struct eqpi_model {
 
 int eqpi_model_open(eqp_ctx *ctx, const char *name, eqpi_model *out);
 void eqpi_model_close(eqp_ctx *ctx, eqpi_model *m);
+/* Calls into the model whose messages (err, warn) are cut at their buffer's
+** end whatever the plugin wrote. bind is 0 when the model has none. */
+int eqpi_model_set_param(eqpi_model *m, const char *name, double value, char *err, size_t len);
+int eqpi_model_bind(eqpi_model *m, const eqp_species_info *info, char *warn, size_t wlen,
+                    char *err, size_t elen);
+int eqpi_model_log_gamma(eqpi_model *m, const eqp_activity_in *in, double *lg, char *err,
+                         size_t len);
 void eqpi_plugins_free(eqp_ctx *ctx);
 /* Check a descriptor as loaded from path; 0 or an error message in err. */
 int eqpi_plugin_check(const eqp_plugin_desc *d, const char *path, char *err, size_t len);
+
+/* ---------------------------------------------------------- cautions */
+
+/* Index of a hazard key in the fixed list (caution.c), or -1. */
+int eqpi_hazard_find(const char *key);
+/* A hint for an unknown hazard key: the nearest key, or where the list is. */
+void eqpi_hazard_hint(const char *key, char *buf, size_t len);
+/* The caution for reagent (its classes and what to do); 0 and "" when it
+** has no hazards. */
+int eqpi_caution_text(const eqpi_db *db, int reagent, char *buf, size_t len);
+void eqpi_cautions_free(eqp_ctx *ctx);
+
+/* ---------------------------------------------------------- library */
+
+/* A source already loaded: its key (real path, or source name) and a hash
+** of its content, so that loading it again is a no-op (library.c). */
+typedef struct eqpi_loaded {
+  char *key;
+  unsigned long long hash;
+} eqpi_loaded;
+
+unsigned long long eqpi_hash_bytes(const void *p, size_t n, unsigned long long h);
+int eqpi_loaded_has(const eqp_ctx *ctx, const char *key, unsigned long long hash);
+int eqpi_loaded_add(eqp_ctx *ctx, const char *key, unsigned long long hash);
+/* The key of a file: its real path when it exists, else the path. */
+void eqpi_file_key(const char *path, char *buf, size_t len);
+/* Read a whole file through the context's allocator (ctx.c); free text with
+** eqpi_free(ctx, text, *cap). */
+int eqpi_read_file(eqp_ctx *ctx, const char *path, char **text, size_t *len, size_t *cap);
+/* The *.lua files of a folder (not hidden), sorted; free with
+** eqpi_free_names. EQP_E_IO if dir is not a readable folder. */
+int eqpi_list_species_files(eqp_ctx *ctx, const char *dir, char ***names, int *n);
+void eqpi_free_names(eqp_ctx *ctx, char **names, int n);
+/* A note for an unknown name defined by a species file that was left out
+** of the library, or NULL. */
+const char *eqpi_library_note(const eqp_ctx *ctx, const char *name);
+void eqpi_library_free(eqp_ctx *ctx);
 
 /* ---------------------------------------------------------- context */
 
@@ -314,6 +384,21 @@ struct eqp_ctx {
   eqp_host_api host;
   eqp_progress_fn progress;   /* long operations report here (eqp_ctx_set_progress) */
   void *progress_ud;
+  /* species path and what loading left behind (library.c) */
+  char **species_dirs;
+  int nspecies_dirs;
+  eqpi_loaded *loaded;
+  int nloaded, caploaded;
+  char **notices;       /* replaced systems, files left out */
+  int nnotices, capnotices;
+  char **broken;        /* per file left out: "path: what is wrong" */
+  int nbroken, capbroken;
+  eqpi_index broken_names; /* names staged by those files -> broken[] */
+  eqpi_arena *broken_arena;
+  /* hazardous reagents used, in order of first use (caution.c) */
+  int *caution_rg;
+  char **caution_text;
+  int ncautions, capcautions;
 };
 
 /* Tell the progress callback, if any, how far a long operation is. */

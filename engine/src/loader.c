@@ -84,10 +84,36 @@ static const char *cv_name(conv *c, const char *s)
   return cv_str(c, s);
 }
 
+/* Field key of the table at idx, read raw: a metamethod of a script's
+** table never runs while the staging area is open. Pushes it; returns its
+** Lua type. */
+static int raw_field(lua_State *L, int idx, const char *key)
+{
+  idx = lua_absindex(L, idx);
+  lua_pushstring(L, key);
+  return lua_rawget(L, idx);
+}
+
 /* Field of the table at top; leaves it pushed. Returns its Lua type. */
 static int cv_field(conv *c, const char *key)
 {
-  return lua_getfield(c->L, -1, key);
+  return raw_field(c->L, -1, key);
+}
+
+/* A number given in the file: NaN after an error if it is not finite (0/0,
+** 1/0 in the file) or outside lo..hi. A value given is never mistaken for
+** one left out. */
+static double cv_checked(conv *c, double v, double lo, double hi)
+{
+  if (!isfinite(v)) {
+    CV_ERR(c, "%g is not a finite number", v);
+    return NAN;
+  }
+  if (v < lo || v > hi) {
+    CV_ERR(c, "%g is outside %g..%g", v, lo, hi);
+    return NAN;
+  }
+  return v;
 }
 
 /* Optional number field; NaN when absent; error if not a finite number. */
@@ -97,11 +123,7 @@ static double cv_number(conv *c, const char *key, double lo, double hi, int requ
   cv_push(c, key);
   int t = cv_field(c, key);
   if (t == LUA_TNUMBER) {
-    v = lua_tonumber(c->L, -1);
-    if (!isfinite(v) || v < lo || v > hi) {
-      CV_ERR(c, "%g is outside %g..%g", v, lo, hi);
-      v = NAN;
-    }
+    v = cv_checked(c, lua_tonumber(c->L, -1), lo, hi);
   } else if (t != LUA_TNIL) {
     CV_ERR(c, "expected a number, got %s", lua_typename(c->L, t));
   } else if (required) {
@@ -139,7 +161,7 @@ static const char *cv_source(conv *c, const char *key, int required)
     return NULL;
   }
   if (c->sources) {
-    lua_getfield(c->L, c->sources, ref);
+    raw_field(c->L, c->sources, ref);
     if (lua_type(c->L, -1) == LUA_TSTRING) {
       const char *txt = cv_str(c, lua_tostring(c->L, -1));
       lua_pop(c->L, 1);
@@ -187,7 +209,7 @@ static const char *cv_pos_string(conv *c, lua_Integer i)
 {
   const char *s = NULL;
   cv_pushi(c, i);
-  int t = lua_geti(c->L, -1, i);
+  int t = lua_rawgeti(c->L, -1, i);
   if (t == LUA_TSTRING && lua_rawlen(c->L, -1) > 0) s = cv_name(c, lua_tostring(c->L, -1));
   else CV_ERR(c, "expected a name (non-empty string), got %s", lua_typename(c->L, t));
   lua_pop(c->L, 1);
@@ -259,14 +281,14 @@ static void cv_ladder_numbers(conv *c, const char *key, int n, double *v, double
   cv_push(c, key);
   int t = cv_field(c, key);
   if (t == LUA_TNUMBER && n == 1) {
-    v[0] = lua_tonumber(c->L, -1);
+    v[0] = cv_checked(c, lua_tonumber(c->L, -1), lo, hi);
   } else if (t == LUA_TTABLE) {
     if ((int)lua_rawlen(c->L, -1) != n)
       CV_ERR(c, "has %d values for %d steps", (int)lua_rawlen(c->L, -1), n);
     for (int i = 0; i < n; i++) {
       cv_pushi(c, i + 1);
-      int ti = lua_geti(c->L, -1, i + 1);
-      if (ti == LUA_TNUMBER) v[i] = lua_tonumber(c->L, -1);
+      int ti = lua_rawgeti(c->L, -1, i + 1);
+      if (ti == LUA_TNUMBER) v[i] = cv_checked(c, lua_tonumber(c->L, -1), lo, hi);
       else if (ti != LUA_TNIL || required) CV_ERR(c, "expected a number");
       lua_pop(c->L, 1);
       cv_pop(c);
@@ -276,11 +298,6 @@ static void cv_ladder_numbers(conv *c, const char *key, int n, double *v, double
   } else if (required) {
     CV_ERR(c, "missing");
   }
-  for (int i = 0; i < n; i++)
-    if (!isnan(v[i]) && (!isfinite(v[i]) || v[i] < lo || v[i] > hi)) {
-      CV_ERR(c, "value %g is outside %g..%g", v[i], lo, hi);
-      v[i] = NAN;
-    }
   lua_pop(c->L, 1);
   cv_pop(c);
 }
@@ -342,7 +359,7 @@ static void cv_trange(conv *c, double *lo, double *hi)
 {
   double v[2];
   *lo = *hi = NAN;
-  lua_getfield(c->L, -1, "T_range");
+  raw_field(c->L, -1, "T_range");
   int present = !lua_isnil(c->L, -1);
   lua_pop(c->L, 1);
   if (!present) return;
@@ -369,7 +386,7 @@ static void cv_species(conv *c)
   cv_keys(c, keys, 1);
   st_species *s = STAGE_PUSH(c, sp, nsp, capsp);
   if (!s) return;
-  lua_getfield(c->L, -1, "params");
+  raw_field(c->L, -1, "params");
   int has_params = !lua_isnil(c->L, -1);
   lua_pop(c->L, 1);
   if (has_params) {
@@ -430,7 +447,7 @@ static void cv_acid(conv *c)
                                                   "for a step without one)", (int)lua_rawlen(c->L, -1), nst);
     for (int k = 0; k < nst; k++) {
       cv_pushi(c, k + 1);
-      lua_geti(c->L, -1, k + 1);
+      lua_rawgeti(c->L, -1, k + 1);
       if (lua_toboolean(c->L, -1)) cv_tfunction(c, lua_gettop(c->L), &tm[k], fns[k]);
       lua_pop(c->L, 1);
       cv_pop(c);
@@ -480,7 +497,7 @@ static void cv_constant(conv *c, const char *logkey, double lo, double hi, const
   k->dH = cv_number(c, "dH", -500, 500, 0);
   k->dCp = cv_number(c, "dCp", -5000, 5000, 0);
   cv_push(c, fkey);
-  lua_getfield(c->L, -1, fkey);
+  raw_field(c->L, -1, fkey);
   cv_tfunction(c, lua_gettop(c->L), &k->tmodel, k->fn);
   lua_pop(c->L, 1);
   cv_pop(c);
@@ -512,7 +529,7 @@ static void cv_reagent(conv *c)
   base.name = cv_pos_string(c, 1);
   base.formula = cv_string(c, "formula", 0);
   if (!base.formula) base.formula = base.name;
-  lua_getfield(c->L, -1, "gives");
+  raw_field(c->L, -1, "gives");
   int has_gives = !lua_isnil(c->L, -1);
   lua_pop(c->L, 1);
   if (has_gives) {
@@ -530,6 +547,16 @@ static void cv_reagent(conv *c)
     if (one) base.aliases[nnames] = one;
   }
   base.nhazards = cv_strings(c, "hazards", &base.hazards);
+  for (int i = 0; i < base.nhazards && base.hazards; i++)
+    if (base.hazards[i] && eqpi_hazard_find(base.hazards[i]) < 0) {
+      char hint[160];
+      eqpi_hazard_hint(base.hazards[i], hint, sizeof hint);
+      cv_push(c, "hazards");
+      cv_pushi(c, i + 1);
+      CV_ERR(c, "unknown hazard class '%s' (%s)", base.hazards[i], hint);
+      cv_pop(c);
+      cv_pop(c);
+    }
   base.density = cv_number(c, "density", 0.5, 3.0, 0);
   base.file = c->file;
   base.line = cv_line(c);
@@ -685,7 +712,7 @@ static void cv_list(conv *c, const char *key, void (*f)(conv *))
     lua_Integer n = (lua_Integer)lua_rawlen(c->L, -1);
     for (lua_Integer i = 1; i <= n; i++) {
       cv_pushi(c, i);
-      if (lua_geti(c->L, -1, i) == LUA_TTABLE) f(c);
+      if (lua_rawgeti(c->L, -1, i) == LUA_TTABLE) f(c);
       else CV_ERR(c, "expected a table");
       lua_pop(c->L, 1);
       cv_pop(c);
@@ -716,7 +743,7 @@ int eqpi_stage_from_table(eqp_ctx *ctx, eqpi_stage *st, lua_State *L, int idx,
   }
   lua_pushvalue(L, idx);
   cv_keys(&c, keys, 0);
-  if (lua_getfield(L, -1, "sources") == LUA_TTABLE) c.sources = lua_gettop(L);
+  if (raw_field(L, -1, "sources") == LUA_TTABLE) c.sources = lua_gettop(L);
   else if (!lua_isnil(L, -1)) { cv_push(&c, "sources"); CV_ERR(&c, "expected a table"); cv_pop(&c); }
   if (!c.sources) lua_pop(L, 1);
   lua_pushvalue(L, idx);
@@ -735,3 +762,48 @@ int eqpi_stage_from_table(eqp_ctx *ctx, eqpi_stage *st, lua_State *L, int idx,
   return st->nerr > before ? EQP_E_DATA : EQP_OK;
 }
 
+
+/* ------------------------------------------------------------ inline tables */
+
+typedef struct table_args {
+  eqp_ctx *ctx;
+  eqpi_stage *st;
+  const char *where;
+} table_args;
+
+static int table_run(lua_State *L)
+{
+  table_args *a = lua_touserdata(L, 1);
+  eqpi_stage_from_table(a->ctx, a->st, L, 2, NULL, a->where);
+  return 0;
+}
+
+int eqpi_load_table(eqp_ctx *ctx, lua_State *L, int idx, const char *where)
+{
+  idx = lua_absindex(L, idx);
+  if (!lua_checkstack(L, 4)) return eqpi_fail(ctx, EQP_E_NOMEM, "%s: out of memory", where);
+  eqpi_stage *st = eqpi_stage_new(ctx);
+  if (!st) return eqpi_fail(ctx, EQP_E_NOMEM, "%s: out of memory", where);
+  table_args a = {ctx, st, where};
+  lua_pushcfunction(L, table_run);
+  lua_pushlightuserdata(L, &a);
+  lua_pushvalue(L, idx);
+  int prc = lua_pcall(L, 2, 0, 0), rc;
+  if (prc != LUA_OK) {
+    /* the stage is ours whatever happened: report, then free it below */
+    const char *msg = lua_tostring(L, -1);
+    eqpi_stage_error(st, where, 0, "%s", msg ? msg : "error while reading the species table");
+    lua_pop(L, 1);
+    rc = eqpi_fail(ctx, prc == LUA_ERRMEM ? EQP_E_NOMEM : EQP_E_DATA, "%s", st->err);
+  } else {
+    unsigned long long fp = eqpi_stage_fingerprint(st);
+    if (st->nerr == 0 && eqpi_loaded_has(ctx, where, fp)) {
+      rc = EQP_OK;      /* the same table from the same place: already loaded */
+    } else {
+      rc = eqpi_stage_commit(ctx, st);
+      if (rc == EQP_OK) eqpi_loaded_add(ctx, where, fp);
+    }
+  }
+  eqpi_stage_free(ctx, st);
+  return rc;
+}

@@ -69,6 +69,16 @@ int eqpi_plugin_check(const eqp_plugin_desc *d, const char *path, char *err, siz
   return 0;
 }
 
+/* The message a plugin wrote into buf (len bytes). The ABI asks for a
+** terminated string; one that fills the buffer is cut at its end rather
+** than read beyond it. */
+static const char *plugin_text(char *buf, size_t len, const char *none)
+{
+  if (!len) return none;
+  buf[len - 1] = '\0';
+  return buf[0] ? buf : none;
+}
+
 /* Open path and check what it exports; on success *dl and *desc are set. */
 static int plugin_dlopen(const char *path, void **dl, const eqp_plugin_desc **desc, char *err,
                          size_t len, const eqp_host_api *host)
@@ -88,7 +98,8 @@ static int plugin_dlopen(const char *path, void **dl, const eqp_plugin_desc **de
   char perr[256] = "";
   const eqp_plugin_desc *d = entry(host, perr, sizeof perr);
   if (!d) {
-    snprintf(err, len, "%s: plugin refused to load: %s", path, perr[0] ? perr : "no reason");
+    snprintf(err, len, "%s: plugin refused to load: %s", path,
+             plugin_text(perr, sizeof perr, "no reason"));
     dlclose(h);
     return -1;
   }
@@ -167,9 +178,13 @@ static int registry_get(eqp_ctx *ctx, const char *name, eqpi_plugin_handle **out
   if (plugin_dlopen(fd.path, &dl, &d, err, sizeof err, &ctx->host) < 0)
     return eqpi_fail(ctx, EQP_E_PLUGIN, "%s", err);
   if (strcmp(d->name, name) != 0) {
+    /* the message quotes the plugin's own name: write it while the module
+    ** is still mapped */
+    int rc = eqpi_fail(ctx, EQP_E_PLUGIN, "%s: file is named '%s' but the plugin calls itself "
+                       "'%.64s'; a plugin is loaded under its own name (rename the file to "
+                       "%.64s.so)", fd.path, name, d->name, d->name);
     dlclose(dl);
-    return eqpi_fail(ctx, EQP_E_PLUGIN, "%s: file is named '%s' but the plugin calls itself '%s'",
-                     fd.path, name, d->name);
+    return rc;
   }
   if (ctx->nplugins == ctx->capplugins) {
     int nc = ctx->capplugins * 2 + 4;
@@ -209,13 +224,46 @@ int eqpi_model_open(eqp_ctx *ctx, const char *name, eqpi_model *out)
   void *state = NULL;
   if (ops->create(&ctx->host, &state, err, sizeof err) != 0)
     return eqpi_fail(ctx, EQP_E_PLUGIN, "activity model '%s' (%s): %s", name, h->path,
-                     err[0] ? err : "create failed");
+                     plugin_text(err, sizeof err, "create failed"));
   out->desc = h->desc;
   out->ops = ops;
   out->state = state;
   out->handle = h->dl;
   out->path = h->path;
   return EQP_OK;
+}
+
+/* The calls into a model that return a message: each message is bounded
+** by its buffer whatever the plugin wrote. */
+int eqpi_model_set_param(eqpi_model *m, const char *name, double value, char *err, size_t len)
+{
+  if (len) err[0] = '\0';
+  int rc = m->ops->set_param(m->state, name, value, err, len);
+  plugin_text(err, len, "");
+  return rc;
+}
+
+int eqpi_model_bind(eqpi_model *m, const eqp_species_info *info, char *warn, size_t wlen,
+                    char *err, size_t elen)
+{
+  const eqp_activity_ops *ops = m->ops;
+  if (wlen) warn[0] = '\0';
+  if (elen) err[0] = '\0';
+  if (ops->struct_size < offsetof(eqp_activity_ops, bind) + sizeof ops->bind || !ops->bind)
+    return 0;
+  int rc = ops->bind(m->state, info, warn, wlen, err, elen);
+  plugin_text(warn, wlen, "");
+  plugin_text(err, elen, "");
+  return rc;
+}
+
+int eqpi_model_log_gamma(eqpi_model *m, const eqp_activity_in *in, double *lg, char *err,
+                         size_t len)
+{
+  if (len) err[0] = '\0';
+  int rc = m->ops->log_gamma(m->state, in, lg, err, len);
+  plugin_text(err, len, "");
+  return rc;
 }
 
 void eqpi_model_close(eqp_ctx *ctx, eqpi_model *m)

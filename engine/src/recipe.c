@@ -92,6 +92,12 @@ static int make_at(eqp_ctx *ctx, const eqp_recipe_spec *sp, const plan *p, doubl
   if (!a) { eqp_solution_free(s); return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory"); }
   /* the water of crystallisation and of the titrant is part of the final
   ** volume, so the solvent stays at W while the amounts vary */
+  if ((rc = eqpi_use_reagent(s, p->a)) < 0 || (rc = eqpi_use_reagent(s, p->b)) < 0 ||
+      (p->salt && (rc = eqpi_use_reagent(s, p->salt)) < 0)) {
+    eqpi_free(ctx, a, sizeof(double) * ((size_t)s->ntotal + 1));
+    eqp_solution_free(s);
+    return rc;
+  }
   eqpi_reagent_dir(s, p->a, s->total, &wa, n);
   if (p->salt) eqpi_reagent_dir(s, p->salt, s->total, &wb, s_mol);
   eqpi_adjust aj = {s->total, a, W, 0, sp->T, &s->model, sp->pH, 0, 0, "", ""};
@@ -181,11 +187,10 @@ static void write_procedure(eqp_recipe *out, const eqp_recipe_spec *sp, const pl
   APPEND("%2d. Check with a pH meter calibrated at %.1f C: it should read %.2f; the model "
          "gives an estimate, the meter decides.\n", step++, tC, sp->pH);
   for (int i = 0; i < out->nitems; i++) {
-    const eqpi_reagent *r = reagent_of(out->ctx, out->item[i].reagent);
-    for (int h = 0; r && h < r->nhazards; h++)
-      APPEND("Caution: %s is %s: wear eye protection and gloves; %sconsult its safety data "
-             "sheet.\n", r->name, r->hazards[h], strcmp(r->hazards[h], "corrosive") == 0
-             ? "add it slowly to water, never water to it (heat is released); " : "");
+    char caution[1024];
+    if (eqpi_caution_text(&out->ctx->db, eqpi_db_find_reagent(&out->ctx->db, out->item[i].reagent),
+                          caution, sizeof caution))
+      APPEND("Caution: %s\n", caution);
   }
 }
 

@@ -62,6 +62,7 @@ void eqp_solution_free(eqp_solution *s)
   eqpi_system_free(ctx, s->sys);
   eqpi_model_close(ctx, &s->model);
   eqpi_free(ctx, s->total, sizeof(double) * (size_t)s->ntotal);
+  eqpi_solution_hazards_free(s);
   eqpi_free(ctx, s, sizeof *s);
 }
 
@@ -78,6 +79,11 @@ int eqp_solution_copy(const eqp_solution *s, eqp_solution **out)
     return rc;
   }
   memcpy(c->total, s->total, sizeof(double) * (size_t)s->ntotal);
+  if ((rc = eqpi_use_stock(c, s)) < 0) {
+    eqp_solution_free(c);
+    *out = NULL;
+    return rc;
+  }
   for (int i = 0; i < s->nparams; i++)
     if ((rc = eqp_solution_set_activity_param(c, s->pname[i], s->pvalue[i])) < 0) {
       eqp_solution_free(c);
@@ -95,7 +101,7 @@ int eqp_solution_set_activity_param(eqp_solution *s, const char *name, double va
   if (!ops->set_param)
     return eqpi_fail(s->ctx, EQP_E_PLUGIN, "activity model '%s' takes no parameters",
                      s->model.desc->name);
-  if (ops->set_param(s->model.state, name, value, err, sizeof err) != 0)
+  if (eqpi_model_set_param(&s->model, name, value, err, sizeof err) != 0)
     return eqpi_fail(s->ctx, EQP_E_PLUGIN, "activity model '%s': %s", s->model.desc->name,
                      err[0] ? err : "parameter refused");
   /* the parameters are part of the copy's model too */
@@ -142,6 +148,8 @@ static int unknown_reagent(eqp_solution *s, const char *name)
   if (alt)
     return eqpi_fail(s->ctx, EQP_E_UNKNOWN, "unknown reagent '%s' (did you mean '%s'?)",
                      name, alt);
+  const char *left_out = eqpi_library_note(s->ctx, name);
+  if (left_out) return eqpi_fail(s->ctx, EQP_E_UNKNOWN, "unknown reagent '%s': %s", name, left_out);
   int sp = eqpi_db_find_species(db, name);
   if (sp >= 0)
     return eqpi_fail(s->ctx, EQP_E_UNKNOWN, "'%s' is a charged species, not a reagent: add a "
@@ -208,7 +216,7 @@ int eqp_solution_add(eqp_solution *s, const char *reagent, double value, eqp_qua
                      "concentration or molality", reagent);
   }
   int rc = grow_totals(s);
-  if (rc < 0) return rc;
+  if (rc < 0 || (rc = eqpi_use_reagent(s, r)) < 0) return rc;
   double w;
   eqpi_reagent_dir(s, r, s->total, &w, mol);
   s->water_kg += mol * w;
@@ -254,7 +262,7 @@ int eqp_solution_pour(eqp_solution *s, const eqp_solution *stock, double litres)
     return eqpi_fail(s->ctx, EQP_E_INPUT, "volume to pour must be a non-negative number");
   if (stock == s) return eqpi_fail(s->ctx, EQP_E_INPUT, "a solution cannot be poured into itself");
   int rc = grow_totals(s);
-  if (rc < 0) return rc;
+  if (rc < 0 || (litres > 0 && (rc = eqpi_use_stock(s, stock)) < 0)) return rc;
   /* the stock is a reservoir: a portion of its composition, by volume of
   ** its water at its own temperature, is added; the stock is unchanged */
   double f = litres / eqp_solution_volume(stock);
@@ -355,6 +363,7 @@ int eqp_solution_adjust_pH(eqp_solution *s, double pH, const char *reagent,
   eqpi_adjust aj = {s->total, a, s->water_kg, 0, s->T, &s->model, pH, 0, 0, reagent, ""};
   char what[128], limit[96];
   double L_per_unit;         /* litres per unit of v: a stock, or a liquid reagent */
+  const eqpi_reagent *used = NULL;
   if (stock) {
     for (int c = 0; c < stock->ntotal && c < s->ntotal; c++) a[c] = stock->total[c] / stock->water_kg;
     aj.w = 1;                                 /* v: kg of the stock's water */
@@ -365,6 +374,7 @@ int eqp_solution_adjust_pH(eqp_solution *s, double pH, const char *reagent,
   } else {
     const eqpi_reagent *r = NULL;
     if ((rc = eqpi_find_reagent(s, reagent, &r)) < 0) goto out;
+    used = r;
     eqpi_reagent_dir(s, r, a, &aj.w, 1.0);          /* v: mol of the reagent */
     aj.vmax = 5 * s->water_kg;
     L_per_unit = r->molar_mass / (1e3 * r->density); /* NaN for a solid */
@@ -377,6 +387,8 @@ int eqp_solution_adjust_pH(eqp_solution *s, double pH, const char *reagent,
   double v;
   eqpi_solve_stats st;
   rc = eqpi_system_adjust(ctx, &s->sys, &aj, &v, &st);
+  if (rc < 0) goto out;
+  rc = stock ? eqpi_use_stock(s, stock) : eqpi_use_reagent(s, used);
   if (rc < 0) goto out;
   for (int c = 0; c < s->ntotal; c++) s->total[c] += v * a[c];
   s->water_kg += v * aj.w;
@@ -407,6 +419,7 @@ int eqp_solution_mix(size_t n, eqp_solution *const *parts, const double *litres,
   if (rc < 0) return rc;
   memset(m->total, 0, sizeof(double) * (size_t)m->ntotal);
   m->water_kg = 0;
+  m->nhazard = 0;              /* what each part brings is recorded as it is poured */
   for (size_t i = 0; i < n && rc == EQP_OK; i++)
     rc = eqp_solution_pour(m, parts[i], litres ? litres[i] : eqp_solution_volume(parts[i]));
   if (rc < 0) {

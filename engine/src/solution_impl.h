@@ -16,11 +16,18 @@ struct eqp_solution {
   char pname[8][32];      /* activity-model parameters set, for copies */
   double pvalue[8];
   int nparams;
+  int *hazard;            /* hazardous reagents it received, directly or in a stock */
+  int nhazard, caphazard;
 };
 
 int eqpi_find_reagent(eqp_solution *s, const char *name, const eqpi_reagent **r);
 /* What k mol of reagent r adds: components into a (added), kg of water into *w (per mol). */
 void eqpi_reagent_dir(const eqp_solution *s, const eqpi_reagent *r, double *a, double *w, double k);
+/* Record that reagent r, or everything hazardous in stock, went into s
+** (and so into the run: its context shows the caution). caution.c */
+int eqpi_use_reagent(eqp_solution *s, const eqpi_reagent *r);
+int eqpi_use_stock(eqp_solution *s, const eqp_solution *stock);
+void eqpi_solution_hazards_free(eqp_solution *s);
 /* Make sure s->sys holds the equilibrium of the present composition. */
 int eqpi_solution_solved(eqp_solution *s);
 

@@ -280,14 +280,10 @@ static int info_pair(const void *ud, size_t i, size_t j, const char *key, double
 /* Tell the model which species are present (optional op of the ABI). */
 static int bind_model(eqp_ctx *ctx, eqpi_system *s, eqpi_model *model)
 {
-  const eqp_activity_ops *ops = model->ops;
-  s->bind_warn[0] = '\0';
   s->bound = model;
-  if (ops->struct_size < offsetof(eqp_activity_ops, bind) + sizeof ops->bind || !ops->bind)
-    return EQP_OK;
   eqp_species_info info = {(size_t)s->ns, s->names, s->z, s->size, s, info_param, info_pair};
   char err[256] = "";
-  if (ops->bind(model->state, &info, s->bind_warn, sizeof s->bind_warn, err, sizeof err) != 0) {
+  if (eqpi_model_bind(model, &info, s->bind_warn, sizeof s->bind_warn, err, sizeof err) != 0) {
     s->bound = NULL;
     return eqpi_fail(ctx, EQP_E_PLUGIN, "activity model '%s': %s", model->desc->name,
                      err[0] ? err : "bind failed");

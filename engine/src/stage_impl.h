@@ -95,11 +95,20 @@ struct eqpi_stage {
   char err[EQPI_ERRLEN];
   size_t errused;
   int nerr;
+  /* the files errors were found in, so that a library load can leave out
+  ** just those (library.c); errors without a file (out of memory) counted */
+  const char *errfile[32];
+  int nerrfile, errnofile, errfile_full;
 };
 
 /* Append a "file:line: message" to the stage's error list. */
 void eqpi_stage_error(eqpi_stage *st, const char *file, int line, const char *fmt, ...)
   EQPI_PRINTF(4, 5);
+/* Append the entries of src to dst (shallow: strings stay in src's arena,
+** which must outlive dst). -1 when out of memory. */
+int eqpi_stage_append(eqp_ctx *ctx, eqpi_stage *dst, const eqpi_stage *src);
+/* A 64-bit fingerprint of everything staged (not of where it was written). */
+unsigned long long eqpi_stage_fingerprint(const eqpi_stage *st);
 /* Grow one of the stage's arrays by one element; returns it zeroed. */
 void *eqpi_stage_push(eqp_ctx *ctx, eqpi_stage *st, void **arr, int *n, int *cap, size_t elem);
 

@@ -43,8 +43,8 @@ static int model_pass(eqpi_system *sys, double I)
     return 0;
   }
   eqp_activity_in in = {(size_t)ns, sys->z, sys->size, sys->mid, I, sys->Tk, sys->A, sys->B};
-  if (sys->model->ops->log_gamma(sys->model->state, &in, sys->lg, sys->plugin_err,
-                                 sizeof sys->plugin_err) != 0) {
+  if (eqpi_model_log_gamma(sys->model, &in, sys->lg, sys->plugin_err,
+                           sizeof sys->plugin_err) != 0) {
     sys->plugin_failed = 1;
     return -1;
   }

@@ -143,11 +143,11 @@ static int make_titrant(eqp_solution *s, const eqp_titration *spec, titrant *t)
     t->w = k->water_kg / V;
     t->litres = 1;
     t->stock = 1;
-    return EQP_OK;
+    return eqpi_use_stock(s, k);          /* the titrant enters the run: its cautions */
   }
   const eqpi_reagent *r = NULL;
   int rc = eqpi_find_reagent(s, spec->reagent, &r);
-  if (rc < 0) return rc;
+  if (rc < 0 || (rc = eqpi_use_reagent(s, r)) < 0) return rc;
   eqpi_reagent_dir(s, r, t->a, &t->w, 1.0);
   t->litres = isnan(r->density) ? NAN : r->molar_mass / (1e3 * r->density);
   return EQP_OK;

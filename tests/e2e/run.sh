@@ -51,7 +51,7 @@ check bad_param 2 "NAME=VALUE" -- "$EQP" run "$CASES/params.lua" --param acid
 
 # the demo and the published standards (Buck et al. 2002) through the command
 check demo 0 "after 2 mmol HCl" -- "$EQP" run "$SRC/scripts/examples/demo.lua"
-check demo_caution 0 "caution: HCl is corrosive" -- "$EQP" run "$SRC/scripts/examples/demo.lua"
+check demo_caution 0 "caution: HCl (hydrochloric acid): skin corrosion" -- "$EQP" run "$SRC/scripts/examples/demo.lua"
 check iupac_standards 0 "all within 0.02 pH" -- "$EQP" run "$SRC/tests/published/iupac_standards.lua"
 # the buffer catalogue, metal complexes, chelators and gases against published
 # values (sources named beside each check in the script)

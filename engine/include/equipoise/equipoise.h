@@ -77,10 +77,35 @@ EQP_API int eqp_ctx_load_species_dir(eqp_ctx *ctx, const char *dir);
 /* Load Lua species text (the same format) under the given source name. */
 EQP_API int eqp_ctx_load_species_text(eqp_ctx *ctx, const char *text,
                                       size_t len, const char *source);
-/* Load the built-in library (EQUIPOISE_SPECIES_PATH, or the build or install
-** folder) plus the user's folder ($XDG_DATA_HOME/equipoise/species or
-** ~/.local/share/equipoise/species) when it exists. Idempotent. */
+/* Loading the same file, or the same text under the same source name, a
+** second time is a no-op (EQP_OK). */
+
+/* Load the species library: every *.lua file on the species path, a list
+** of folders searched in this order:
+**   1. folders added with eqp_ctx_add_species_dir (the last added first);
+**   2. EQUIPOISE_SPECIES_PATH, colon-separated (each must be a folder);
+**   3. the user's folder, $XDG_DATA_HOME/equipoise/species or
+**      ~/.local/share/equipoise/species, when it exists;
+**   4. the built-in library (the build tree's, else the installed one).
+** A file in an earlier folder replaces the file of the same name in a later
+** one (a notice says so). A file with problems, and a file that needs what
+** such a file defines, is left out with a notice naming it; the rest loads,
+** and a run that asks for a name the left-out file defines gets an error
+** that names the file. EQP_E_DATA only when nothing at all could be loaded.
+** Idempotent. */
 EQP_API int eqp_ctx_load_default_library(eqp_ctx *ctx);
+/* Put a folder first on the species path (copied); before the library loads. */
+EQP_API int eqp_ctx_add_species_dir(eqp_ctx *ctx, const char *dir);
+/* Check a species file against the library: load the library with path
+** first on the species path (so that an edited copy of a library file
+** replaces the original), or, if the library is already loaded, load path.
+** EQP_OK and *nspecies (if not NULL) the number of species the file
+** defines, or the file's own problems as with eqp_ctx_load_species_file. */
+EQP_API int eqp_ctx_check_species_file(eqp_ctx *ctx, const char *path, size_t *nspecies);
+/* What loading the library had to say (a replaced file, a file left out),
+** one line each, in order. Borrowed. */
+EQP_API size_t eqp_ctx_notice_count(const eqp_ctx *ctx);
+EQP_API const char *eqp_ctx_notice(const eqp_ctx *ctx, size_t i);
 
 /* Prepend a folder to the plugin search path (copied). The path is, in
 ** order: folders added here, EQUIPOISE_PLUGIN_PATH (colon-separated), the
@@ -111,6 +136,20 @@ EQP_API int eqp_ctx_list(eqp_ctx *ctx, eqp_format fmt, char **out);
 ** i-th as a borrowed string. 0 / NULL for unknown names. */
 EQP_API size_t eqp_ctx_reagent_hazard_count(const eqp_ctx *ctx, const char *name);
 EQP_API const char *eqp_ctx_reagent_hazard(const eqp_ctx *ctx, const char *name, size_t i);
+/* The hazard keys species files may use (docs/species-format.md): count,
+** i-th key, and the UN GHS (Rev. 9) hazard class a key stands for (NULL for
+** an unknown key). Static strings. */
+EQP_API size_t eqp_hazard_key_count(void);
+EQP_API const char *eqp_hazard_key(size_t i);
+EQP_API const char *eqp_hazard_class(const char *key);
+/* Hazardous reagents used in this context so far, each once under its
+** library name in order of first use, whichever way it entered a solution:
+** added, used to adjust the pH, titrated, put in a recipe, or inside a
+** stock that was poured or mixed. The caution names its hazard classes
+** and what to do. Borrowed. */
+EQP_API size_t eqp_ctx_caution_count(const eqp_ctx *ctx);
+EQP_API const char *eqp_ctx_caution(const eqp_ctx *ctx, size_t i);
+EQP_API const char *eqp_ctx_caution_reagent(const eqp_ctx *ctx, size_t i);
 /* Molar mass (g/mol) of a reagent by name or alias; EQP_E_UNKNOWN if none. */
 EQP_API int eqp_ctx_reagent_molar_mass(eqp_ctx *ctx, const char *name, double *gmol);
 /* Number of species files loaded and the path of the i-th. Borrowed. */
@@ -196,6 +235,10 @@ EQP_API int eqp_solution_mix(size_t n, eqp_solution *const *parts, const double 
                              eqp_solution **out);
 /* Multiply the water by factor (>= 1); solutes stay. */
 EQP_API int eqp_solution_dilute(eqp_solution *s, double factor);
+/* Hazardous reagents a solution holds, added to it or to a stock poured
+** into it: count and the i-th reagent's library name. Borrowed. */
+EQP_API size_t eqp_solution_hazard_count(const eqp_solution *s);
+EQP_API const char *eqp_solution_hazard_reagent(const eqp_solution *s, size_t i);
 /* Total moles of a component ("Na+", "PO4^3-", "H+"; docs/methods.md). */
 EQP_API int eqp_solution_total(const eqp_solution *s, const char *component, double *mol);
 

@@ -12,51 +12,29 @@ static const char general_caution[] =
   "meter. For clinical, pharmaceutical or food use follow validated methods and local "
   "regulations.";
 
-static void caution_for(char *buf, size_t len, const char *reagent, const char *hazard)
-{
-  if (strcmp(hazard, "corrosive") == 0)
-    snprintf(buf, len, "%s is corrosive: wear eye protection, gloves and a lab coat; add it "
-             "slowly to water, never water to it, as dissolving or diluting releases heat; "
-             "consult its safety data sheet.", reagent);
-  else if (strcmp(hazard, "oxidizer") == 0)
-    snprintf(buf, len, "%s is an oxidizer: keep it away from organic and combustible "
-             "material; consult its safety data sheet.", reagent);
-  else if (strcmp(hazard, "flammable") == 0)
-    snprintf(buf, len, "%s is flammable: keep it away from ignition sources and work in a "
-             "ventilated place; consult its safety data sheet.", reagent);
-  else if (strcmp(hazard, "toxic") == 0)
-    snprintf(buf, len, "%s is toxic: avoid ingestion, inhalation and skin contact; consult "
-             "its safety data sheet.", reagent);
-  else if (strcmp(hazard, "irritant") == 0)
-    snprintf(buf, len, "%s is an irritant: avoid contact with eyes and skin; consult its "
-             "safety data sheet.", reagent);
-  else
-    snprintf(buf, len, "%s: hazard '%s'; consult its safety data sheet.", reagent, hazard);
-}
-
-void cli_each_caution(lua_State *L, void (*f)(void *, const char *), void *ud)
+static eqp_ctx *ctx_of(lua_State *L)
 {
   eqp_ctx *ctx = NULL;
   if (lua_getfield(L, LUA_REGISTRYINDEX, EQPL_CTX ".ptr") == LUA_TLIGHTUSERDATA)
     ctx = lua_touserdata(L, -1);
   lua_pop(L, 1);
-  if (!ctx) return;
-  if (lua_getfield(L, LUA_REGISTRYINDEX, EQPL_USED) != LUA_TTABLE) {
-    lua_pop(L, 1);
-    return;
-  }
-  lua_pushnil(L);
-  while (lua_next(L, -2)) {
-    lua_pop(L, 1);
-    const char *name = lua_tostring(L, -1);
-    size_t n = eqp_ctx_reagent_hazard_count(ctx, name);
-    for (size_t i = 0; i < n; i++) {
-      char buf[512];
-      caution_for(buf, sizeof buf, name, eqp_ctx_reagent_hazard(ctx, name, i));
-      f(ud, buf);
-    }
-  }
-  lua_pop(L, 1);
+  return ctx;
+}
+
+/* The engine records every hazardous reagent a run used, whichever way it
+** entered a solution, once per reagent. */
+void cli_each_caution(lua_State *L, void (*f)(void *, const char *), void *ud)
+{
+  eqp_ctx *ctx = ctx_of(L);
+  for (size_t i = 0; ctx && i < eqp_ctx_caution_count(ctx); i++) f(ud, eqp_ctx_caution(ctx, i));
+}
+
+/* What loading the species library had to say (a file left out, a file
+** replaced), as warnings. */
+static void each_notice(lua_State *L, void (*f)(void *, const char *), void *ud)
+{
+  eqp_ctx *ctx = ctx_of(L);
+  for (size_t i = 0; ctx && i < eqp_ctx_notice_count(ctx); i++) f(ud, eqp_ctx_notice(ctx, i));
 }
 
 static void print_caution(void *ud, const char *text)
@@ -98,6 +76,7 @@ static void print_warning(void *ud, const char *text)
 
 void cli_report_text(lua_State *L)
 {
+  each_notice(L, print_warning, NULL);
   each_warning(L, print_warning, NULL);
   cli_each_caution(L, print_caution, NULL);
 }
@@ -199,7 +178,9 @@ void cli_write_json(lua_State *L, const cli_run *run, int exit_code, const char 
     }
   }
   lua_pop(L, 1);
-  each_warning(L, add_string, cJSON_AddArrayToObject(doc, "warnings"));
+  cJSON *warnings = cJSON_AddArrayToObject(doc, "warnings");
+  each_notice(L, add_string, warnings);
+  each_warning(L, add_string, warnings);
   cJSON *cautions = cJSON_AddArrayToObject(doc, "cautions");
   cJSON_AddItemToArray(cautions, cJSON_CreateString(general_caution));
   cli_each_caution(L, add_string, cautions);

@@ -2,7 +2,6 @@
 ** species library. */
 /* SPDX-License-Identifier: MIT */
 #include "cli_impl.h"
-#include <limits.h>
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
@@ -76,29 +75,25 @@ static int emit(eqp_ctx *ctx, int rc, char *const *textp)
   return EXIT_OK;
 }
 
-static int in_library(const eqp_ctx *ctx, const char *path)
+/* A file left out of the library, a file replaced: said on stderr. */
+static void print_notices(const eqp_ctx *ctx)
 {
-  char a[PATH_MAX], b[PATH_MAX];
-  if (!realpath(path, a)) return 0;
-  for (size_t i = 0; i < eqp_ctx_source_count(ctx); i++)
-    if (realpath(eqp_ctx_source_path(ctx, i), b) && strcmp(a, b) == 0) return 1;
-  return 0;
+  for (size_t i = 0; i < eqp_ctx_notice_count(ctx); i++)
+    fprintf(stderr, "warning: %s\n", eqp_ctx_notice(ctx, i));
 }
 
+/* The file goes first on the species path, so that an edited copy of a
+** library file is checked in place of the original. */
 static int check(eqp_ctx *ctx, const char *path)
 {
-  if (in_library(ctx, path)) {
-    /* the library loaded, and with it this file: it has passed every check */
-    printf("%s: ok (part of the loaded library)\n", path);
-    return EXIT_OK;
-  }
-  size_t before = eqp_ctx_species_count(ctx);
-  int rc = eqp_ctx_load_species_file(ctx, path);
+  size_t n;
+  int rc = eqp_ctx_check_species_file(ctx, path, &n);
+  print_notices(ctx);
   if (rc < 0) {
     fprintf(stderr, "%s\n", eqp_ctx_errmsg(ctx));
     return cli_exit_code(rc);
   }
-  printf("%s: ok, %zu species added\n", path, eqp_ctx_species_count(ctx) - before);
+  printf("%s: ok, %zu species added\n", path, n);
   return EXIT_OK;
 }
 
@@ -107,7 +102,6 @@ static int run(eqp_ctx *ctx, const char *sub, const opts *o)
   eqp_format fmt = o->json ? EQP_FORMAT_JSON : EQP_FORMAT_TEXT;
   char *text = NULL;
   if (strcmp(sub, "list") == 0) return emit(ctx, eqp_ctx_list(ctx, fmt, &text), &text);
-  if (strcmp(sub, "check") == 0) return check(ctx, o->args[0]);
   double T = 298.15;
   if (o->temperature && read_temperature(ctx, o->temperature, &T) < 0) {
     fprintf(stderr, "equipoise: --temperature: %s\n", eqp_ctx_errmsg(ctx));
@@ -144,8 +138,13 @@ int cli_species(int argc, char **argv)
   }
   eqp_ctx *ctx = eqp_ctx_new(NULL, NULL);
   if (!ctx) return EXIT_NOMEM;
-  int rc = load_library(ctx);
-  code = rc < 0 ? cli_exit_code(rc) : run(ctx, subs[k].name, &o);
+  if (strcmp(subs[k].name, "check") == 0) {
+    code = check(ctx, o.args[0]);
+  } else {
+    int rc = load_library(ctx);
+    print_notices(ctx);
+    code = rc < 0 ? cli_exit_code(rc) : run(ctx, subs[k].name, &o);
+  }
   eqp_ctx_free(ctx);
   return code;
 }

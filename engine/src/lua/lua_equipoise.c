@@ -103,14 +103,7 @@ void eqpl_load_species(lua_State *L, eqp_ctx *ctx, int idx)
     char where[512] = "inline species";
     if (lua_getstack(L, 1, &ar) && lua_getinfo(L, "Sl", &ar) && ar.currentline > 0)
       snprintf(where, sizeof where, "%s:%d (inline species)", ar.short_src, ar.currentline);
-    eqpi_stage *st = eqpi_stage_new(ctx);
-    if (!st) {
-      luaL_error(L, "out of memory");
-      return;
-    }
-    eqpi_stage_from_table(ctx, st, L, idx, NULL, where);
-    rc = eqpi_stage_commit(ctx, st);
-    eqpi_stage_free(ctx, st);
+    rc = eqpi_load_table(ctx, L, idx, where);
   } else {
     char buf[64];
     snprintf(buf, sizeof buf, "%s", luaL_typename(L, idx));
