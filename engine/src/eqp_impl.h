@@ -287,7 +287,7 @@ struct lua_State;
 /* Load the species table at idx of L (a script's inline species) under the
 ** source name where: read with raw access under lua_pcall, so neither a
 ** metamethod nor a memory error can leave the staging area behind. The
-** same table loaded again from the same place is a no-op. */
+** same table (the same entries) loaded again is a no-op. */
 int eqpi_load_table(eqp_ctx *ctx, struct lua_State *L, int idx, const char *where);
 eqpi_stage *eqpi_stage_new(eqp_ctx *ctx);
 void eqpi_stage_free(eqp_ctx *ctx, eqpi_stage *st);

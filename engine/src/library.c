@@ -169,29 +169,31 @@ int eqp_ctx_add_species_dir(eqp_ctx *ctx, const char *dir)
   return EQP_OK;
 }
 
-/* The folders of the species path, first first (see equipoise.h). The
-** last one, if *builtin, is the built-in library. */
+/* The folders of the species path, first first (see equipoise.h), and
+** which of them is the built-in library (-1: none). */
 typedef struct folders {
   char path[16][4096];
   int n;
   int builtin;
 } folders;
 
+/* The place of dir on the path, added at the end unless listed already;
+** -1 when the path is full. */
 static int add_folder(folders *f, const char *dir)
 {
   char a[PATH_MAX], b[PATH_MAX];
   if (!realpath(dir, a)) snprintf(a, sizeof a, "%s", dir);
   for (int i = 0; i < f->n; i++)
-    if (realpath(f->path[i], b) && strcmp(a, b) == 0) return 0;   /* listed already */
+    if (realpath(f->path[i], b) && strcmp(a, b) == 0) return i;
   if (f->n == 16) return -1;
-  snprintf(f->path[f->n++], sizeof f->path[0], "%s", dir);
-  return 0;
+  snprintf(f->path[f->n], sizeof f->path[0], "%s", dir);
+  return f->n++;
 }
 
 static int species_path(eqp_ctx *ctx, folders *f)
 {
   f->n = 0;
-  f->builtin = 0;
+  f->builtin = -1;
   for (int i = 0; i < ctx->nspecies_dirs; i++)
     if (add_folder(f, ctx->species_dirs[i]) < 0) goto many;
   const char *env = getenv("EQUIPOISE_SPECIES_PATH");
@@ -213,11 +215,7 @@ static int species_path(eqp_ctx *ctx, folders *f)
   if (is_dir(user) && add_folder(f, user) < 0) goto many;
   const char *lib = is_dir(EQP_BUILD_SPECIES_DIR) ? EQP_BUILD_SPECIES_DIR
                   : is_dir(EQP_INSTALL_SPECIES_DIR) ? EQP_INSTALL_SPECIES_DIR : NULL;
-  if (lib) {
-    int before = f->n;
-    if (add_folder(f, lib) < 0) goto many;
-    f->builtin = f->n > before;
-  }
+  if (lib && (f->builtin = add_folder(f, lib)) < 0) goto many;
   if (f->n == 0)
     return eqpi_fail(ctx, EQP_E_IO, "no species library found (set EQUIPOISE_SPECIES_PATH)");
   return EQP_OK;
@@ -273,7 +271,7 @@ static int choose(lib_load *ld, const char *path, int rank, const folders *fo)
     char a[PATH_MAX], b[PATH_MAX];
     if (!(realpath(path, a) && realpath(ld->f[i].path, b) && strcmp(a, b) == 0))
       notice(ld->ctx, "species file %s replaces %s%s", ld->f[i].path,
-             fo->builtin && rank == fo->n - 1 ? "the built-in " : "", path);
+             rank == fo->builtin ? "the built-in " : "", path);
     return 0;
   }
   if (ld->n == ld->cap) {

@@ -21,6 +21,7 @@ struct eqpi_linemap {
   lm_entry *e;
   int n, cap;
   int return_line;
+  eqpi_index ix;       /* path -> line, so that a look-up costs the same in any file */
 };
 
 typedef enum { T_EOF, T_NAME, T_STRING, T_NUMBER, T_PUNCT } tok_kind;
@@ -136,7 +137,7 @@ static int lm_add(eqp_ctx *ctx, eqpi_linemap *lm, const char *path, int line)
   lm->e[lm->n].path = eqpi_strdup(ctx, path);
   if (!lm->e[lm->n].path) return -1;
   lm->e[lm->n++].line = line;
-  return 0;
+  return eqpi_index_put(ctx, &lm->ix, lm->e[lm->n - 1].path, line, NULL) < 0 ? -1 : 0;
 }
 
 /* Skip an expression up to ',' ';' or the closing '}' at depth 0. */
@@ -236,19 +237,29 @@ void eqpi_linemap_free(eqp_ctx *ctx, eqpi_linemap *lm)
   if (!lm) return;
   for (int i = 0; i < lm->n; i++) eqpi_strfree(ctx, lm->e[i].path);
   eqpi_free(ctx, lm->e, sizeof *lm->e * (size_t)lm->cap);
+  eqpi_index_free(ctx, &lm->ix);
   eqpi_free(ctx, lm, sizeof *lm);
 }
 
 int eqpi_linemap_line(const eqpi_linemap *lm, const char *const *path, int depth)
 {
   if (!lm) return 0;
+  /* the path at each depth is a prefix of the deepest one */
+  char buf[LM_PATH];
+  size_t end[33], used = 0;
+  if (depth > 32) depth = 32;
+  for (int i = 0; i < depth; i++) {
+    size_t l = strlen(path[i]);
+    if (used + l + 2 > sizeof buf) { depth = i; break; }
+    if (i) buf[used++] = '.';
+    memcpy(buf + used, path[i], l);
+    used += l;
+    end[i + 1] = used;
+  }
   for (int d = depth; d > 0; d--) {
-    char buf[LM_PATH];
-    size_t used = 0;
-    for (int i = 0; i < d && used < sizeof buf; i++)
-      used += (size_t)snprintf(buf + used, sizeof buf - used, "%s%s", i ? "." : "", path[i]);
-    for (int i = 0; i < lm->n; i++)
-      if (strcmp(lm->e[i].path, buf) == 0) return lm->e[i].line;
+    buf[end[d]] = '\0';
+    int line = eqpi_index_get(&lm->ix, buf);
+    if (line >= 0) return line;
   }
   return lm->return_line;
 }

@@ -25,10 +25,14 @@ typedef struct conv {
   const char *params_source; /* file-level source of species parameters */
 } conv;
 
+/* Keys are pushed for every field read: plain copies, no formatting. */
 static void cv_push(conv *c, const char *key)
 {
   if (c->depth < 8) {
-    snprintf(c->keys[c->depth], sizeof c->keys[0], "%s", key);
+    size_t l = strlen(key);
+    if (l >= sizeof c->keys[0]) l = sizeof c->keys[0] - 1;
+    memcpy(c->keys[c->depth], key, l);
+    c->keys[c->depth][l] = '\0';
     c->path[c->depth] = c->keys[c->depth];
   }
   c->depth++;
@@ -36,9 +40,12 @@ static void cv_push(conv *c, const char *key)
 
 static void cv_pushi(conv *c, lua_Integer i)
 {
-  char k[32];
-  snprintf(k, sizeof k, "%lld", (long long)i);
-  cv_push(c, k);
+  char k[32], *p = k + sizeof k;
+  unsigned long long u = i < 0 ? 0ull - (unsigned long long)i : (unsigned long long)i;
+  *--p = '\0';
+  do *--p = (char)('0' + u % 10); while ((u /= 10) && p > k + 1);
+  if (i < 0) *--p = '-';
+  cv_push(c, p);
 }
 
 static void cv_pop(conv *c) { c->depth--; }
@@ -106,7 +113,7 @@ static int cv_field(conv *c, const char *key)
 static double cv_checked(conv *c, double v, double lo, double hi)
 {
   if (!isfinite(v)) {
-    CV_ERR(c, "%g is not a finite number", v);
+    CV_ERR(c, "%s is not a finite number", isnan(v) ? "NaN (0/0)" : v > 0 ? "inf" : "-inf");
     return NAN;
   }
   if (v < lo || v > hi) {
@@ -796,12 +803,14 @@ int eqpi_load_table(eqp_ctx *ctx, lua_State *L, int idx, const char *where)
     lua_pop(L, 1);
     rc = eqpi_fail(ctx, prc == LUA_ERRMEM ? EQP_E_NOMEM : EQP_E_DATA, "%s", st->err);
   } else {
+    /* an inline table has no file: it is known by what it defines, so the
+    ** same table loaded again, from anywhere in the script, is a no-op */
     unsigned long long fp = eqpi_stage_fingerprint(st);
-    if (st->nerr == 0 && eqpi_loaded_has(ctx, where, fp)) {
-      rc = EQP_OK;      /* the same table from the same place: already loaded */
+    if (st->nerr == 0 && eqpi_loaded_has(ctx, "(inline species)", fp)) {
+      rc = EQP_OK;
     } else {
       rc = eqpi_stage_commit(ctx, st);
-      if (rc == EQP_OK) eqpi_loaded_add(ctx, where, fp);
+      if (rc == EQP_OK) eqpi_loaded_add(ctx, "(inline species)", fp);
     }
   }
   eqpi_stage_free(ctx, st);

@@ -153,6 +153,42 @@ check notation_file_formula 4 "write 'SeO4^2-'" -- "$EQP" species check "$CASES/
 check species_check_bad 4 "bad_species.lua:6:" -- "$EQP" species check "$CASES/bad_species.lua"
 check plugins 0 "davies" -- "$EQP" plugins
 
+# a hazardous reagent's caution, once per run, whichever way it came in
+for path in add adjust titrate budget recipe pour mix; do
+  "$EQP" run "$CASES/caution_paths.lua" --param path=$path >"$TMP/cp.out" 2>"$TMP/cp.err"
+  n=$(grep -c "^caution: NaOH (sodium hydroxide): skin corrosion" "$TMP/cp.err")
+  "$EQP" run "$CASES/caution_paths.lua" --param path=$path --json >"$TMP/cp.json" 2>/dev/null
+  nj=$(grep -c '"NaOH (sodium hydroxide): skin corrosion' "$TMP/cp.json")
+  if [ "$n" = 1 ] && [ "$nj" = 1 ]; then echo "ok   caution_$path"; pass=$((pass + 1))
+  else echo "FAIL caution_$path: $n cautions for NaOH in text, $nj in JSON (want 1 each)"; fail=$((fail + 1)); fi
+done
+
+# loading that forgives what it should: the same file twice, a table whose
+# metamethods raise, a broken file in the user's folder, a replaced system
+check load_twice 0 "loaded twice ok" -- "$EQP" run "$CASES/load_twice.lua" --param species="$SRC/species"
+check inline_metatable 0 "inline metatable ok" -- "$EQP" run "$CASES/inline_metatable.lua"
+U=$TMP/xdg/equipoise/species
+mkdir -p "$U" "$TMP/edit" "$TMP/xdg2/equipoise/species"
+cat >"$U/mine.lua" <<'LUA'
+return {
+  species = { { "Zq+", formula = "Na+" } },
+  reagents = { { "ZqCl", formula = "NaCl", gives = { ["Zq+"] = 1, ["Cl-"] = 1 }, hazards = { "corossive" } } },
+}
+LUA
+printf 'return {\n  species = { { "Yq+", formula = "K+" } }\n' >"$U/typo.lua"   # a syntax error
+sed 's/corossive/skin-corrosion/' "$U/mine.lua" >"$TMP/edit/mine.lua"
+check user_broken_run 0 "pH 6.876" -- env XDG_DATA_HOME="$TMP/xdg" "$EQP" run "$CASES/params.lua"
+check user_broken_warns 0 "warning: species file .*typo.lua was left out" -- env XDG_DATA_HOME="$TMP/xdg" "$EQP" run "$CASES/params.lua"
+check user_broken_needed 3 "unknown reagent 'ZqCl': it is defined in .*mine.lua" -- env XDG_DATA_HOME="$TMP/xdg" "$EQP" run "$CASES/needs_user.lua"
+check user_broken_list 0 "KH2PO4" -- env XDG_DATA_HOME="$TMP/xdg" "$EQP" species list
+check user_broken_list_warns 0 "warning: species file .*mine.lua" -- env XDG_DATA_HOME="$TMP/xdg" "$EQP" species list
+check user_broken_check 4 "mine.lua:3: reagents\[1\].hazards\[1\]: unknown hazard class 'corossive'" -- env XDG_DATA_HOME="$TMP/xdg" "$EQP" species check "$U/mine.lua"
+check user_edited_check 0 "ok, 1 species added" -- env XDG_DATA_HOME="$TMP/xdg" "$EQP" species check "$TMP/edit/mine.lua"
+sed 's/pKa = 2.950,/pKa = 3.125,/' "$SRC/species/phthalate.lua" >"$TMP/xdg2/equipoise/species/phthalate.lua"
+check user_replaces 0 "phthalate.lua replaces the built-in" -- env -u EQUIPOISE_SPECIES_PATH XDG_DATA_HOME="$TMP/xdg2" "$EQP" species list
+check user_replaced_value 0 "log K     3.1250" -- env -u EQUIPOISE_SPECIES_PATH XDG_DATA_HOME="$TMP/xdg2" "$EQP" species show H2Phthalate
+check library_check 0 "phosphate.lua: ok, " -- "$EQP" species check "$SRC/species/phosphate.lua"
+
 # temperature and models
 check example_temperature 0 "sit" -- "$EQP" run "$SRC/scripts/examples/temperature_models.lua"
 check standards_table 0 "| dh-extended |" -- "$EQP" run "$SRC/tests/published/standards_table.lua"

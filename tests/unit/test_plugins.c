@@ -2,6 +2,7 @@
 /* SPDX-License-Identifier: MIT */
 #include "eqp_test.h"
 #include "eqp_impl.h"
+#include <unistd.h>
 
 static eqp_ctx *fixture_ctx(void)
 {
@@ -51,6 +52,105 @@ static void test_checks_directly(void **state)
   assert_int_equal(eqpi_plugin_check(NULL, "x.so", err, sizeof err), -1);
 }
 
+/* Where the listing found a plugin by name. */
+typedef struct where_is { const char *name; char path[4096]; } where_is;
+
+static void find_path(void *ud, const char *name, const char *version, const char *summary,
+                      const char *path)
+{
+  where_is *w = ud;
+  if (name && strcmp(name, w->name) == 0 && !w->path[0]) snprintf(w->path, sizeof w->path, "%s", path);
+}
+
+static int copy_file(const char *from, const char *to)
+{
+  FILE *a = fopen(from, "rb"), *b = fopen(to, "wb");
+  char buf[65536];
+  size_t n;
+  int ok = a && b;
+  while (ok && (n = fread(buf, 1, sizeof buf, a)) > 0) ok = fwrite(buf, 1, n, b) == n;
+  if (a) fclose(a);
+  if (b && fclose(b) != 0) ok = 0;
+  return ok ? 0 : -1;
+}
+
+/* A valid plugin under another file name (cp davies.so mydavies.so) is
+** refused with a message; the name it reports was once read after the
+** module was closed (a crash, exit 139). */
+static void test_renamed_plugin(void **state)
+{
+  eqp_ctx *ctx = test_ctx();
+  where_is w = {"davies", ""};
+  assert_int_equal(eqp_ctx_list_plugins(ctx, find_path, &w), EQP_OK);
+  assert_true(w.path[0] != '\0');
+  char dir[] = "/tmp/eqp-renamed-XXXXXX", copy[4200];
+  assert_non_null(mkdtemp(dir));
+  snprintf(copy, sizeof copy, "%s/mydavies.so", dir);
+  assert_int_equal(copy_file(w.path, copy), 0);
+  assert_int_equal(eqp_ctx_add_plugin_dir(ctx, dir), EQP_OK);
+  eqp_solution_opts o = {1, 298.15, "mydavies"};
+  eqp_solution *s = NULL;
+  for (int twice = 0; twice < 2; twice++) {     /* nothing of the refusal stays behind */
+    assert_int_equal(eqp_solution_new(ctx, &o, &s), EQP_E_PLUGIN);
+    assert_null(s);
+    assert_contains(eqp_ctx_errmsg(ctx), "mydavies.so");
+    assert_contains(eqp_ctx_errmsg(ctx), "calls itself 'davies'");
+  }
+  o.activity = "davies";               /* the real one still loads */
+  assert_int_equal(eqp_solution_new(ctx, &o, &s), EQP_OK);
+  eqp_solution_free(s);
+  remove(copy);
+  rmdir(dir);
+  eqp_ctx_free(ctx);
+}
+
+/* The 'x' a fixture wrote at the end of a message: exactly the buffer
+** less its last byte, which the engine reserves for the NUL, and nothing
+** read beyond it. */
+static size_t trailing_x(const char *msg)
+{
+  size_t n = strlen(msg), k = 0;
+  while (k < n && msg[n - 1 - k] == 'x') k++;
+  return k;
+}
+
+static void test_unterminated_messages(void **state)
+{
+  eqp_ctx *ctx = fixture_ctx();
+  eqp_solution_opts o = {1, 298.15, "unterm_entry"};
+  eqp_solution *s = NULL;
+  assert_int_equal(eqp_solution_new(ctx, &o, &s), EQP_E_PLUGIN);        /* entry */
+  assert_contains(eqp_ctx_errmsg(ctx), "plugin refused to load: xxx");
+  assert_int_equal(trailing_x(eqp_ctx_errmsg(ctx)), 255);
+  o.activity = "unterm_create";
+  assert_int_equal(eqp_solution_new(ctx, &o, &s), EQP_E_PLUGIN);        /* create */
+  assert_int_equal(trailing_x(eqp_ctx_errmsg(ctx)), 255);
+  o.activity = "unterm_bind";
+  assert_int_equal(eqp_solution_new(ctx, &o, &s), EQP_OK);
+  assert_int_equal(eqp_solution_set_activity_param(s, "a", 1), EQP_E_PLUGIN);   /* set_param */
+  assert_int_equal(trailing_x(eqp_ctx_errmsg(ctx)), 255);
+  assert_int_equal(eqp_solution_add_str(s, "NaCl", "10 mmol"), EQP_OK);
+  eqp_result *r;
+  assert_int_equal(eqp_solution_equilibrate(s, &r), EQP_OK);             /* bind's warning */
+  int seen = 0;
+  for (size_t i = 0; i < eqp_result_warning_count(r); i++)
+    if (strstr(eqp_result_warning(r, i), "xxx")) {
+      assert_int_equal(trailing_x(eqp_result_warning(r, i)), 255);
+      seen = 1;
+    }
+  assert_true(seen);
+  eqp_result_free(r);
+  eqp_solution_free(s);
+  o.activity = "unterm_gamma";
+  assert_int_equal(eqp_solution_new(ctx, &o, &s), EQP_OK);
+  assert_int_equal(eqp_solution_add_str(s, "NaCl", "10 mmol"), EQP_OK);
+  assert_int_equal(eqp_solution_equilibrate(s, &r), EQP_E_PLUGIN);       /* log_gamma */
+  assert_contains(eqp_ctx_errmsg(ctx), "unterm_gamma");
+  assert_int_equal(trailing_x(eqp_ctx_errmsg(ctx)), 255);
+  eqp_solution_free(s);
+  eqp_ctx_free(ctx);
+}
+
 static void count(void *ud, const char *name, const char *version, const char *summary,
                   const char *path)
 {
@@ -65,7 +165,7 @@ static void test_listing(void **state)
   int n[2] = {0, 0};
   assert_int_equal(eqp_ctx_list_plugins(ctx, count, n), EQP_OK);
   assert_int_equal(n[0], 2);     /* ideal and davies (among the six) from the build tree */
-  assert_int_equal(n[1], 3);     /* the three fixtures, each refused */
+  assert_int_equal(n[1], 4);     /* the four fixtures that refuse to load */
   eqp_ctx_free(ctx);
 }
 
@@ -103,6 +203,8 @@ int main(void)
     cmocka_unit_test(test_refusals),
     cmocka_unit_test(test_checks_directly),
     cmocka_unit_test(test_listing),
+    cmocka_unit_test(test_renamed_plugin),
+    cmocka_unit_test(test_unterminated_messages),
     cmocka_unit_test(test_davies_values),
   };
   return cmocka_run_group_tests(tests, NULL, NULL);
