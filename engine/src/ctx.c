@@ -157,9 +157,11 @@ int eqp_ctx_load_species_dir(eqp_ctx *ctx, const char *dir)
   rc = st && (!n || (ids && loaded)) ? EQP_OK : eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
   for (int i = 0; i < n && rc == EQP_OK; i++) {
     char path[4096];
-    int skipped;
-    snprintf(path, sizeof path, "%s/%s", dir, names[i]);
-    rc = stage_file(ctx, st, path, &ids[i], &skipped);
+    int skipped = 0;
+    if (snprintf(path, sizeof path, "%s/%s", dir, names[i]) >= (int)sizeof path)
+      rc = eqpi_fail(ctx, EQP_E_IO, "%s/%s: path too long", dir, names[i]);
+    else
+      rc = stage_file(ctx, st, path, &ids[i], &skipped);
     loaded[i] = (char)(rc == EQP_OK && !skipped);
   }
   if (rc == EQP_OK) {

@@ -309,8 +309,10 @@ static int collect(lib_load *ld, const folders *fo, const char *check)
     if (rc < 0) return rc;
     for (int i = 0; i < n && rc == EQP_OK; i++) {
       char path[4096];
-      snprintf(path, sizeof path, "%s/%s", fo->path[r], names[i]);
-      if (choose(ld, path, r, fo) < 0) rc = eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
+      if (snprintf(path, sizeof path, "%s/%s", fo->path[r], names[i]) >= (int)sizeof path)
+        rc = eqpi_fail(ctx, EQP_E_IO, "%s/%s: path too long", fo->path[r], names[i]);
+      else if (choose(ld, path, r, fo) < 0)
+        rc = eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
     }
     eqpi_free_names(ctx, names, n);
     if (rc < 0) return rc;
