@@ -184,9 +184,9 @@ check user_broken_list 0 "KH2PO4" -- env XDG_DATA_HOME="$TMP/xdg" "$EQP" species
 check user_broken_list_warns 0 "warning: species file .*mine.lua" -- env XDG_DATA_HOME="$TMP/xdg" "$EQP" species list
 check user_broken_check 4 "mine.lua:3: reagents\[1\].hazards\[1\]: unknown hazard class 'corossive'" -- env XDG_DATA_HOME="$TMP/xdg" "$EQP" species check "$U/mine.lua"
 check user_edited_check 0 "ok, 1 species added" -- env XDG_DATA_HOME="$TMP/xdg" "$EQP" species check "$TMP/edit/mine.lua"
-sed 's/pKa = 2.950,/pKa = 3.125,/' "$SRC/species/phthalate.lua" >"$TMP/xdg2/equipoise/species/phthalate.lua"
+sed 's/"KHP" }/"KHP", "our KHP" }/' "$SRC/species/phthalate.lua" >"$TMP/xdg2/equipoise/species/phthalate.lua"
 check user_replaces 0 "phthalate.lua replaces the built-in" -- env -u EQUIPOISE_SPECIES_PATH XDG_DATA_HOME="$TMP/xdg2" "$EQP" species list
-check user_replaced_value 0 "log K     3.1250" -- env -u EQUIPOISE_SPECIES_PATH XDG_DATA_HOME="$TMP/xdg2" "$EQP" species show H2Phthalate
+check user_replaced_value 0 "'our KHP'" -- env -u EQUIPOISE_SPECIES_PATH XDG_DATA_HOME="$TMP/xdg2" "$EQP" species show "our KHP"
 check library_check 0 "phosphate.lua: ok, " -- "$EQP" species check "$SRC/species/phosphate.lua"
 
 # temperature and models
