@@ -262,8 +262,12 @@ int eqpi_use_reagent(eqp_solution *s, const eqpi_reagent *r)
 
 int eqpi_use_stock(eqp_solution *s, const eqp_solution *stock)
 {
-  for (int i = 0; i < stock->nhazard; i++)
-    if (eqpi_use_reagent(s, &s->ctx->db.rg[stock->hazard[i]]) < 0) return s->ctx->errcode;
+  const eqpi_db *from = &stock->ctx->db, *to = &s->ctx->db;
+  for (int i = 0; i < stock->nhazard; i++) {
+    /* the same library, or the reagent of the same name in s's own */
+    int g = from == to ? stock->hazard[i] : eqpi_db_find_reagent(to, from->rg[stock->hazard[i]].name);
+    if (g >= 0 && eqpi_use_reagent(s, &to->rg[g]) < 0) return s->ctx->errcode;
+  }
   return EQP_OK;
 }
 
