@@ -1,4 +1,7 @@
 -- Acetic acid and its sodium and potassium salts.
+-- Hazard classes (GHS keys, docs/species-format.md): the harmonised classification
+-- of Regulation (EC) No 1272/2008, Annex VI, where one exists, else suppliers' safety
+-- data sheets [from memory; the safety data sheet of the product in hand decides].
 return {
   system = "acetate",
   sources = {
@@ -21,7 +24,7 @@ return {
   },
   reagents = {
     { "CH3COOH", names = { "acetic acid", "glacial acetic acid" }, density = 1.049,
-      hazards = { "corrosive", "flammable" },
+      hazards = { "flammable-liquid", "skin-corrosion", "eye-damage" },
       note = "density of the glacial acid near 20 C: 1.049 g/mL, CRC Handbook of Chemistry and Physics, CRC Press, table of physical constants of organic compounds [value from memory, edition not recorded]" },
     { "CH3COONa", gives = { ["Na+"] = 1, ["CH3COO-"] = 1 }, names = { "sodium acetate" },
       hydrates = { 3 } },

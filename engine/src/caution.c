@@ -257,7 +257,20 @@ int eqpi_use_reagent(eqp_solution *s, const eqpi_reagent *r)
   int g = (int)(r - ctx->db.rg);
   if (int_push(ctx, &s->hazard, &s->nhazard, &s->caphazard, g) < 0)
     return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
-  return ctx_record(ctx, g);
+  return ctx->caution_hold ? EQP_OK : ctx_record(ctx, g);
+}
+
+int eqpi_copy_hazards(eqp_solution *dst, const eqp_solution *src)
+{
+  eqpi_cautions_hold(dst->ctx, 1);    /* a copy holds what its original holds: no new use */
+  int rc = eqpi_use_stock(dst, src);
+  eqpi_cautions_hold(dst->ctx, -1);
+  return rc;
+}
+
+void eqpi_cautions_hold(eqp_ctx *ctx, int delta)
+{
+  ctx->caution_hold += delta;
 }
 
 int eqpi_use_stock(eqp_solution *s, const eqp_solution *stock)

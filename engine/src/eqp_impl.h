@@ -334,6 +334,10 @@ void eqpi_hazard_hint(const char *key, char *buf, size_t len);
 ** has no hazards. */
 int eqpi_caution_text(const eqpi_db *db, int reagent, char *buf, size_t len);
 void eqpi_cautions_free(eqp_ctx *ctx);
+/* While held (delta +1, then -1), solutions still record the hazardous
+** reagents they receive but the context does not: for sweeps that make
+** every buffer of the library only to draw its curve. */
+void eqpi_cautions_hold(eqp_ctx *ctx, int delta);
 
 /* ---------------------------------------------------------- library */
 
@@ -399,6 +403,7 @@ struct eqp_ctx {
   int *caution_rg;
   char **caution_text;
   int ncautions, capcautions;
+  int caution_hold;     /* > 0: record on solutions only (eqpi_cautions_hold) */
 };
 
 /* Tell the progress callback, if any, how far a long operation is. */

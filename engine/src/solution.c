@@ -79,7 +79,7 @@ int eqp_solution_copy(const eqp_solution *s, eqp_solution **out)
     return rc;
   }
   memcpy(c->total, s->total, sizeof(double) * (size_t)s->ntotal);
-  if ((rc = eqpi_use_stock(c, s)) < 0) {
+  if ((rc = eqpi_copy_hazards(c, s)) < 0) {
     eqp_solution_free(c);
     *out = NULL;
     return rc;

@@ -27,6 +27,8 @@ void eqpi_reagent_dir(const eqp_solution *s, const eqpi_reagent *r, double *a, d
 ** (and so into the run: its context shows the caution). caution.c */
 int eqpi_use_reagent(eqp_solution *s, const eqpi_reagent *r);
 int eqpi_use_stock(eqp_solution *s, const eqp_solution *stock);
+/* The record of a copy: the same reagents, and no new use for the run. */
+int eqpi_copy_hazards(eqp_solution *dst, const eqp_solution *src);
 void eqpi_solution_hazards_free(eqp_solution *s);
 /* Make sure s->sys holds the equilibrium of the present composition. */
 int eqpi_solution_solved(eqp_solution *s);

@@ -186,7 +186,7 @@ check user_broken_check 4 "mine.lua:3: reagents\[1\].hazards\[1\]: unknown hazar
 check user_edited_check 0 "ok, 1 species added" -- env XDG_DATA_HOME="$TMP/xdg" "$EQP" species check "$TMP/edit/mine.lua"
 sed 's/"KHP" }/"KHP", "our KHP" }/' "$SRC/species/phthalate.lua" >"$TMP/xdg2/equipoise/species/phthalate.lua"
 check user_replaces 0 "phthalate.lua replaces the built-in" -- env -u EQUIPOISE_SPECIES_PATH XDG_DATA_HOME="$TMP/xdg2" "$EQP" species list
-check user_replaced_value 0 "'our KHP'" -- env -u EQUIPOISE_SPECIES_PATH XDG_DATA_HOME="$TMP/xdg2" "$EQP" species show "our KHP"
+check user_replaced_value 0 "our KHP" -- env -u EQUIPOISE_SPECIES_PATH XDG_DATA_HOME="$TMP/xdg2" "$EQP" species show "our KHP"
 check library_check 0 "phosphate.lua: ok, " -- "$EQP" species check "$SRC/species/phosphate.lua"
 
 # temperature and models

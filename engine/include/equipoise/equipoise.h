@@ -145,8 +145,9 @@ EQP_API const char *eqp_hazard_class(const char *key);
 /* Hazardous reagents used in this context so far, each once under its
 ** library name in order of first use, whichever way it entered a solution:
 ** added, used to adjust the pH, titrated, put in a recipe, or inside a
-** stock that was poured or mixed. The caution names its hazard classes
-** and what to do. Borrowed. */
+** stock that was poured or mixed (a capacity sweep, which makes every
+** candidate only to draw its curve, records none). The caution names its
+** hazard classes and what to do. Borrowed. */
 EQP_API size_t eqp_ctx_caution_count(const eqp_ctx *ctx);
 EQP_API const char *eqp_ctx_caution(const eqp_ctx *ctx, size_t i);
 EQP_API const char *eqp_ctx_caution_reagent(const eqp_ctx *ctx, size_t i);
