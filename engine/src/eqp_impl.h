@@ -18,6 +18,8 @@
 #define EQPI_M_WATER (2 * 1.0080 + 15.999)
 #define EQPI_MAX_ELEM 16
 #define EQPI_VERIFY_TOL 1e-10       /* largest relative residual a result may have */
+#define EQPI_MAX_WATER 1e6          /* kg of water a solution may hold */
+#define EQPI_MAX_MOLALITY 100.0     /* mol/kg: beyond, not an aqueous solution */
 
 #if defined(__GNUC__)
 #define EQPI_PRINTF(a, b) __attribute__((format(printf, a, b)))
@@ -404,6 +406,9 @@ struct eqp_ctx {
   char **caution_text;
   int ncautions, capcautions;
   int caution_hold;     /* > 0: record on solutions only (eqpi_cautions_hold) */
+  eqp_warning_fn warn_fn;   /* warn.c: the host's observer of warnings */
+  void *warn_ud;
+  int quiet;                /* > 0: results made now are internal, not observed */
 };
 
 /* Tell the progress callback, if any, how far a long operation is. */
@@ -421,7 +426,41 @@ typedef struct eqpi_solve_stats {
   int missing_T;        /* constants used at 25 C values away from 25 C */
   int outside_T;        /* temperature functions used outside their range */
   const char *model_note; /* the activity model's note from bind, or "" */
+  /* filled by the caller, for the warnings of the state (warn.c) */
+  double solute_L;      /* estimated volume of the solutes (volume.c), L */
+  double unknown_g;     /* g of solutes whose volume is not known */
+  const eqp_plugin_desc *replaced; /* the default model this state's model replaced */
 } eqpi_solve_stats;
+
+/* ---------------------------------------------------------- warnings */
+
+/* Pass one warning to the host's observer, unless the context is quiet. */
+void eqpi_warn(eqp_ctx *ctx, const char *kind, const char *text);
+/* An `add` for eqpi_state_warnings that passes "prefix: text" to the observer. */
+typedef struct eqpi_prefixed { eqp_ctx *ctx; const char *prefix; } eqpi_prefixed;
+void eqpi_warn_prefixed(void *ud, const char *kind, const char *text);
+/* The warnings of a solved state (model range, temperature data,
+** concentration scale, a replaced default model): each goes to add with
+** its kind. model: the model used; I in mol/kg; T in K. */
+void eqpi_state_warnings(const eqpi_model *model, double I, double T, double water_kg,
+                         const eqpi_solve_stats *st,
+                         void (*add)(void *ud, const char *kind, const char *text), void *ud);
+
+/* ---------------------------------------------------------- volumes */
+
+/* Volume the reagent takes per mol as a solid (crystal density) or a pure
+** liquid (its density), less its water of crystallisation, which joins the
+** solvent: L/mol into *L. Returns 1 when known, 0 when not (*L = 0). */
+int eqpi_reagent_volume(const eqpi_reagent *r, double *L);
+/* The source of the crystal densities, for messages and docs. */
+extern const char eqpi_density_source[];
+
+/* ---------------------------------------------------------- default model */
+
+/* The default activity model ("davies") gives way, beyond its stated range,
+** to the next of this chain whose stated range covers the ionic strength. */
+#define EQPI_DEFAULT_CHAIN 3
+extern const char *const eqpi_default_chain[EQPI_DEFAULT_CHAIN];
 
 /* Build (or reuse) the active system for totals (mol/kg) at T and solve.
 ** On success the system holds the molalities. */

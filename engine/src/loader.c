@@ -297,6 +297,7 @@ static void cv_ladder_numbers(conv *c, const char *key, int n, double *v, double
       int ti = lua_rawgeti(c->L, -1, i + 1);
       if (ti == LUA_TNUMBER) v[i] = cv_checked(c, lua_tonumber(c->L, -1), lo, hi);
       else if (ti != LUA_TNIL || required) CV_ERR(c, "expected a number");
+      if (ti == LUA_TNUMBER && isnan(v[i])) CV_ERR(c, "is not a number (NaN)");
       lua_pop(c->L, 1);
       cv_pop(c);
     }

@@ -11,6 +11,7 @@
 #include <string.h>
 
 #define MAX_ITEMS 6
+#define MAX_WARN 10
 
 struct eqp_recipe {
   eqp_ctx *ctx;
@@ -20,6 +21,10 @@ struct eqp_recipe {
   double pH, I, T, volume;
   eqp_solution *made;          /* the composition the recipe describes */
   char procedure[4096];
+  const char *model;           /* the activity model the amounts were computed with */
+  int nwarn;
+  char warn[MAX_WARN][400];
+  const char *kind[MAX_WARN];  /* static strings: the kinds of eqp_warning_fn */
 };
 
 static const eqpi_reagent *reagent_of(eqp_ctx *ctx, const char *name)
@@ -81,13 +86,19 @@ static int choose(eqp_ctx *ctx, const eqp_recipe_spec *sp, plan *p)
 /* Make the buffer at salt s_mol; *v is the base-form fraction (pair) or
 ** litres of titrant stock. The solution *out holds the composition. */
 static int make_at(eqp_ctx *ctx, const eqp_recipe_spec *sp, const plan *p, double s_mol,
-                   eqp_solution **out, double *v)
+                   double W, int k, eqp_solution **out, double *v)
 {
-  double W = sp->volume * eqpi_water_density(sp->T), n = sp->total * sp->volume;
+  double n = sp->total * sp->volume;
   eqp_solution_opts o = {W, sp->T, sp->activity};
   eqp_solution *s;
   int rc = eqp_solution_new(ctx, &o, &s);
   if (rc < 0) return rc;
+  eqpi_model *model = eqpi_chain_model(s, k);
+  if (!model) {
+    eqp_solution_free(s);
+    return eqpi_fail(ctx, EQP_E_PLUGIN, "activity model '%s' is not available",
+                     eqpi_default_chain[k]);
+  }
   double *a = eqpi_calloc(ctx, (size_t)s->ntotal + 1, sizeof(double)), wa, wb;
   if (!a) { eqp_solution_free(s); return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory"); }
   /* the water of crystallisation and of the titrant is part of the final
@@ -100,7 +111,7 @@ static int make_at(eqp_ctx *ctx, const eqp_recipe_spec *sp, const plan *p, doubl
   }
   eqpi_reagent_dir(s, p->a, s->total, &wa, n);
   if (p->salt) eqpi_reagent_dir(s, p->salt, s->total, &wb, s_mol);
-  eqpi_adjust aj = {s->total, a, W, 0, sp->T, &s->model, sp->pH, 0, 0, "", ""};
+  eqpi_adjust aj = {s->total, a, W, 0, sp->T, model, sp->pH, 0, 0, "", ""};
   char what[160], limit[96];
   if (p->titrant) {
     eqpi_reagent_dir(s, p->b, a, &wb, sp->titrant_molar);     /* per L of stock */
@@ -135,10 +146,11 @@ out:
   return EQP_OK;
 }
 
-static double ionic_strength(eqp_solution *s)
+/* Ionic strength of s with model k of the chain, not following it. */
+static double ionic_strength(eqp_solution *s, int k)
 {
   eqp_result *r;
-  if (eqp_solution_equilibrate(s, &r) < 0) return NAN;
+  if (eqpi_solution_equilibrate_from(s, &k, 0, &r, NULL) < 0) return NAN;
   double I = eqp_result_ionic_strength(r);
   eqp_result_free(r);
   return I;
@@ -159,23 +171,22 @@ static void add_item(eqp_recipe *rc, const eqpi_reagent *r, double mol, double m
 #define APPEND(...) do { if (used < sizeof out->procedure) used += (size_t)snprintf( \
     out->procedure + used, sizeof out->procedure - used, __VA_ARGS__); } while (0)
 
-static void write_procedure(eqp_recipe *out, const eqp_recipe_spec *sp, const plan *p,
-                            const char *model)
+static void write_procedure(eqp_recipe *out, const eqp_recipe_spec *sp, const plan *p)
 {
   size_t used = 0;
   int step = 1;
-  double tC = sp->T - 273.15;
+  double tC = sp->T - 273.15, water_mL = out->item[out->nitems - 1].mL;
   APPEND("Recipe: %.4g mL of buffer, pH %.2f at %.1f C, %.4g mM buffer", sp->volume * 1e3, sp->pH,
          tC, sp->total * 1e3);
   if (p->salt) APPEND(", ionic strength %.3f mol/kg", sp->ionic_strength);
-  APPEND(" (activity model %s)\n", model);
+  APPEND(" (activity model %s)\n", out->model);
   for (int i = 0; i < out->nitems; i++) {
     const eqp_recipe_item *it = &out->item[i];
     if (it->role == EQP_ROLE_SOLID || it->role == EQP_ROLE_SALT)
       APPEND("%2d. Weigh %.4f g of %s (%.4g mmol).\n", step++, it->grams, it->reagent,
              it->mol * 1e3);
   }
-  APPEND("%2d. Dissolve in about %.0f mL of water.\n", step++, 0.8 * sp->volume * 1e3);
+  APPEND("%2d. Dissolve in about %.0f mL of water.\n", step++, 0.8 * water_mL);
   for (int i = 0; i < out->nitems; i++) {
     const eqp_recipe_item *it = &out->item[i];
     if (it->role == EQP_ROLE_TITRANT)
@@ -183,9 +194,10 @@ static void write_procedure(eqp_recipe *out, const eqp_recipe_spec *sp, const pl
              it->mL, sp->titrant_molar, it->reagent, it->mol * 1e3);
   }
   APPEND("%2d. Bring to %.1f C and make up to %.4g mL with water (about %.1f mL of water in "
-         "all); mix well.\n", step++, tC, sp->volume * 1e3, out->item[out->nitems - 1].mL);
+         "all); mix well.\n", step++, tC, sp->volume * 1e3, water_mL);
   APPEND("%2d. Check with a pH meter calibrated at %.1f C: it should read %.2f; the model "
          "gives an estimate, the meter decides.\n", step++, tC, sp->pH);
+  for (int i = 0; i < out->nwarn; i++) APPEND("Warning: %s.\n", out->warn[i]);
   for (int i = 0; i < out->nitems; i++) {
     char caution[1024];
     if (eqpi_caution_text(&out->ctx->db, eqpi_db_find_reagent(&out->ctx->db, out->item[i].reagent),
@@ -194,12 +206,204 @@ static void write_procedure(eqp_recipe *out, const eqp_recipe_spec *sp, const pl
   }
 }
 
+/* One design at W kg of water with model k of the default chain (0: the
+** spec's model): the base-form fraction or titrant litres v, the salt for
+** the ionic strength, and the solution they make. */
+static int design(eqp_ctx *ctx, const eqp_recipe_spec *sp, const plan *p, double W, int k,
+                  eqp_solution **sout, double *v, double *salt)
+{
+  eqp_solution *s = NULL;
+  int rc = make_at(ctx, sp, p, 0, W, k, &s, v);
+  if (rc < 0) return rc;
+  *salt = 0;
+  if (p->salt) {
+    /* secant on the salt amount: I is nearly linear in it */
+    double I0 = ionic_strength(s, k), target = sp->ionic_strength;
+    if (!(target >= I0 - 1e-9)) {
+      eqp_solution_free(s);
+      return isnan(I0) ? eqp_ctx_errcode(ctx)
+                       : eqpi_fail(ctx, EQP_E_INPUT, "recipe: the buffer alone has ionic "
+                                   "strength %.4f mol/kg, above the target %.4f", I0, target);
+    }
+    double s0 = 0, f0 = I0 - target, s1 = (target - I0) * W, f1 = 0;
+    for (int it = 0; it < 30 && fabs(f0) > 1e-10 * target; it++) {
+      eqp_solution_free(s);
+      if ((rc = make_at(ctx, sp, p, s1, W, k, &s, v)) < 0) return rc;
+      f1 = ionic_strength(s, k) - target;
+      if (isnan(f1)) { eqp_solution_free(s); return eqp_ctx_errcode(ctx); }
+      double s2 = f1 == f0 ? s1 : s1 - f1 * (s1 - s0) / (f1 - f0);
+      s0 = s1; f0 = f1; s1 = s2 > 0 ? s2 : 0.5 * s1;
+    }
+    *salt = s0;
+  }
+  *sout = s;
+  return EQP_OK;
+}
+
+/* The volume the solids of a design take (L, known densities) and the mass
+** of those whose density is unknown, with their names. */
+typedef struct bulk { double L, g; char unknown[160]; } bulk;
+
+static void add_bulk(bulk *b, const eqpi_reagent *r, double mol)
+{
+  double per;
+  if (eqpi_reagent_volume(r, &per)) {
+    b->L += mol * per;
+  } else if (mol > 0) {
+    size_t n = strlen(b->unknown);
+    b->g += mol * r->molar_mass;
+    snprintf(b->unknown + n, sizeof b->unknown - n, "%s%s", n ? ", " : "", r->name);
+  }
+}
+
+static void solids(const eqp_recipe_spec *sp, const plan *p, double v, double salt, bulk *b)
+{
+  double n = sp->total * sp->volume;
+  memset(b, 0, sizeof *b);
+  if (p->titrant) {
+    add_bulk(b, p->a, n);      /* the stock's volume is counted as water */
+  } else {
+    add_bulk(b, p->a, (1 - v) * n);
+    add_bulk(b, p->b, v * n);
+  }
+  if (p->salt && salt > 0) add_bulk(b, p->salt, salt);
+}
+
+/* kind is one of the static kinds of eqp_warning_fn */
+static void add_warning(void *ud, const char *kind, const char *text)
+{
+  eqp_recipe *r = ud;
+  if (r->nwarn >= MAX_WARN) return;
+  r->kind[r->nwarn] = kind;
+  snprintf(r->warn[r->nwarn++], sizeof r->warn[0], "%s", text);
+}
+
+/* The solids take part of the final volume V (L): what the water is then,
+** and what is not known about it. */
+static void volume_warnings(eqp_recipe *r, const eqp_recipe_spec *sp, const bulk *b,
+                            double water_mL)
+{
+  double V = sp->volume;
+  char w[400];
+  if (b->L > 0.02 * V) {
+    snprintf(w, sizeof w, "the solids take about %.0f mL of the %.4g mL (crystal densities, "
+             "volumes taken as additive), so about %.0f mL of water goes in, and the amounts "
+             "were computed for that water; make up to the mark rather than measuring the "
+             "water", b->L * 1e3, V * 1e3, water_mL);
+    add_warning(r, "recipe-volume", w);
+  }
+  if (b->g > 0.02 * V * 1e3) {
+    snprintf(w, sizeof w, "the engine knows no density for %s (%.4g g): its volume, up to "
+             "about %.0f mL at a density of 1 g/mL or more, is not counted, so less water than "
+             "stated goes in and the concentrations in mol/kg are higher than those the pH "
+             "was computed with", b->unknown, b->g, b->g);
+    add_warning(r, "recipe-volume", w);
+  }
+}
+
+/* A design settled on: the water the solids leave of the final volume and
+** the model of the default chain both depend on the amounts, so the design
+** is repeated until neither changes. */
+typedef struct settled {
+  eqp_solution *s;
+  double W, v, salt;
+  int k;
+  bulk b;
+} settled;
+
+static int settle(eqp_ctx *ctx, const eqp_recipe_spec *sp, const plan *p, settled *d)
+{
+  double V = sp->volume, rho = eqpi_water_density(sp->T);
+  d->s = NULL;
+  bulk lo, hi;
+  solids(sp, p, 0, 0, &lo);   /* the least the solids can take, whatever the split */
+  solids(sp, p, 1, 0, &hi);
+  if (fmin(lo.L, hi.L) >= V)
+    return eqpi_fail(ctx, EQP_E_INPUT, "recipe cannot be made: its solids alone take at least "
+                     "%.0f mL (crystal densities, %s) of the %.4g mL final volume",
+                     fmin(lo.L, hi.L) * 1e3, eqpi_density_source, V * 1e3);
+  d->W = V * rho;
+  d->k = 0;
+  for (int pass = 0; pass < 12; pass++) {
+    eqp_solution_free(d->s);
+    d->s = NULL;
+    int rc = design(ctx, sp, p, d->W, d->k, &d->s, &d->v, &d->salt);
+    if (rc < 0) return rc;
+    solids(sp, p, d->v, d->salt, &d->b);
+    if (d->b.L >= V)
+      return eqpi_fail(ctx, EQP_E_INPUT, "recipe cannot be made: its solids alone take about "
+                       "%.0f mL (crystal densities, %s) of the %.4g mL final volume",
+                       d->b.L * 1e3, eqpi_density_source, V * 1e3);
+    double Wn = (V - d->b.L) * rho, I = NAN;
+    int kn = d->k;
+    if (d->s->model_default) {
+      I = ionic_strength(d->s, d->k);
+      kn = isnan(I) ? d->k : eqpi_chain_choice(d->s, I, d->k);
+    }
+    if (kn < 0) return eqpi_chain_refuse(d->s, I, "recipe with the default activity model");
+    if (fabs(Wn - d->W) <= 1e-9 * d->W && kn == d->k) break;
+    d->W = Wn;
+    d->k = kn;
+  }
+  return EQP_OK;
+}
+
+/* The items of a settled design; returns the make-up water, kg. */
+static double add_items(eqp_recipe *r, const eqp_recipe_spec *sp, const plan *p,
+                        const settled *d)
+{
+  double n = sp->volume * sp->total, rho = eqpi_water_density(sp->T), water = d->W;
+  if (p->titrant) {
+    add_item(r, p->a, n, NAN, EQP_ROLE_SOLID);
+    add_item(r, p->b, d->v * sp->titrant_molar, d->v * 1e3, EQP_ROLE_TITRANT);
+    water -= d->v * rho;                                 /* the stock's own water */
+  } else {
+    add_item(r, p->a, (1 - d->v) * n, NAN, EQP_ROLE_SOLID);
+    add_item(r, p->b, d->v * n, NAN, EQP_ROLE_SOLID);
+  }
+  if (p->salt) add_item(r, p->salt, d->salt, NAN, EQP_ROLE_SALT);
+  for (int i = 0; i < r->nitems; i++) {
+    const eqpi_reagent *g = reagent_of(r->ctx, r->item[i].reagent);
+    if (g && r->item[i].role != EQP_ROLE_TITRANT)
+      water -= r->item[i].mol * g->hydrate * EQPI_M_WATER * 1e-3;
+  }
+  add_item(r, NULL, water / (EQPI_M_WATER * 1e-3), water / rho * 1e3, EQP_ROLE_WATER);
+  return water;
+}
+
+static int build(eqp_ctx *ctx, eqp_recipe_spec *sp, const plan *p, eqp_recipe *r)
+{
+  settled d;
+  int rc = settle(ctx, sp, p, &d);
+  if (rc < 0) {
+    eqp_solution_free(d.s);
+    return rc;
+  }
+  double water = add_items(r, sp, p, &d);
+  eqp_result *res;
+  eqpi_solve_stats st;
+  if ((rc = eqpi_solution_equilibrate_from(d.s, &d.k, 0, &res, &st)) < 0) {
+    eqp_solution_free(d.s);
+    return rc;
+  }
+  r->pH = eqp_result_pH(res);
+  r->I = eqp_result_ionic_strength(res);
+  r->model = eqp_result_activity_model(res);
+  eqpi_state_warnings(eqpi_chain_model(d.s, d.k), r->I, sp->T, d.W, &st, add_warning, r);
+  eqp_result_free(res);
+  volume_warnings(r, sp, &d.b, water / eqpi_water_density(sp->T) * 1e3);
+  d.s->solute_L = d.b.L;      /* later results of the solution know its solids */
+  d.s->unknown_g = d.b.g;
+  r->made = d.s;
+  return EQP_OK;
+}
+
 int eqp_recipe_make(eqp_ctx *ctx, const eqp_recipe_spec *spec, eqp_recipe **out)
 {
   if (!ctx || !spec || !out) return eqpi_fail(ctx, EQP_E_ARG, "NULL argument");
   *out = NULL;
   eqp_recipe_spec sp = *spec;
-  if (!(sp.total > 0) || !(sp.volume > 0))
+  if (!(sp.total > 0) || !(sp.volume > 0) || !isfinite(sp.total) || !isfinite(sp.volume))
     return eqpi_fail(ctx, EQP_E_INPUT, "recipe: 'total' and 'volume' must be positive");
   if (!(sp.pH > -1 && sp.pH < 15)) return eqpi_fail(ctx, EQP_E_INPUT, "recipe: pH %g", sp.pH);
   if (!(sp.titrant_molar > 0)) sp.titrant_molar = 1.0;
@@ -211,60 +415,25 @@ int eqp_recipe_make(eqp_ctx *ctx, const eqp_recipe_spec *spec, eqp_recipe **out)
   plan p;
   int rc = choose(ctx, &sp, &p);
   if (rc < 0) return rc;
-  eqp_solution *s = NULL;
-  double v = 0, salt = 0;
-  if ((rc = make_at(ctx, &sp, &p, 0, &s, &v)) < 0) return rc;
-  if (p.salt) {
-    /* secant on the salt amount: I is nearly linear in it */
-    double I0 = ionic_strength(s), target = sp.ionic_strength, W = eqp_solution_water(s);
-    if (!(target >= I0 - 1e-9)) {
-      eqp_solution_free(s);
-      return eqpi_fail(ctx, EQP_E_INPUT, "recipe: the buffer alone has ionic strength %.4f "
-                       "mol/kg, above the target %.4f", I0, target);
-    }
-    double s0 = 0, f0 = I0 - target, s1 = (target - I0) * W, f1 = 0;
-    for (int it = 0; it < 30 && fabs(f0) > 1e-10 * target; it++) {
-      eqp_solution_free(s);
-      if ((rc = make_at(ctx, &sp, &p, s1, &s, &v)) < 0) return rc;
-      f1 = ionic_strength(s) - target;
-      double s2 = f1 == f0 ? s1 : s1 - f1 * (s1 - s0) / (f1 - f0);
-      s0 = s1; f0 = f1; s1 = s2 > 0 ? s2 : 0.5 * s1;
-    }
-    salt = s0;
-  }
   eqp_recipe *r = eqpi_calloc(ctx, 1, sizeof *r);
-  if (!r) { eqp_solution_free(s); return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory"); }
+  if (!r) return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
   r->ctx = ctx;
-  double n = sp.total * sp.volume, W = sp.volume * eqpi_water_density(sp.T), water = W;
-  if (p.titrant) {
-    add_item(r, p.a, n, NAN, EQP_ROLE_SOLID);
-    add_item(r, p.b, v * sp.titrant_molar, v * 1e3, EQP_ROLE_TITRANT);
-    water -= v * eqpi_water_density(sp.T);             /* the stock's own water */
-  } else {
-    add_item(r, p.a, (1 - v) * n, NAN, EQP_ROLE_SOLID);
-    add_item(r, p.b, v * n, NAN, EQP_ROLE_SOLID);
-  }
-  if (p.salt) add_item(r, p.salt, salt, NAN, EQP_ROLE_SALT);
-  for (int i = 0; i < r->nitems; i++) {
-    const eqpi_reagent *g = reagent_of(ctx, r->item[i].reagent);
-    if (g && r->item[i].role != EQP_ROLE_TITRANT)
-      water -= r->item[i].mol * g->hydrate * EQPI_M_WATER * 1e-3;
-  }
-  add_item(r, NULL, water / (EQPI_M_WATER * 1e-3), water / eqpi_water_density(sp.T) * 1e3,
-           EQP_ROLE_WATER);
-  eqp_result *res;
-  if ((rc = eqp_solution_equilibrate(s, &res)) < 0) {
-    eqp_recipe_free(r);
-    eqp_solution_free(s);
-    return rc;
-  }
-  r->pH = eqp_result_pH(res);
-  r->I = eqp_result_ionic_strength(res);
   r->T = sp.T;
   r->volume = sp.volume;
-  write_procedure(r, &sp, &p, eqp_result_activity_model(res));
-  eqp_result_free(res);
-  r->made = s;
+  ctx->quiet++;              /* the solves inside are the recipe's own */
+  rc = build(ctx, &sp, &p, r);
+  ctx->quiet--;
+  if (rc < 0) {
+    eqp_recipe_free(r);
+    return rc;
+  }
+  write_procedure(r, &sp, &p);
+  char prefix[200];
+  snprintf(prefix, sizeof prefix, "recipe for %s and %s, pH %.2f, %.4g mM", p.a->name,
+           p.b->name, sp.pH, sp.total * 1e3);
+  eqpi_prefixed pw = {ctx, prefix};
+  for (int i = 0; i < r->nwarn; i++)
+    eqpi_warn_prefixed(&pw, r->kind[i], r->warn[i]);
   *out = r;
   return EQP_OK;
 }
@@ -288,3 +457,10 @@ const eqp_recipe_item *eqp_recipe_item_at(const eqp_recipe *r, size_t i)
 double eqp_recipe_pH(const eqp_recipe *r) { return r ? r->pH : NAN; }
 double eqp_recipe_ionic_strength(const eqp_recipe *r) { return r ? r->I : NAN; }
 const char *eqp_recipe_procedure(const eqp_recipe *r) { return r ? r->procedure : NULL; }
+const char *eqp_recipe_activity_model(const eqp_recipe *r) { return r ? r->model : NULL; }
+size_t eqp_recipe_warning_count(const eqp_recipe *r) { return r ? (size_t)r->nwarn : 0; }
+
+const char *eqp_recipe_warning(const eqp_recipe *r, size_t i)
+{
+  return r && i < (size_t)r->nwarn ? r->warn[i] : NULL;
+}

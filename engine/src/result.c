@@ -5,7 +5,7 @@
 #include <stdio.h>
 #include <string.h>
 
-#define MAX_WARN 6
+#define MAX_WARN 8
 
 struct eqp_result {
   eqp_ctx *ctx;
@@ -18,16 +18,43 @@ struct eqp_result {
   long iters;
   const char *model;
   int nwarn;
-  char warn[MAX_WARN][256];
+  const char *warn[MAX_WARN];   /* into the end of the block */
 };
+
+/* The warnings of a state, gathered before the result exists so that the
+** result's block holds just their text. */
+typedef struct wlist {
+  int n;
+  size_t bytes;
+  const char *kind[MAX_WARN];
+  char text[MAX_WARN][320];
+} wlist;
+
+static void gather(void *ud, const char *kind, const char *text)
+{
+  wlist *w = ud;
+  if (w->n >= MAX_WARN) return;
+  w->kind[w->n] = kind;
+  w->bytes += (size_t)snprintf(w->text[w->n], sizeof w->text[0], "%s", text) + 1;
+  w->n++;
+}
 
 int eqpi_result_make(eqp_ctx *ctx, const eqpi_system *sys, const eqpi_model *model, double T,
                      double water_kg, const eqpi_solve_stats *st, eqp_result **out)
 {
   int ns = eqpi_system_nspecies(sys), ndb = ctx->db.nsp;
-  size_t bytes = sizeof(eqp_result) + sizeof(int) * (size_t)(ns + ndb) +
+  double I = eqpi_system_ionic_strength(sys);
+  if (!(I <= EQPI_MAX_MOLALITY))
+    return eqpi_fail(ctx, EQP_E_VERIFY, "refusing the result: ionic strength %g mol/kg (at "
+                     "most %g mol/kg is a solution)", I, EQPI_MAX_MOLALITY);
+  wlist w;
+  w.n = 0;
+  w.bytes = 0;
+  eqpi_state_warnings(model, I, T, water_kg, st, gather, &w);
+  size_t fixed = sizeof(eqp_result) + sizeof(int) * (size_t)(ns + ndb) +
                  sizeof(double) * (size_t)(2 * ns) + 16;
-  eqp_result *r = eqpi_calloc(ctx, 1, bytes);
+  size_t bytes = fixed + w.bytes;
+  eqp_result *r = eqpi_malloc(ctx, bytes);
   if (!r) return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
   r->ctx = ctx;
   r->bytes = bytes;
@@ -45,26 +72,26 @@ int eqpi_result_make(eqp_ctx *ctx, const eqpi_system *sys, const eqpi_model *mod
     if (r->sp[i] == ctx->db.h_plus) h = i;
   }
   r->pH = h >= 0 ? -(log10(r->m[h]) + r->lg[h]) : NAN;
-  r->I = eqpi_system_ionic_strength(sys);
+  r->I = I;
+  if (!isfinite(r->pH)) {
+    eqpi_free(ctx, r, bytes);
+    return eqpi_fail(ctx, EQP_E_VERIFY, "refusing the result: the pH is not a finite number");
+  }
   r->T = T;
   r->water_kg = water_kg;
   r->rho = eqpi_water_density(T);
   r->residual = st->residual;
   r->iters = st->iterations;
   r->model = model->desc->name;
-  double Imax = model->desc->max_ionic_strength;
-  if (Imax > 0 && r->I > Imax * (1 + 1e-6))   /* a recipe made to the limit is inside */
-    snprintf(r->warn[r->nwarn++], 256, "ionic strength %.3g mol/kg is beyond the stated range "
-             "of the '%s' activity model (I <= %g mol/kg); activity coefficients are "
-             "extrapolated", r->I, r->model, Imax);
-  if (st->model_note && st->model_note[0])
-    snprintf(r->warn[r->nwarn++], 256, "%s", st->model_note);
-  if (st->outside_T)
-    snprintf(r->warn[r->nwarn++], 256, "%d temperature function(s) were used outside the "
-             "range their source states, at %.2f C", st->outside_T, T - 273.15);
-  if (st->missing_T)
-    snprintf(r->warn[r->nwarn++], 256, "%d constant(s) have no temperature data; their "
-             "25 C values were used at %.2f C", st->missing_T, T - 273.15);
+  char *text = (char *)r + fixed;
+  r->nwarn = w.n;
+  for (int i = 0; i < w.n; i++) {
+    size_t len = strlen(w.text[i]) + 1;
+    memcpy(text, w.text[i], len);
+    r->warn[i] = text;
+    text += len;
+    eqpi_warn(ctx, w.kind[i], w.text[i]);   /* shown to the observer as it is made */
+  }
   *out = r;
   return EQP_OK;
 }
@@ -184,4 +211,13 @@ size_t eqp_ctx_solid_count(const eqp_ctx *ctx) { return ctx ? (size_t)ctx->db.ns
 const char *eqp_ctx_solid_name(const eqp_ctx *ctx, size_t i)
 {
   return ctx && i < (size_t)ctx->db.nsolids ? ctx->db.solids[i].name : NULL;
+}
+
+const char *eqp_ctx_formula(const eqp_ctx *ctx, const char *name)
+{
+  if (!ctx || !name) return NULL;
+  int i = eqpi_db_find_species(&ctx->db, name);
+  if (i >= 0) return ctx->db.sp[i].formula;
+  i = eqpi_db_find_reagent(&ctx->db, name);
+  return i >= 0 ? ctx->db.rg[i].formula : NULL;
 }

@@ -23,9 +23,33 @@ static int grow_totals(eqp_solution *s)
   return EQP_OK;
 }
 
+/* Add k times (delta over the components, dw kg of water) to s, or refuse
+** with s unchanged when a total or the water would stop being a finite
+** number or the water would leave (0, EQPI_MAX_WATER] kg: an overflowing
+** amount is an input error, never an infinite total. */
+static int apply(eqp_solution *s, const double *delta, int nd, double dw, double k,
+                 const char *verb, const char *name)
+{
+  double W = s->water_kg + k * dw;
+  if (!(W >= 0 && W <= EQPI_MAX_WATER))
+    return eqpi_fail(s->ctx, EQP_E_INPUT, "%s%s%s would leave %g kg of water; a solution "
+                     "holds at most %g kg", verb, name ? " " : "", name ? name : "", W,
+                     EQPI_MAX_WATER);
+  for (int c = 0; c < nd && c < s->ntotal; c++) {
+    double t = s->total[c] + k * delta[c];
+    if (delta[c] != 0 && !(isfinite(t) && (W == 0 || isfinite(t / W))))
+      return eqpi_fail(s->ctx, EQP_E_INPUT, "%s%s%s: the total of %s overflows (not a finite "
+                       "number of moles per kg of water)", verb, name ? " " : "",
+                       name ? name : "", s->ctx->db.sp[s->ctx->db.comp_species[c]].name);
+  }
+  for (int c = 0; c < nd && c < s->ntotal; c++) s->total[c] += k * delta[c];
+  s->water_kg = W;
+  return EQP_OK;
+}
+
 static int check_opts(eqp_ctx *ctx, const eqp_solution_opts *o)
 {
-  if (!(o->water > 0) || !isfinite(o->water) || o->water > 1e6)
+  if (!(o->water > 0) || !isfinite(o->water) || o->water > EQPI_MAX_WATER)
     return eqpi_fail(ctx, EQP_E_INPUT, "mass of water %g kg must be positive", o->water);
   if (!(o->temperature_K >= 273.15 && o->temperature_K <= 373.15))
     return eqpi_fail(ctx, EQP_E_INPUT, "temperature %.2f C is outside 0..100 C (liquid water "
@@ -45,6 +69,7 @@ int eqp_solution_new(eqp_ctx *ctx, const eqp_solution_opts *opts, eqp_solution *
   s->ctx = ctx;
   s->water_kg = opts->water;
   s->T = opts->temperature_K;
+  s->model_default = opts->activity == NULL;
   rc = eqpi_model_open(ctx, opts->activity ? opts->activity : "davies", &s->model);
   if (rc == EQP_OK) rc = grow_totals(s);
   if (rc < 0) {
@@ -60,6 +85,7 @@ void eqp_solution_free(eqp_solution *s)
   if (!s) return;
   eqp_ctx *ctx = s->ctx;
   eqpi_system_free(ctx, s->sys);
+  eqpi_chain_close(s);
   eqpi_model_close(ctx, &s->model);
   eqpi_free(ctx, s->total, sizeof(double) * (size_t)s->ntotal);
   eqpi_solution_hazards_free(s);
@@ -84,6 +110,9 @@ int eqp_solution_copy(const eqp_solution *s, eqp_solution **out)
     *out = NULL;
     return rc;
   }
+  c->model_default = s->model_default;
+  c->solute_L = s->solute_L;
+  c->unknown_g = s->unknown_g;
   for (int i = 0; i < s->nparams; i++)
     if ((rc = eqp_solution_set_activity_param(c, s->pname[i], s->pvalue[i])) < 0) {
       eqp_solution_free(c);
@@ -104,6 +133,7 @@ int eqp_solution_set_activity_param(eqp_solution *s, const char *name, double va
   if (eqpi_model_set_param(&s->model, name, value, err, sizeof err) != 0)
     return eqpi_fail(s->ctx, EQP_E_PLUGIN, "activity model '%s': %s", s->model.desc->name,
                      err[0] ? err : "parameter refused");
+  s->model_default = false;   /* a model given parameters is chosen, not defaulted */
   /* the parameters are part of the copy's model too */
   if (s->nparams < (int)(sizeof s->pname / sizeof s->pname[0])) {
     snprintf(s->pname[s->nparams], sizeof s->pname[0], "%s", name);
@@ -180,6 +210,8 @@ void eqpi_reagent_dir(const eqp_solution *s, const eqpi_reagent *r, double *a, d
   *w = h2o * EQPI_M_WATER * 1e-3;
 }
 
+static void solution_bulk(eqp_solution *s, const eqpi_reagent *r, double k);
+
 static int is_water(const eqp_solution *s, const eqpi_reagent *r)
 {
   return r->n == 1 && r->sp[0] == s->ctx->db.water;
@@ -215,12 +247,40 @@ int eqp_solution_add(eqp_solution *s, const char *reagent, double value, eqp_qua
     return eqpi_fail(ctx, EQP_E_INPUT, "an amount of %s must be an amount, mass, "
                      "concentration or molality", reagent);
   }
+  if (!isfinite(mol))
+    return eqpi_fail(ctx, EQP_E_INPUT, "amount of %s overflows (not a finite number of "
+                     "moles)", reagent);
   int rc = grow_totals(s);
   if (rc < 0 || (rc = eqpi_use_reagent(s, r)) < 0) return rc;
-  double w;
-  eqpi_reagent_dir(s, r, s->total, &w, mol);
-  s->water_kg += mol * w;
-  return EQP_OK;
+  double stack[128], w;
+  double *d = s->ntotal < 128 ? stack : eqpi_malloc(ctx, sizeof(double) * (size_t)s->ntotal);
+  if (!d) return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
+  memset(d, 0, sizeof(double) * (size_t)s->ntotal);
+  eqpi_reagent_dir(s, r, d, &w, 1.0);
+  rc = apply(s, d, s->ntotal, w, mol, "adding", reagent);
+  if (d != stack) eqpi_free(ctx, d, sizeof(double) * (size_t)s->ntotal);
+  if (rc == EQP_OK) solution_bulk(s, r, mol);
+  return rc;
+}
+
+void eqpi_reagent_bulk(const eqpi_reagent *r, double k, double *L, double *g)
+{
+  double per_mol;
+  if (eqpi_reagent_volume(r, &per_mol)) *L += k * per_mol;
+  else *g += k * r->molar_mass;
+}
+
+/* The same for s, remembering the last reagent: one titrant added again and
+** again is common. */
+static void solution_bulk(eqp_solution *s, const eqpi_reagent *r, double k)
+{
+  if (r != s->vol_r || s->vol_gen != s->ctx->db.generation) {
+    s->vol_known = eqpi_reagent_volume(r, &s->vol_L);
+    s->vol_r = r;
+    s->vol_gen = s->ctx->db.generation;
+  }
+  if (s->vol_known) s->solute_L += k * s->vol_L;
+  else s->unknown_g += k * r->molar_mass;
 }
 
 int eqp_solution_add_str(eqp_solution *s, const char *reagent, const char *amount)
@@ -239,18 +299,9 @@ int eqp_solution_equilibrate(eqp_solution *s, eqp_result **out)
 {
   if (!s || !out) return eqpi_fail(s ? s->ctx : NULL, EQP_E_ARG, "NULL argument");
   *out = NULL;
-  eqp_ctx *ctx = s->ctx;
-  int rc = grow_totals(s);
+  int rc = grow_totals(s), k = 0;
   if (rc < 0) return rc;
-  double stack[128];
-  double *mol = s->ntotal <= 128 ? stack : eqpi_malloc(ctx, sizeof(double) * (size_t)s->ntotal);
-  if (!mol) return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
-  for (int c = 0; c < s->ntotal; c++) mol[c] = s->total[c] / s->water_kg;
-  eqpi_solve_stats st = {0};
-  rc = eqpi_system_solve(ctx, &s->sys, mol, s->T, &s->model, &st);
-  if (mol != stack) eqpi_free(ctx, mol, sizeof(double) * (size_t)s->ntotal);
-  if (rc < 0) return rc;
-  return eqpi_result_make(ctx, s->sys, &s->model, s->T, s->water_kg, &st, out);
+  return eqpi_solution_equilibrate_from(s, &k, 1, out, NULL);
 }
 
 /* ------------------------------------------------------------ volumes */
@@ -266,9 +317,12 @@ int eqp_solution_pour(eqp_solution *s, const eqp_solution *stock, double litres)
   /* the stock is a reservoir: a portion of its composition, by volume of
   ** its water at its own temperature, is added; the stock is unchanged */
   double f = litres / eqp_solution_volume(stock);
-  for (int c = 0; c < stock->ntotal; c++) s->total[c] += f * stock->total[c];
-  s->water_kg += f * stock->water_kg;
-  return EQP_OK;
+  rc = apply(s, stock->total, stock->ntotal, stock->water_kg, f, "pouring", NULL);
+  if (rc == EQP_OK) {
+    s->solute_L += f * stock->solute_L;
+    s->unknown_g += f * stock->unknown_g;
+  }
+  return rc;
 }
 
 int eqp_solution_dilute(eqp_solution *s, double factor)
@@ -276,8 +330,7 @@ int eqp_solution_dilute(eqp_solution *s, double factor)
   if (!s) return EQP_E_ARG;
   if (!isfinite(factor) || factor < 1)
     return eqpi_fail(s->ctx, EQP_E_INPUT, "a dilution factor must be at least 1, got %g", factor);
-  s->water_kg *= factor;
-  return EQP_OK;
+  return apply(s, NULL, 0, s->water_kg, factor - 1, "diluting", NULL);
 }
 
 int eqp_solution_total(const eqp_solution *s, const char *component, double *mol)
@@ -306,7 +359,9 @@ int eqpi_solution_solved(eqp_solution *s)
     if (same) return EQP_OK;
   }
   eqp_result *r;
+  s->ctx->quiet++;           /* a solve for a derivative: its result is not shown */
   int rc = eqp_solution_equilibrate(s, &r);
+  s->ctx->quiet--;
   eqp_result_free(r);
   return rc;
 }
@@ -385,15 +440,43 @@ int eqp_solution_adjust_pH(eqp_solution *s, double pH, const char *reagent,
   aj.vmax_text = limit;
   aj.v0 = aj.vmax * 1e-12;   /* a trace, so that every component of the reagent is present */
   double v;
-  eqpi_solve_stats st;
+  eqpi_solve_stats st = {0};
+  int k = 0;
   rc = eqpi_system_adjust(ctx, &s->sys, &aj, &v, &st);
+  while (rc == EQP_OK && s->model_default) {
+    /* the default model beyond its range: the same adjustment with the next */
+    double I = eqpi_system_ionic_strength(s->sys);
+    int next = eqpi_chain_choice(s, I, k);
+    if (next == k) break;
+    if (next < 0) {
+      rc = eqpi_chain_refuse(s, I, "pH adjustment with the default activity model");
+      break;
+    }
+    aj.model = eqpi_chain_model(s, k = next);
+    rc = eqpi_system_adjust(ctx, &s->sys, &aj, &v, &st);
+  }
   if (rc < 0) goto out;
   rc = stock ? eqpi_use_stock(s, stock) : eqpi_use_reagent(s, used);
   if (rc < 0) goto out;
   for (int c = 0; c < s->ntotal; c++) s->total[c] += v * a[c];
   s->water_kg += v * aj.w;
+  if (stock) {
+    s->solute_L += v / stock->water_kg * stock->solute_L;
+    s->unknown_g += v / stock->water_kg * stock->unknown_g;
+  } else {
+    solution_bulk(s, &ctx->db.rg[eqpi_db_find_reagent(&ctx->db, reagent)], v);
+  }
   if (mol) *mol = stock ? NAN : v;
   if (litres) *litres = v * L_per_unit;
+  /* the adjusted state's warnings go to the observer: there is no result */
+  st.solute_L = s->solute_L;
+  st.unknown_g = s->unknown_g;
+  st.replaced = k > 0 ? s->model.desc : NULL;
+  char prefix[160];
+  snprintf(prefix, sizeof prefix, "pH adjustment to %.2f with %s", pH, what);
+  eqpi_prefixed pw = {ctx, prefix};
+  eqpi_state_warnings(aj.model, eqpi_system_ionic_strength(s->sys), s->T, s->water_kg, &st,
+                      eqpi_warn_prefixed, &pw);
 out:
   eqpi_free(ctx, a, n * sizeof(double));
   return rc;
@@ -414,12 +497,16 @@ int eqp_solution_mix(size_t n, eqp_solution *const *parts, const double *litres,
     heat += f * parts[i]->water_kg * parts[i]->T;   /* no heat of mixing: mass-weighted T */
   }
   if (!(water > 0)) return eqpi_fail(ctx, EQP_E_INPUT, "mix: nothing to mix");
+  if (!(water <= EQPI_MAX_WATER))
+    return eqpi_fail(ctx, EQP_E_INPUT, "mix: %g kg of water is beyond %g kg", water,
+                     EQPI_MAX_WATER);
   eqp_solution *m;
   int rc = eqp_solution_copy(parts[0], &m);
   if (rc < 0) return rc;
   memset(m->total, 0, sizeof(double) * (size_t)m->ntotal);
   m->water_kg = 0;
   m->nhazard = 0;              /* what each part brings is recorded as it is poured */
+  m->solute_L = m->unknown_g = 0;
   for (size_t i = 0; i < n && rc == EQP_OK; i++)
     rc = eqp_solution_pour(m, parts[i], litres ? litres[i] : eqp_solution_volume(parts[i]));
   if (rc < 0) {

@@ -18,6 +18,17 @@ struct eqp_solution {
   int nparams;
   int *hazard;            /* hazardous reagents it received, directly or in a stock */
   int nhazard, caphazard;
+  /* no model named: beyond the default's stated range the next model of
+  ** eqpi_default_chain that covers the ionic strength is used (default_model.c) */
+  bool model_default;
+  eqpi_model chain[EQPI_DEFAULT_CHAIN];   /* [0] unused (s->model); opened when needed */
+  signed char chain_state[EQPI_DEFAULT_CHAIN]; /* 0 not tried, 1 open, -1 unavailable */
+  /* estimated volume of the solutes (volume.c) and mass of those of unknown volume */
+  double solute_L, unknown_g;
+  const eqpi_reagent *vol_r;   /* the last reagent's volume, cached */
+  unsigned vol_gen;
+  double vol_L;
+  int vol_known;
 };
 
 int eqpi_find_reagent(eqp_solution *s, const char *name, const eqpi_reagent **r);
@@ -32,5 +43,23 @@ int eqpi_copy_hazards(eqp_solution *dst, const eqp_solution *src);
 void eqpi_solution_hazards_free(eqp_solution *s);
 /* Make sure s->sys holds the equilibrium of the present composition. */
 int eqpi_solution_solved(eqp_solution *s);
+/* Volume and unknown mass that k mol of reagent r brings into *L and *g. */
+void eqpi_reagent_bulk(const eqpi_reagent *r, double k, double *L, double *g);
+
+/* default_model.c. Model k of the default chain for s (0: s->model), or NULL
+** when its plugin cannot be opened. */
+eqpi_model *eqpi_chain_model(eqp_solution *s, int k);
+/* The first model of the chain from k on that s may use at ionic strength I
+** (its stated range covers I); -1 if none. */
+int eqpi_chain_choice(eqp_solution *s, double I, int k);
+/* Refuse a state beyond every model of the chain (EQP_E_INPUT). */
+int eqpi_chain_refuse(eqp_solution *s, double I, const char *what);
+void eqpi_chain_close(eqp_solution *s);
+/* Equilibrate with model k of the chain first (0: the solution's own), then,
+** for a default model and if follow, with the next ones while the ionic
+** strength is beyond the range of the one used. *k receives the model used,
+** *st (if not NULL) the statistics the result's warnings came from. */
+int eqpi_solution_equilibrate_from(eqp_solution *s, int *k, int follow, eqp_result **out,
+                                   eqpi_solve_stats *st);
 
 #endif

@@ -9,6 +9,15 @@
 #include <stdlib.h>
 #include <kinsol/kinsol_ls.h>
 
+#define FNORM_TOL 1e-13   /* max-norm of the scaled residual at convergence */
+/* A converged point with an ionic strength beyond EQPI_MAX_MOLALITY: a root
+** of the model's equations that no solution has (the limiting law, whose
+** gamma falls without bound, has one near I = 300 mol/kg made of water's
+** own ions). Treated as a failure, so that the fallbacks, which follow the
+** branch of the ideal solution, take over. */
+#define EQPI_KIN_IMPLAUSIBLE (-100)
+#define EQPI_LN_MAX_I log(EQPI_MAX_MOLALITY)
+
 static const char *kin_flag_name(int flag)
 {
   static const char *const names[] = {
@@ -19,12 +28,13 @@ static const char *kin_flag_name(int flag)
     "KIN_REPTD_SYSFUNC_ERR", "KIN_VECTOROP_ERR", "KIN_CONTEXT_ERR",
   };
   if (flag == KIN_INITIAL_GUESS_OK) return "KIN_INITIAL_GUESS_OK";
+  if (flag == EQPI_KIN_IMPLAUSIBLE) return "an ionic strength beyond 100 mol/kg";
   if (flag == KIN_STEP_LT_STPTOL) return "KIN_STEP_LT_STPTOL";
   if (flag <= 0 && -flag < (int)(sizeof names / sizeof names[0])) return names[-flag];
   return "KIN_UNKNOWN_FLAG";
 }
 
-#define FNORM_TOL 1e-13   /* max-norm of the scaled residual at convergence */
+
 
 /* ------------------------------------------------------------ KINSOL hooks */
 
@@ -351,7 +361,8 @@ int eqpi_run_kinsol(eqpi_system *s, const double *u0, long *iters)
   /* the proton reference for this run, from u0; the H+ row changes with it */
   if (eqpi_sys_reference(s) && eqpi_sys_eval(s, uu, F) < 0) return KIN_SYSFUNC_FAIL;
   for (int k = 0; k < s->n; k++) fmax = fabs(F[k]) > fmax ? fabs(F[k]) : fmax;
-  if (fmax <= FNORM_TOL) return KIN_SUCCESS;
+  if (fmax <= FNORM_TOL)
+    return uu[s->nx] > EQPI_LN_MAX_I ? EQPI_KIN_IMPLAUSIBLE : KIN_SUCCESS;
   int flag = KINSol(s->kmem, s->u, KIN_LINESEARCH, s->scale, s->scale);
   if (flag == KIN_STEP_LT_STPTOL) {
     /* "steps too small" is a success only if the residual is small too;
@@ -361,6 +372,7 @@ int eqpi_run_kinsol(eqpi_system *s, const double *u0, long *iters)
     for (int k = 0; k < s->n; k++) fm = fabs(F[k]) > fm ? fabs(F[k]) : fm;
     if (!(fm <= 1e-8)) flag = KIN_LINESEARCH_NONCONV;
   }
+  if (flag >= 0 && !(uu[s->nx] <= EQPI_LN_MAX_I)) flag = EQPI_KIN_IMPLAUSIBLE;
   long it = 0;
   KINGetNumNonlinSolvIters(s->kmem, &it);
   if (s->trace) {
@@ -494,9 +506,15 @@ int eqpi_system_solve_prepared(eqp_ctx *ctx, eqpi_system *s, int *rcp, eqpi_solv
   }
   if (!(r <= EQPI_VERIFY_TOL)) {
     s->solved = false;
-    rc = eqpi_fail(ctx, EQP_E_VERIFY, "refusing the result: after the solve the %s balance "
-                   "has relative residual %.3e (limit %.0e), KINSOL %s after %ld iterations",
-                   eqpi_sys_row_name(s, worst), r, EQPI_VERIFY_TOL, kin_flag_name(flag), iters);
+    if (worst > s->n)
+      rc = eqpi_fail(ctx, EQP_E_VERIFY, "refusing the result: after the solve the molality "
+                     "or activity coefficient of %s is not a finite number (model '%s', "
+                     "%.2f C)", eqpi_sys_row_name(s, worst), s->model->desc->name,
+                     s->Tk - 273.15);
+    else
+      rc = eqpi_fail(ctx, EQP_E_VERIFY, "refusing the result: after the solve the %s balance "
+                     "has relative residual %.3e (limit %.0e), KINSOL %s after %ld iterations",
+                     eqpi_sys_row_name(s, worst), r, EQPI_VERIFY_TOL, kin_flag_name(flag), iters);
     goto out;
   }
   memcpy(s->u_last, ufin, sizeof(double) * (size_t)s->n);

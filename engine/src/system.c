@@ -158,6 +158,10 @@ int eqpi_sys_reference(eqpi_system *sys)
   return 1;
 }
 
+/* Any non-finite number (a residual, a molality, log gamma) makes the
+** result unusable whatever the other rows say: it is reported as an
+** infinite residual, never compared (NaN fails every comparison, so a
+** running maximum would let a later finite row hide it). */
 double eqpi_sys_verify(eqpi_system *sys, const double *u, int *worst)
 {
   double lam = sys->lambda;
@@ -167,19 +171,23 @@ double eqpi_sys_verify(eqpi_system *sys, const double *u, int *worst)
   *worst = -1;
   if (eqpi_sys_eval(sys, u, F) == 0) {
     w = 0;
-    for (int k = 0; k <= sys->nx; k++) {
+    for (int k = 0; k <= sys->nx && isfinite(w); k++) {
       double r = fabs(F[k]);
       if (k == sys->nx) r = fabs(expm1(F[k]));   /* relative ionic strength */
-      if (!(r <= w)) { w = r; *worst = k; }
+      if (!(r <= w)) { w = isfinite(r) ? r : INFINITY; *worst = k; }
     }
     /* Charge balance is implied by neutral totals; check it independently. */
     double q = 0, qa = 0;
-    for (int i = 0; i < sys->ns; i++) {
+    for (int i = 0; i < sys->ns && isfinite(w); i++) {
+      if (!isfinite(sys->m[i]) || !isfinite(sys->lg[i]) || sys->m[i] < 0) {
+        w = INFINITY;
+        *worst = sys->n + 1 + i;
+      }
       q += sys->z[i] * sys->m[i];
       qa += fabs(sys->z[i]) * sys->m[i];
     }
     double r = qa > 0 ? fabs(q) / qa : 0;
-    if (!(r <= w)) { w = r; *worst = sys->n; }
+    if (isfinite(w) && !(r <= w)) { w = isfinite(r) ? r : INFINITY; *worst = sys->n; }
   }
   sys->lambda = lam;
   return w;
@@ -189,6 +197,7 @@ const char *eqpi_sys_row_name(const eqpi_system *sys, int k)
 {
   if (k < 0) return "?";
   if (k < sys->nx) return sys->ctx->db.sp[sys->sp[sys->comp_sp[sys->xcomp[k]]]].name;
+  if (k > sys->n && k - sys->n - 1 < sys->ns) return sys->names[k - sys->n - 1];
   return k == sys->nx ? "ionic strength" : "charge";
 }
 

@@ -151,11 +151,31 @@ EQP_API const char *eqp_hazard_class(const char *key);
 EQP_API size_t eqp_ctx_caution_count(const eqp_ctx *ctx);
 EQP_API const char *eqp_ctx_caution(const eqp_ctx *ctx, size_t i);
 EQP_API const char *eqp_ctx_caution_reagent(const eqp_ctx *ctx, size_t i);
+/* The chemical formula of a species or reagent by name or alias, as its
+** species file gives it ("C4H11NO3", "HPO4^2-", "Na2HPO4.7H2O"); borrowed
+** from the context. NULL for an unknown name. */
+EQP_API const char *eqp_ctx_formula(const eqp_ctx *ctx, const char *name);
 /* Molar mass (g/mol) of a reagent by name or alias; EQP_E_UNKNOWN if none. */
 EQP_API int eqp_ctx_reagent_molar_mass(eqp_ctx *ctx, const char *name, double *gmol);
 /* Number of species files loaded and the path of the i-th. Borrowed. */
 EQP_API size_t eqp_ctx_source_count(const eqp_ctx *ctx);
 EQP_API const char *eqp_ctx_source_path(const eqp_ctx *ctx, size_t i);
+
+/* An observer of warnings: called once for each warning the engine attaches
+** to a result, a recipe or a pH adjustment, at the moment it is made (also
+** for the results a titration or a buffer comparison makes inside), so a
+** host can show it beside the step that caused it. kind is a stable short
+** name: "ionic-strength" (beyond the model's stated range), "temperature"
+** (constants without temperature data or beyond their stated range),
+** "concentration-scale" (solutes take a noticeable part of the volume, so
+** molarity = molality x density of water no longer holds), "default-model"
+** (the default model gave way to another, see docs/activity-models.md),
+** "model" (a note of the activity model), "recipe-volume" (the solids of a
+** recipe take part of its volume). A titration reports each of its points:
+** show one warning per kind and step. text is borrowed for the call. fn
+** NULL removes the observer. */
+typedef void (*eqp_warning_fn)(void *ud, const char *kind, const char *text);
+EQP_API void eqp_ctx_set_warning_fn(eqp_ctx *ctx, eqp_warning_fn fn, void *ud);
 
 /* Plugin listing: every activity-model plugin found on the search path.
 ** The callback gets name, version, summary and the file it came from, or
@@ -482,8 +502,11 @@ typedef struct eqp_recipe_item {
 
 /* Design a preparation that gives spec->pH at spec->T. The amounts are
 ** solved with a(H+) fixed (and secant iteration on the salt for the ionic
-** strength); the solution made from them is equilibrated once more and its
-** pH reported. EQP_E_INPUT when the pH is out of reach of the reagents. */
+** strength) in the water the solids leave of the final volume (crystal
+** densities, docs/methods.md); the solution made from them is equilibrated
+** once more and its pH reported. EQP_E_INPUT when the pH is out of reach of
+** the reagents, when the solids alone would fill the volume, or when the
+** default model's chain has no model for the ionic strength. */
 EQP_API int eqp_recipe_make(eqp_ctx *ctx, const eqp_recipe_spec *spec, eqp_recipe **out);
 EQP_API void eqp_recipe_free(eqp_recipe *r);
 EQP_API size_t eqp_recipe_item_count(const eqp_recipe *r);
@@ -492,8 +515,15 @@ EQP_API double eqp_recipe_pH(const eqp_recipe *r);
 EQP_API double eqp_recipe_ionic_strength(const eqp_recipe *r);
 /* The solution the recipe describes (copy it to work on it). Borrowed. */
 EQP_API const eqp_solution *eqp_recipe_solution(const eqp_recipe *r);
-/* The numbered bench procedure with its cautions. Borrowed. */
+/* The numbered bench procedure with its warnings and cautions. Borrowed. */
 EQP_API const char *eqp_recipe_procedure(const eqp_recipe *r);
+/* The activity model the amounts were computed with (for the default model,
+** the one its chain settled on). Borrowed. */
+EQP_API const char *eqp_recipe_activity_model(const eqp_recipe *r);
+/* Warnings of the recipe: its solution beyond the model's range, a default
+** model that gave way, the volume its solids take. Borrowed. */
+EQP_API size_t eqp_recipe_warning_count(const eqp_recipe *r);
+EQP_API const char *eqp_recipe_warning(const eqp_recipe *r, size_t i);
 /* Buffer systems of the library, for listing and comparing. */
 EQP_API size_t eqp_ctx_buffer_count(const eqp_ctx *ctx);
 EQP_API const char *eqp_ctx_buffer_name(const eqp_ctx *ctx, size_t i);

@@ -77,6 +77,16 @@ static const char *role_name(int role)
   }
 }
 
+/* The recipe's warnings as a list of strings. */
+static void push_warnings(lua_State *L, const eqp_recipe *r)
+{
+  lua_createtable(L, (int)eqp_recipe_warning_count(r), 0);
+  for (size_t i = 0; i < eqp_recipe_warning_count(r); i++) {
+    lua_pushstring(L, eqp_recipe_warning(r, i));
+    lua_rawseti(L, -2, (lua_Integer)i + 1);
+  }
+}
+
 static int recipe_tostring(lua_State *L)
 {
   lua_getfield(L, 1, "procedure");
@@ -148,6 +158,10 @@ static int eq_recipe(lua_State *L)
   lua_setfield(L, -2, "volume");
   lua_pushstring(L, eqp_recipe_procedure(r));
   lua_setfield(L, -2, "procedure");
+  lua_pushstring(L, eqp_recipe_activity_model(r));
+  lua_setfield(L, -2, "activity");
+  push_warnings(L, r);
+  lua_setfield(L, -2, "warnings");
   eqp_solution *copy;
   if ((rc = eqp_solution_copy(eqp_recipe_solution(r), &copy)) < 0) {
     eqp_recipe_free(r);
@@ -186,8 +200,10 @@ static int candidate(lua_State *L, eqp_ctx *ctx, eqp_recipe_spec *sp, double loa
   int rc = eqp_recipe_make(ctx, sp, &r);
   if (rc < 0) {
     snprintf(why, len, "%s", eqp_ctx_errmsg(ctx));
+    lua_newtable(L);
     return rc;
   }
+  push_warnings(L, r);       /* the row's warnings: the recipe's, then the loaded solution's */
   eqp_solution *s = NULL;
   eqp_result *res = NULL;
   double bkg, bL, pH0 = eqp_recipe_pH(r);
@@ -195,6 +211,10 @@ static int candidate(lua_State *L, eqp_ctx *ctx, eqp_recipe_spec *sp, double loa
   if (rc == EQP_OK) rc = eqp_solution_buffer_capacity(s, &bL, &bkg);
   if (rc == EQP_OK) rc = eqp_solution_add(s, load_with, load_mol, EQP_Q_AMOUNT);
   if (rc == EQP_OK) rc = eqp_solution_equilibrate(s, &res);
+  for (size_t i = 0; res && i < eqp_result_warning_count(res); i++) {
+    lua_pushfstring(L, "under the load: %s", eqp_result_warning(res, i));
+    lua_rawseti(L, -2, (lua_Integer)lua_rawlen(L, -2) + 1);
+  }
   if (rc == EQP_OK) {
     out[0] = bL;
     out[1] = eqp_result_pH(res) - pH0;
@@ -243,7 +263,9 @@ static int eq_compare(lua_State *L)
     double m[5] = {0, 0, 0, 0, 0};
     char why[512];
     int rc = candidate(L, ctx, &sp, load * base.volume, load_with, window, m, why, sizeof why);
-    lua_createtable(L, 0, 8);
+    lua_createtable(L, 0, 9);
+    lua_insert(L, -2);
+    lua_setfield(L, -2, "warnings");
     lua_pushstring(L, sp.buffer);
     lua_setfield(L, -2, "buffer");
     lua_pushboolean(L, rc == EQP_OK);

@@ -1,0 +1,117 @@
+/* The default activity model, safe beyond its range: a solution that names
+** no model is solved with Davies; when its ionic strength is beyond the
+** range Davies is stated for, the next model of the chain whose stated range
+** covers it is used instead, with a notice in the result; beyond the last,
+** the solve is refused (docs/activity-models.md). */
+/* SPDX-License-Identifier: MIT */
+#include "solution_impl.h"
+#include "system_impl.h"
+#include <math.h>
+#include <stdio.h>
+#include <string.h>
+
+const char *const eqpi_default_chain[EQPI_DEFAULT_CHAIN] = {"davies", "bdot", "sit"};
+
+eqpi_model *eqpi_chain_model(eqp_solution *s, int k)
+{
+  if (k == 0) return &s->model;
+  if (k < 0 || k >= EQPI_DEFAULT_CHAIN) return NULL;
+  if (s->chain_state[k] == 0) {
+    /* a missing plugin leaves the chain shorter, not an error; the message
+    ** of the failed open is not the caller's */
+    char keep[EQPI_ERRLEN];
+    int code = s->ctx->errcode;
+    memcpy(keep, s->ctx->errmsg, sizeof keep);
+    s->chain_state[k] = eqpi_model_open(s->ctx, eqpi_default_chain[k], &s->chain[k]) == EQP_OK
+                          ? 1 : -1;
+    memcpy(s->ctx->errmsg, keep, sizeof keep);
+    s->ctx->errcode = code;
+  }
+  return s->chain_state[k] > 0 ? &s->chain[k] : NULL;
+}
+
+void eqpi_chain_close(eqp_solution *s)
+{
+  for (int k = 1; k < EQPI_DEFAULT_CHAIN; k++)
+    if (s->chain_state[k] > 0) eqpi_model_close(s->ctx, &s->chain[k]);
+  memset(s->chain_state, 0, sizeof s->chain_state);
+}
+
+int eqpi_chain_choice(eqp_solution *s, double I, int k)
+{
+  for (; k >= 0 && k < EQPI_DEFAULT_CHAIN; k++) {
+    const eqpi_model *m = eqpi_chain_model(s, k);
+    if (!m) continue;
+    double Imax = m->desc->max_ionic_strength;
+    if (!(Imax > 0) || I <= Imax * (1 + 1e-6)) return k;
+  }
+  return -1;
+}
+
+int eqpi_chain_refuse(eqp_solution *s, double I, const char *what)
+{
+  char ranges[160];
+  size_t used = 0;
+  ranges[0] = '\0';
+  for (int k = 0; k < EQPI_DEFAULT_CHAIN && used < sizeof ranges; k++) {
+    const eqpi_model *m = eqpi_chain_model(s, k);
+    if (m)
+      used += (size_t)snprintf(ranges + used, sizeof ranges - used, "%s%s <= %g", k ? ", " : "",
+                               m->desc->name, m->desc->max_ionic_strength);
+  }
+  if (s->sys) s->sys->solved = false;
+  return eqpi_fail(s->ctx, EQP_E_INPUT, "%s: the ionic strength, %.3g mol/kg, is beyond the "
+                   "stated range of every activity model the default may use (%s mol/kg); "
+                   "name a model with activity = \"...\" to get an extrapolated estimate, "
+                   "which then carries a range warning", what, I, ranges);
+}
+
+/* Totals in mol/kg of water, refusing amounts no model here describes. */
+static int molalities(eqp_solution *s, double *mol)
+{
+  eqp_ctx *ctx = s->ctx;
+  for (int c = 0; c < s->ntotal; c++) {
+    mol[c] = s->total[c] / s->water_kg;
+    if (!(fabs(mol[c]) <= EQPI_MAX_MOLALITY))
+      return eqpi_fail(ctx, EQP_E_INPUT, "the total of %s is %g mol per kg of water, beyond "
+                       "%g mol/kg: not an aqueous solution any activity model here describes",
+                       ctx->db.sp[ctx->db.comp_species[c]].name, mol[c], EQPI_MAX_MOLALITY);
+  }
+  return EQP_OK;
+}
+
+int eqpi_solution_equilibrate_from(eqp_solution *s, int *kp, int follow, eqp_result **out,
+                                   eqpi_solve_stats *stout)
+{
+  eqp_ctx *ctx = s->ctx;
+  double stack[128];
+  double *mol = s->ntotal <= 128 ? stack : eqpi_malloc(ctx, sizeof(double) * (size_t)s->ntotal);
+  if (!mol) return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
+  eqpi_solve_stats st = {0};
+  int k = *kp, rc = molalities(s, mol);
+  eqpi_model *model = eqpi_chain_model(s, k);
+  if (rc == EQP_OK && !model)
+    rc = eqpi_fail(ctx, EQP_E_PLUGIN, "activity model '%s' is not available",
+                   eqpi_default_chain[k]);
+  if (rc == EQP_OK) rc = eqpi_system_solve(ctx, &s->sys, mol, s->T, model, &st);
+  while (rc == EQP_OK && s->model_default && follow) {
+    double I = eqpi_system_ionic_strength(s->sys);
+    int next = eqpi_chain_choice(s, I, k);
+    if (next == k) break;
+    if (next < 0) {
+      rc = eqpi_chain_refuse(s, I, "default activity model");
+      break;
+    }
+    k = next;
+    model = eqpi_chain_model(s, k);
+    rc = eqpi_system_solve(ctx, &s->sys, mol, s->T, model, &st);
+  }
+  if (mol != stack) eqpi_free(ctx, mol, sizeof(double) * (size_t)s->ntotal);
+  if (rc < 0) return rc;
+  st.solute_L = s->solute_L;
+  st.unknown_g = s->unknown_g;
+  st.replaced = k > 0 && s->model_default ? s->model.desc : NULL;
+  *kp = k;
+  if (stout) *stout = st;
+  return eqpi_result_make(ctx, s->sys, model, s->T, s->water_kg, &st, out);
+}
