@@ -15,13 +15,17 @@ static eqpi_gas *find_gas(eqpi_db *db, const char *name)
   return NULL;
 }
 
-/* ln a(X) of the solution with v mol of X added to the totals N0. */
+/* ln a(X) of the solution with v mol of X added to the totals N0. The
+** warnings of the bracketing's solves are not shown, those of the last
+** (show) are: it is the state the solution is left in. */
 static int lna_at(eqp_solution *s, const double *N0, const double *a, double v, int x,
-                  double *lna)
+                  double *lna, int show)
 {
   for (int c = 0; c < s->ntotal; c++) s->total[c] = N0[c] + v * a[c];
   eqp_result *r;
+  s->ctx->quiet += !show;
   int rc = eqp_solution_equilibrate(s, &r);
+  s->ctx->quiet -= !show;
   if (rc < 0) return rc;
   double act;
   eqp_result_activity(r, s->ctx->db.sp[x].name, &act);
@@ -61,9 +65,9 @@ int eqp_solution_expose(eqp_solution *s, const char *gas, double p_atm, double *
   double scale = fmax(1e-9 * s->water_kg, fabs(lo) * 1e-12);
   lo += scale;                                 /* a trace stays, so every species exists */
   double flo, fhi, hi = fmax(1e-6 * s->water_kg, 2 * scale);
-  if ((rc = lna_at(s, N0, a, lo, g->species, &flo)) < 0) goto out;
+  if ((rc = lna_at(s, N0, a, lo, g->species, &flo, 0)) < 0) goto out;
   flo -= target;
-  if ((rc = lna_at(s, N0, a, hi, g->species, &fhi)) < 0) goto out;
+  if ((rc = lna_at(s, N0, a, hi, g->species, &fhi, 0)) < 0) goto out;
   fhi -= target;
   for (int k = 0; fhi < 0 && k < 60; k++) {
     lo = hi;
@@ -74,7 +78,7 @@ int eqp_solution_expose(eqp_solution *s, const char *gas, double p_atm, double *
                      "water", gas, p_atm);
       goto out;
     }
-    if ((rc = lna_at(s, N0, a, hi, g->species, &fhi)) < 0) goto out;
+    if ((rc = lna_at(s, N0, a, hi, g->species, &fhi, 0)) < 0) goto out;
     fhi -= target;
   }
   if (flo > 0) {      /* even the trace is above the target: nothing left to lose */
@@ -82,13 +86,13 @@ int eqp_solution_expose(eqp_solution *s, const char *gas, double p_atm, double *
   } else {
     for (int it = 0; it < 200 && hi - lo > 1e-15 * fmax(fabs(hi), fabs(lo)); it++) {
       double mid = 0.5 * (lo + hi), f;
-      if ((rc = lna_at(s, N0, a, mid, g->species, &f)) < 0) goto out;
+      if ((rc = lna_at(s, N0, a, mid, g->species, &f, 0)) < 0) goto out;
       if (f - target < 0) lo = mid;
       else hi = mid;
     }
   }
   double fend;
-  if ((rc = lna_at(s, N0, a, hi, g->species, &fend)) < 0) goto out;
+  if ((rc = lna_at(s, N0, a, hi, g->species, &fend, 1)) < 0) goto out;
   if (mol) *mol = hi;
 out:
   if (rc < 0 && N0) memcpy(s->total, N0, sizeof(double) * (size_t)s->ntotal);
