@@ -23,25 +23,35 @@ static int grow_totals(eqp_solution *s)
   return EQP_OK;
 }
 
+/* A solution's water stays in [0, EQPI_MAX_WATER] kg and each total a
+** finite number of moles per kg of it: an overflowing amount is an input
+** error, never an infinite total. verb and name say what was being done. */
+static int check_water(eqp_solution *s, double W, const char *verb, const char *name)
+{
+  if (W >= 0 && W <= EQPI_MAX_WATER) return EQP_OK;
+  return eqpi_fail(s->ctx, EQP_E_INPUT, "%s%s%s would leave %g kg of water; a solution holds "
+                   "at most %g kg", verb, name ? " " : "", name ? name : "", W, EQPI_MAX_WATER);
+}
+
+static int check_total(eqp_solution *s, int c, double t, double W, const char *verb,
+                       const char *name)
+{
+  if (isfinite(t) && (W == 0 || isfinite(t / W))) return EQP_OK;
+  return eqpi_fail(s->ctx, EQP_E_INPUT, "%s%s%s: the total of %s overflows (not a finite "
+                   "number of moles per kg of water)", verb, name ? " " : "", name ? name : "",
+                   s->ctx->db.sp[s->ctx->db.comp_species[c]].name);
+}
+
 /* Add k times (delta over the components, dw kg of water) to s, or refuse
-** with s unchanged when a total or the water would stop being a finite
-** number or the water would leave (0, EQPI_MAX_WATER] kg: an overflowing
-** amount is an input error, never an infinite total. */
+** with s unchanged. */
 static int apply(eqp_solution *s, const double *delta, int nd, double dw, double k,
-                 const char *verb, const char *name)
+                 const char *verb)
 {
   double W = s->water_kg + k * dw;
-  if (!(W >= 0 && W <= EQPI_MAX_WATER))
-    return eqpi_fail(s->ctx, EQP_E_INPUT, "%s%s%s would leave %g kg of water; a solution "
-                     "holds at most %g kg", verb, name ? " " : "", name ? name : "", W,
-                     EQPI_MAX_WATER);
-  for (int c = 0; c < nd && c < s->ntotal; c++) {
-    double t = s->total[c] + k * delta[c];
-    if (delta[c] != 0 && !(isfinite(t) && (W == 0 || isfinite(t / W))))
-      return eqpi_fail(s->ctx, EQP_E_INPUT, "%s%s%s: the total of %s overflows (not a finite "
-                       "number of moles per kg of water)", verb, name ? " " : "",
-                       name ? name : "", s->ctx->db.sp[s->ctx->db.comp_species[c]].name);
-  }
+  int rc = check_water(s, W, verb, NULL);
+  for (int c = 0; rc == EQP_OK && c < nd && c < s->ntotal; c++)
+    if (delta[c] != 0) rc = check_total(s, c, s->total[c] + k * delta[c], W, verb, NULL);
+  if (rc < 0) return rc;
   for (int c = 0; c < nd && c < s->ntotal; c++) s->total[c] += k * delta[c];
   s->water_kg = W;
   return EQP_OK;
@@ -191,23 +201,27 @@ static int unknown_reagent(eqp_solution *s, const char *name)
                    "list')", name);
 }
 
+/* kg of solvent water per mol of reagent: the water it releases as such
+** (water itself, water of crystallisation, H2O in its release); the water
+** component of other species (OH- = H2O - H+) is not tracked */
+static double reagent_water(const eqpi_db *db, const eqpi_reagent *r)
+{
+  double h2o = r->hydrate;
+  for (int j = 0; j < r->n; j++)
+    if (r->sp[j] == db->water) h2o += r->nu[j];
+  return h2o * EQPI_M_WATER * 1e-3;
+}
+
 /* What one mol of a reagent adds: components into a (scaled by k, added
-** to a), and kg of solvent water into *w. Water itself, and the water of
-** crystallisation, go to the solvent. */
+** to a), and kg of solvent water into *w. */
 void eqpi_reagent_dir(const eqp_solution *s, const eqpi_reagent *r, double *a, double *w,
                       double k)
 {
   const eqpi_db *db = &s->ctx->db;
   int water = db->water >= 0 ? db->sp[db->water].component : -1;
-  /* water the reagent releases as such (water itself, water of
-  ** crystallisation, H2O in its release) joins the solvent; the water
-  ** component of other species (OH- = H2O - H+) is not tracked */
-  double h2o = r->hydrate;
-  for (int j = 0; j < r->n; j++)
-    if (r->sp[j] == db->water) h2o += r->nu[j];
   for (int t = 0; t < r->nterm; t++)
     if (r->term_comp[t] != water) a[r->term_comp[t]] += k * r->term_nu[t];
-  *w = h2o * EQPI_M_WATER * 1e-3;
+  *w = reagent_water(db, r);
 }
 
 static void solution_bulk(eqp_solution *s, const eqpi_reagent *r, double k);
@@ -251,16 +265,20 @@ int eqp_solution_add(eqp_solution *s, const char *reagent, double value, eqp_qua
     return eqpi_fail(ctx, EQP_E_INPUT, "amount of %s overflows (not a finite number of "
                      "moles)", reagent);
   int rc = grow_totals(s);
-  if (rc < 0 || (rc = eqpi_use_reagent(s, r)) < 0) return rc;
-  double stack[128], w;
-  double *d = s->ntotal < 128 ? stack : eqpi_malloc(ctx, sizeof(double) * (size_t)s->ntotal);
-  if (!d) return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
-  memset(d, 0, sizeof(double) * (size_t)s->ntotal);
-  eqpi_reagent_dir(s, r, d, &w, 1.0);
-  rc = apply(s, d, s->ntotal, w, mol, "adding", reagent);
-  if (d != stack) eqpi_free(ctx, d, sizeof(double) * (size_t)s->ntotal);
-  if (rc == EQP_OK) solution_bulk(s, r, mol);
-  return rc;
+  if (rc < 0) return rc;
+  /* check every total the reagent changes before changing any */
+  double W = s->water_kg + mol * reagent_water(&ctx->db, r), w;
+  rc = check_water(s, W, "adding", reagent);
+  int water = ctx->db.water >= 0 ? ctx->db.sp[ctx->db.water].component : -1;
+  for (int t = 0; rc == EQP_OK && t < r->nterm; t++) {
+    int c = r->term_comp[t];
+    if (c != water) rc = check_total(s, c, s->total[c] + mol * r->term_nu[t], W, "adding", reagent);
+  }
+  if (rc < 0 || (rc = eqpi_use_reagent(s, r)) < 0) return rc;   /* recorded once it goes in */
+  eqpi_reagent_dir(s, r, s->total, &w, mol);
+  s->water_kg = W;
+  solution_bulk(s, r, mol);
+  return EQP_OK;
 }
 
 void eqpi_reagent_bulk(const eqpi_reagent *r, double k, double *L, double *g)
@@ -317,7 +335,7 @@ int eqp_solution_pour(eqp_solution *s, const eqp_solution *stock, double litres)
   /* the stock is a reservoir: a portion of its composition, by volume of
   ** its water at its own temperature, is added; the stock is unchanged */
   double f = litres / eqp_solution_volume(stock);
-  rc = apply(s, stock->total, stock->ntotal, stock->water_kg, f, "pouring", NULL);
+  rc = apply(s, stock->total, stock->ntotal, stock->water_kg, f, "pouring");
   if (rc == EQP_OK) {
     s->solute_L += f * stock->solute_L;
     s->unknown_g += f * stock->unknown_g;
@@ -330,7 +348,7 @@ int eqp_solution_dilute(eqp_solution *s, double factor)
   if (!s) return EQP_E_ARG;
   if (!isfinite(factor) || factor < 1)
     return eqpi_fail(s->ctx, EQP_E_INPUT, "a dilution factor must be at least 1, got %g", factor);
-  return apply(s, NULL, 0, s->water_kg, factor - 1, "diluting", NULL);
+  return apply(s, NULL, 0, s->water_kg, factor - 1, "diluting");
 }
 
 int eqp_solution_total(const eqp_solution *s, const char *component, double *mol)
