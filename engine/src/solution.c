@@ -414,12 +414,32 @@ int eqp_solution_buffer_capacity(eqp_solution *s, double *per_L, double *per_kg)
   int rc = eqp_solution_dpH(s, "NaOH", &d);
   if (rc < 0) return rc;
   double b = 1.0 / (d * s->water_kg);
+  if (!isfinite(b))
+    return eqpi_fail(s->ctx, EQP_E_CONVERGE, "the buffer capacity is not a finite number here "
+                     "(dpH/dC = %g)", d);
   if (per_L) *per_L = b * eqpi_water_density(s->T);
   if (per_kg) *per_kg = b;
   return EQP_OK;
 }
 
 /* ------------------------------------------------------------ adjustment */
+
+/* The adjustment with the solution's model; for the default model beyond
+** its range, the same adjustment again with the next model of the chain. */
+static int adjust_chain(eqp_solution *s, eqpi_adjust *aj, double *v, eqpi_solve_stats *st,
+                        int *k)
+{
+  int rc = eqpi_system_adjust(s->ctx, &s->sys, aj, v, st);
+  while (rc == EQP_OK && s->model_default) {
+    double I = eqpi_system_ionic_strength(s->sys);
+    int next = eqpi_chain_choice(s, I, *k);
+    if (next == *k) break;
+    if (next < 0) return eqpi_chain_refuse(s, I, "pH adjustment with the default activity model");
+    aj->model = eqpi_chain_model(s, *k = next);
+    rc = eqpi_system_adjust(s->ctx, &s->sys, aj, v, st);
+  }
+  return rc;
+}
 
 int eqp_solution_adjust_pH(eqp_solution *s, double pH, const char *reagent,
                            const eqp_solution *stock, double *mol, double *litres)
@@ -460,20 +480,7 @@ int eqp_solution_adjust_pH(eqp_solution *s, double pH, const char *reagent,
   double v;
   eqpi_solve_stats st = {0};
   int k = 0;
-  rc = eqpi_system_adjust(ctx, &s->sys, &aj, &v, &st);
-  while (rc == EQP_OK && s->model_default) {
-    /* the default model beyond its range: the same adjustment with the next */
-    double I = eqpi_system_ionic_strength(s->sys);
-    int next = eqpi_chain_choice(s, I, k);
-    if (next == k) break;
-    if (next < 0) {
-      rc = eqpi_chain_refuse(s, I, "pH adjustment with the default activity model");
-      break;
-    }
-    aj.model = eqpi_chain_model(s, k = next);
-    rc = eqpi_system_adjust(ctx, &s->sys, &aj, &v, &st);
-  }
-  if (rc < 0) goto out;
+  if ((rc = adjust_chain(s, &aj, &v, &st, &k)) < 0) goto out;
   rc = stock ? eqpi_use_stock(s, stock) : eqpi_use_reagent(s, used);
   if (rc < 0) goto out;
   for (int c = 0; c < s->ntotal; c++) s->total[c] += v * a[c];
@@ -482,7 +489,7 @@ int eqp_solution_adjust_pH(eqp_solution *s, double pH, const char *reagent,
     s->solute_L += v / stock->water_kg * stock->solute_L;
     s->unknown_g += v / stock->water_kg * stock->unknown_g;
   } else {
-    solution_bulk(s, &ctx->db.rg[eqpi_db_find_reagent(&ctx->db, reagent)], v);
+    solution_bulk(s, used, v);
   }
   if (mol) *mol = stock ? NAN : v;
   if (litres) *litres = v * L_per_unit;
