@@ -12,21 +12,25 @@
 
 const char *const eqpi_default_chain[EQPI_DEFAULT_CHAIN] = {"davies", "bdot", "sit"};
 
+/* A missing plugin leaves the chain shorter, not an error: the message of
+** the failed open is not the caller's. */
+static void chain_open(eqp_solution *s, int k)
+{
+  char *keep = eqpi_malloc(s->ctx, EQPI_ERRLEN);
+  int code = s->ctx->errcode;
+  if (keep) memcpy(keep, s->ctx->errmsg, EQPI_ERRLEN);
+  s->chain_state[k] = eqpi_model_open(s->ctx, eqpi_default_chain[k], &s->chain[k]) == EQP_OK
+                        ? 1 : -1;
+  if (keep) memcpy(s->ctx->errmsg, keep, EQPI_ERRLEN);
+  s->ctx->errcode = code;
+  eqpi_free(s->ctx, keep, EQPI_ERRLEN);
+}
+
 eqpi_model *eqpi_chain_model(eqp_solution *s, int k)
 {
   if (k == 0) return &s->model;
   if (k < 0 || k >= EQPI_DEFAULT_CHAIN) return NULL;
-  if (s->chain_state[k] == 0) {
-    /* a missing plugin leaves the chain shorter, not an error; the message
-    ** of the failed open is not the caller's */
-    char keep[EQPI_ERRLEN];
-    int code = s->ctx->errcode;
-    memcpy(keep, s->ctx->errmsg, sizeof keep);
-    s->chain_state[k] = eqpi_model_open(s->ctx, eqpi_default_chain[k], &s->chain[k]) == EQP_OK
-                          ? 1 : -1;
-    memcpy(s->ctx->errmsg, keep, sizeof keep);
-    s->ctx->errcode = code;
-  }
+  if (s->chain_state[k] == 0) chain_open(s, k);
   return s->chain_state[k] > 0 ? &s->chain[k] : NULL;
 }
 

@@ -21,21 +21,27 @@ struct eqp_result {
   const char *warn[MAX_WARN];   /* into the end of the block */
 };
 
-/* The warnings of a state, gathered before the result exists so that the
-** result's block holds just their text. */
+/* The warnings of a state are written twice: once to size the result's
+** block, once into it (few results have any). */
 typedef struct wlist {
   int n;
   size_t bytes;
-  const char *kind[MAX_WARN];
-  char text[MAX_WARN][320];
+  eqp_result *r;          /* NULL while sizing */
+  char *text;             /* next free byte of the block */
 } wlist;
 
 static void gather(void *ud, const char *kind, const char *text)
 {
   wlist *w = ud;
   if (w->n >= MAX_WARN) return;
-  w->kind[w->n] = kind;
-  w->bytes += (size_t)snprintf(w->text[w->n], sizeof w->text[0], "%s", text) + 1;
+  size_t len = strlen(text) + 1;
+  if (w->r) {
+    memcpy(w->text, text, len);
+    w->r->warn[w->n] = w->text;
+    w->text += len;
+    eqpi_warn(w->r->ctx, kind, text);   /* shown to the observer as it is made */
+  }
+  w->bytes += len;
   w->n++;
 }
 
@@ -47,9 +53,7 @@ int eqpi_result_make(eqp_ctx *ctx, const eqpi_system *sys, const eqpi_model *mod
   if (!(I <= EQPI_MAX_MOLALITY))
     return eqpi_fail(ctx, EQP_E_VERIFY, "refusing the result: ionic strength %g mol/kg (at "
                      "most %g mol/kg is a solution)", I, EQPI_MAX_MOLALITY);
-  wlist w;
-  w.n = 0;
-  w.bytes = 0;
+  wlist w = {0, 0, NULL, NULL};
   eqpi_state_warnings(model, I, T, water_kg, st, gather, &w);
   size_t fixed = sizeof(eqp_result) + sizeof(int) * (size_t)(ns + ndb) +
                  sizeof(double) * (size_t)(2 * ns) + 16;
@@ -83,14 +87,10 @@ int eqpi_result_make(eqp_ctx *ctx, const eqpi_system *sys, const eqpi_model *mod
   r->residual = st->residual;
   r->iters = st->iterations;
   r->model = model->desc->name;
-  char *text = (char *)r + fixed;
   r->nwarn = w.n;
-  for (int i = 0; i < w.n; i++) {
-    size_t len = strlen(w.text[i]) + 1;
-    memcpy(text, w.text[i], len);
-    r->warn[i] = text;
-    text += len;
-    eqpi_warn(ctx, w.kind[i], w.text[i]);   /* shown to the observer as it is made */
+  if (w.n) {
+    wlist fill = {0, 0, r, (char *)r + fixed};
+    eqpi_state_warnings(model, I, T, water_kg, st, gather, &fill);
   }
   *out = r;
   return EQP_OK;
