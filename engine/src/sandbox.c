@@ -1,8 +1,10 @@
 /* Species files run as Lua text in an empty sandbox: base, math, string,
-** table and utf8 only; an instruction limit in a count hook and a memory
-** cap in the allocator (the hook does not see work inside C functions). */
+** table and utf8 only, under the limits of limits.c: an instruction budget
+** that also counts work inside C functions (pattern matching, string.rep)
+** and that pcall cannot catch, and a memory cap. */
 /* SPDX-License-Identifier: MIT */
 #include "stage_impl.h"
+#include "limits_impl.h"
 #include <lauxlib.h>
 #include <lua.h>
 #include <lualib.h>
@@ -10,36 +12,8 @@
 #include <string.h>
 
 #define SANDBOX_MEM (32u << 20)       /* bytes a species file may allocate */
-#define SANDBOX_STEPS 20000000L       /* VM instructions before we give up */
-
-typedef struct sandbox {
-  eqp_ctx *ctx;
-  size_t used;
-  long steps;
-} sandbox;
-
-static void *sandbox_alloc(void *ud, void *ptr, size_t osize, size_t nsize)
-{
-  sandbox *sb = ud;
-  if (!ptr) osize = 0;
-  if (nsize == 0) {
-    if (ptr) sb->ctx->alloc(sb->ctx->ud, ptr, osize, 0);
-    sb->used -= osize;
-    return NULL;
-  }
-  if (sb->used - osize + nsize > SANDBOX_MEM) return NULL;
-  void *p = sb->ctx->alloc(sb->ctx->ud, ptr, osize, nsize);
-  if (p) sb->used = sb->used - osize + nsize;
-  return p;
-}
-
-static void sandbox_hook(lua_State *L, lua_Debug *ar)
-{
-  sandbox *sb;
-  lua_getallocf(L, (void **)&sb);
-  sb->steps += 1000;
-  if (sb->steps > SANDBOX_STEPS) luaL_error(L, "instruction limit exceeded");
-}
+#define SANDBOX_STEPS 20000000L       /* VM instructions (and work charged) before we give up */
+#define SANDBOX_CPU 5.0               /* seconds: a backstop for work nothing counts */
 
 /* An environment with only harmless functions: no I/O, no loading, no os. */
 static void sandbox_env(lua_State *L)
@@ -79,12 +53,13 @@ static int sandbox_run(lua_State *L)
   luaL_requiref(L, "table", luaopen_table, 1);
   luaL_requiref(L, "utf8", luaopen_utf8, 1);
   lua_settop(L, 0);
+  eqpi_limits_wrap_libs(L, eqpi_limits_of(L));
   char chunk[512];
   snprintf(chunk, sizeof chunk, "@%s", a->source);
   if (luaL_loadbufferx(L, a->text, a->len, chunk, "t") != LUA_OK) return lua_error(L);
   sandbox_env(L);
   lua_setupvalue(L, -2, 1);
-  lua_sethook(L, sandbox_hook, LUA_MASKCOUNT, 1000);
+  eqpi_limits_hook(L, eqpi_limits_hookfn, 0);
   lua_call(L, 0, 1);
   lua_sethook(L, NULL, 0, 0);
   a->rc = eqpi_stage_from_table(a->ctx, a->st, L, -1, a->lm, a->source);
@@ -94,8 +69,12 @@ static int sandbox_run(lua_State *L)
 int eqpi_load_text(eqp_ctx *ctx, eqpi_stage *st, const char *text, size_t len,
                    const char *source)
 {
-  sandbox sb = {ctx, 0, 0};
-  lua_State *L = lua_newstate(sandbox_alloc, &sb);
+  eqpi_limits lim;
+  eqpi_limits_init(&lim, ctx->alloc, ctx->ud, SANDBOX_MEM, SANDBOX_STEPS);
+  lim.steps_hint = "the limit for a species file: a species file only returns a table";
+  lim.mem_hint = "the limit for a species file";
+  lim.max_cpu = SANDBOX_CPU;
+  lua_State *L = lua_newstate(eqpi_limits_lua_alloc, &lim);
   if (!L) {
     eqpi_stage_error(st, source, 0, "out of memory");
     return EQP_E_NOMEM;
@@ -104,13 +83,21 @@ int eqpi_load_text(eqp_ctx *ctx, eqpi_stage *st, const char *text, size_t len,
   run_args a = {ctx, st, text, source, len, lm, EQP_E_DATA};
   lua_pushcfunction(L, sandbox_run);
   lua_pushlightuserdata(L, &a);
-  if (lua_pcall(L, 1, 0, 0) != LUA_OK) {
+  int status = lua_pcall(L, 1, 0, 0);
+  if (status != LUA_OK) {
     const char *msg = lua_tostring(L, -1);
+    char buf[600];
+    if (!lim.tripped && status == LUA_ERRMEM && lim.refusals && !lim.oom)
+      lim.tripped = EQPI_TRIP_MEMORY;
+    if (lim.tripped) {
+      eqpi_limits_message(&lim, buf, sizeof buf);
+      msg = buf;
+    }
     if (!msg) msg = "error while running the file";
     /* Lua prefixes most errors with "file:line:"; memory errors it does not */
     if (strncmp(msg, source, strlen(source)) == 0) eqpi_stage_error(st, NULL, 0, "%s", msg);
     else eqpi_stage_error(st, source, 0, "%s", msg);
-    a.rc = EQP_E_DATA;
+    a.rc = status == LUA_ERRMEM && lim.oom && !lim.tripped ? EQP_E_NOMEM : EQP_E_DATA;
   }
   eqpi_linemap_free(ctx, lm);
   lua_close(L);
