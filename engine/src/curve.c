@@ -1,6 +1,7 @@
 /* Curves: rows of a titration, equivalence points, CSV and JSON output. */
 /* SPDX-License-Identifier: MIT */
 #include "curve_impl.h"
+#include "atomic_impl.h"
 #include <cjson/cJSON.h>
 #include <math.h>
 #include <stdio.h>
@@ -154,6 +155,31 @@ int eqp_curve_write_text(const eqp_curve *c, FILE *f)
     fprintf(f, " pH %.3f, sharpness %.3g\n", c->eq[k].pH, c->eq[k].sharpness);
   }
   return ferror(f) ? eqpi_fail(c->ctx, EQP_E_IO, "write error") : EQP_OK;
+}
+
+static int fill_csv(void *ud, FILE *f) { return eqp_curve_write_csv(ud, f); }
+
+static int fill_json(void *ud, FILE *f)
+{
+  const eqp_curve *c = ud;
+  char *text = eqp_curve_to_json(c);
+  if (!text) return eqpi_fail(c->ctx, EQP_E_NOMEM, "out of memory");
+  size_t len = strlen(text);
+  int ok = fwrite(text, 1, len, f) == len && fputc('\n', f) != EOF;
+  eqp_free_string(text);
+  return ok ? EQP_OK : EQP_E_IO;   /* the writer reports the system's reason */
+}
+
+int eqp_curve_save_csv(const eqp_curve *c, const char *path)
+{
+  if (!c || !path) return EQP_E_ARG;
+  return eqpi_write_atomic(c->ctx, path, fill_csv, (void *)c);
+}
+
+int eqp_curve_save_json(const eqp_curve *c, const char *path)
+{
+  if (!c || !path) return EQP_E_ARG;
+  return eqpi_write_atomic(c->ctx, path, fill_json, (void *)c);
 }
 
 char *eqp_curve_to_json(const eqp_curve *c)

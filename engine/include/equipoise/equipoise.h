@@ -31,7 +31,8 @@ extern "C" {
   X(EQP_E_IO,      -6,  "cannot read file")                             \
   X(EQP_E_PLUGIN,  -7,  "plugin missing or refused")                    \
   X(EQP_E_CONVERGE,-8,  "no convergence")                               \
-  X(EQP_E_VERIFY,  -9,  "balances do not close after the solve")
+  X(EQP_E_VERIFY,  -9,  "balances do not close after the solve")        \
+  X(EQP_E_WRITE,  -10,  "cannot write an output file")
 
 typedef enum eqp_status {
 #define EQP_X_ENUM(name, value, text) name = value,
@@ -341,6 +342,12 @@ EQP_API int eqp_curve_write_csv(const eqp_curve *c, FILE *f);
 /* Write the curve as a table for a reader: a line of column names, a line
 ** of units (mmol, mL, mM), the rows, then the equivalence points. */
 EQP_API int eqp_curve_write_text(const eqp_curve *c, FILE *f);
+/* Save the curve as CSV or as its JSON text in the file path, atomically:
+** written to a temporary file in the same folder, then renamed over path,
+** so a failed write never leaves a truncated file where a good one was.
+** Returns EQP_OK, EQP_E_ARG, EQP_E_NOMEM or EQP_E_WRITE. */
+EQP_API int eqp_curve_save_csv(const eqp_curve *c, const char *path);
+EQP_API int eqp_curve_save_json(const eqp_curve *c, const char *path);
 /* The curve as a JSON text {columns, rows, equivalence_points}; free it
 ** with eqp_free_string. NULL when memory is exhausted. */
 EQP_API char *eqp_curve_to_json(const eqp_curve *c);

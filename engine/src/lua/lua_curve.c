@@ -54,11 +54,9 @@ static int curve_csv(lua_State *L)
 static int curve_write_csv(lua_State *L)
 {
   eqp_curve *c = check_curve(L, 1);
-  const char *path = eqpl_check_name(L, 2, "write_csv: path");
-  FILE *f = fopen(path, "w");
-  if (!f) return eqpl_input_error(L, "cannot write '%s'", path);
-  int rc = eqp_curve_write_csv(c, f);
-  if (fclose(f) != 0 || rc < 0) return eqpl_input_error(L, "error writing '%s'", path);
+  eqpl_check_name(L, 2, "write_csv: path");
+  int rc = eqp_curve_save_csv(c, eqpl_host_path(L, 2, 'w'));
+  if (rc < 0) return eqpl_fail(L, eqpl_ctx_of(L), rc);
   lua_settop(L, 1);
   return 1;
 }
@@ -74,14 +72,10 @@ static int curve_json(lua_State *L)
 
 static int curve_write_json(lua_State *L)
 {
-  const char *path = eqpl_check_name(L, 2, "write_json: path");
-  curve_json(L);
-  FILE *f = fopen(path, "w");
-  if (!f) return eqpl_input_error(L, "cannot write '%s'", path);
-  size_t len;
-  const char *text = lua_tolstring(L, -1, &len);
-  int ok = fwrite(text, 1, len, f) == len && fputc('\n', f) != EOF;
-  if (fclose(f) != 0 || !ok) return eqpl_input_error(L, "error writing '%s'", path);
+  eqp_curve *c = check_curve(L, 1);
+  eqpl_check_name(L, 2, "write_json: path");
+  int rc = eqp_curve_save_json(c, eqpl_host_path(L, 2, 'w'));
+  if (rc < 0) return eqpl_fail(L, eqpl_ctx_of(L), rc);
   lua_settop(L, 1);
   return 1;
 }

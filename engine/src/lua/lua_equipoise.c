@@ -27,6 +27,8 @@ void eqpl_create_meta(lua_State *L, int ctx, const char *name, const luaL_Reg *m
                       lua_CFunction index, const luaL_Reg *meta)
 {
   luaL_newmetatable(L, name);
+  lua_pushstring(L, name);   /* getmetatable(handle) gives the name, not the table */
+  lua_setfield(L, -2, "__metatable");
   lua_pushvalue(L, ctx);
   lua_newtable(L);
   lua_pushvalue(L, ctx);
@@ -97,7 +99,8 @@ void eqpl_load_species(lua_State *L, eqp_ctx *ctx, int idx)
   idx = lua_absindex(L, idx);
   int rc;
   if (lua_type(L, idx) == LUA_TSTRING) {
-    rc = eqp_ctx_load_species_file(ctx, eqpl_check_name(L, idx, "species file"));
+    eqpl_check_name(L, idx, "species file");
+    rc = eqp_ctx_load_species_file(ctx, eqpl_host_path(L, idx, 'r'));
   } else if (lua_type(L, idx) == LUA_TTABLE) {
     lua_Debug ar;
     char where[512] = "inline species";
@@ -203,7 +206,7 @@ int eqp_lua_open(lua_State *L)
     lua_setfield(L, -2, "__gc");
   }
   lua_setmetatable(L, -2);
-  c->ctx = eqp_ctx_new(NULL, NULL);
+  c->ctx = eqpl_host_ctx_new(L);
   if (!c->ctx) return luaL_error(L, "equipoise: out of memory");
   lua_pushlightuserdata(L, c->ctx);   /* for the command's report */
   lua_setfield(L, LUA_REGISTRYINDEX, EQPL_CTX ".ptr");

@@ -26,6 +26,15 @@ typedef struct eqpl_result { eqp_result *r; } eqpl_result;
 typedef struct eqpl_curve { eqp_curve *c; } eqpl_curve;
 typedef struct eqpl_plot { eqp_plot *p; } eqpl_plot;
 
+/* The allocator the host wants the engine to use (registry EQPL_HOOKS.alloc,
+** a light userdata pointing to this). */
+typedef struct eqpl_host_alloc { eqp_alloc_fn fn; void *ud; } eqpl_host_alloc;
+/* The path argument at idx, as the host allows it for reading (mode 'r') or
+** writing ('w'); it replaces the argument. Raises when the host refuses it. */
+const char *eqpl_host_path(lua_State *L, int idx, int mode);
+/* A new context with the host's allocator (or the Lua state's). */
+eqp_ctx *eqpl_host_ctx_new(lua_State *L);
+
 /* Push a new handle userdata of the given size, zeroed, with its metatable
 ** and a link to the context (the caller's upvalue 1) so that the context
 ** outlives it. The handle exists before the C object it will hold, so a

@@ -270,6 +270,8 @@ void eqpl_open_solution(lua_State *L)
 {
   int ctx = lua_gettop(L);
   luaL_newmetatable(L, EQPL_SOLUTION);
+  lua_pushstring(L, EQPL_SOLUTION);   /* getmetatable(s) gives the name, not the table */
+  lua_setfield(L, -2, "__metatable");
   lua_pushvalue(L, ctx);
   luaL_setfuncs(L, solution_meta, 1);
   luaL_newlibtable(L, solution_methods);
