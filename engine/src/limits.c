@@ -33,9 +33,24 @@ void eqpi_limits_init(eqpi_limits *lim, eqp_alloc_fn base, void *base_ud, size_t
 
 /*
 ** Lua answers a refused allocation with a full collection and one retry of
-** the same request; only a refusal that survives the retry (or that nobody
-** retries: the engine's) is the limit really reached.
+** the same request; only a refusal that survives the retry, or that nobody
+** retries (the engine's, a string buffer's: the next request that grows is
+** another one), is the limit really reached.
 */
+/* The limit is reached: make the hook of the script's thread raise at its
+** next instruction (lua_sethook may be called at any time, even from a
+** signal handler, so it may be called from inside an allocation). */
+static void trip_memory(eqpi_limits *lim)
+{
+  lim->pending = 0;
+  if (lim->tripped) return;
+  lim->tripped = EQPI_TRIP_MEMORY;
+  if (lim->L) {
+    lua_Hook h = lua_gethook(lim->L);
+    lua_sethook(lim->L, h ? h : eqpi_limits_hookfn, lua_gethookmask(lim->L) | LUA_MASKCOUNT, 1);
+  }
+}
+
 static void *limits_alloc(eqpi_limits *lim, void *ptr, size_t osize, size_t nsize, int engine)
 {
   if (!ptr) osize = 0;   /* for a new block Lua passes the object type here */
@@ -45,11 +60,12 @@ static void *limits_alloc(eqpi_limits *lim, void *ptr, size_t osize, size_t nsiz
     if (engine) lim->engine_live -= osize;
     return NULL;
   }
+  if (lim->pending && nsize > osize && (lim->pend_ptr != ptr || lim->pend_size != nsize))
+    trip_memory(lim);   /* nobody retried it */
   if (nsize > osize && lim->max_mem && (nsize - osize > lim->max_mem - lim->used)) {
     lim->refusals++;
     if (engine || (lim->pending && lim->pend_ptr == ptr && lim->pend_size == nsize)) {
-      lim->tripped = lim->tripped ? lim->tripped : EQPI_TRIP_MEMORY;
-      lim->pending = 0;
+      trip_memory(lim);
     } else {
       lim->pending = 1;
       lim->pend_ptr = ptr;
@@ -117,7 +133,8 @@ void eqpi_limits_message(const eqpi_limits *lim, char *buf, size_t len)
 /* From now on every instruction raises again, in every pcall that catches it. */
 static int raise_tripped(lua_State *L, eqpi_limits *lim, lua_Debug *ar)
 {
-  lua_sethook(L, lua_gethook(L), lua_gethookmask(L) | LUA_MASKCOUNT, 1);
+  lua_Hook h = lua_gethook(L);
+  lua_sethook(L, h ? h : eqpi_limits_hookfn, lua_gethookmask(L) | LUA_MASKCOUNT, 1);
   if (!lim->where[0]) {
     if (ar && lua_getinfo(L, "Sl", ar) && ar->currentline > 0)
       snprintf(lim->where, sizeof lim->where, "%s:%d", ar->short_src, ar->currentline);
@@ -150,9 +167,14 @@ void eqpi_limits_on_count(lua_State *L, eqpi_limits *lim, lua_Debug *ar)
       lim->tripped = EQPI_TRIP_CPU;
   }
   if (lim->tripped) raise_tripped(L, lim, ar);
-  /* The collector does not see engine memory: when the engine has grown by
-  ** an eighth of the cap (or 64 MiB) since the last time, collect, so that
-  ** the handles of dead solutions give their memory back. */
+  eqpi_limits_collect(L, lim);
+}
+
+/* The collector does not see engine memory: when the engine has grown by an
+** eighth of the cap (or 64 MiB) since the last time, collect, so that the
+** handles of dead solutions give their memory back. */
+void eqpi_limits_collect(lua_State *L, eqpi_limits *lim)
+{
   size_t slack = lim->max_mem ? lim->max_mem / 8 : (size_t)64 << 20;
   if (lim->engine_live > lim->engine_at_gc + slack) {
     lua_gc(L, LUA_GCCOLLECT);

@@ -37,6 +37,7 @@ typedef struct eqpi_limits {
   const void *pend_ptr;       /* a refusal Lua may retry after a collection */
   size_t pend_size;
   int pending;
+  lua_State *L;               /* the thread to stop at once when memory runs out */
   const char *steps_hint;     /* appended to the messages: how to raise the limit */
   const char *mem_hint;
   char where[256];            /* "file:line" where a limit was reached, if known */
@@ -59,6 +60,9 @@ void eqpi_limits_hookfn(lua_State *L, lua_Debug *ar);
 void eqpi_limits_hook(lua_State *L, lua_Hook hook, int extra_mask);
 /* The work of a count event; raises when a limit is reached. */
 void eqpi_limits_on_count(lua_State *L, eqpi_limits *lim, lua_Debug *ar);
+/* Collect garbage if the engine's memory has grown a lot since the last time
+** (the collector does not see it). At a safe point: a hook, a binding. */
+void eqpi_limits_collect(lua_State *L, eqpi_limits *lim);
 /* Charge n units of work done in C; raises when the budget is spent. */
 void eqpi_limits_charge(lua_State *L, eqpi_limits *lim, long long n);
 /* The message for the limit reached, "where: what (hint)". */

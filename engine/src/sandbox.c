@@ -60,6 +60,7 @@ static int sandbox_run(lua_State *L)
   sandbox_env(L);
   lua_setupvalue(L, -2, 1);
   eqpi_limits_hook(L, eqpi_limits_hookfn, 0);
+  eqpi_limits_of(L)->L = L;
   lua_call(L, 0, 1);
   lua_sethook(L, NULL, 0, 0);
   a->rc = eqpi_stage_from_table(a->ctx, a->st, L, -1, a->lm, a->source);

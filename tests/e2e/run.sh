@@ -214,7 +214,7 @@ check ex_exchange 0 "after round 2 .*Tris 0.200 mM" -- "$EQP" run "$EX/protein_b
 # Lennen, J. Phys. Chem. Ref. Data 31, 231 (2002); from memory) moves pKa by -0.175
 check_near ex_warming -0.175 0.01 "shift" -- "$EQP" run "$EX/culture_medium_warming.lua"
 # 0.85 mmol of acid and 0.1 M NaOH: 8.500 mL by stoichiometry
-check ex_unknown_acid 0 "equivalence at 8.500 mL" -- "$EQP" run "$EX/unknown_acid.lua" --param csv="$TMP/curve.csv"
+check ex_unknown_acid 0 "equivalence at 8.500 mL" -- "$EQP" run "$EX/unknown_acid.lua" --param csv="$TMP/curve.csv" --allow-write "$TMP"
 check ex_unknown_csv 0 "amount,volume,total_volume,pH,slope,CH3COO-" -- head -1 "$TMP/curve.csv"
 check ex_recipe 0 "re-made from the printed amounts: pH 7.40" -- "$EQP" run "$EX/physiological_recipe.lua"
 check ex_recipe_caution 0 "Check with a pH meter" -- "$EQP" run "$EX/physiological_recipe.lua"
@@ -229,7 +229,7 @@ check recipe_remake 0 "all recipes re-made" -- "$EQP" run "$CASES/recipe_remake.
 check ten_lines 0 "capacity" -- "$EQP" run "$CASES/ten_lines.lua"
 check adjust_unreachable 3 "adjust_unreachable.lua:3: pH 10.000 is out of reach with HCl" -- "$EQP" run "$CASES/adjust_unreachable.lua"
 check titrate_bad_end 3 "needs an end" -- "$EQP" run "$CASES/titrate_no_end.lua"
-"$EQP" run "$EX/unknown_acid.lua" --json --param csv="$TMP/c2.csv" >"$TMP/j3"
+"$EQP" run "$EX/unknown_acid.lua" --json --param csv="$TMP/c2.csv" --allow-write "$TMP" >"$TMP/j3"
 check json_saturation 0 "^[0-9.-]" -- sh -c "'$EQP' run '$CASES/calcite.lua' --json | '$JSON' results.0.saturation_index.calcite"
 check json_curve 0 "^1$" -- "$JSON" curves.0.equivalence_points < "$TMP/j3"
 # acetate at the equivalence point: C = 0.85 mmol / 58.5 mL; a(OH-) = g sqrt(Kb C),

@@ -4,7 +4,10 @@
 #define EQP_CLI_IMPL_H
 
 #include <equipoise/equipoise.h>
+#include "../limits_impl.h"
+#include "../lua/lua_impl.h"
 #include <lua.h>
+#include <stdio.h>
 
 /* Documented exit codes (docs/equipoise.1, docs/user-guide.md). */
 enum {
@@ -15,8 +18,16 @@ enum {
   EXIT_DATA = 4,       /* malformed or unreadable species data */
   EXIT_CONVERGE = 5,   /* no convergence, or balances that did not close */
   EXIT_PLUGIN = 6,     /* activity model missing or refused */
-  EXIT_NOMEM = 7
+  EXIT_NOMEM = 7,      /* the system ran out of memory */
+  EXIT_STEPS = 8,      /* the script's instruction limit was reached */
+  EXIT_MEMLIMIT = 9,   /* the script's memory limit was reached */
+  EXIT_REFUSED = 10,   /* the sandbox refused a call, a module or a path */
+  EXIT_WRITE = 11      /* an output file could not be written */
 };
+
+#define CLI_DEFAULT_STEPS 1000000000LL          /* instructions */
+#define CLI_DEFAULT_MEMORY ((size_t)1 << 30)    /* bytes */
+#define CLI_MAX_DIRS 16
 
 /* Version of the --json document's layout (docs/json-output.md): bumped
 ** when a key changes meaning or goes away. */
@@ -30,20 +41,83 @@ int cli_species(int argc, char **argv);
 
 typedef struct cli_run {
   const char *script;
-  int json;
-  int verbose;
+  int json, jsonl;             /* one document at the end / one line per event */
+  int verbose, trusted;
+  long long max_steps;         /* 0: no limit */
+  size_t max_memory;           /* bytes; 0: no limit */
   const char **param_names, **param_values;
   int nparams;
-  const char *report;  /* --report FILE.html, or NULL */
+  const char *write_dirs[CLI_MAX_DIRS];   /* --allow-write */
+  int nwrite_dirs;
+  const char *report;          /* --report FILE.html, or NULL */
 } cli_run;
 
+/* Everything one run of a script needs; there is one per process. */
+typedef struct cli_state {
+  const cli_run *run;
+  lua_State *L;
+  eqpi_limits lim;
+  eqpl_host_alloc engine_alloc;   /* the engine's memory goes through lim too */
+  FILE *doc;                      /* the document: the real stdout */
+  FILE *stray;                    /* JSON modes: what others wrote to fd 1 */
+  int log_ref, curves_ref;        /* registry refs: the module's logs */
+  int where_ref, cwhere_ref;      /* registry refs: file:line of each entry */
+  int seen_ref;                   /* registry ref: warnings already shown */
+  size_t nresults, ncurves;       /* entries already observed */
+  char script_dir[4096];
+  char read_roots[CLI_MAX_DIRS + 6][4096];
+  char write_roots[CLI_MAX_DIRS + 1][4096];
+  int nread, nwrite;
+} cli_state;
+
+extern cli_state *cli_current;
+
+/* run.c: run the script, report, return the exit code. */
 int cli_run_script(const cli_run *run);
-/* Write the JSON document of a run (results in the registry log). */
-void cli_write_json(lua_State *L, const cli_run *run, int exit_code, const char *error,
-                    lua_State *printed);
-/* Print cautions and warnings of a finished run to stderr (text mode). */
-void cli_report_text(lua_State *L);
-/* Collect a standard caution for each hazardous reagent used; calls f. */
+/* The document of a run that could not start (usage error), in JSON modes. */
+void cli_report_usage(const cli_run *run, int code, const char *error);
+
+/* sandbox.c: the script's environment (sandboxed, or the full library with
+** --trusted); runs under lua_pcall. */
+void cli_open_environment(lua_State *L, cli_state *st);
+/* Raise a refusal of the sandbox, remembered for the exit code. */
+int cli_refuse(lua_State *L, const char *fmt, ...);
+
+/* paths.c: which folders a sandboxed script may read and write. */
+void cli_paths_init(cli_state *st);
+/* A C function (path, "r"|"w") -> path to use; raises a refusal. */
+int cli_path_check(lua_State *L);
+/* Whether path (resolved) lies in one of the roots; for require. */
+int cli_path_inside(const char *path, const char *root);
+
+/* output.c: what the script prints, and what the run makes, as it happens. */
+int cli_print(lua_State *L);
+/* io.write (returns its upvalue, io.stdout, if any) and io.stdout:write. */
+int cli_write(lua_State *L);
+int cli_write_method(lua_State *L);
+/* EQPL_HOOKS.logged: observe what the module has just logged. */
+int cli_logged(lua_State *L);
+void cli_observe(lua_State *L, cli_state *st);
+/* Write one JSON Lines record (takes ownership of o) and flush it. */
+void cli_emit(cli_state *st, void *cjson_object);
+
+/* report.c: warnings, cautions, the JSON document and the closing record. */
+void cli_report_text(cli_state *st);
+void cli_report_json(cli_state *st, int code, const char *error);
+void cli_report_summary(cli_state *st, int code, const char *error);
+/* The start record of a streamed run. */
+void cli_report_start(cli_state *st);
+/* A result as a JSON object (cJSON *), for the document and the stream. */
+void *cli_result_json(const eqp_result *r, const eqp_ctx *ctx);
+/* The engine context of the run (NULL if the module never opened). */
+eqp_ctx *cli_ctx(lua_State *L);
+/* A JSON string (cJSON *) of len bytes: NUL and invalid UTF-8 become U+FFFD. */
+void *cli_json_bytes(const char *s, size_t len);
+/* Write the JSON text and a newline to f in one write(2), with any invalid
+** UTF-8 replaced by U+FFFD. */
+void cli_put_json_line(FILE *f, const char *text);
+
+/* Collect the caution of each hazardous reagent used; calls f. */
 void cli_each_caution(lua_State *L, void (*f)(void *, const char *), void *ud);
 
 /* Record every call of the module and of solution and curve methods, and

@@ -1,14 +1,17 @@
 /* equipoise: run experiments, explore the species library, list plugins. */
 /* SPDX-License-Identifier: MIT */
 #include "cli_impl.h"
+#include <errno.h>
+#include <signal.h>
 #include <stdio.h>
 #include <stdlib.h>
 #include <limits.h>
 #include <string.h>
 
 const char cli_usage[] =
-  "usage: equipoise run FILE.lua [--param NAME=VALUE ...] [--json] [--report OUT.html]\n"
-  "                                [--verbose]\n"
+  "usage: equipoise run FILE.lua [--param NAME=VALUE ...] [--json | --jsonl]\n"
+  "                 [--report OUT.html] [--verbose] [--allow-write DIR ...]\n"
+  "                 [--max-instructions N] [--max-memory SIZE] [--trusted]\n"
   "       equipoise plot distribution|capacity|csv ... -o OUT.svg|.png|.pdf\n"
   "       equipoise species list [--json] | show NAME [--temperature T] [--json]\n"
   "       equipoise species check FILE\n"
@@ -28,6 +31,13 @@ static const char help[] =
   "                      step with its results, tables, figures, warnings,\n"
   "                      cautions and the provenance of every constant\n"
   "    --verbose         show a Lua stack trace on errors\n"
+  "    --allow-write DIR let the script write files in DIR too (repeatable)\n"
+  "    --max-instructions N   stop the script after N instructions (default\n"
+  "                      1000000000; 0: no limit); suffixes k, M, G\n"
+  "    --max-memory SIZE stop the script beyond SIZE bytes of memory (default 1G;\n"
+  "                      0: no limit); suffixes K, M, G\n"
+  "    --trusted         give a script you trust the full Lua standard library\n"
+  "                      (files, processes, modules); never the default\n"
   "  plot distribution SYSTEM  fractions of each form against pH\n"
   "  plot capacity BUFFER ...  buffer capacity against pH at one total\n"
   "  plot csv FILE.csv         columns of a saved curve or table\n"
@@ -41,8 +51,14 @@ static const char help[] =
   "  species check FILE  validate a species file against the library\n"
   "  plugins             list activity models found on the plugin path\n"
   "\n"
+  "Scripts run sandboxed: no files except through the engine's calls (reading\n"
+  "from the script's folder, the working folder and the species folders,\n"
+  "writing in the working folder and --allow-write folders), no processes, no C\n"
+  "modules, no binary chunks, no debug library.\n"
+  "\n"
   "exit codes: 0 ok, 1 script error, 2 usage, 3 bad input value, 4 species\n"
-  "data error, 5 no convergence, 6 plugin error, 7 out of memory\n"
+  "data error, 5 no convergence, 6 plugin error, 7 out of memory, 8 instruction\n"
+  "limit, 9 memory limit, 10 refused by the sandbox, 11 output file not written\n"
   "\n"
   "environment: EQUIPOISE_SPECIES_PATH (colon-separated species folders, before\n"
   "~/.local/share/equipoise/species and the built-in library), EQUIPOISE_PLUGIN_PATH\n"
@@ -61,6 +77,7 @@ int cli_exit_code(int status)
   case EQP_E_DATA: case EQP_E_IO: return EXIT_DATA;
   case EQP_E_PLUGIN: return EXIT_PLUGIN;
   case EQP_E_CONVERGE: case EQP_E_VERIFY: return EXIT_CONVERGE;
+  case EQP_E_WRITE: return EXIT_WRITE;
   }
   return EXIT_SCRIPT;
 }
@@ -91,48 +108,107 @@ static int cmd_plugins(void)
   return EXIT_OK;
 }
 
+/* "1000", "5M", "2G" (k/M/G: powers of 1000 for counts, of 1024 for sizes). */
+static int parse_amount(const char *s, int binary, unsigned long long *out)
+{
+  char *end;
+  if (!s || !*s || *s == '-') return -1;
+  errno = 0;
+  unsigned long long v = strtoull(s, &end, 10);
+  unsigned long long unit = 1, k = binary ? 1024 : 1000;
+  switch (*end) {
+  case 'k': case 'K': unit = k; end++; break;
+  case 'm': case 'M': unit = k * k; end++; break;
+  case 'g': case 'G': unit = k * k * k; end++; break;
+  }
+  if (binary && (*end == 'B' || *end == 'b')) end++;
+  if (errno || *end || end == s || (v && unit > ULLONG_MAX / v)) return -1;
+  *out = v * unit;
+  return 0;
+}
+
+/* A usage error: in the JSON modes, the same document shape with its status. */
+static int usage_error(const cli_run *run, const char *fmt, const char *arg)
+{
+  char msg[512];
+  snprintf(msg, sizeof msg, fmt, arg);
+  if (run->json || run->jsonl) cli_report_usage(run, EXIT_USAGE, msg);
+  else fprintf(stderr, "equipoise: %s\n%s", msg, cli_usage);
+  return EXIT_USAGE;
+}
+
 static int cmd_run(int argc, char **argv)
 {
   cli_run run = {0};
   const char *names[64], *values[64];
   char *owned[64];
   int nowned = 0, code;
+  unsigned long long amount;
   run.param_names = names;
   run.param_values = values;
+  run.max_steps = CLI_DEFAULT_STEPS;
+  run.max_memory = CLI_DEFAULT_MEMORY;
+  for (int i = 0; i < argc; i++) {   /* first the output form, so that errors take it */
+    if (strcmp(argv[i], "--json") == 0) run.json = 1;
+    if (strcmp(argv[i], "--jsonl") == 0) run.jsonl = 1;
+  }
+  if (run.json && run.jsonl) {
+    run.json = 0;
+    code = usage_error(&run, "%s", "--json and --jsonl: choose one");
+    goto out;
+  }
   for (int i = 0; i < argc; i++) {
     const char *a = argv[i];
-    if (strcmp(a, "--json") == 0) run.json = 1;
+    const char *v = i + 1 < argc ? argv[i + 1] : NULL;
+    if (strcmp(a, "--json") == 0 || strcmp(a, "--jsonl") == 0) continue;
     else if (strcmp(a, "--verbose") == 0) run.verbose = 1;
-    else if (strcmp(a, "--report") == 0 && i + 1 < argc) run.report = argv[++i];
+    else if (strcmp(a, "--trusted") == 0) run.trusted = 1;
+    else if (strcmp(a, "--report") == 0 && v) run.report = argv[++i];
     else if (strncmp(a, "--report=", 9) == 0 && a[9]) run.report = a + 9;
-    else if (strcmp(a, "--param") == 0 || strncmp(a, "--param=", 8) == 0) {
+    else if (strcmp(a, "--allow-write") == 0) {
+      if (!v || run.nwrite_dirs == CLI_MAX_DIRS) {
+        code = usage_error(&run, "%s needs a folder (at most 16)", a);
+        goto out;
+      }
+      run.write_dirs[run.nwrite_dirs++] = argv[++i];
+    } else if (strcmp(a, "--max-instructions") == 0 || strcmp(a, "--max-memory") == 0) {
+      int mem = a[6] == 'm';
+      if (parse_amount(v, mem, &amount) < 0 || amount > (unsigned long long)LLONG_MAX) {
+        code = usage_error(&run, mem ? "--max-memory needs a size such as 512M or 4G, not '%s'"
+                                     : "--max-instructions needs a count such as 5G, not '%s'",
+                           v ? v : "");
+        goto out;
+      }
+      if (mem) run.max_memory = (size_t)amount;
+      else run.max_steps = (long long)amount;
+      i++;
+    } else if (strcmp(a, "--param") == 0 || strncmp(a, "--param=", 8) == 0) {
       const char *kv = a[7] == '=' ? a + 8 : (i + 1 < argc ? argv[++i] : NULL);
       const char *eq = kv ? strchr(kv, '=') : NULL;
       if (!eq || eq == kv || run.nparams == 64) {
-        fprintf(stderr, "equipoise: --param needs NAME=VALUE\n%s", cli_usage);
-        code = EXIT_USAGE;
+        code = usage_error(&run, "--param needs NAME=VALUE%s", kv ? "" : " (none given)");
         goto out;
       }
       char *name = strndup(kv, (size_t)(eq - kv));
-      if (!name) { code = EXIT_NOMEM; goto out; }
+      if (!name) {
+        code = EXIT_NOMEM;
+        goto out;
+      }
       owned[nowned++] = name;
       names[run.nparams] = name;
       values[run.nparams++] = eq + 1;
     } else if (a[0] == '-' && a[1]) {
-      fprintf(stderr, "equipoise: unknown option '%s'\n%s", a, cli_usage);
-      code = EXIT_USAGE;
+      code = usage_error(&run, "unknown option '%s'", a);
       goto out;
     } else if (!run.script) {
       run.script = a;
     } else {
-      fprintf(stderr, "equipoise: one script at a time ('%s' and '%s')\n", run.script, a);
-      code = EXIT_USAGE;
+      code = usage_error(&run, "one script at a time (also '%s')", a);
       goto out;
     }
   }
   if (!run.script) {
-    fprintf(stderr, "equipoise: run needs a script\n%s", cli_usage);
-    code = EXIT_USAGE;
+    code = usage_error(&run, "%s", "run needs a script");
     goto out;
   }
   code = cli_run_script(&run);
@@ -143,6 +219,9 @@ out:
 
 int main(int argc, char **argv)
 {
+  /* a write beyond a file-size limit fails with EFBIG (and the atomic writer
+  ** keeps the old file) instead of killing the process */
+  signal(SIGXFSZ, SIG_IGN);
   if (argc < 2) {
     fputs(cli_usage, stderr);
     return EXIT_USAGE;

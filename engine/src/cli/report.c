@@ -1,18 +1,20 @@
 /* What a run leaves for its reader: JSON document, warnings, cautions. */
 /* SPDX-License-Identifier: MIT */
 #include "cli_impl.h"
-#include "../lua/lua_impl.h"
 #include <cjson/cJSON.h>
+#include <errno.h>
 #include <math.h>
 #include <stdio.h>
+#include <stdlib.h>
 #include <string.h>
+#include <unistd.h>
 
 static const char general_caution[] =
   "Results are model estimates: confirm the pH of every preparation with a calibrated "
   "meter. For clinical, pharmaceutical or food use follow validated methods and local "
   "regulations.";
 
-static eqp_ctx *ctx_of(lua_State *L)
+eqp_ctx *cli_ctx(lua_State *L)
 {
   eqp_ctx *ctx = NULL;
   if (lua_getfield(L, LUA_REGISTRYINDEX, EQPL_CTX ".ptr") == LUA_TLIGHTUSERDATA)
@@ -25,7 +27,7 @@ static eqp_ctx *ctx_of(lua_State *L)
 ** entered a solution, once per reagent. */
 void cli_each_caution(lua_State *L, void (*f)(void *, const char *), void *ud)
 {
-  eqp_ctx *ctx = ctx_of(L);
+  eqp_ctx *ctx = cli_ctx(L);
   for (size_t i = 0; ctx && i < eqp_ctx_caution_count(ctx); i++) f(ud, eqp_ctx_caution(ctx, i));
 }
 
@@ -33,8 +35,14 @@ void cli_each_caution(lua_State *L, void (*f)(void *, const char *), void *ud)
 ** replaced), as warnings. */
 static void each_notice(lua_State *L, void (*f)(void *, const char *), void *ud)
 {
-  eqp_ctx *ctx = ctx_of(L);
+  eqp_ctx *ctx = cli_ctx(L);
   for (size_t i = 0; ctx && i < eqp_ctx_notice_count(ctx); i++) f(ud, eqp_ctx_notice(ctx, i));
+}
+
+static void print_warning(void *ud, const char *text)
+{
+  (void)ud;
+  fprintf(stderr, "warning: %s\n", text);
 }
 
 static void print_caution(void *ud, const char *text)
@@ -42,43 +50,45 @@ static void print_caution(void *ud, const char *text)
   fprintf(stderr, "caution: %s\n", text);
 }
 
-/* Each distinct warning once, in order of appearance. */
-static void each_warning(lua_State *L, void (*f)(void *, const char *), void *ud)
+/* Each distinct warning once, with where its result was made, in order. */
+static void each_warning(cli_state *st, void (*f)(void *, const char *), void *ud)
 {
-  if (lua_getfield(L, LUA_REGISTRYINDEX, EQPL_LOG) != LUA_TTABLE) {
-    lua_pop(L, 1);
-    return;
-  }
+  lua_State *L = st->L;
+  if (!L || st->log_ref == LUA_NOREF) return;
+  lua_rawgeti(L, LUA_REGISTRYINDEX, st->log_ref);
+  lua_rawgeti(L, LUA_REGISTRYINDEX, st->where_ref);
   lua_newtable(L);   /* seen */
-  lua_Integer n = (lua_Integer)lua_rawlen(L, -2);
+  lua_Integer n = (lua_Integer)lua_rawlen(L, -3);
   for (lua_Integer i = 1; i <= n; i++) {
-    lua_rawgeti(L, -2, i);
+    lua_rawgeti(L, -3, i);
     eqpl_result *u = luaL_testudata(L, -1, EQPL_RESULT);
     lua_pop(L, 1);
-    if (!u || !u->r) continue;
-    for (size_t w = 0; w < eqp_result_warning_count(u->r); w++) {
-      const char *text = eqp_result_warning(u->r, w);
-      if (lua_getfield(L, -1, text) == LUA_TNIL) {
+    lua_rawgeti(L, -2, i);
+    const char *where = lua_tostring(L, -1);
+    where = where ? where : "";
+    for (size_t w = 0; u && u->r && w < eqp_result_warning_count(u->r); w++) {
+      lua_pushfstring(L, "%s%s%s", where, *where ? ": " : "", eqp_result_warning(u->r, w));
+      const char *text = lua_tostring(L, -1);
+      if (lua_getfield(L, -3, text) == LUA_TNIL) {
         lua_pushboolean(L, 1);
-        lua_setfield(L, -3, text);
+        lua_setfield(L, -5, text);
         f(ud, text);
       }
-      lua_pop(L, 1);
+      lua_pop(L, 2);
     }
+    lua_pop(L, 1);
   }
-  lua_pop(L, 2);
+  lua_pop(L, 3);
 }
 
-static void print_warning(void *ud, const char *text)
+/* Warnings were shown as they came (output.c); the cautions close the run. */
+void cli_report_text(cli_state *st)
 {
-  fprintf(stderr, "warning: %s\n", text);
-}
-
-void cli_report_text(lua_State *L)
-{
-  each_notice(L, print_warning, NULL);
-  each_warning(L, print_warning, NULL);
-  cli_each_caution(L, print_caution, NULL);
+  if (st->L) {
+    cli_observe(st->L, st);
+    each_notice(st->L, print_warning, NULL);
+    cli_each_caution(st->L, print_caution, NULL);
+  }
 }
 
 static const char water_sources[] =
@@ -122,82 +132,283 @@ static cJSON *result_json(const eqp_result *r, const eqp_ctx *ctx)
   return o;
 }
 
-void cli_write_json(lua_State *L, const cli_run *run, int exit_code, const char *error,
-                    lua_State *unused)
+void *cli_result_json(const eqp_result *r, const eqp_ctx *ctx) { return result_json(r, ctx); }
+
+/* Length of the valid UTF-8 sequence at s (at most n bytes), or 0. */
+static size_t utf8_len(const unsigned char *s, size_t n)
 {
-  eqp_ctx *ctx = NULL;
-  if (lua_getfield(L, LUA_REGISTRYINDEX, EQPL_CTX ".ptr") == LUA_TLIGHTUSERDATA)
-    ctx = lua_touserdata(L, -1);
-  lua_pop(L, 1);
-  cJSON *doc = cJSON_CreateObject();
+  unsigned c = s[0];
+  size_t len = c < 0x80 ? 1 : c >= 0xC2 && c <= 0xDF ? 2 : c >= 0xE0 && c <= 0xEF ? 3
+             : c >= 0xF0 && c <= 0xF4 ? 4 : 0;
+  if (len == 0 || len > n) return 0;
+  unsigned lo = 0x80, hi = 0xBF;   /* the second byte's range excludes overlongs, surrogates */
+  if (c == 0xE0) lo = 0xA0;
+  else if (c == 0xED) hi = 0x9F;
+  else if (c == 0xF0) lo = 0x90;
+  else if (c == 0xF4) hi = 0x8F;
+  for (size_t i = 1; i < len; i++) {
+    if (s[i] < (i == 1 ? lo : 0x80) || s[i] > (i == 1 ? hi : 0xBF)) return 0;
+  }
+  return len;
+}
+
+static const char replacement[] = "\xEF\xBF\xBD";   /* U+FFFD */
+
+void *cli_json_bytes(const char *s, size_t len)
+{
+  size_t cap = len * 3 + 1, k = 0;
+  char *buf = cJSON_malloc(cap);
+  if (!buf) return cJSON_CreateString("");
+  for (size_t i = 0; i < len;) {
+    size_t n = s[i] ? utf8_len((const unsigned char *)s + i, len - i) : 0;
+    if (n) {
+      memcpy(buf + k, s + i, n);
+      k += n;
+      i += n;
+    } else {
+      memcpy(buf + k, replacement, 3);
+      k += 3;
+      i++;
+    }
+  }
+  buf[k] = '\0';
+  cJSON *o = cJSON_CreateString(buf);
+  cJSON_free(buf);
+  return o;
+}
+
+/* text with every invalid UTF-8 sequence replaced by U+FFFD, and a newline;
+** malloc'd, NULL when memory is exhausted. */
+static char *clean_line(const char *text, size_t *out)
+{
+  const unsigned char *s = (const unsigned char *)text;
+  size_t n = strlen(text), k = 0;
+  char *buf = malloc(n * 3 + 2);
+  if (!buf) return NULL;
+  for (size_t i = 0; i < n;) {
+    size_t len = s[i] < 0x80 ? 1 : utf8_len(s + i, n - i);
+    if (len) memcpy(buf + k, s + i, len);
+    else memcpy(buf + k, replacement, 3);
+    k += len ? len : 3;
+    i += len ? len : 1;
+  }
+  buf[k++] = '\n';
+  *out = k;
+  return buf;
+}
+
+void cli_put_json_line(FILE *f, const char *text)
+{
+  size_t len;
+  char *line = clean_line(text, &len);
+  if (!line) {
+    fputs("{\"type\":\"error\",\"text\":\"out of memory while writing a record\"}\n", f);
+    fflush(f);
+    return;
+  }
+  /* one write(2) per record: a kill leaves whole lines behind */
+  fflush(f);
+  for (size_t done = 0; done < len;) {
+    ssize_t w = write(fileno(f), line + done, len - done);
+    if (w < 0 && errno == EINTR) continue;
+    if (w <= 0) break;
+    done += (size_t)w;
+  }
+  free(line);
+}
+
+static void add_head(cJSON *doc, const cli_run *run)
+{
   cJSON_AddNumberToObject(doc, "schema_version", CLI_JSON_SCHEMA_VERSION);
   cJSON_AddStringToObject(doc, "equipoise", EQP_VERSION_STRING);
-  cJSON_AddStringToObject(doc, "script", run->script);
+  cJSON_AddStringToObject(doc, "script", run->script ? run->script : "");
   cJSON *params = cJSON_AddObjectToObject(doc, "params");
   for (int i = 0; i < run->nparams; i++)
     cJSON_AddStringToObject(params, run->param_names[i], run->param_values[i]);
-  cJSON_AddStringToObject(doc, "status", exit_code == 0 ? "ok" : "error");
-  cJSON_AddNumberToObject(doc, "exit_code", exit_code);
+  cJSON_AddBoolToObject(doc, "trusted", run->trusted);
+}
+
+static void add_status(cJSON *doc, int code, const char *error)
+{
+  cJSON_AddStringToObject(doc, "status", code == 0 ? "ok" : "error");
+  cJSON_AddNumberToObject(doc, "exit_code", code);
   if (error) cJSON_AddStringToObject(doc, "error", error);
   else cJSON_AddNullToObject(doc, "error");
-  cJSON *results = cJSON_AddArrayToObject(doc, "results");
-  const eqp_result *used[256];
-  size_t nused = 0;
-  if (lua_getfield(L, LUA_REGISTRYINDEX, EQPL_LOG) == LUA_TTABLE) {
-    lua_Integer n = (lua_Integer)lua_rawlen(L, -1);
-    for (lua_Integer i = 1; i <= n; i++) {
-      lua_rawgeti(L, -1, i);
-      eqpl_result *u = luaL_testudata(L, -1, EQPL_RESULT);
-      if (u && u->r) cJSON_AddItemToArray(results, result_json(u->r, ctx));
-      if (u && u->r && nused < sizeof used / sizeof used[0]) used[nused++] = u->r;
-      lua_pop(L, 1);
+}
+
+/* Each entry of a log (registry ref) with its location, through f. */
+static void each_logged(cli_state *st, int ref, int wref, const char *meta, cJSON *arr,
+                        cJSON *(*f)(void *u, const eqp_ctx *ctx))
+{
+  lua_State *L = st->L;
+  if (!L || ref == LUA_NOREF) return;
+  eqp_ctx *ctx = cli_ctx(L);
+  lua_rawgeti(L, LUA_REGISTRYINDEX, ref);
+  lua_rawgeti(L, LUA_REGISTRYINDEX, wref);
+  lua_Integer n = (lua_Integer)lua_rawlen(L, -2);
+  for (lua_Integer i = 1; i <= n; i++) {
+    lua_rawgeti(L, -2, i);
+    void *u = luaL_testudata(L, -1, meta);
+    cJSON *o = u ? f(u, ctx) : NULL;
+    lua_rawgeti(L, -2, i);
+    if (o) {
+      cJSON_AddStringToObject(o, "where", lua_isstring(L, -1) ? lua_tostring(L, -1) : "");
+      cJSON_AddItemToArray(arr, o);
     }
+    lua_pop(L, 2);
+  }
+  lua_pop(L, 2);
+}
+
+static cJSON *one_result(void *u, const eqp_ctx *ctx)
+{
+  eqpl_result *r = u;
+  return r->r ? result_json(r->r, ctx) : NULL;
+}
+
+static cJSON *one_curve(void *u, const eqp_ctx *ctx)
+{
+  eqpl_curve *c = u;
+  (void)ctx;
+  char *text = c->c ? eqp_curve_to_json(c->c) : NULL;
+  cJSON *o = text ? cJSON_Parse(text) : NULL;
+  eqp_free_string(text);
+  return o;
+}
+
+/* What the script printed (--json) and what others wrote to fd 1, as lines. */
+static void add_output(cli_state *st, cJSON *out)
+{
+  lua_State *L = st->L;
+  luaL_Buffer b;
+  if (!L) return;
+  int t = lua_gettop(L) + 1;
+  lua_getfield(L, LUA_REGISTRYINDEX, "equipoise.output");
+  luaL_buffinit(L, &b);
+  lua_Integer n = lua_istable(L, t) ? (lua_Integer)lua_rawlen(L, t) : 0;
+  for (lua_Integer i = 1; i <= n; i++) {
+    lua_rawgeti(L, t, i);
+    luaL_addvalue(&b);
+  }
+  if (st->stray) {
+    char chunk[4096];
+    size_t got;
+    fflush(stdout);
+    rewind(st->stray);
+    while ((got = fread(chunk, 1, sizeof chunk, st->stray)) > 0) luaL_addlstring(&b, chunk, got);
+  }
+  luaL_pushresult(&b);
+  size_t len;
+  const char *text = lua_tolstring(L, -1, &len);
+  for (size_t i = 0; i < len;) {
+    const char *nl = memchr(text + i, '\n', len - i);
+    size_t end = nl ? (size_t)(nl - text) : len;
+    cJSON_AddItemToArray(out, cli_json_bytes(text + i, end - i));
+    i = end + 1;
+  }
+  lua_settop(L, t - 1);
+}
+
+/* The results of the run (at most max), for the provenance of their constants. */
+static size_t used_results(cli_state *st, const eqp_result **used, size_t max)
+{
+  lua_State *L = st->L;
+  size_t n = 0;
+  if (!L || st->log_ref == LUA_NOREF) return 0;
+  lua_rawgeti(L, LUA_REGISTRYINDEX, st->log_ref);
+  lua_Integer len = (lua_Integer)lua_rawlen(L, -1);
+  for (lua_Integer i = 1; i <= len && n < max; i++) {
+    lua_rawgeti(L, -1, i);
+    eqpl_result *u = luaL_testudata(L, -1, EQPL_RESULT);
+    if (u && u->r) used[n++] = u->r;
+    lua_pop(L, 1);
   }
   lua_pop(L, 1);
-  cJSON *curves = cJSON_AddArrayToObject(doc, "curves");
-  if (lua_getfield(L, LUA_REGISTRYINDEX, EQPL_CURVES) == LUA_TTABLE) {
-    lua_Integer n = (lua_Integer)lua_rawlen(L, -1);
-    for (lua_Integer i = 1; i <= n; i++) {
-      lua_rawgeti(L, -1, i);
-      eqpl_curve *u = luaL_testudata(L, -1, EQPL_CURVE);
-      char *text = u && u->c ? eqp_curve_to_json(u->c) : NULL;
-      cJSON *one = text ? cJSON_Parse(text) : NULL;
-      if (one) cJSON_AddItemToArray(curves, one);
-      eqp_free_string(text);
-      lua_pop(L, 1);
-    }
-  }
-  lua_pop(L, 1);
-  cJSON *out = cJSON_AddArrayToObject(doc, "output");
-  if (lua_getfield(L, LUA_REGISTRYINDEX, "equipoise.output") == LUA_TTABLE) {
-    lua_Integer n = (lua_Integer)lua_rawlen(L, -1);
-    for (lua_Integer i = 1; i <= n; i++) {
-      lua_rawgeti(L, -1, i);
-      cJSON_AddItemToArray(out, cJSON_CreateString(lua_tostring(L, -1)));
-      lua_pop(L, 1);
-    }
-  }
-  lua_pop(L, 1);
+  return n;
+}
+
+static void add_closing(cli_state *st, cJSON *doc)
+{
+  eqp_ctx *ctx = st->L ? cli_ctx(st->L) : NULL;
   cJSON *warnings = cJSON_AddArrayToObject(doc, "warnings");
-  each_notice(L, add_string, warnings);
-  each_warning(L, add_string, warnings);
+  if (st->L) each_notice(st->L, add_string, warnings);
+  each_warning(st, add_string, warnings);
   cJSON *cautions = cJSON_AddArrayToObject(doc, "cautions");
   cJSON_AddItemToArray(cautions, cJSON_CreateString(general_caution));
-  cli_each_caution(L, add_string, cautions);
+  if (st->L) cli_each_caution(st->L, add_string, cautions);
+  cJSON *lim = cJSON_AddObjectToObject(doc, "limits");
+  cJSON_AddNumberToObject(lim, "instructions", (double)st->lim.steps);
+  cJSON_AddNumberToObject(lim, "max_instructions", (double)st->run->max_steps);
+  cJSON_AddNumberToObject(lim, "memory_peak_bytes", (double)st->lim.peak);
+  cJSON_AddNumberToObject(lim, "max_memory_bytes", (double)st->run->max_memory);
   cJSON *prov = cJSON_AddObjectToObject(doc, "provenance");
   cJSON *files = cJSON_AddArrayToObject(prov, "species_files");
   for (size_t i = 0; ctx && i < eqp_ctx_source_count(ctx); i++)
     cJSON_AddItemToArray(files, cJSON_CreateString(eqp_ctx_source_path(ctx, i)));
   cJSON_AddStringToObject(prov, "water_properties", water_sources);
+  const eqp_result *used[256];
+  size_t nused = used_results(st, used, sizeof used / sizeof used[0]);
   char *constants = ctx ? eqp_ctx_constants_to_json(ctx, used, nused) : NULL;
   cJSON *list = constants ? cJSON_Parse(constants) : NULL;
   cJSON_AddItemToObject(prov, "constants", list ? list : cJSON_CreateArray());
   eqp_free_string(constants);
-  char *text = cJSON_Print(doc);
-  if (text) {
-    fputs(text, stdout);
-    fputc('\n', stdout);
-    cJSON_free(text);
-  }
+}
+
+/* cJSON_Print can fail only when memory is exhausted: say so, still in JSON. */
+static void print_doc(cli_state *st, cJSON *doc, int formatted)
+{
+  char *text = doc ? (formatted ? cJSON_Print(doc) : cJSON_PrintUnformatted(doc)) : NULL;
+  if (text) cli_put_json_line(st->doc, text);
+  else fputs("{\"status\":\"error\",\"exit_code\":7,\"error\":\"out of memory while writing "
+             "the report\"}\n", st->doc);
+  fflush(st->doc);
+  cJSON_free(text);
   cJSON_Delete(doc);
+}
+
+void cli_report_json(cli_state *st, int code, const char *error)
+{
+  if (st->L) cli_observe(st->L, st);
+  cJSON *doc = cJSON_CreateObject();
+  add_head(doc, st->run);
+  add_status(doc, code, error);
+  each_logged(st, st->log_ref, st->where_ref, EQPL_RESULT,
+              cJSON_AddArrayToObject(doc, "results"), one_result);
+  each_logged(st, st->curves_ref, st->cwhere_ref, EQPL_CURVE,
+              cJSON_AddArrayToObject(doc, "curves"), one_curve);
+  add_output(st, cJSON_AddArrayToObject(doc, "output"));
+  add_closing(st, doc);
+  print_doc(st, doc, 1);
+}
+
+void cli_report_start(cli_state *st)
+{
+  cJSON *o = cJSON_CreateObject();
+  cJSON_AddStringToObject(o, "type", "start");
+  add_head(o, st->run);
+  print_doc(st, o, 0);
+}
+
+/* The closing record of a stream: what others wrote to fd 1, then the summary. */
+void cli_report_summary(cli_state *st, int code, const char *error)
+{
+  if (st->L) cli_observe(st->L, st);
+  if (st->stray && st->L) {
+    cJSON *lines = cJSON_CreateArray();
+    add_output(st, lines);
+    for (cJSON *l = lines->child; l; l = l->next) {
+      cJSON *o = cJSON_CreateObject();
+      cJSON_AddStringToObject(o, "type", "output");
+      cJSON_AddStringToObject(o, "text", l->valuestring);
+      cli_emit(st, o);
+    }
+    cJSON_Delete(lines);
+  }
+  cJSON *o = cJSON_CreateObject();
+  cJSON_AddStringToObject(o, "type", "summary");
+  add_status(o, code, error);
+  cJSON_AddNumberToObject(o, "results", (double)st->nresults);
+  cJSON_AddNumberToObject(o, "curves", (double)st->ncurves);
+  add_closing(st, o);
+  print_doc(st, o, 0);
 }

@@ -1,123 +1,270 @@
-/* equipoise run: execute an experiment script with the module preloaded. */
+/* equipoise run: the script in its environment and under its limits, run as
+** a coroutine so that after any error its stack still says where it was;
+** then the report, whatever happened. */
 /* SPDX-License-Identifier: MIT */
 #include "cli_impl.h"
-#include "../lua/lua_impl.h"
-#include <lualib.h>
-#include <stdio.h>
+#include <ctype.h>
+#include <fcntl.h>
+#include <stdlib.h>
 #include <string.h>
+#include <unistd.h>
 
-#define EXITKEY "equipoise.exitcode"
-
-/* Message handler: classify the error while its message is still the one the
-** engine raised, then add a stack trace if asked. */
-static int on_error(lua_State *L)
+/* JSON modes: the document goes to a copy of fd 1; fd 1 itself, where the
+** script's libraries and any child process write, goes to a temporary file
+** whose text joins the document's output. */
+static void open_output(cli_state *st)
 {
-  const char *msg = lua_tostring(L, 1);
-  if (!msg) msg = luaL_tolstring(L, 1, NULL);
-  int code = EXIT_SCRIPT;
+  st->doc = stdout;
+  if (!st->run->json && !st->run->jsonl) {
+    setvbuf(stdout, NULL, _IOLBF, 0);   /* printed lines survive a kill */
+    return;
+  }
+  fflush(stdout);
+  int fd = dup(1);
+  FILE *doc = fd >= 0 ? fdopen(fd, "w") : NULL;
+  if (!doc) {
+    if (fd >= 0) close(fd);
+    return;
+  }
+  st->doc = doc;
+  st->stray = tmpfile();
+  int target = st->stray ? fileno(st->stray) : open("/dev/null", O_WRONLY);
+  if (target >= 0) dup2(target, 1);
+  if (!st->stray && target >= 0) close(target);
+}
+
+static void close_output(cli_state *st)
+{
+  fflush(stdout);
+  if (st->doc != stdout) fclose(st->doc);
+  if (st->stray) fclose(st->stray);
+}
+
+/* The panic handler: nothing protected is running; say so and stop. */
+static int on_panic(lua_State *L)
+{
+  (void)L;
+  cli_state *st = cli_current;
+  if (st && (st->run->json || st->run->jsonl))
+    fprintf(st->doc, "{%s\"status\":\"error\",\"exit_code\":%d,\"error\":\"out of memory\"}\n",
+            st->run->jsonl ? "\"type\":\"summary\"," : "", EXIT_NOMEM);
+  else
+    fputs("equipoise: out of memory\n", stderr);
+  fflush(NULL);
+  _exit(EXIT_NOMEM);
+}
+
+/* Under lua_pcall: the environment, the logs to watch, the script loaded as
+** text, and the thread it will run in (left on the stack). */
+static int setup(lua_State *L)
+{
+  cli_state *st = lua_touserdata(L, 1);
+  cli_open_environment(L, st);
+  cli_progress_attach(L);
+  if (st->run->report) cli_journal_install(L);
+  lua_getfield(L, LUA_REGISTRYINDEX, EQPL_LOG);
+  st->log_ref = luaL_ref(L, LUA_REGISTRYINDEX);
+  lua_getfield(L, LUA_REGISTRYINDEX, EQPL_CURVES);
+  st->curves_ref = luaL_ref(L, LUA_REGISTRYINDEX);
+  lua_newtable(L);
+  st->where_ref = luaL_ref(L, LUA_REGISTRYINDEX);
+  lua_newtable(L);
+  st->cwhere_ref = luaL_ref(L, LUA_REGISTRYINDEX);
+  lua_newtable(L);
+  st->seen_ref = luaL_ref(L, LUA_REGISTRYINDEX);
+  lua_State *co = lua_newthread(L);
+  int rc = luaL_loadfilex(co, st->run->script, "t");
+  if (rc != LUA_OK) {
+    lua_xmove(co, L, 1);
+    lua_pushinteger(L, rc);
+    lua_setfield(L, LUA_REGISTRYINDEX, "equipoise.loadstatus");
+    return lua_error(L);
+  }
+  return 1;
+}
+
+/* Whether msg starts with "something:LINE:" (it says where it happened). */
+static int has_location(const char *msg)
+{
+  for (const char *p = msg; *p && *p != '\n'; p++)
+    if (p[0] == ':' && isdigit((unsigned char)p[1])) {
+      const char *q = p + 1;
+      while (isdigit((unsigned char)*q)) q++;
+      if (*q == ':') return 1;
+    }
+  return 0;
+}
+
+static int registry_equals(lua_State *L, const char *key, const char *msg)
+{
+  lua_getfield(L, LUA_REGISTRYINDEX, key);
+  int same = lua_isstring(L, -1) && strcmp(lua_tostring(L, -1), msg) == 0;
+  lua_pop(L, 1);
+  return same;
+}
+
+/* The engine status behind msg, if the bindings raised it. */
+static int engine_status(lua_State *L, const char *msg)
+{
+  int status = 1;
   if (lua_getfield(L, LUA_REGISTRYINDEX, EQPL_LASTERR) == LUA_TTABLE) {
     lua_rawgeti(L, -1, 1);
     lua_rawgeti(L, -2, 2);
     if (lua_isstring(L, -2) && strcmp(lua_tostring(L, -2), msg) == 0)
-      code = cli_exit_code((int)lua_tointeger(L, -1));
+      status = (int)lua_tointeger(L, -1);
     lua_pop(L, 2);
   }
   lua_pop(L, 1);
-  lua_pushinteger(L, code);
-  lua_setfield(L, LUA_REGISTRYINDEX, EXITKEY);
-  lua_getfield(L, LUA_REGISTRYINDEX, "equipoise.verbose");
-  int verbose = lua_toboolean(L, -1);
+  return status;
+}
+
+/* Exit code and message of a script that failed in co with status. */
+static int classify(cli_state *st, lua_State *co, int status, char *msg, size_t len)
+{
+  lua_State *L = st->L;
+  eqpi_limits *lim = &st->lim;
+  char where[300];
+  eqpi_lua_where(co, where, sizeof where);
+  const char *text = lua_type(co, -1) == LUA_TSTRING || lua_type(co, -1) == LUA_TNUMBER
+                   ? lua_tostring(co, -1) : NULL;
+  int memerr = status == LUA_ERRMEM || (text && strcmp(text, "not enough memory") == 0);
+  if (!lim->tripped && memerr && lim->refusals && !lim->oom) lim->tripped = EQPI_TRIP_MEMORY;
+  if (lim->tripped) {
+    if (!lim->where[0]) snprintf(lim->where, sizeof lim->where, "%.255s", where);
+    eqpi_limits_message(lim, msg, len);
+    return lim->tripped == EQPI_TRIP_STEPS ? EXIT_STEPS : EXIT_MEMLIMIT;
+  }
+  int engine = text ? engine_status(L, text) : 1;
+  if (memerr || engine == EQP_E_NOMEM) {
+    snprintf(msg, len, "%s%sout of memory: the system refused an allocation (the script's "
+             "memory limit was not reached)", where, where[0] ? ": " : "");
+    return EXIT_NOMEM;
+  }
+  if (!text) {
+    snprintf(msg, len, "%s%s(error object is a %s value)", where, where[0] ? ": " : "",
+             luaL_typename(co, -1));
+    return EXIT_SCRIPT;
+  }
+  if (has_location(text) || !where[0]) snprintf(msg, len, "%s", text);
+  else snprintf(msg, len, "%s: %s", where, text);
+  if (registry_equals(L, "equipoise.refused", text)) return EXIT_REFUSED;
+  return engine < 0 ? cli_exit_code(engine) : EXIT_SCRIPT;
+}
+
+/* The script could not be loaded, or the environment not made. */
+static int classify_setup(cli_state *st, int status, char *msg, size_t len)
+{
+  lua_State *L = st->L;
+  const char *text = lua_tostring(L, -1);
+  lua_getfield(L, LUA_REGISTRYINDEX, "equipoise.loadstatus");
+  int load = lua_isinteger(L, -1) ? (int)lua_tointeger(L, -1) : LUA_OK;
   lua_pop(L, 1);
-  if (verbose) luaL_traceback(L, L, msg, 1);
-  else lua_pushstring(L, msg);
-  return 1;
+  snprintf(msg, len, "%s", text ? text : "cannot start the script");
+  if (status == LUA_ERRMEM || load == LUA_ERRMEM) {
+    snprintf(msg, len, "%s: out of memory while loading the script", st->run->script);
+    return st->lim.refusals && !st->lim.oom ? EXIT_MEMLIMIT : EXIT_NOMEM;
+  }
+  if (load == LUA_ERRFILE) return EXIT_USAGE;
+  if (text && strstr(text, "binary chunk")) {
+    snprintf(msg, len, "%s: a binary chunk is not accepted: run the Lua source text",
+             st->run->script);
+    return EXIT_REFUSED;
+  }
+  if (load != LUA_OK) return EXIT_SCRIPT;
+  int engine = engine_status(L, text ? text : "");
+  if (engine < 0) return cli_exit_code(engine);
+  return text && strstr(text, "out of memory") ? EXIT_NOMEM : EXIT_SCRIPT;
 }
 
-/* In --json mode print() lines are kept for the document. */
-static int captured_print(lua_State *L)
+static void report(cli_state *st, int code, const char *msg, const char *trace)
 {
-  int n = lua_gettop(L);
-  luaL_Buffer b;
-  luaL_buffinit(L, &b);
-  for (int i = 1; i <= n; i++) {
-    size_t len;
-    const char *s = luaL_tolstring(L, i, &len);
-    if (i > 1) luaL_addchar(&b, '\t');
-    luaL_addlstring(&b, s, len);
-    lua_pop(L, 1);
+  if (st->run->jsonl) {
+    cli_report_summary(st, code, msg);
+  } else if (st->run->json) {
+    cli_report_json(st, code, msg);
+  } else {
+    if (msg) fprintf(stderr, "equipoise: %s\n", trace ? trace : msg);
+    cli_report_text(st);
   }
-  luaL_pushresult(&b);
-  lua_getfield(L, LUA_REGISTRYINDEX, "equipoise.output");
-  lua_pushvalue(L, -2);
-  lua_rawseti(L, -2, (lua_Integer)lua_rawlen(L, -2) + 1);
-  return 0;
 }
 
-static void set_params(lua_State *L, const cli_run *run)
+static void init_state(cli_state *st, const cli_run *run)
 {
-  lua_createtable(L, 0, run->nparams);
-  for (int i = 0; i < run->nparams; i++) {
-    lua_pushstring(L, run->param_values[i]);
-    lua_setfield(L, -2, run->param_names[i]);
-  }
-  lua_setglobal(L, "params");
+  memset(st, 0, sizeof *st);
+  st->run = run;
+  st->log_ref = st->curves_ref = st->where_ref = st->cwhere_ref = st->seen_ref = LUA_NOREF;
+  eqpi_limits_init(&st->lim, NULL, NULL, run->max_memory, run->max_steps);
+  st->lim.steps_hint = "raise it with --max-instructions N, or 0 for no limit";
+  st->lim.mem_hint = "raise it with --max-memory SIZE such as 4G, or 0 for no limit";
+  st->engine_alloc.fn = eqpi_limits_engine_alloc;
+  st->engine_alloc.ud = &st->lim;
+  const char *slash = strrchr(run->script, '/');
+  if (slash == run->script) snprintf(st->script_dir, sizeof st->script_dir, "/");
+  else if (slash) snprintf(st->script_dir, sizeof st->script_dir, "%.*s",
+                           (int)(slash - run->script), run->script);
+  else snprintf(st->script_dir, sizeof st->script_dir, ".");
+  cli_current = st;
+}
+
+void cli_report_usage(const cli_run *run, int code, const char *error)
+{
+  static cli_state st;
+  init_state(&st, run);
+  st.doc = stdout;
+  if (run->jsonl) cli_report_start(&st);
+  report(&st, code, error, NULL);
 }
 
 int cli_run_script(const cli_run *run)
 {
-  lua_State *L = luaL_newstate();
-  if (!L) return EXIT_NOMEM;
-  luaL_openlibs(L);
-  luaL_getsubtable(L, LUA_REGISTRYINDEX, LUA_PRELOAD_TABLE);
-  lua_pushcfunction(L, luaopen_equipoise);
-  lua_setfield(L, -2, "equipoise");
-  lua_pop(L, 1);
-  lua_pushboolean(L, run->verbose);
-  lua_setfield(L, LUA_REGISTRYINDEX, "equipoise.verbose");
-  lua_newtable(L);
-  lua_setfield(L, LUA_REGISTRYINDEX, "equipoise.output");
+  static cli_state st;   /* one run per process; the hooks find it through cli_current */
+  static char msg[4096];
+  init_state(&st, run);
+  open_output(&st);
+  cli_paths_init(&st);
+  if (run->jsonl) cli_report_start(&st);
+  lua_State *L = st.L = lua_newstate(eqpi_limits_lua_alloc, &st.lim);
+  if (!L) {
+    report(&st, EXIT_NOMEM, "out of memory", NULL);
+    close_output(&st);
+    return EXIT_NOMEM;
+  }
+  lua_atpanic(L, on_panic);
   int code = EXIT_OK;
-  const char *err = NULL;
-  lua_pushcfunction(L, on_error);
-  int handler = lua_gettop(L);
-  lua_getglobal(L, "require");
-  lua_pushstring(L, "equipoise");
-  if (lua_pcall(L, 1, 1, handler) != LUA_OK) {
-    err = lua_tostring(L, -1);
-    code = EXIT_NOMEM;
-    goto report;
-  }
-  lua_setglobal(L, "eq");
-  set_params(L, run);
-  if (run->json) {
-    lua_pushcfunction(L, captured_print);
-    lua_setglobal(L, "print");
-  }
-  cli_progress_attach(L);
-  if (run->report) cli_journal_install(L);
-  int lrc = luaL_loadfilex(L, run->script, "t");
-  if (lrc != LUA_OK) {
-    err = lua_tostring(L, -1);
-    code = lrc == LUA_ERRFILE ? EXIT_USAGE : EXIT_SCRIPT;
-    goto report;
-  }
-  if (lua_pcall(L, 0, 0, handler) != LUA_OK) {
-    err = lua_tostring(L, -1);
-    lua_getfield(L, LUA_REGISTRYINDEX, EXITKEY);
-    code = lua_isinteger(L, -1) ? (int)lua_tointeger(L, -1) : EXIT_SCRIPT;
-    lua_pop(L, 1);
-  }
-report:
-  fflush(stdout);   /* whatever the script printed stays printed */
-  if (run->json) {
-    cli_write_json(L, run, code, err, NULL);
+  const char *err = NULL, *trace = NULL;
+  lua_pushcfunction(L, setup);
+  lua_pushlightuserdata(L, &st);
+  int status = lua_pcall(L, 1, 1, 0);
+  if (status != LUA_OK) {
+    code = classify_setup(&st, status, msg, sizeof msg);
+    err = msg;
   } else {
-    if (err) fprintf(stderr, "equipoise: %s\n", err);
-    cli_report_text(L);
+    lua_State *co = lua_tothread(L, -1);
+    /* the count hook costs every instruction a check: none without a limit */
+    if (run->max_steps) eqpi_limits_hook(co, eqpi_limits_hookfn, 0);
+    st.lim.L = co;
+    int nres;
+    status = lua_resume(co, L, 0, &nres);
+    lua_sethook(co, NULL, 0, 0);
+    if (status == LUA_YIELD) {
+      snprintf(msg, sizeof msg, "%s: the script yielded outside a coroutine", run->script);
+      code = EXIT_SCRIPT;
+      err = msg;
+    } else if (status != LUA_OK) {
+      code = classify(&st, co, status, msg, sizeof msg);
+      err = msg;
+      if (run->verbose) {
+        luaL_traceback(L, co, msg, 0);
+        trace = lua_tostring(L, -1);
+      }
+    }
   }
+  st.lim.max_mem = 0;   /* the report is not the script: no cap on it */
+  report(&st, code, err, trace);
   if (run->report && cli_write_report(L, run, code, err) < 0 && code == EXIT_OK)
-    code = EXIT_DATA;
-  fflush(stdout);
+    code = EXIT_WRITE;
   lua_close(L);
+  st.L = NULL;
+  close_output(&st);
   return code;
 }

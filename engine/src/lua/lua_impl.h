@@ -32,6 +32,9 @@ typedef struct eqpl_host_alloc { eqp_alloc_fn fn; void *ud; } eqpl_host_alloc;
 /* The path argument at idx, as the host allows it for reading (mode 'r') or
 ** writing ('w'); it replaces the argument. Raises when the host refuses it. */
 const char *eqpl_host_path(lua_State *L, int idx, int mode);
+/* Append the value at the top to the registry log (EQPL_LOG, EQPL_CURVES)
+** and tell the host (EQPL_HOOKS.logged, called with the log's name). */
+void eqpl_log(lua_State *L, const char *log);
 /* A new context with the host's allocator (or the Lua state's). */
 eqp_ctx *eqpl_host_ctx_new(lua_State *L);
 

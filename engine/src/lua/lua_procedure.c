@@ -234,10 +234,7 @@ static int sol_titrate(lua_State *L)
   int rc = eqp_solution_titrate(u->s, &t, &c);
   if (rc < 0) return eqpl_fail(L, ctx, rc);
   eqpl_push_curve(L, c);
-  lua_getfield(L, LUA_REGISTRYINDEX, EQPL_CURVES);
-  lua_pushvalue(L, -2);
-  lua_rawseti(L, -2, (lua_Integer)lua_rawlen(L, -2) + 1);
-  lua_pop(L, 1);
+  eqpl_log(L, EQPL_CURVES);
   return 1;
 }
 

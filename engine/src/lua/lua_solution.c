@@ -181,10 +181,7 @@ static int solution_equilibrate(lua_State *L)
   int rc = eqp_solution_equilibrate(u->s, &r);
   if (rc < 0) return eqpl_fail(L, ctx, rc);
   eqpl_push_result(L, r);
-  lua_getfield(L, LUA_REGISTRYINDEX, EQPL_LOG);
-  lua_pushvalue(L, -2);
-  lua_rawseti(L, -2, (lua_Integer)lua_rawlen(L, -2) + 1);
-  lua_pop(L, 1);
+  eqpl_log(L, EQPL_LOG);
   return 1;
 }
 
