@@ -254,10 +254,17 @@ int cli_run_script(const cli_run *run)
       code = classify(&st, co, status, msg, sizeof msg);
       err = msg;
       if (run->verbose) {
+        static char tb[8192];
         luaL_traceback(L, co, msg, 0);
-        trace = lua_tostring(L, -1);
+        snprintf(tb, sizeof tb, "%s", lua_tostring(L, -1));
+        trace = tb;
+        lua_pop(L, 1);
       }
     }
+    /* the script's own data goes before the report is made: out of memory,
+    ** the report still needs some */
+    lua_settop(L, 0);
+    lua_gc(L, LUA_GCCOLLECT);
   }
   st.lim.max_mem = 0;   /* the report is not the script: no cap on it */
   report(&st, code, err, trace);
