@@ -150,7 +150,9 @@ static int sandbox_require(lua_State *L)
   const char *path = lua_tostring(L, -1);
   char real[4096], root[4096];
   if (!realpath(path, real))
-    return luaL_error(L, "module '%s' not found: no file %s beside the script", name, path);
+    return luaL_error(L, "module '%s' not found: no file %s beside the script (a sandboxed "
+                      "script may require only Lua files beside it; C modules need --trusted)",
+                      name, path);
   if (!realpath(st->script_dir, root) || !cli_path_inside(real, root))
     return cli_refuse(L, "require '%s': %s leads outside the script's folder (%s)", name, path,
                       hint);
