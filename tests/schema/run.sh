@@ -1,9 +1,9 @@
 #!/bin/sh
 # The JSON documents of the command against docs/equipoise-output.schema.json
 # (python3-jsonschema), on the --json output of every example in
-# scripts/examples/, of a failing run, and of `species show` and `species
-# list`; and the table of names shared by docs/lua-api.md and
-# docs/json-output.md, which must be the same in both.
+# scripts/examples/, of a failing run, every record of a --jsonl run, and of
+# `species show` and `species list`; and the table of names shared by
+# docs/lua-api.md and docs/json-output.md, which must be the same in both.
 # Usage: run.sh EQUIPOISE SOURCE_DIR
 set -u
 EQP=$(cd "$(dirname "$1")" && pwd)/$(basename "$1"); SRC=$2
@@ -36,6 +36,11 @@ done
 # a run that fails half-way is one valid document too
 "$EQP" run "$SRC/tests/e2e/cases/negative.lua" --json >"$TMP/run_error.json"
 "$PY" "$SRC/tests/schema/validate.py" "$SCHEMA" run "$DOC" "$TMP"/run*.json || fail=1
+# every line of a streamed run (--jsonl) is a record
+(cd "$TMP" && "$EQP" run "$SRC/scripts/examples/unknown_acid.lua" --jsonl >"$TMP/stream.jsonl" 2>/dev/null)
+mkdir -p "$TMP/lines"
+awk -v dir="$TMP/lines" '{ f = sprintf("%s/line%04d.json", dir, NR); print > f; close(f) }' "$TMP/stream.jsonl"
+"$PY" "$SRC/tests/schema/validate.py" "$SCHEMA" record "$DOC" "$TMP"/lines/*.json || fail=1
 
 for name in H2PO4- OH- phosphate Tris calcite "CO2(g)" Na2HPO4.7H2O "sodium acetate" CH3COOH; do
   n=$((n + 1))
