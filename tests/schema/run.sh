@@ -38,6 +38,8 @@ done
 "$PY" "$SRC/tests/schema/validate.py" "$SCHEMA" run "$DOC" "$TMP"/run*.json || fail=1
 # every line of a streamed run (--jsonl) is a record
 (cd "$TMP" && "$EQP" run "$SRC/scripts/examples/unknown_acid.lua" --jsonl >"$TMP/stream.jsonl" 2>/dev/null)
+(cd "$TMP" && "$EQP" run "$SRC/tests/e2e/cases/high_ionic.lua" --jsonl >>"$TMP/stream.jsonl")
+(cd "$TMP" && "$EQP" run "$SRC/tests/e2e/cases/negative.lua" --jsonl >>"$TMP/stream.jsonl" 2>/dev/null)
 mkdir -p "$TMP/lines"
 awk -v dir="$TMP/lines" '{ f = sprintf("%s/line%04d.json", dir, NR); print > f; close(f) }' "$TMP/stream.jsonl"
 "$PY" "$SRC/tests/schema/validate.py" "$SCHEMA" record "$DOC" "$TMP"/lines/*.json || fail=1
