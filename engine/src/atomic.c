@@ -63,3 +63,17 @@ int eqpi_write_atomic(eqp_ctx *ctx, const char *path, eqpi_fill_fn fill, void *u
   unlink(tmp);
   return err ? fail_write(ctx, path, err) : rc;
 }
+
+typedef struct bytes { const char *data; size_t len; } bytes;
+
+static int fill_bytes(void *ud, FILE *f)
+{
+  const bytes *b = ud;
+  return fwrite(b->data, 1, b->len, f) == b->len ? EQP_OK : EQP_E_WRITE;
+}
+
+int eqpi_write_file_atomic(eqp_ctx *ctx, const char *path, const char *data, size_t len)
+{
+  bytes b = {data, len};
+  return eqpi_write_atomic(ctx, path, fill_bytes, &b);
+}

@@ -20,5 +20,7 @@ typedef int (*eqpi_fill_fn)(void *ud, FILE *f);
 ** EQP_E_WRITE with "cannot write 'path': reason" in the context.
 */
 int eqpi_write_atomic(eqp_ctx *ctx, const char *path, eqpi_fill_fn fill, void *ud);
+/* The same for len bytes of data already in memory (figures, reports). */
+int eqpi_write_file_atomic(eqp_ctx *ctx, const char *path, const char *data, size_t len);
 
 #endif

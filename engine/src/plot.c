@@ -2,6 +2,7 @@
 ** built, and its output to memory or, atomically, to a file. */
 /* SPDX-License-Identifier: MIT */
 #include "plot_impl.h"
+#include "atomic_impl.h"
 #include <errno.h>
 #include <math.h>
 #include <stdio.h>
@@ -204,36 +205,6 @@ int eqp_plot_render(eqp_plot *p, eqp_plot_format fmt, char **data, size_t *len)
   if (fmt != EQP_PLOT_SVG && fmt != EQP_PLOT_PNG && fmt != EQP_PLOT_PDF)
     return eqpi_fail(p->ctx, EQP_E_ARG, "unknown plot format %d", (int)fmt);
   return eqpi_plot_draw(p, fmt, data, len);
-}
-
-int eqpi_write_file_atomic(eqp_ctx *ctx, const char *path, const char *data, size_t len)
-{
-  size_t n = strlen(path);
-  char *tmp = eqpi_malloc(ctx, n + 16);
-  if (!tmp) return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
-  /* the same folder as the target, so that rename() does not cross devices */
-  snprintf(tmp, n + 16, "%s.tmpXXXXXX", path);
-  int fd = mkstemp(tmp);
-  mode_t mask = umask(0);       /* mkstemp makes 0600; give the usual 0666 & ~umask */
-  umask(mask);
-  if (fd >= 0) fchmod(fd, 0666 & ~mask);
-  if (fd < 0) {
-    int e = errno;
-    eqpi_free(ctx, tmp, n + 16);
-    return eqpi_fail(ctx, EQP_E_IO, "cannot write '%s': %s", path, strerror(e));
-  }
-  FILE *f = fdopen(fd, "wb");
-  int ok = f && fwrite(data, 1, len, f) == len;
-  ok = f ? (fclose(f) == 0 && ok) : (close(fd), 0);
-  int e = errno;
-  if (ok && rename(tmp, path) != 0) {
-    ok = 0;
-    e = errno;
-  }
-  if (!ok) unlink(tmp);
-  eqpi_free(ctx, tmp, n + 16);
-  if (!ok) return eqpi_fail(ctx, EQP_E_IO, "cannot write '%s': %s", path, strerror(e));
-  return EQP_OK;
 }
 
 int eqp_plot_write(eqp_plot *p, const char *path)

@@ -51,8 +51,5 @@ void eqpi_plot_label(const eqp_ctx *ctx, const char *in, char *out, size_t len);
 /* Draw the figure with PLplot into malloc'd memory (plot_render.c). */
 int eqpi_plot_draw(eqp_plot *p, eqp_plot_format fmt, char **data, size_t *len);
 
-/* Write len bytes to path through a temporary file in the same folder and
-** a rename, so that a reader never sees a partial file. */
-int eqpi_write_file_atomic(eqp_ctx *ctx, const char *path, const char *data, size_t len);
 
 #endif

@@ -287,7 +287,7 @@ static void formats_and_files(void **state)
   snprintf(path, sizeof path, "%s/figure.gif", dir);
   assert_int_equal(eqp_plot_write(p, path), EQP_E_INPUT);
   snprintf(path, sizeof path, "%s/no/such/folder/figure.png", dir);
-  assert_int_equal(eqp_plot_write(p, path), EQP_E_IO);
+  assert_int_equal(eqp_plot_write(p, path), EQP_E_WRITE);
   assert_contains(eqp_ctx_errmsg(ctx), "cannot write");
   snprintf(path, sizeof path, "%s/figure.svg", dir);
   unlink(path);

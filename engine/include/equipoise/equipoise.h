@@ -451,7 +451,7 @@ EQP_API int eqp_plot_format_of(const char *path);
 /* Draw into memory: *data is malloc'd (free with eqp_free_buffer). */
 EQP_API int eqp_plot_render(eqp_plot *p, eqp_plot_format fmt, char **data, size_t *len);
 /* Draw and write path atomically (a temporary file in the same folder,
-** then rename); the format from the extension. EQP_E_IO on failure. */
+** then rename); the format from the extension. EQP_E_WRITE on failure. */
 EQP_API int eqp_plot_write(eqp_plot *p, const char *path);
 EQP_API void eqp_free_buffer(void *p);
 /* The display form of a species name with Unicode sub- and superscripts

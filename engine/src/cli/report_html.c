@@ -5,6 +5,7 @@
 /* SPDX-License-Identifier: MIT */
 #include "cli_impl.h"
 #include "../lua/lua_impl.h"
+#include "../atomic_impl.h"
 #include <errno.h>
 #include <math.h>
 #include <stdio.h>
@@ -548,27 +549,6 @@ static void source_listing(report *rp, const char *path)
 
 /* ------------------------------------------------------------- write */
 
-static int write_atomic(const char *path, const char *data, size_t len)
-{
-  size_t n = strlen(path) + 16;
-  char *tmp = malloc(n);
-  if (!tmp) return -1;
-  snprintf(tmp, n, "%s.tmpXXXXXX", path);
-  int fd = mkstemp(tmp), ok = fd >= 0;
-  if (ok) {
-    mode_t mask = umask(0);
-    umask(mask);
-    fchmod(fd, 0666 & ~mask);
-    FILE *f = fdopen(fd, "wb");
-    ok = f && fwrite(data, 1, len, f) == len;
-    ok = f ? fclose(f) == 0 && ok : (close(fd), 0);
-    if (ok) ok = rename(tmp, path) == 0;
-    if (!ok) unlink(tmp);
-  }
-  free(tmp);
-  return ok ? 0 : -1;
-}
-
 int cli_write_report(lua_State *L, const cli_run *run, int exit_code, const char *error)
 {
   report rp = {L, NULL, NULL, 0, LUA_NOREF};
@@ -635,10 +615,8 @@ int cli_write_report(lua_State *L, const cli_run *run, int exit_code, const char
     free(buf);
     return -1;
   }
-  int rc = write_atomic(run->report, buf, len);
+  int rc = eqpi_write_file_atomic(rp.ctx, run->report, buf, len);
   free(buf);
-  if (rc < 0)
-    fprintf(stderr, "equipoise: cannot write the report '%s': %s\n", run->report,
-            strerror(errno));
+  if (rc < 0) fprintf(stderr, "equipoise: the report: %s\n", eqp_ctx_errmsg(rp.ctx));
   return rc;
 }

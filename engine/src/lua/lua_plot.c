@@ -132,7 +132,14 @@ static void push_plot(lua_State *L, eqp_plot *p, const char *file)
   lua_settop(L, obj);
 }
 
-/* Write (when file is given) and push the plot object; frees p on failure. */
+static int host_path(lua_State *L)
+{
+  eqpl_host_path(L, 1, 'w');
+  return 1;
+}
+
+/* Write (when file is given, and the host allows it) and push the plot
+** object; frees p on failure. */
 static int finish_plot(lua_State *L, eqp_plot *p, int rc, const char *file)
 {
   eqp_ctx *ctx = eqpl_ctx_of(L);
@@ -140,18 +147,27 @@ static int finish_plot(lua_State *L, eqp_plot *p, int rc, const char *file)
     eqp_plot_free(p);
     return eqpl_fail(L, ctx, rc);
   }
-  if (file && (rc = eqp_plot_write(p, file)) < 0) {
+  if (file) {
+    lua_pushcfunction(L, host_path);
+    lua_pushstring(L, file);
+    if (lua_pcall(L, 1, 1, 0) != LUA_OK) {
+      eqp_plot_free(p);
+      return lua_error(L);
+    }
+  }
+  if (file && (rc = eqp_plot_write(p, lua_tostring(L, -1))) < 0) {
     eqp_plot_free(p);
     return eqpl_fail(L, ctx, rc);
   }
-  push_plot(L, p, file);
+  push_plot(L, p, file);   /* the name as the script gave it */
   return 1;
 }
 
 static int plot_write(lua_State *L)
 {
   eqp_plot *p = check_plot(L, 1);
-  int rc = eqp_plot_write(p, luaL_checkstring(L, 2));
+  luaL_checkstring(L, 2);
+  int rc = eqp_plot_write(p, eqpl_host_path(L, 2, 'w'));
   if (rc < 0) return eqpl_fail(L, eqpl_ctx_of(L), rc);
   lua_settop(L, 1);
   return 1;
