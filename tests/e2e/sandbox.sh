@@ -104,6 +104,16 @@ check write_inside 0 "rows" -- "$EQP" run w_curve.lua --param csv=sub/../inside.
 [ -s "$W/inside.csv" ] || bad "write_inside: no file"
 check write_allowed 0 "rows" -- "$EQP" run w_curve.lua --param csv="$TMP/allowed/x.csv" --allow-write "$TMP/allowed"
 [ -s "$TMP/allowed/x.csv" ] || bad "write_allowed: no file"
+snippet w_plot 'local a = eq.solution{ volume = "50 mL" }
+a:add("CH3COOH", "0.85 mmol")
+local b = eq.solution{ volume = "1 L" }
+b:add("NaOH", "0.1 mol")
+a:titrate{ with = b, step = "0.5 mL", to = "15 mL" }:plot(params.file)
+print("plotted")'
+check plot_dotdot 10 "w_plot.lua:5: '../fig.svg' is outside the folders" -- "$EQP" run w_plot.lua --param file=../fig.svg
+[ -e "$TMP/fig.svg" ] && bad "a figure escaped with .."
+check plot_inside 0 "plotted" -- "$EQP" run w_plot.lua --param file=sub/fig.svg
+[ -s "$W/sub/fig.svg" ] || bad "plot_inside: no figure"
 cp "$CASES/good_species.lua" "$TMP/outside/more.lua"
 snippet r_outside "eq.load_species(\"$TMP/outside/more.lua\")"
 check read_outside 10 "is outside the folders a script may read" -- "$EQP" run r_outside.lua
