@@ -132,28 +132,38 @@ static void warn_once(lua_State *L, cli_state *st, const char *where, const char
   lua_pop(L, 2);
 }
 
-static void observe_results(lua_State *L, cli_state *st, size_t n, const char *where)
+/* Where a result was made is looked up (it costs a walk of the stack) only
+** when something needs it: the JSON modes, or a warning to show. */
+static void observe_results(lua_State *L, cli_state *st, size_t n)
 {
-  eqp_ctx *ctx = cli_ctx(L);
+  eqp_ctx *ctx = st->run->jsonl ? cli_ctx(L) : NULL;
+  int record = st->run->json || st->run->jsonl, located = 0;
+  char where[300] = "";
   for (size_t i = st->nresults + 1; i <= n; i++) {
-    lua_rawgeti(L, LUA_REGISTRYINDEX, st->where_ref);
-    lua_pushstring(L, where);
-    lua_rawseti(L, -2, (lua_Integer)i);
-    lua_pop(L, 1);
     lua_rawgeti(L, -1, (lua_Integer)i);
     eqpl_result *u = luaL_testudata(L, -1, EQPL_RESULT);
     lua_pop(L, 1);
-    if (!u || !u->r) continue;
-    if (st->run->jsonl) emit_entry(st, "result", i, where, cli_result_json(u->r, ctx));
-    for (size_t w = 0; w < eqp_result_warning_count(u->r); w++)
-      warn_once(L, st, where, eqp_result_warning(u->r, w));
+    size_t nwarn = u && u->r ? eqp_result_warning_count(u->r) : 0;
+    if (!record && nwarn == 0) continue;
+    if (!located++) eqpi_lua_where(L, where, sizeof where);
+    if (record) {
+      lua_rawgeti(L, LUA_REGISTRYINDEX, st->where_ref);
+      lua_pushstring(L, where);
+      lua_rawseti(L, -2, (lua_Integer)i);
+      lua_pop(L, 1);
+    }
+    if (st->run->jsonl && u && u->r)
+      emit_entry(st, "result", i, where, cli_result_json(u->r, ctx));
+    for (size_t w = 0; w < nwarn; w++) warn_once(L, st, where, eqp_result_warning(u->r, w));
   }
   st->nresults = n;
 }
 
-static void observe_curves(lua_State *L, cli_state *st, size_t n, const char *where)
+static void observe_curves(lua_State *L, cli_state *st, size_t n)
 {
-  for (size_t i = st->ncurves + 1; i <= n; i++) {
+  char where[300];
+  if (st->run->json || st->run->jsonl) eqpi_lua_where(L, where, sizeof where);
+  for (size_t i = st->ncurves + 1; i <= n && (st->run->json || st->run->jsonl); i++) {
     lua_rawgeti(L, LUA_REGISTRYINDEX, st->cwhere_ref);
     lua_pushstring(L, where);
     lua_rawseti(L, -2, (lua_Integer)i);
@@ -173,23 +183,15 @@ static void observe_curves(lua_State *L, cli_state *st, size_t n, const char *wh
 void cli_observe(lua_State *L, cli_state *st)
 {
   if (st->log_ref == LUA_NOREF) return;
-  char where[300] = "";
   lua_rawgeti(L, LUA_REGISTRYINDEX, st->log_ref);
   size_t n = lua_rawlen(L, -1);
-  if (n > st->nresults) {
-    eqpi_lua_where(L, where, sizeof where);
-    observe_results(L, st, n, where);
-  }
+  if (n > st->nresults) observe_results(L, st, n);
   lua_pop(L, 1);
   lua_rawgeti(L, LUA_REGISTRYINDEX, st->curves_ref);
   n = lua_rawlen(L, -1);
-  if (n > st->ncurves) {
-    if (!where[0]) eqpi_lua_where(L, where, sizeof where);
-    observe_curves(L, st, n, where);
-  }
+  if (n > st->ncurves) observe_curves(L, st, n);
   lua_pop(L, 1);
 }
-
 /* EQPL_HOOKS.logged: the module has just logged a result or a curve. */
 int cli_logged(lua_State *L)
 {
