@@ -114,15 +114,30 @@ void eqpi_lua_where(lua_State *L, char *buf, size_t len)
   }
 }
 
+/* 1073741824 -> "1 GiB", 33554432 -> "32 MiB", 1500 -> "1500 bytes" */
+static const char *size_text(size_t n, char *buf, size_t len)
+{
+  static const char *const units[] = {"bytes", "KiB", "MiB", "GiB", "TiB"};
+  int u = 0;
+  while (u < 4 && n >= 1024 && n % 1024 == 0) {
+    n /= 1024;
+    u++;
+  }
+  snprintf(buf, len, "%zu %s", n, units[u]);
+  return buf;
+}
+
 void eqpi_limits_message(const eqpi_limits *lim, char *buf, size_t len)
 {
+  char size[32];
   const char *sep = lim->where[0] ? ": " : "";
   if (lim->tripped == EQPI_TRIP_STEPS)
     snprintf(buf, len, "%s%sinstruction limit reached (%lld instructions%s%s)", lim->where, sep,
              lim->max_steps, lim->steps_hint ? "; " : "", lim->steps_hint ? lim->steps_hint : "");
   else if (lim->tripped == EQPI_TRIP_MEMORY)
-    snprintf(buf, len, "%s%smemory limit reached (%zu MiB%s%s)", lim->where, sep,
-             lim->max_mem >> 20, lim->mem_hint ? "; " : "", lim->mem_hint ? lim->mem_hint : "");
+    snprintf(buf, len, "%s%smemory limit reached (%s%s%s)", lim->where, sep,
+             size_text(lim->max_mem, size, sizeof size), lim->mem_hint ? "; " : "",
+             lim->mem_hint ? lim->mem_hint : "");
   else if (lim->tripped == EQPI_TRIP_CPU)
     snprintf(buf, len, "%s%stime limit reached (%g s of processor time%s%s)", lim->where, sep,
              lim->max_cpu, lim->mem_hint ? "; " : "", lim->mem_hint ? lim->mem_hint : "");

@@ -224,10 +224,16 @@ int cli_run_script(const cli_run *run)
   cli_paths_init(&st);
   if (run->jsonl) cli_report_start(&st);
   lua_State *L = st.L = lua_newstate(eqpi_limits_lua_alloc, &st.lim);
-  if (!L) {
-    report(&st, EXIT_NOMEM, "out of memory", NULL);
+  if (!L) {   /* not even an empty Lua state fits */
+    int code = st.lim.refusals && !st.lim.oom ? EXIT_MEMLIMIT : EXIT_NOMEM;
+    if (code == EXIT_MEMLIMIT) {
+      st.lim.tripped = EQPI_TRIP_MEMORY;
+      eqpi_limits_message(&st.lim, msg, sizeof msg);
+    }
+    st.lim.max_mem = 0;
+    report(&st, code, code == EXIT_MEMLIMIT ? msg : "out of memory", NULL);
     close_output(&st);
-    return EXIT_NOMEM;
+    return code;
   }
   lua_atpanic(L, on_panic);
   int code = EXIT_OK;
