@@ -137,83 +137,91 @@ static int usage_error(const cli_run *run, const char *fmt, const char *arg)
   return EXIT_USAGE;
 }
 
-static int cmd_run(int argc, char **argv)
-{
-  cli_run run = {0};
+typedef struct run_args {
+  cli_run run;
   const char *names[64], *values[64];
   char *owned[64];
-  int nowned = 0, code;
+  int nowned;
+} run_args;
+
+/* A limit: --max-instructions N or --max-memory SIZE. */
+static int limit_option(run_args *ra, const char *a, const char *v)
+{
   unsigned long long amount;
-  run.param_names = names;
-  run.param_values = values;
-  run.max_steps = CLI_DEFAULT_STEPS;
-  run.max_memory = CLI_DEFAULT_MEMORY;
-  for (int i = 0; i < argc; i++) {   /* first the output form, so that errors take it */
-    if (strcmp(argv[i], "--json") == 0) run.json = 1;
-    if (strcmp(argv[i], "--jsonl") == 0) run.jsonl = 1;
-  }
-  if (run.json && run.jsonl) {
-    run.json = 0;
-    code = usage_error(&run, "%s", "--json and --jsonl: choose one");
-    goto out;
-  }
-  for (int i = 0; i < argc; i++) {
-    const char *a = argv[i];
-    const char *v = i + 1 < argc ? argv[i + 1] : NULL;
-    if (strcmp(a, "--json") == 0 || strcmp(a, "--jsonl") == 0) continue;
-    else if (strcmp(a, "--verbose") == 0) run.verbose = 1;
-    else if (strcmp(a, "--trusted") == 0) run.trusted = 1;
-    else if (strcmp(a, "--report") == 0 && v) run.report = argv[++i];
-    else if (strncmp(a, "--report=", 9) == 0 && a[9]) run.report = a + 9;
-    else if (strcmp(a, "--allow-write") == 0) {
-      if (!v || run.nwrite_dirs == CLI_MAX_DIRS) {
-        code = usage_error(&run, "%s needs a folder (at most 16)", a);
-        goto out;
-      }
-      run.write_dirs[run.nwrite_dirs++] = argv[++i];
-    } else if (strcmp(a, "--max-instructions") == 0 || strcmp(a, "--max-memory") == 0) {
-      int mem = a[6] == 'm';
-      if (parse_amount(v, mem, &amount) < 0 || amount > (unsigned long long)LLONG_MAX) {
-        code = usage_error(&run, mem ? "--max-memory needs a size such as 512M or 4G, not '%s'"
+  int mem = a[6] == 'm';
+  if (parse_amount(v, mem, &amount) < 0 || amount > (unsigned long long)LLONG_MAX)
+    return usage_error(&ra->run, mem ? "--max-memory needs a size such as 512M or 4G, not '%s'"
                                      : "--max-instructions needs a count such as 5G, not '%s'",
-                           v ? v : "");
-        goto out;
-      }
-      if (mem) run.max_memory = (size_t)amount;
-      else run.max_steps = (long long)amount;
-      i++;
-    } else if (strcmp(a, "--param") == 0 || strncmp(a, "--param=", 8) == 0) {
-      const char *kv = a[7] == '=' ? a + 8 : (i + 1 < argc ? argv[++i] : NULL);
-      const char *eq = kv ? strchr(kv, '=') : NULL;
-      if (!eq || eq == kv || run.nparams == 64) {
-        code = usage_error(&run, "--param needs NAME=VALUE%s", kv ? "" : " (none given)");
-        goto out;
-      }
-      char *name = strndup(kv, (size_t)(eq - kv));
-      if (!name) {
-        code = EXIT_NOMEM;
-        goto out;
-      }
-      owned[nowned++] = name;
-      names[run.nparams] = name;
-      values[run.nparams++] = eq + 1;
-    } else if (a[0] == '-' && a[1]) {
-      code = usage_error(&run, "unknown option '%s'", a);
-      goto out;
-    } else if (!run.script) {
-      run.script = a;
-    } else {
-      code = usage_error(&run, "one script at a time (also '%s')", a);
-      goto out;
-    }
+                       v ? v : "");
+  if (mem) ra->run.max_memory = (size_t)amount;
+  else ra->run.max_steps = (long long)amount;
+  return 0;
+}
+
+static int param_option(run_args *ra, const char *kv)
+{
+  const char *eq = kv ? strchr(kv, '=') : NULL;
+  if (!eq || eq == kv || ra->run.nparams == 64)
+    return usage_error(&ra->run, "--param needs NAME=VALUE%s", kv ? "" : " (none given)");
+  char *name = strndup(kv, (size_t)(eq - kv));
+  if (!name) return EXIT_NOMEM;
+  ra->owned[ra->nowned++] = name;
+  ra->names[ra->run.nparams] = name;
+  ra->values[ra->run.nparams++] = eq + 1;
+  return 0;
+}
+
+/* argv[*i]: an option (with its value, which moves *i) or the script. */
+static int run_option(run_args *ra, int argc, char **argv, int *i)
+{
+  cli_run *run = &ra->run;
+  const char *a = argv[*i], *v = *i + 1 < argc ? argv[*i + 1] : NULL;
+  if (strcmp(a, "--json") == 0 || strcmp(a, "--jsonl") == 0) return 0;
+  if (strcmp(a, "--verbose") == 0) run->verbose = 1;
+  else if (strcmp(a, "--trusted") == 0) run->trusted = 1;
+  else if (strcmp(a, "--report") == 0 && v) run->report = argv[++*i];
+  else if (strncmp(a, "--report=", 9) == 0 && a[9]) run->report = a + 9;
+  else if (strcmp(a, "--allow-write") == 0) {
+    if (!v || run->nwrite_dirs == CLI_MAX_DIRS)
+      return usage_error(run, "%s needs a folder (at most 16)", a);
+    run->write_dirs[run->nwrite_dirs++] = argv[++*i];
+  } else if (strcmp(a, "--max-instructions") == 0 || strcmp(a, "--max-memory") == 0) {
+    ++*i;
+    return limit_option(ra, a, v);
+  } else if (strcmp(a, "--param") == 0) {
+    return param_option(ra, *i + 1 < argc ? argv[++*i] : NULL);
+  } else if (strncmp(a, "--param=", 8) == 0) {
+    return param_option(ra, a + 8);
+  } else if (a[0] == '-' && a[1]) {
+    return usage_error(run, "unknown option '%s'", a);
+  } else if (!run->script) {
+    run->script = a;
+  } else {
+    return usage_error(run, "one script at a time (also '%s')", a);
   }
-  if (!run.script) {
-    code = usage_error(&run, "%s", "run needs a script");
-    goto out;
+  return 0;
+}
+
+static int cmd_run(int argc, char **argv)
+{
+  static run_args ra;
+  int code = 0;
+  ra.run.param_names = ra.names;
+  ra.run.param_values = ra.values;
+  ra.run.max_steps = CLI_DEFAULT_STEPS;
+  ra.run.max_memory = CLI_DEFAULT_MEMORY;
+  for (int i = 0; i < argc; i++) {   /* first the output form, so that errors take it */
+    if (strcmp(argv[i], "--json") == 0) ra.run.json = 1;
+    if (strcmp(argv[i], "--jsonl") == 0) ra.run.jsonl = 1;
   }
-  code = cli_run_script(&run);
-out:
-  for (int i = 0; i < nowned; i++) free(owned[i]);
+  if (ra.run.json && ra.run.jsonl) {
+    ra.run.json = 0;
+    code = usage_error(&ra.run, "%s", "--json and --jsonl: choose one");
+  }
+  for (int i = 0; i < argc && code == 0; i++) code = run_option(&ra, argc, argv, &i);
+  if (code == 0 && !ra.run.script) code = usage_error(&ra.run, "%s", "run needs a script");
+  if (code == 0) code = cli_run_script(&ra.run);
+  for (int i = 0; i < ra.nowned; i++) free(ra.owned[i]);
   return code;
 }
 

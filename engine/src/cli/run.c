@@ -188,6 +188,37 @@ static void report(cli_state *st, int code, const char *msg, const char *trace)
   }
 }
 
+/* Run the script's thread; its exit code, the message in msg and, with
+** --verbose, a stack trace. */
+static int run_thread(cli_state *st, lua_State *co, char *msg, size_t len, const char **trace)
+{
+  lua_State *L = st->L;
+  int nres, code = EXIT_OK;
+  /* the count hook costs every instruction a check: none without a limit */
+  if (st->run->max_steps) eqpi_limits_hook(co, eqpi_limits_hookfn, 0);
+  st->lim.L = co;
+  int status = lua_resume(co, L, 0, &nres);
+  lua_sethook(co, NULL, 0, 0);
+  if (status == LUA_YIELD) {
+    snprintf(msg, len, "%s: the script yielded outside a coroutine", st->run->script);
+    code = EXIT_SCRIPT;
+  } else if (status != LUA_OK) {
+    code = classify(st, co, status, msg, len);
+    if (st->run->verbose) {
+      static char tb[8192];
+      luaL_traceback(L, co, msg, 0);
+      snprintf(tb, sizeof tb, "%s", lua_tostring(L, -1));
+      *trace = tb;
+      lua_pop(L, 1);
+    }
+  }
+  /* the script's own data goes before the report is made: out of memory,
+  ** the report still needs some */
+  lua_settop(L, 0);
+  lua_gc(L, LUA_GCCOLLECT);
+  return code;
+}
+
 static void init_state(cli_state *st, const cli_run *run)
 {
   memset(st, 0, sizeof *st);
@@ -245,32 +276,8 @@ int cli_run_script(const cli_run *run)
     code = classify_setup(&st, status, msg, sizeof msg);
     err = msg;
   } else {
-    lua_State *co = lua_tothread(L, -1);
-    /* the count hook costs every instruction a check: none without a limit */
-    if (run->max_steps) eqpi_limits_hook(co, eqpi_limits_hookfn, 0);
-    st.lim.L = co;
-    int nres;
-    status = lua_resume(co, L, 0, &nres);
-    lua_sethook(co, NULL, 0, 0);
-    if (status == LUA_YIELD) {
-      snprintf(msg, sizeof msg, "%s: the script yielded outside a coroutine", run->script);
-      code = EXIT_SCRIPT;
-      err = msg;
-    } else if (status != LUA_OK) {
-      code = classify(&st, co, status, msg, sizeof msg);
-      err = msg;
-      if (run->verbose) {
-        static char tb[8192];
-        luaL_traceback(L, co, msg, 0);
-        snprintf(tb, sizeof tb, "%s", lua_tostring(L, -1));
-        trace = tb;
-        lua_pop(L, 1);
-      }
-    }
-    /* the script's own data goes before the report is made: out of memory,
-    ** the report still needs some */
-    lua_settop(L, 0);
-    lua_gc(L, LUA_GCCOLLECT);
+    code = run_thread(&st, lua_tothread(L, -1), msg, sizeof msg, &trace);
+    err = code == EXIT_OK ? NULL : msg;
   }
   st.lim.max_mem = 0;   /* the report is not the script: no cap on it */
   report(&st, code, err, trace);
