@@ -26,6 +26,7 @@ eqp_ctx *eqp_ctx_new(eqp_alloc_fn alloc, void *ud)
   ctx->ud = ud;
   ctx->db.h_plus = ctx->db.water = -1;
   ctx->host = eqpi_host_template;
+  ctx->host.ud = ctx;             /* the 1.1 host functions reach the context */
   return ctx;
 }
 
@@ -36,6 +37,7 @@ void eqp_ctx_free(eqp_ctx *ctx)
   for (int i = 0; i < ctx->nplugin_dirs; i++) eqpi_strfree(ctx, ctx->plugin_dirs[i]);
   eqpi_free(ctx, ctx->plugin_dirs, sizeof(char *) * (size_t)ctx->nplugin_dirs);
   eqpi_library_free(ctx);
+  eqpi_config_free(ctx);
   eqpi_cautions_free(ctx);
   eqpi_db_free(ctx, &ctx->db);
   ctx->alloc(ctx->ud, ctx, sizeof *ctx, 0);

@@ -192,10 +192,16 @@ static int log_gammas(eqp_ctx *ctx, const eqp_distribution_spec *d, const ladder
   return rc;
 }
 
-int eqp_distribution(eqp_ctx *ctx, const eqp_distribution_spec *d, eqp_curve **out)
+int eqp_distribution(eqp_ctx *ctx, const eqp_distribution_spec *user, eqp_curve **out)
 {
-  if (!ctx || !d || !d->system || !out) return eqpi_fail(ctx, EQP_E_ARG, "NULL argument");
+  if (!ctx || !user || !out) return eqpi_fail(ctx, EQP_E_ARG, "NULL argument");
   *out = NULL;
+  eqp_distribution_spec opts = EQP_DISTRIBUTION_SPEC_INIT;
+  const eqp_distribution_spec *d = &opts;
+  int rc = eqpi_opts_read(ctx, "eqp_distribution_spec", user, &opts, sizeof opts,
+                          EQPI_DISTRIBUTION_SPEC_0_1);
+  if (rc < 0) return rc;
+  if (!d->system) return eqpi_fail(ctx, EQP_E_ARG, "NULL argument");
   double lo = d->pH_lo, hi = d->pH_hi, T = d->T > 0 ? d->T : EQPI_T25;
   if (lo == 0 && hi == 0) hi = 14;
   size_t np = d->points ? d->points : 281;
@@ -207,7 +213,7 @@ int eqp_distribution(eqp_ctx *ctx, const eqp_distribution_spec *d, eqp_curve **o
   if (!(d->ionic_strength >= 0 && d->ionic_strength <= 10))
     return eqpi_fail(ctx, EQP_E_INPUT, "ionic strength %g mol/kg outside 0 .. 10",
                      d->ionic_strength);
-  int rc = eqp_ctx_load_default_library(ctx);
+  rc = eqp_ctx_load_default_library(ctx);
   if (rc < 0) return rc;
   int lig = find_ligand(ctx, d->system);
   if (lig < 0) return lig;

@@ -49,6 +49,24 @@ void eqpi_arena_splice(eqpi_arena **dst, eqpi_arena **src);
 int eqpi_fail(eqp_ctx *ctx, int status, const char *fmt, ...) EQPI_PRINTF(3, 4);
 int eqpi_vfail(eqp_ctx *ctx, int status, const char *fmt, va_list ap);
 
+/* ---------------------------------------------------------- options */
+
+/* Bytes of a struct up to and including member: the size a struct had when
+** member was its last. */
+#define EQPI_SIZE_UPTO(type, member) (offsetof(type, member) + sizeof(((type *)0)->member))
+/* Read an option struct that begins with its size (equipoise.h) into
+** *local, which holds the defaults (its INIT macro): as much of the
+** caller's struct as its size covers replaces them. EQP_E_ARG for a size
+** of 0, below first_size (the first published size) or above local_size. */
+int eqpi_opts_read(eqp_ctx *ctx, const char *type, const void *user, void *local,
+                   size_t local_size, size_t first_size);
+/* The first published sizes (version 0.1). */
+#define EQPI_SOLUTION_OPTS_0_1 EQPI_SIZE_UPTO(eqp_solution_opts, activity)
+#define EQPI_TITRATION_0_1 EQPI_SIZE_UPTO(eqp_titration, nspecies)
+#define EQPI_DISTRIBUTION_SPEC_0_1 EQPI_SIZE_UPTO(eqp_distribution_spec, medium)
+#define EQPI_CAPACITY_SPEC_0_1 EQPI_SIZE_UPTO(eqp_capacity_spec, window_hi)
+#define EQPI_RECIPE_SPEC_0_1 EQPI_SIZE_UPTO(eqp_recipe_spec, titrant_molar)
+
 /* ---------------------------------------------------------- formulas */
 
 typedef struct eqpi_comp {
@@ -311,6 +329,7 @@ typedef struct eqpi_model {
   void *state;
   void *handle;         /* borrowed from the registry */
   const char *path;
+  eqp_ctx *ctx;         /* whose log the plugin's lines go to */
 } eqpi_model;
 
 int eqpi_model_open(eqp_ctx *ctx, const char *name, eqpi_model *out);
@@ -369,11 +388,19 @@ void eqpi_library_free(eqp_ctx *ctx);
 
 /* ---------------------------------------------------------- context */
 
+/* The host's copies of a plugin's descriptor and operations, full size:
+** members the plugin's ABI lacks read as NULL (plugins.c). */
+typedef struct eqpi_plugin_copy {
+  eqp_plugin_desc desc;
+  eqp_activity_ops ops;
+} eqpi_plugin_copy;
+
 typedef struct eqpi_plugin_handle {
   char *name;
   char *path;
   void *dl;
-  const eqp_plugin_desc *desc;
+  const eqp_plugin_desc *desc;  /* &copy->desc */
+  eqpi_plugin_copy *copy;       /* its own allocation: the handle array moves */
 } eqpi_plugin_handle;
 
 struct eqp_ctx {
@@ -409,7 +436,35 @@ struct eqp_ctx {
   eqp_warning_fn warn_fn;   /* warn.c: the host's observer of warnings */
   void *warn_ud;
   int quiet;                /* > 0: results made now are internal, not observed */
+  /* the default configuration (paths.c): copies of the environment as
+  ** eqp_ctx_default_config read it; NULL when unset or never read */
+  char *env_species_path, *env_plugin_path, *user_species_dir;
+  /* the log (log.c): messages up to log_level go to log_fn */
+  eqp_log_fn log_fn;
+  void *log_ud;
+  int log_level;
 };
+
+/* ---------------------------------------------------------- log */
+
+/* Whether a message of level would reach the log: test it before work
+** that only the message needs. */
+static inline bool eqpi_log_on(const eqp_ctx *ctx, int level)
+{
+  return ctx && level <= ctx->log_level;
+}
+/* One line (no newline) to the context's log at level (EQP_LOG_*); nothing
+** when no callback takes that level. Lines longer than 1 KiB are cut. */
+void eqpi_log(eqp_ctx *ctx, int level, const char *fmt, ...) EQPI_PRINTF(3, 4);
+void eqpi_vlog(eqp_ctx *ctx, int level, const char *fmt, va_list ap);
+
+/* ---------------------------------------------------------- paths */
+
+enum { EQPI_DIR_PLUGINS = 1, EQPI_DIR_SPECIES = 2 };
+/* The folder of the plugins or species that came with the library, found
+** from the library's own location (paths.c); -1 if it cannot be told. */
+int eqpi_builtin_dir(int which, char *buf, size_t len);
+void eqpi_config_free(eqp_ctx *ctx);
 
 /* Tell the progress callback, if any, how far a long operation is. */
 void eqpi_progress(eqp_ctx *ctx, const char *what, size_t done, size_t total);

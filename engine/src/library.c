@@ -12,13 +12,6 @@
 #include <string.h>
 #include <sys/stat.h>
 
-#ifndef EQP_BUILD_SPECIES_DIR
-#define EQP_BUILD_SPECIES_DIR ""
-#endif
-#ifndef EQP_INSTALL_SPECIES_DIR
-#define EQP_INSTALL_SPECIES_DIR ""
-#endif
-
 typedef unsigned long long u64;
 
 /* ------------------------------------------------------------ record */
@@ -196,7 +189,7 @@ static int species_path(eqp_ctx *ctx, folders *f)
   f->builtin = -1;
   for (int i = 0; i < ctx->nspecies_dirs; i++)
     if (add_folder(f, ctx->species_dirs[i]) < 0) goto many;
-  const char *env = getenv("EQUIPOISE_SPECIES_PATH");
+  const char *env = ctx->env_species_path;   /* eqp_ctx_default_config */
   if (env && *env) {
     char buf[8192];
     snprintf(buf, sizeof buf, "%s", env);
@@ -207,15 +200,12 @@ static int species_path(eqp_ctx *ctx, folders *f)
       if (add_folder(f, d) < 0) goto many;
     }
   }
-  char user[4096];
-  const char *xdg = getenv("XDG_DATA_HOME"), *home = getenv("HOME");
-  if (xdg && *xdg) snprintf(user, sizeof user, "%s/equipoise/species", xdg);
-  else if (home && *home) snprintf(user, sizeof user, "%s/.local/share/equipoise/species", home);
-  else user[0] = '\0';
+  const char *user = ctx->user_species_dir;
   if (is_dir(user) && add_folder(f, user) < 0) goto many;
-  const char *lib = is_dir(EQP_BUILD_SPECIES_DIR) ? EQP_BUILD_SPECIES_DIR
-                  : is_dir(EQP_INSTALL_SPECIES_DIR) ? EQP_INSTALL_SPECIES_DIR : NULL;
-  if (lib && (f->builtin = add_folder(f, lib)) < 0) goto many;
+  char lib[4096];
+  if (eqpi_builtin_dir(EQPI_DIR_SPECIES, lib, sizeof lib) == 0 && is_dir(lib) &&
+      (f->builtin = add_folder(f, lib)) < 0)
+    goto many;
   if (f->n == 0)
     return eqpi_fail(ctx, EQP_E_IO, "no species library found (set EQUIPOISE_SPECIES_PATH)");
   return EQP_OK;

@@ -112,12 +112,18 @@ static void conditions(char *buf, size_t len, double T, double I, const char *mo
     snprintf(buf, len, "infinite dilution, %.1f \xC2\xB0" "C", T - 273.15);
 }
 
-int eqp_plot_distribution(const eqp_curve *c, const eqp_distribution_spec *d, eqp_plot **out)
+int eqp_plot_distribution(const eqp_curve *c, const eqp_distribution_spec *user, eqp_plot **out)
 {
-  if (!c || !d || !out) return EQP_E_ARG;
+  if (!c || !user || !out) return EQP_E_ARG;
   *out = NULL;
+  eqp_distribution_spec opts = EQP_DISTRIBUTION_SPEC_INIT;
+  const eqp_distribution_spec *d = &opts;
+  int rc = eqpi_opts_read(c->ctx, "eqp_distribution_spec", user, &opts, sizeof opts,
+                          EQPI_DISTRIBUTION_SPEC_0_1);
+  if (rc < 0) return rc;
+  if (!d->system) return eqpi_fail(c->ctx, EQP_E_ARG, "NULL argument");
   eqp_plot *p;
-  int rc = eqp_plot_new(c->ctx, &p);
+  rc = eqp_plot_new(c->ctx, &p);
   if (rc < 0) return rc;
   long ph = column_index(c, "pH");
   if (ph != 0) return finish(p, eqpi_fail(c->ctx, EQP_E_INPUT, "not a distribution (pH is "
@@ -142,12 +148,17 @@ int eqp_plot_distribution(const eqp_curve *c, const eqp_distribution_spec *d, eq
   return finish(p, rc, out);
 }
 
-int eqp_plot_capacity(const eqp_curve *c, const eqp_capacity_spec *s, eqp_plot **out)
+int eqp_plot_capacity(const eqp_curve *c, const eqp_capacity_spec *user, eqp_plot **out)
 {
-  if (!c || !s || !out) return EQP_E_ARG;
+  if (!c || !user || !out) return EQP_E_ARG;
   *out = NULL;
+  eqp_capacity_spec opts = EQP_CAPACITY_SPEC_INIT;
+  const eqp_capacity_spec *s = &opts;
+  int rc = eqpi_opts_read(c->ctx, "eqp_capacity_spec", user, &opts, sizeof opts,
+                          EQPI_CAPACITY_SPEC_0_1);
+  if (rc < 0) return rc;
   eqp_plot *p;
-  int rc = eqp_plot_new(c->ctx, &p);
+  rc = eqp_plot_new(c->ctx, &p);
   if (rc < 0) return rc;
   if (column_index(c, "pH") != 0)
     return finish(p, eqpi_fail(c->ctx, EQP_E_INPUT, "not a capacity sweep (pH is not its "

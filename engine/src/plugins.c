@@ -9,27 +9,54 @@
 #include <string.h>
 #include <sys/stat.h>
 
-#ifndef EQP_BUILD_PLUGIN_DIR
-#define EQP_BUILD_PLUGIN_DIR ""
+/* A dlclose'd module loses its symbols in AddressSanitizer's leak reports:
+** under the sanitizer, plugins stay mapped for the life of the process. */
+#if defined(__SANITIZE_ADDRESS__)
+#define KEEP_PLUGINS 1
+#elif defined(__has_feature)
+#if __has_feature(address_sanitizer)
+#define KEEP_PLUGINS 1
 #endif
-#ifndef EQP_INSTALL_PLUGIN_DIR
-#define EQP_INSTALL_PLUGIN_DIR ""
 #endif
+#ifndef KEEP_PLUGINS
+#define KEEP_PLUGINS 0
+#endif
+
+/* The context whose call into a plugin is running: the 1.0 log function
+** has no user-data pointer, so its lines reach the right log through this. */
+static _Thread_local eqp_ctx *calling;
 
 static void *host_alloc(size_t n) { return malloc(n ? n : 1); }
 static void host_free(void *p) { free(p); }
-static void host_log(const char *msg)
+static void host_log(const char *msg) { eqpi_log(calling, EQP_LOG_INFO, "plugin: %s", msg); }
+
+/* 1.1: the context itself is the user data */
+static void *host_ctx_alloc(void *ud, void *ptr, size_t osize, size_t nsize)
 {
-  if (getenv("EQUIPOISE_VERBOSE")) fprintf(stderr, "equipoise: plugin: %s\n", msg);
+  eqp_ctx *ctx = ud;
+  return ctx->alloc(ctx->ud, ptr, osize, nsize);
+}
+
+static void host_ctx_log(void *ud, int level, const char *msg)
+{
+  if (level < EQP_LOG_ERROR) level = EQP_LOG_ERROR;
+  eqpi_log(ud, level, "plugin: %s", msg);
 }
 
 const eqp_host_api eqpi_host_template = {
-  EQP_PLUGIN_ABI_VERSION, sizeof(eqp_host_api), host_alloc, host_free, host_log,
+  .abi_version = EQP_PLUGIN_ABI_VERSION, .struct_size = sizeof(eqp_host_api),
+  .alloc = host_alloc, .free = host_free, .log = host_log,
+  .ud = NULL, .ctx_alloc = host_ctx_alloc, .ctx_log = host_ctx_log,
 };
 
-/* The first published descriptor and ops sizes (ABI 1.0); smaller is refused. */
-#define DESC_MIN_SIZE sizeof(eqp_plugin_desc)
-#define OPS_MIN_SIZE offsetof(eqp_activity_ops, set_param)
+/* The 1.0 sizes are frozen: a member inserted before the end of 1.0 would
+** move them and refuse, or misread, every plugin built before it. */
+#if UINTPTR_MAX == 0xffffffffffffffffu
+_Static_assert(EQP_HOST_API_SIZE_1_0 == 32, "eqp_host_api 1.0 is 32 bytes on LP64");
+_Static_assert(EQP_PLUGIN_DESC_SIZE_1_0 == 56, "eqp_plugin_desc 1.0 is 56 bytes on LP64");
+_Static_assert(EQP_ACTIVITY_OPS_REQUIRED == 32, "required operations are 32 bytes on LP64");
+_Static_assert(EQP_ACTIVITY_OPS_SIZE_1_0 == 48, "eqp_activity_ops 1.0 is 48 bytes on LP64");
+#endif
 
 int eqpi_plugin_check(const eqp_plugin_desc *d, const char *path, char *err, size_t len)
 {
@@ -42,9 +69,9 @@ int eqpi_plugin_check(const eqp_plugin_desc *d, const char *path, char *err, siz
              d->abi_version >> 16, d->abi_version & 0xffffu, EQP_PLUGIN_ABI_MAJOR);
     return -1;
   }
-  if (d->struct_size < DESC_MIN_SIZE) {
+  if (d->struct_size < EQP_PLUGIN_DESC_SIZE_1_0) {
     snprintf(err, len, "%s: descriptor is %u bytes, ABI %u needs at least %zu", path,
-             d->struct_size, EQP_PLUGIN_ABI_MAJOR, DESC_MIN_SIZE);
+             d->struct_size, EQP_PLUGIN_ABI_MAJOR, EQP_PLUGIN_DESC_SIZE_1_0);
     return -1;
   }
   if (d->sizes != EQP_PLUGIN_SIZES) {
@@ -61,9 +88,10 @@ int eqpi_plugin_check(const eqp_plugin_desc *d, const char *path, char *err, siz
     return -1;
   }
   const eqp_activity_ops *o = d->ops;
-  if (o->struct_size < OPS_MIN_SIZE || !o->create || !o->destroy || !o->log_gamma) {
+  if (o->struct_size < EQP_ACTIVITY_OPS_REQUIRED || !o->create || !o->destroy ||
+      !o->log_gamma) {
     snprintf(err, len, "%s: activity operations incomplete (size %u, need %zu)", path,
-             o->struct_size, OPS_MIN_SIZE);
+             o->struct_size, EQP_ACTIVITY_OPS_REQUIRED);
     return -1;
   }
   return 0;
@@ -80,8 +108,8 @@ static const char *plugin_text(char *buf, size_t len, const char *none)
 }
 
 /* Open path and check what it exports; on success *dl and *desc are set. */
-static int plugin_dlopen(const char *path, void **dl, const eqp_plugin_desc **desc, char *err,
-                         size_t len, const eqp_host_api *host)
+static int plugin_dlopen(eqp_ctx *ctx, const char *path, void **dl, const eqp_plugin_desc **desc,
+                         char *err, size_t len)
 {
   void *h = dlopen(path, RTLD_NOW | RTLD_LOCAL);
   if (!h) {
@@ -96,7 +124,10 @@ static int plugin_dlopen(const char *path, void **dl, const eqp_plugin_desc **de
     return -1;
   }
   char perr[256] = "";
-  const eqp_plugin_desc *d = entry(host, perr, sizeof perr);
+  eqp_ctx *prev = calling;
+  calling = ctx;
+  const eqp_plugin_desc *d = entry(&ctx->host, perr, sizeof perr);
+  calling = prev;
   if (!d) {
     snprintf(err, len, "%s: plugin refused to load: %s", path,
              plugin_text(perr, sizeof perr, "no reason"));
@@ -124,7 +155,7 @@ static int each_dir(eqp_ctx *ctx, int (*f)(void *, const char *), void *ud)
 {
   for (int i = 0; i < ctx->nplugin_dirs; i++)
     if (f(ud, ctx->plugin_dirs[i])) return 1;
-  const char *env = getenv("EQUIPOISE_PLUGIN_PATH");
+  const char *env = ctx->env_plugin_path;   /* eqp_ctx_default_config */
   if (env) {
     char buf[4096];
     snprintf(buf, sizeof buf, "%s", env);
@@ -132,8 +163,9 @@ static int each_dir(eqp_ctx *ctx, int (*f)(void *, const char *), void *ud)
     for (char *d = strtok_r(buf, ":", &save); d; d = strtok_r(NULL, ":", &save))
       if (*d && f(ud, d)) return 1;
   }
-  if (*EQP_BUILD_PLUGIN_DIR && f(ud, EQP_BUILD_PLUGIN_DIR)) return 1;
-  if (*EQP_INSTALL_PLUGIN_DIR && f(ud, EQP_INSTALL_PLUGIN_DIR)) return 1;
+  char builtin[4096];
+  if (eqpi_builtin_dir(EQPI_DIR_PLUGINS, builtin, sizeof builtin) == 0 && f(ud, builtin))
+    return 1;
   return 0;
 }
 
@@ -153,6 +185,19 @@ static int find_in(void *ud, const char *dir)
     fd->used += (size_t)snprintf(fd->tried + fd->used, sizeof fd->tried - fd->used, "%s%s",
                                  fd->used ? ", " : "", dir);
   return 0;
+}
+
+static size_t min_size(size_t a, size_t b) { return a < b ? a : b; }
+
+static void copy_desc(const eqp_plugin_desc *d, eqpi_plugin_copy *c)
+{
+  memset(c, 0, sizeof *c);
+  memcpy(&c->desc, d, min_size(d->struct_size, sizeof c->desc));
+  const eqp_activity_ops *o = d->ops;
+  memcpy(&c->ops, o, min_size(o->struct_size, sizeof c->ops));
+  c->desc.struct_size = sizeof c->desc;
+  c->ops.struct_size = sizeof c->ops;
+  c->desc.ops = &c->ops;
 }
 
 static int registry_get(eqp_ctx *ctx, const char *name, eqpi_plugin_handle **out)
@@ -175,7 +220,7 @@ static int registry_get(eqp_ctx *ctx, const char *name, eqpi_plugin_handle **out
   void *dl;
   const eqp_plugin_desc *d;
   char err[EQPI_ERRLEN];
-  if (plugin_dlopen(fd.path, &dl, &d, err, sizeof err, &ctx->host) < 0)
+  if (plugin_dlopen(ctx, fd.path, &dl, &d, err, sizeof err) < 0)
     return eqpi_fail(ctx, EQP_E_PLUGIN, "%s", err);
   if (strcmp(d->name, name) != 0) {
     /* the message quotes the plugin's own name: write it while the module
@@ -206,8 +251,18 @@ static int registry_get(eqp_ctx *ctx, const char *name, eqpi_plugin_handle **out
     dlclose(dl);
     return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
   }
+  /* the host reads its own full-size copies: a 1.0 plugin's missing tail
+  ** reads as NULL, a newer plugin's unknown tail is left behind */
+  h->copy = eqpi_malloc(ctx, sizeof *h->copy);
+  if (!h->copy) {
+    eqpi_strfree(ctx, h->name);
+    eqpi_strfree(ctx, h->path);
+    dlclose(dl);
+    return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
+  }
+  copy_desc(d, h->copy);
   h->dl = dl;
-  h->desc = d;
+  h->desc = &h->copy->desc;
   ctx->nplugins++;
   *out = h;
   return EQP_OK;
@@ -219,10 +274,14 @@ int eqpi_model_open(eqp_ctx *ctx, const char *name, eqpi_model *out)
   memset(out, 0, sizeof *out);
   int rc = registry_get(ctx, name, &h);
   if (rc < 0) return rc;
-  const eqp_activity_ops *ops = h->desc->ops;
+  const eqp_activity_ops *ops = &h->copy->ops;
   char err[256] = "";
   void *state = NULL;
-  if (ops->create(&ctx->host, &state, err, sizeof err) != 0)
+  eqp_ctx *prev = calling;
+  calling = ctx;
+  int failed = ops->create(&ctx->host, &state, err, sizeof err) != 0;
+  calling = prev;
+  if (failed)
     return eqpi_fail(ctx, EQP_E_PLUGIN, "activity model '%s' (%s): %s", name, h->path,
                      plugin_text(err, sizeof err, "create failed"));
   out->desc = h->desc;
@@ -230,6 +289,7 @@ int eqpi_model_open(eqp_ctx *ctx, const char *name, eqpi_model *out)
   out->state = state;
   out->handle = h->dl;
   out->path = h->path;
+  out->ctx = ctx;
   return EQP_OK;
 }
 
@@ -238,7 +298,14 @@ int eqpi_model_open(eqp_ctx *ctx, const char *name, eqpi_model *out)
 int eqpi_model_set_param(eqpi_model *m, const char *name, double value, char *err, size_t len)
 {
   if (len) err[0] = '\0';
+  if (!EQP_PLUGIN_HAS_OP(m->ops, set_param)) {
+    snprintf(err, len, "the model takes no parameters");
+    return -1;
+  }
+  eqp_ctx *prev = calling;
+  calling = m->ctx;
   int rc = m->ops->set_param(m->state, name, value, err, len);
+  calling = prev;
   plugin_text(err, len, "");
   return rc;
 }
@@ -249,9 +316,11 @@ int eqpi_model_bind(eqpi_model *m, const eqp_species_info *info, char *warn, siz
   const eqp_activity_ops *ops = m->ops;
   if (wlen) warn[0] = '\0';
   if (elen) err[0] = '\0';
-  if (ops->struct_size < offsetof(eqp_activity_ops, bind) + sizeof ops->bind || !ops->bind)
-    return 0;
+  if (!EQP_PLUGIN_HAS_OP(ops, bind)) return 0;
+  eqp_ctx *prev = calling;
+  calling = m->ctx;
   int rc = ops->bind(m->state, info, warn, wlen, err, elen);
+  calling = prev;
   plugin_text(warn, wlen, "");
   plugin_text(err, elen, "");
   return rc;
@@ -261,25 +330,32 @@ int eqpi_model_log_gamma(eqpi_model *m, const eqp_activity_in *in, double *lg, c
                          size_t len)
 {
   if (len) err[0] = '\0';
+  eqp_ctx *prev = calling;
+  calling = m->ctx;
   int rc = m->ops->log_gamma(m->state, in, lg, err, len);
+  calling = prev;
   plugin_text(err, len, "");
   return rc;
 }
 
 void eqpi_model_close(eqp_ctx *ctx, eqpi_model *m)
 {
-  if (m && m->ops) m->ops->destroy(&ctx->host, m->state);
+  if (m && m->ops) {
+    eqp_ctx *prev = calling;
+    calling = ctx;
+    m->ops->destroy(&ctx->host, m->state);
+    calling = prev;
+  }
   if (m) memset(m, 0, sizeof *m);
 }
 
 void eqpi_plugins_free(eqp_ctx *ctx)
 {
   for (int i = 0; i < ctx->nplugins; i++) {
-    /* Under AddressSanitizer a dlclose'd module loses its symbols in leak
-    ** reports; keeping it mapped is harmless since the process owns it. */
-    if (!getenv("EQUIPOISE_KEEP_PLUGINS")) dlclose(ctx->plugins[i].dl);
+    if (!KEEP_PLUGINS) dlclose(ctx->plugins[i].dl);
     eqpi_strfree(ctx, ctx->plugins[i].name);
     eqpi_strfree(ctx, ctx->plugins[i].path);
+    eqpi_free(ctx, ctx->plugins[i].copy, sizeof *ctx->plugins[i].copy);
   }
   eqpi_free(ctx, ctx->plugins, sizeof *ctx->plugins * (size_t)ctx->capplugins);
   ctx->plugins = NULL;
@@ -323,7 +399,7 @@ static int list_in(void *ud, const char *dir)
     snprintf(path, sizeof path, "%s/%s", dir, files[f]);
     void *dl;
     const eqp_plugin_desc *desc;
-    if (plugin_dlopen(path, &dl, &desc, err, sizeof err, &ls->ctx->host) < 0) {
+    if (plugin_dlopen(ls->ctx, path, &dl, &desc, err, sizeof err) < 0) {
       ls->fn(ls->ud, NULL, NULL, err, path);
       continue;
     }

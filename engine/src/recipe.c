@@ -89,7 +89,10 @@ static int make_at(eqp_ctx *ctx, const eqp_recipe_spec *sp, const plan *p, doubl
                    double W, int k, eqp_solution **out, double *v)
 {
   double n = sp->total * sp->volume;
-  eqp_solution_opts o = {W, sp->T, sp->activity};
+  eqp_solution_opts o = EQP_SOLUTION_OPTS_INIT;
+  o.water = W;
+  o.temperature_K = sp->T;
+  o.activity = sp->activity;
   eqp_solution *s;
   int rc = eqp_solution_new(ctx, &o, &s);
   if (rc < 0) return rc;
@@ -402,7 +405,9 @@ int eqp_recipe_make(eqp_ctx *ctx, const eqp_recipe_spec *spec, eqp_recipe **out)
 {
   if (!ctx || !spec || !out) return eqpi_fail(ctx, EQP_E_ARG, "NULL argument");
   *out = NULL;
-  eqp_recipe_spec sp = *spec;
+  eqp_recipe_spec sp = EQP_RECIPE_SPEC_INIT;
+  int rc = eqpi_opts_read(ctx, "eqp_recipe_spec", spec, &sp, sizeof sp, EQPI_RECIPE_SPEC_0_1);
+  if (rc < 0) return rc;
   if (!(sp.total > 0) || !(sp.volume > 0) || !isfinite(sp.total) || !isfinite(sp.volume))
     return eqpi_fail(ctx, EQP_E_INPUT, "recipe: 'total' and 'volume' must be positive");
   if (!(sp.pH > -1 && sp.pH < 15)) return eqpi_fail(ctx, EQP_E_INPUT, "recipe: pH %g", sp.pH);
@@ -413,7 +418,7 @@ int eqp_recipe_make(eqp_ctx *ctx, const eqp_recipe_spec *spec, eqp_recipe **out)
     if (rc0 < 0) return rc0;
   }
   plan p;
-  int rc = choose(ctx, &sp, &p);
+  rc = choose(ctx, &sp, &p);
   if (rc < 0) return rc;
   eqp_recipe *r = eqpi_calloc(ctx, 1, sizeof *r);
   if (!r) return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");

@@ -67,11 +67,13 @@ static int check_opts(eqp_ctx *ctx, const eqp_solution_opts *o)
   return EQP_OK;
 }
 
-int eqp_solution_new(eqp_ctx *ctx, const eqp_solution_opts *opts, eqp_solution **out)
+int eqp_solution_new(eqp_ctx *ctx, const eqp_solution_opts *user, eqp_solution **out)
 {
-  if (!ctx || !opts || !out) return eqpi_fail(ctx, EQP_E_ARG, "NULL argument");
+  if (!ctx || !user || !out) return eqpi_fail(ctx, EQP_E_ARG, "NULL argument");
   *out = NULL;
-  int rc = check_opts(ctx, opts);
+  eqp_solution_opts o = EQP_SOLUTION_OPTS_INIT, *opts = &o;
+  int rc = eqpi_opts_read(ctx, "eqp_solution_opts", user, &o, sizeof o, EQPI_SOLUTION_OPTS_0_1);
+  if (rc == EQP_OK) rc = check_opts(ctx, opts);
   if (rc < 0) return rc;
   if (ctx->db.nsp == 0 && (rc = eqp_ctx_load_default_library(ctx)) < 0) return rc;
   eqp_solution *s = eqpi_calloc(ctx, 1, sizeof *s);
@@ -105,7 +107,10 @@ void eqp_solution_free(eqp_solution *s)
 int eqp_solution_copy(const eqp_solution *s, eqp_solution **out)
 {
   if (!s || !out) return EQP_E_ARG;
-  eqp_solution_opts o = {s->water_kg, s->T, s->model.desc->name};
+  eqp_solution_opts o = EQP_SOLUTION_OPTS_INIT;
+  o.water = s->water_kg;
+  o.temperature_K = s->T;
+  o.activity = s->model.desc->name;
   int rc = eqp_solution_new(s->ctx, &o, out);
   if (rc < 0) return rc;
   eqp_solution *c = *out;

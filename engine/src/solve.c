@@ -108,7 +108,6 @@ static int kinsol_setup(eqpi_system *sys)
   /* a log-variable step of more than ~10 per unknown only overshoots */
   KINSetMaxNewtonStep(sys->kmem, 10.0 * sqrt((double)n));
   KINSetPrintLevel(sys->kmem, 0);
-  sys->trace = getenv("EQUIPOISE_TRACE") != NULL;
   return 0;
 }
 
@@ -375,11 +374,11 @@ int eqpi_run_kinsol(eqpi_system *s, const double *u0, long *iters)
   if (flag >= 0 && !(uu[s->nx] <= EQPI_LN_MAX_I)) flag = EQPI_KIN_IMPLAUSIBLE;
   long it = 0;
   KINGetNumNonlinSolvIters(s->kmem, &it);
-  if (s->trace) {
+  if (eqpi_log_on(s->ctx, EQP_LOG_TRACE)) {
     long nli = 0, nfe = 0, nbt = 0; double fn = 0;
     KINGetNumLinIters(s->kmem, &nli); KINGetNumFuncEvals(s->kmem, &nfe);
     KINGetNumBacktrackOps(s->kmem, &nbt); KINGetFuncNorm(s->kmem, &fn);
-    fprintf(stderr, "equipoise: KINSOL lambda %.2f: %s, %ld iterations, %ld linear, %ld evaluations, %ld backtracks, |F| %.2e %s\n",
+    eqpi_log(s->ctx, EQP_LOG_TRACE, "KINSOL lambda %.2f: %s, %ld iterations, %ld linear, %ld evaluations, %ld backtracks, |F| %.2e %s",
             s->lambda, kin_flag_name(flag), it, nli, nfe, nbt, fn, s->kin_err);
   }
   *iters += it;

@@ -1,4 +1,4 @@
-/* Status names and the context's error message. */
+/* Status names, the context's error message, the library's version. */
 /* SPDX-License-Identifier: MIT */
 #include "eqp_impl.h"
 #include <stdio.h>
@@ -58,3 +58,7 @@ void eqp_ctx_clear_error(eqp_ctx *ctx)
     ctx->errcode = EQP_OK;
   }
 }
+
+const char *eqp_version(void) { return EQP_VERSION_STRING; }
+
+int eqp_version_number(void) { return EQP_VERSION_NUMBER; }

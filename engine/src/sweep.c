@@ -26,8 +26,7 @@ void eqpi_progress(eqp_ctx *ctx, const char *what, size_t done, size_t total)
 static int beta_at(eqp_ctx *ctx, const eqp_capacity_spec *s, const char *buffer, double pH,
                    double *beta)
 {
-  eqp_recipe_spec sp;
-  memset(&sp, 0, sizeof sp);
+  eqp_recipe_spec sp = EQP_RECIPE_SPEC_INIT;
   sp.buffer = buffer;
   sp.pH = pH;
   sp.total = s->total;
@@ -52,10 +51,15 @@ static int beta_at(eqp_ctx *ctx, const eqp_capacity_spec *s, const char *buffer,
   return EQP_OK;
 }
 
-int eqp_capacity_sweep(eqp_ctx *ctx, const eqp_capacity_spec *s, eqp_curve **out)
+int eqp_capacity_sweep(eqp_ctx *ctx, const eqp_capacity_spec *user, eqp_curve **out)
 {
-  if (!ctx || !s || !out) return eqpi_fail(ctx, EQP_E_ARG, "NULL argument");
+  if (!ctx || !user || !out) return eqpi_fail(ctx, EQP_E_ARG, "NULL argument");
   *out = NULL;
+  eqp_capacity_spec opts = EQP_CAPACITY_SPEC_INIT;
+  const eqp_capacity_spec *s = &opts;
+  int rc = eqpi_opts_read(ctx, "eqp_capacity_spec", user, &opts, sizeof opts,
+                          EQPI_CAPACITY_SPEC_0_1);
+  if (rc < 0) return rc;
   size_t np = s->points ? s->points : 61;
   if (!(isfinite(s->pH_lo) && isfinite(s->pH_hi) && s->pH_lo < s->pH_hi && s->pH_lo >= 0 &&
         s->pH_hi <= 14))
@@ -67,7 +71,7 @@ int eqp_capacity_sweep(eqp_ctx *ctx, const eqp_capacity_spec *s, eqp_curve **out
   if (!isnan(s->window_lo) && !(s->window_lo < s->window_hi))
     return eqpi_fail(ctx, EQP_E_INPUT, "window %g .. %g: low end first", s->window_lo,
                      s->window_hi);
-  int rc = eqp_ctx_load_default_library(ctx);
+  rc = eqp_ctx_load_default_library(ctx);
   if (rc < 0) return rc;
   const char *names[MAX_BUFFERS + 1] = {"pH"};
   size_t nb = s->buffers ? s->nbuffers : eqp_ctx_buffer_count(ctx);

@@ -432,11 +432,11 @@ int eqpi_sys_coldstart(eqpi_system *sys, double *u)
         break;
       }
     }
-    if (sys->trace) fprintf(stderr, "equipoise: ideal start %d: residual %.3e, step %.3g\n", it, res, t);
+    eqpi_log(sys->ctx, EQP_LOG_TRACE, "ideal start %d: residual %.3e, step %.3g", it, res, t);
     if (!moved) break;
     memcpy(u, sys->xt, sizeof *u * (size_t)nx);
   }
-  if (sys->trace) fprintf(stderr, "equipoise: ideal start %s\n", ok ? "did not converge" : "converged");
+  eqpi_log(sys->ctx, EQP_LOG_TRACE, "ideal start %s", ok ? "did not converge" : "converged");
   /* ionic strength of the ideal solution as the start of ln I */
   potential(sys, u);
   double Ic = 0;

@@ -66,7 +66,6 @@ struct eqpi_system {
   N_Vector u, scale;
   SUNLinearSolver LS;
   char kin_err[256];
-  bool trace;           /* EQUIPOISE_TRACE: one line per KINSOL call on stderr */
   /* the last converged state, for warm starts */
   bool solved;
   double *u_last;

@@ -166,13 +166,16 @@ static int check_spec(eqp_ctx *ctx, const eqp_titration *t)
   return EQP_OK;
 }
 
-int eqp_solution_titrate(eqp_solution *s, const eqp_titration *spec, eqp_curve **out)
+int eqp_solution_titrate(eqp_solution *s, const eqp_titration *user, eqp_curve **out)
 {
   char hint[256];
-  if (!s || !spec || !out) return eqpi_fail(s ? s->ctx : NULL, EQP_E_ARG, "NULL argument");
+  if (!s || !user || !out) return eqpi_fail(s ? s->ctx : NULL, EQP_E_ARG, "NULL argument");
   eqp_ctx *ctx = s->ctx;
   *out = NULL;
-  int rc = check_spec(ctx, spec);
+  eqp_titration opts = EQP_TITRATION_INIT;
+  const eqp_titration *spec = &opts;
+  int rc = eqpi_opts_read(ctx, "eqp_titration", user, &opts, sizeof opts, EQPI_TITRATION_0_1);
+  if (rc == EQP_OK) rc = check_spec(ctx, spec);
   if (rc < 0) return rc;
   for (size_t k = 0; k < spec->nspecies; k++)
     if (eqpi_db_find_species(&ctx->db, spec->species[k]) < 0)

@@ -9,6 +9,7 @@
 ** g = 1. Usual range I <= 1 mol/kg in NaCl-dominated solutions. */
 /* SPDX-License-Identifier: MIT */
 #include <equipoise/plugin.h>
+#include "../common/host_mem.h"
 #include "../common/ion_sizes.h"
 #include <math.h>
 #include <stdio.h>
@@ -20,11 +21,12 @@ typedef struct bdot_state {
   double bdot;
   double *a, *b;          /* per bound species; b NaN: use bdot */
   size_t n;
+  size_t cap;             /* doubles allocated for each of a and b */
 } bdot_state;
 
 static int bd_create(const eqp_host_api *host, void **state, char *err, size_t errlen)
 {
-  bdot_state *st = host->alloc(sizeof *st);
+  bdot_state *st = eqp_plug_alloc(host, sizeof *st);
   if (!st) {
     snprintf(err, errlen, "out of memory");
     return 1;
@@ -40,20 +42,21 @@ static void bd_destroy(const eqp_host_api *host, void *state)
 {
   bdot_state *st = state;
   if (!st) return;
-  host->free(st->a);
-  host->free(st->b);
-  host->free(st);
+  eqp_plug_free(host, st->a, sizeof(double) * st->cap);
+  eqp_plug_free(host, st->b, sizeof(double) * st->cap);
+  eqp_plug_free(host, st, sizeof *st);
 }
 
 static int bd_bind(void *state, const eqp_species_info *info, char *warn, size_t warnlen,
                    char *err, size_t errlen)
 {
   bdot_state *st = state;
-  st->host->free(st->a);
-  st->host->free(st->b);
+  eqp_plug_free(st->host, st->a, sizeof(double) * st->cap);
+  eqp_plug_free(st->host, st->b, sizeof(double) * st->cap);
   st->n = 0;
-  st->a = st->host->alloc(sizeof(double) * (info->n + 1));
-  st->b = st->host->alloc(sizeof(double) * (info->n + 1));
+  st->cap = info->n + 1;
+  st->a = eqp_plug_alloc(st->host, sizeof(double) * st->cap);
+  st->b = eqp_plug_alloc(st->host, sizeof(double) * st->cap);
   if (!st->a || !st->b) {
     snprintf(err, errlen, "out of memory");
     return 1;

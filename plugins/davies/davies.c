@@ -2,6 +2,7 @@
 ** log10 g = -A z^2 ( sqrt(I)/(1+sqrt(I)) - c I ), c = 0.3 by default. */
 /* SPDX-License-Identifier: MIT */
 #include <equipoise/plugin.h>
+#include "../common/host_mem.h"
 #include <math.h>
 #include <stdio.h>
 #include <string.h>
@@ -12,7 +13,7 @@ typedef struct davies_state {
 
 static int davies_create(const eqp_host_api *host, void **state, char *err, size_t errlen)
 {
-  davies_state *st = host->alloc(sizeof *st);
+  davies_state *st = eqp_plug_alloc(host, sizeof *st);
   if (!st) {
     snprintf(err, errlen, "davies: out of memory");
     return 1;
@@ -24,7 +25,7 @@ static int davies_create(const eqp_host_api *host, void **state, char *err, size
 
 static void davies_destroy(const eqp_host_api *host, void *state)
 {
-  host->free(state);
+  eqp_plug_free(host, state, sizeof(davies_state));
 }
 
 static int davies_log_gamma(void *state, const eqp_activity_in *in, double *lg,

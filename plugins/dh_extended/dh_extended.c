@@ -5,6 +5,7 @@
 ** for singly charged ions; common practice), and the result says so. */
 /* SPDX-License-Identifier: MIT */
 #include <equipoise/plugin.h>
+#include "../common/host_mem.h"
 #include "../common/ion_sizes.h"
 #include <math.h>
 #include <stdio.h>
@@ -15,18 +16,19 @@ typedef struct ext_state {
   const eqp_host_api *host;
   double *a;              /* size per bound species, Angstrom */
   size_t n;
+  size_t cap;             /* doubles allocated for a */
 } ext_state;
 
 static int ext_create(const eqp_host_api *host, void **state, char *err, size_t errlen)
 {
-  ext_state *st = host->alloc(sizeof *st);
+  ext_state *st = eqp_plug_alloc(host, sizeof *st);
   if (!st) {
     snprintf(err, errlen, "out of memory");
     return 1;
   }
   st->host = host;
   st->a = NULL;
-  st->n = 0;
+  st->n = st->cap = 0;
   *state = st;
   return 0;
 }
@@ -35,21 +37,22 @@ static void ext_destroy(const eqp_host_api *host, void *state)
 {
   ext_state *st = state;
   if (!st) return;
-  host->free(st->a);
-  host->free(st);
+  eqp_plug_free(host, st->a, sizeof(double) * st->cap);
+  eqp_plug_free(host, st, sizeof *st);
 }
 
 static int ext_bind(void *state, const eqp_species_info *info, char *warn, size_t warnlen,
                     char *err, size_t errlen)
 {
   ext_state *st = state;
-  st->host->free(st->a);
-  st->n = 0;
-  st->a = st->host->alloc(sizeof(double) * (info->n + 1));
+  eqp_plug_free(st->host, st->a, sizeof(double) * st->cap);
+  st->n = st->cap = 0;
+  st->a = eqp_plug_alloc(st->host, sizeof(double) * (info->n + 1));
   if (!st->a) {
     snprintf(err, errlen, "out of memory");
     return 1;
   }
+  st->cap = info->n + 1;
   st->n = info->n;
   for (size_t i = 0; i < info->n; i++) st->a[i] = info->size[i];
   eqp_default_ion_sizes(info, st->a, warn, warnlen, "dh-extended");

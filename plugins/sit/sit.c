@@ -8,6 +8,7 @@
 ** Neutral species: g = 1. Usual range I <= 3.5 mol/kg. */
 /* SPDX-License-Identifier: MIT */
 #include <equipoise/plugin.h>
+#include "../common/host_mem.h"
 #include <math.h>
 #include <stdio.h>
 #include <string.h>
@@ -16,18 +17,19 @@ typedef struct sit_state {
   const eqp_host_api *host;
   double *eps;            /* n x n, symmetric */
   size_t n;
+  size_t cap;             /* doubles allocated for eps */
 } sit_state;
 
 static int sit_create(const eqp_host_api *host, void **state, char *err, size_t errlen)
 {
-  sit_state *st = host->alloc(sizeof *st);
+  sit_state *st = eqp_plug_alloc(host, sizeof *st);
   if (!st) {
     snprintf(err, errlen, "out of memory");
     return 1;
   }
   st->host = host;
   st->eps = NULL;
-  st->n = 0;
+  st->n = st->cap = 0;
   *state = st;
   return 0;
 }
@@ -36,8 +38,8 @@ static void sit_destroy(const eqp_host_api *host, void *state)
 {
   sit_state *st = state;
   if (!st) return;
-  host->free(st->eps);
-  host->free(st);
+  eqp_plug_free(host, st->eps, sizeof(double) * st->cap);
+  eqp_plug_free(host, st, sizeof *st);
 }
 
 static int sit_bind(void *state, const eqp_species_info *info, char *warn, size_t warnlen,
@@ -45,13 +47,14 @@ static int sit_bind(void *state, const eqp_species_info *info, char *warn, size_
 {
   sit_state *st = state;
   size_t n = info->n;
-  st->host->free(st->eps);
-  st->n = 0;
-  st->eps = st->host->alloc(sizeof(double) * (n * n + 1));
+  eqp_plug_free(st->host, st->eps, sizeof(double) * st->cap);
+  st->n = st->cap = 0;
+  st->eps = eqp_plug_alloc(st->host, sizeof(double) * (n * n + 1));
   if (!st->eps) {
     snprintf(err, errlen, "out of memory");
     return 1;
   }
+  st->cap = n * n + 1;
   st->n = n;
   warn[0] = '\0';
   for (size_t i = 0; i < n; i++)

@@ -23,7 +23,10 @@ static void die(eqp_ctx *ctx)
 
 static eqp_solution *buffer(eqp_ctx *ctx, int systems)
 {
-  eqp_solution_opts o = {1.0, 298.15, "davies"};
+  eqp_solution_opts o = EQP_SOLUTION_OPTS_INIT;
+  o.water = 1.0;
+  o.temperature_K = 298.15;
+  o.activity = "davies";
   eqp_solution *s;
   if (eqp_solution_new(ctx, &o, &s)) die(ctx);
   if (eqp_solution_add_str(s, "KH2PO4", "25 mmol") || eqp_solution_add_str(s, "Na2HPO4", "25 mmol"))
@@ -73,9 +76,16 @@ static double cold(eqp_ctx *ctx, int n)
 static double titration_ms(eqp_ctx *ctx, size_t *rows)
 {
   eqp_solution *s = buffer(ctx, 1), *naoh;
-  eqp_solution_opts o = {1.0, 298.15, "davies"};
+  eqp_solution_opts o = EQP_SOLUTION_OPTS_INIT;
+  o.water = 1.0;
+  o.temperature_K = 298.15;
+  o.activity = "davies";
   if (eqp_solution_new(ctx, &o, &naoh) || eqp_solution_add_str(naoh, "NaOH", "0.1 mol")) die(ctx);
-  eqp_titration t = {NULL, naoh, 0.1e-3, 100e-3, NAN, 10.0, NULL, 0};
+  eqp_titration t = EQP_TITRATION_INIT;
+  t.stock = naoh;
+  t.step = 0.1e-3;
+  t.to = 100e-3;
+  t.max_dpH = 10.0;
   eqp_curve *c;
   double t0 = now();
   if (eqp_solution_titrate(s, &t, &c)) die(ctx);

@@ -39,7 +39,10 @@ static inline eqp_ctx *test_ctx(void)
 /* Solve a solution given as reagent/amount pairs ending in NULL. */
 static inline eqp_result *test_solve(eqp_ctx *ctx, const char *model, double T, ...)
 {
-  eqp_solution_opts o = {1.0, T, model};
+  eqp_solution_opts o = EQP_SOLUTION_OPTS_INIT;
+  o.water = 1.0;
+  o.temperature_K = T;
+  o.activity = model;
   eqp_solution *s;
   if (eqp_solution_new(ctx, &o, &s) != EQP_OK) fail_msg("%s", eqp_ctx_errmsg(ctx));
   va_list ap;

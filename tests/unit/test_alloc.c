@@ -25,7 +25,10 @@ static int scenario(budget *b)
   int done = 0;
   eqp_solution *s = NULL, *c = NULL;
   eqp_result *r = NULL;
-  eqp_solution_opts o = {1, 298.15, "davies"};
+  eqp_solution_opts o = EQP_SOLUTION_OPTS_INIT;
+  o.water = 1;
+  o.temperature_K = 298.15;
+  o.activity = "davies";
   if (eqp_ctx_load_default_library(ctx) == EQP_OK && eqp_solution_new(ctx, &o, &s) == EQP_OK &&
       eqp_solution_add_str(s, "KH2PO4", "25 mmol") == EQP_OK &&
       eqp_solution_add_str(s, "Na2HPO4", "25 mmol") == EQP_OK &&

@@ -9,7 +9,9 @@
 
 static eqp_solution *water(eqp_ctx *ctx)
 {
-  eqp_solution_opts o = {0.1, 298.15, NULL};
+  eqp_solution_opts o = EQP_SOLUTION_OPTS_INIT;
+  o.water = 0.1;
+  o.temperature_K = 298.15;
   eqp_solution *s;
   if (eqp_solution_new(ctx, &o, &s) != EQP_OK) fail_msg("%s", eqp_ctx_errmsg(ctx));
   return s;
@@ -65,7 +67,10 @@ static void test_titrate(void **state)
   eqp_ctx *ctx = test_ctx();
   eqp_solution *s = water(ctx);
   assert_int_equal(eqp_solution_add_str(s, "KH2PO4", "5 mmol"), EQP_OK);
-  eqp_titration t = {"KOH", NULL, 0.5e-3, 2e-3, NAN, 0, NULL, 0};
+  eqp_titration t = EQP_TITRATION_INIT;
+  t.reagent = "KOH";
+  t.step = 0.5e-3;
+  t.to = 2e-3;
   eqp_curve *c;
   assert_int_equal(eqp_solution_titrate(s, &t, &c), EQP_OK);
   eqp_curve_free(c);
@@ -106,7 +111,14 @@ static void test_recipe(void **state)
 {
   eqp_ctx *ctx = test_ctx();
   const char *using[2] = {"Tris", "HCl"};
-  eqp_recipe_spec sp = {NULL, using, 2, 8.0, 0.05, 0.1, 298.15, NULL, NAN, NULL, 1.0};
+  eqp_recipe_spec sp = EQP_RECIPE_SPEC_INIT;
+  sp.reagents = using;
+  sp.nreagents = 2;
+  sp.pH = 8.0;
+  sp.total = 0.05;
+  sp.volume = 0.1;
+  sp.T = 298.15;
+  sp.titrant_molar = 1.0;
   eqp_recipe *r;
   assert_int_equal(eqp_recipe_make(ctx, &sp, &r), EQP_OK);
   assert_int_equal(eqp_ctx_caution_count(ctx), 2);

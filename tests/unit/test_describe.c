@@ -258,7 +258,10 @@ static void test_constants_used(void **state)
   eqp_result_free(r[0]);
   eqp_result_free(r[1]);
   /* a solution opened to CO2: its Henry's-law constant joins them */
-  eqp_solution_opts o = {1.0, 298.15, "davies"};
+  eqp_solution_opts o = EQP_SOLUTION_OPTS_INIT;
+  o.water = 1.0;
+  o.temperature_K = 298.15;
+  o.activity = "davies";
   eqp_solution *s;
   assert_int_equal(eqp_solution_new(ctx, &o, &s), EQP_OK);
   double mol;

@@ -130,7 +130,10 @@ static double weak_base_pH(double Ka, double C)
 
 static eqp_solution *make(double litres)
 {
-  eqp_solution_opts o = {litres * rho, 298.15, "ideal"};
+  eqp_solution_opts o = EQP_SOLUTION_OPTS_INIT;
+  o.water = litres * rho;
+  o.temperature_K = 298.15;
+  o.activity = "ideal";
   eqp_solution *s;
   if (eqp_solution_new(ctx, &o, &s) != EQP_OK) fail_msg("%s", eqp_ctx_errmsg(ctx));
   return s;
@@ -160,7 +163,10 @@ typedef struct expect { double V, pH; } expect;
 static void check(const char *label, eqp_solution *s, eqp_solution *stock, double step,
                   double V_end, const ref *r, const expect *want, int nwant)
 {
-  eqp_titration t = {NULL, stock, step, V_end, NAN, 0, NULL, 0};
+  eqp_titration t = EQP_TITRATION_INIT;
+  t.stock = stock;
+  t.step = step;
+  t.to = V_end;
   eqp_curve *c;
   if (eqp_solution_titrate(s, &t, &c) != EQP_OK) fail_msg("%s", eqp_ctx_errmsg(ctx));
   size_t nrows = eqp_curve_rows(c);
@@ -295,7 +301,10 @@ static void test_outputs(void **state)
   eqp_solution_add(s, "NaHCO3", 12.2e-3, EQP_Q_AMOUNT);
   eqp_solution_add(s, "Na2CO3", 1.4e-3, EQP_Q_AMOUNT);
   eqp_solution_add(hcl, "HCl", 0.1, EQP_Q_AMOUNT);
-  eqp_titration t = {NULL, hcl, 2e-3, 0.2, NAN, 0, NULL, 0};
+  eqp_titration t = EQP_TITRATION_INIT;
+  t.stock = hcl;
+  t.step = 2e-3;
+  t.to = 0.2;
   eqp_curve *c;
   assert_int_equal(eqp_solution_titrate(s, &t, &c), EQP_OK);
   char *j = eqp_curve_to_json(c);

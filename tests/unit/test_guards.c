@@ -23,7 +23,9 @@ static int teardown(void **state)
 
 static eqp_solution *new_solution(double water_kg)
 {
-  eqp_solution_opts o = {water_kg, 298.15, NULL};
+  eqp_solution_opts o = EQP_SOLUTION_OPTS_INIT;
+  o.water = water_kg;
+  o.temperature_K = 298.15;
   eqp_solution *s;
   assert_int_equal(eqp_solution_new(ctx, &o, &s), EQP_OK);
   return s;
@@ -147,7 +149,10 @@ static void test_verify_sees_nan_in_any_row(void **state)
 ** agree with the adjustment. */
 static void test_no_root_beyond_100_mol_kg(void **state)
 {
-  eqp_solution_opts o = {1, 295.37880888942414, "dh-limiting"};
+  eqp_solution_opts o = EQP_SOLUTION_OPTS_INIT;
+  o.water = 1;
+  o.temperature_K = 295.37880888942414;
+  o.activity = "dh-limiting";
   eqp_solution *s;
   assert_int_equal(eqp_solution_new(ctx, &o, &s), EQP_OK);
   assert_int_equal(eqp_solution_add(s, "NaOH", 0.007037991967981886, EQP_Q_AMOUNT), EQP_OK);

@@ -385,7 +385,9 @@ static void test_species_path(void **state)
   assert_contains(text, "KHC8H4O4");
   assert_int_equal(describe(ctx, "NaKCl2", &text), EQP_OK);   /* the rest */
   assert_int_equal(describe(ctx, "KH2PO4", &text), EQP_OK);
-  eqp_solution_opts o = {1, 298.15, NULL};
+  eqp_solution_opts o = EQP_SOLUTION_OPTS_INIT;
+  o.water = 1;
+  o.temperature_K = 298.15;
   eqp_solution *s;
   assert_int_equal(eqp_solution_new(ctx, &o, &s), EQP_OK);
   assert_int_equal(eqp_solution_add_str(s, "ZqCl", "1 mmol"), EQP_E_UNKNOWN);

@@ -15,7 +15,10 @@ static void test_limiting_law_limit(void **state)
   for (size_t k = 0; k < sizeof models / sizeof models[0]; k++) {
     double prev = INFINITY;
     for (double I = 1e-4; I >= 1e-10; I /= 100) {
-      eqp_solution_opts o = {1, 298.15, models[k]};
+      eqp_solution_opts o = EQP_SOLUTION_OPTS_INIT;
+      o.water = 1;
+      o.temperature_K = 298.15;
+      o.activity = models[k];
       eqp_solution *s;
       assert_int_equal(eqp_solution_new(ctx, &o, &s), EQP_OK);
       /* Na2HPO4 gives ions of charge 1 and 2; the solution's own I is ~3c */
@@ -80,7 +83,10 @@ static void test_published_mean_activity(void **state)
 ** measured coefficient of -0.028 pH/K: -0.336 over 12 K; to 0.03. */
 static void test_tris_temperature_shift(void **state)
 {
-  eqp_solution_opts o = {1, 298.15, "dh-extended"};
+  eqp_solution_opts o = EQP_SOLUTION_OPTS_INIT;
+  o.water = 1;
+  o.temperature_K = 298.15;
+  o.activity = "dh-extended";
   eqp_solution *s;
   assert_int_equal(eqp_solution_new(ctx, &o, &s), EQP_OK);
   eqp_solution_add_str(s, "Tris", "25 mmol");
@@ -102,7 +108,10 @@ static void test_tris_temperature_shift(void **state)
 
 static void test_parameters_and_warnings(void **state)
 {
-  eqp_solution_opts o = {1, 298.15, "davies"};
+  eqp_solution_opts o = EQP_SOLUTION_OPTS_INIT;
+  o.water = 1;
+  o.temperature_K = 298.15;
+  o.activity = "davies";
   eqp_solution *s;
   assert_int_equal(eqp_solution_new(ctx, &o, &s), EQP_OK);
   assert_int_equal(eqp_solution_set_activity_param(s, "coefficient", 0.2), EQP_OK);

@@ -84,7 +84,10 @@ static void palette_distinct(void **state)
 
 static eqp_solution *new_solution(eqp_ctx *ctx, double litres)
 {
-  eqp_solution_opts o = {litres * eqp_water_density(298.15), 298.15, "davies"};
+  eqp_solution_opts o = EQP_SOLUTION_OPTS_INIT;
+  o.water = litres * eqp_water_density(298.15);
+  o.temperature_K = 298.15;
+  o.activity = "davies";
   eqp_solution *s;
   if (eqp_solution_new(ctx, &o, &s) != EQP_OK) fail_msg("%s", eqp_ctx_errmsg(ctx));
   return s;
@@ -96,7 +99,10 @@ static eqp_plot *titration_figure(eqp_ctx *ctx, const char *acid, const char *mm
   eqp_solution *s = new_solution(ctx, 0.050), *naoh = new_solution(ctx, 1.0);
   assert_int_equal(eqp_solution_add_str(s, acid, mmol), EQP_OK);
   assert_int_equal(eqp_solution_add_str(naoh, "NaOH", "0.1 mol"), EQP_OK);
-  eqp_titration t = {NULL, naoh, 0.25e-3, 20e-3, NAN, 0, NULL, 0};
+  eqp_titration t = EQP_TITRATION_INIT;
+  t.stock = naoh;
+  t.step = 0.25e-3;
+  t.to = 20e-3;
   eqp_curve *c;
   if (eqp_solution_titrate(s, &t, &c) != EQP_OK) fail_msg("%s", eqp_ctx_errmsg(ctx));
   eqp_plot *p;
@@ -212,7 +218,13 @@ static void distribution_phosphate(void **state)
   library_pKa(pKa);
   const double z[4] = {0, -1, -2, -3};   /* H3PO4, H2PO4-, HPO4^2-, PO4^3- */
   for (int dilute = 0; dilute < 2; dilute++) {
-    eqp_distribution_spec d = {"phosphate", 0, 14, 14001, 298.15, dilute ? 0 : I, "davies", NULL};
+    eqp_distribution_spec d = EQP_DISTRIBUTION_SPEC_INIT;
+    d.system = "phosphate";
+    d.pH_hi = 14;
+    d.points = 14001;
+    d.T = 298.15;
+    d.ionic_strength = dilute ? 0 : I;
+    d.activity = "davies";
     eqp_curve *c;
     if (eqp_distribution(ctx, &d, &c) != EQP_OK) fail_msg("%s", eqp_ctx_errmsg(ctx));
     assert_int_equal(eqp_curve_cols(c), 5);
@@ -234,12 +246,14 @@ static void distribution_phosphate(void **state)
     eqp_curve_free(c);
   }
   /* a reagent or one form of the system names the same system */
-  eqp_distribution_spec d2 = {"NaH2PO4", 0, 0, 0, 0, 0, NULL, NULL};
+  eqp_distribution_spec d2 = EQP_DISTRIBUTION_SPEC_INIT;
+  d2.system = "NaH2PO4";
   eqp_curve *c2;
   assert_int_equal(eqp_distribution(ctx, &d2, &c2), EQP_OK);
   assert_int_equal(eqp_curve_cols(c2), 5);
   eqp_curve_free(c2);
-  eqp_distribution_spec bad = {"no such thing", 0, 0, 0, 0, 0, NULL, NULL};
+  eqp_distribution_spec bad = EQP_DISTRIBUTION_SPEC_INIT;
+  bad.system = "no such thing";
   assert_int_equal(eqp_distribution(ctx, &bad, &c2), EQP_E_UNKNOWN);
   eqp_ctx_free(ctx);
 }

@@ -16,7 +16,10 @@ static eqp_ctx *fixture_ctx(void)
 static void refused(const char *name, const char *needle)
 {
   eqp_ctx *ctx = fixture_ctx();
-  eqp_solution_opts o = {1, 298.15, name};
+  eqp_solution_opts o = EQP_SOLUTION_OPTS_INIT;
+  o.water = 1;
+  o.temperature_K = 298.15;
+  o.activity = name;
   eqp_solution *s = NULL;
   assert_int_equal(eqp_solution_new(ctx, &o, &s), EQP_E_PLUGIN);
   assert_null(s);
@@ -88,7 +91,10 @@ static void test_renamed_plugin(void **state)
   snprintf(copy, sizeof copy, "%s/mydavies.so", dir);
   assert_int_equal(copy_file(w.path, copy), 0);
   assert_int_equal(eqp_ctx_add_plugin_dir(ctx, dir), EQP_OK);
-  eqp_solution_opts o = {1, 298.15, "mydavies"};
+  eqp_solution_opts o = EQP_SOLUTION_OPTS_INIT;
+  o.water = 1;
+  o.temperature_K = 298.15;
+  o.activity = "mydavies";
   eqp_solution *s = NULL;
   for (int twice = 0; twice < 2; twice++) {     /* nothing of the refusal stays behind */
     assert_int_equal(eqp_solution_new(ctx, &o, &s), EQP_E_PLUGIN);
@@ -117,7 +123,10 @@ static size_t trailing_x(const char *msg)
 static void test_unterminated_messages(void **state)
 {
   eqp_ctx *ctx = fixture_ctx();
-  eqp_solution_opts o = {1, 298.15, "unterm_entry"};
+  eqp_solution_opts o = EQP_SOLUTION_OPTS_INIT;
+  o.water = 1;
+  o.temperature_K = 298.15;
+  o.activity = "unterm_entry";
   eqp_solution *s = NULL;
   assert_int_equal(eqp_solution_new(ctx, &o, &s), EQP_E_PLUGIN);        /* entry */
   assert_contains(eqp_ctx_errmsg(ctx), "plugin refused to load: xxx");
@@ -197,6 +206,87 @@ static void test_davies_values(void **state)
   eqp_ctx_free(ctx);
 }
 
+/* What the plugins and the engine say, and the sizes the context's
+** allocator is asked for. */
+typedef struct watch { char lines[8][256]; int n; int got_4104, freed_4104; } watch;
+
+static void watch_log(void *ud, int level, const char *msg)
+{
+  watch *w = ud;
+  if (w->n < 8) snprintf(w->lines[w->n++], sizeof w->lines[0], "%d %s", level, msg);
+}
+
+static void *watch_alloc(void *ud, void *ptr, size_t osize, size_t nsize)
+{
+  watch *w = ud;
+  if (nsize == 0) {
+    w->freed_4104 += ptr && osize == 4104;
+    free(ptr);
+    return NULL;
+  }
+  w->got_4104 += nsize == 4104;
+  return realloc(ptr, nsize);
+}
+
+static int logged(const watch *w, const char *needle)
+{
+  for (int i = 0; i < w->n; i++)
+    if (strstr(w->lines[i], needle)) return 1;
+  return 0;
+}
+
+/* pH of 0.025 m KH2PO4 + 0.025 m Na2HPO4 with the named model. */
+static double phosphate_pH(eqp_ctx *ctx, const char *model)
+{
+  eqp_solution_opts o = EQP_SOLUTION_OPTS_INIT;
+  o.activity = model;
+  eqp_solution *s;
+  eqp_result *r;
+  if (eqp_solution_new(ctx, &o, &s) != EQP_OK) fail_msg("%s", eqp_ctx_errmsg(ctx));
+  assert_int_equal(eqp_solution_add_str(s, "KH2PO4", "25 mmol"), EQP_OK);
+  assert_int_equal(eqp_solution_add_str(s, "Na2HPO4", "25 mmol"), EQP_OK);
+  if (eqp_solution_equilibrate(s, &r) != EQP_OK) fail_msg("%s", eqp_ctx_errmsg(ctx));
+  double pH = eqp_result_pH(r);
+  eqp_result_free(r);
+  eqp_solution_free(s);
+  return pH;
+}
+
+/* A plugin built with the ABI 1.0 structs (a 1.0 descriptor, only the
+** required operations) loads, computes, says it has no parameters instead
+** of the host reading past its operations, and its 1.0 log line reaches
+** the context's log. A plugin of a later minor version, with members this
+** engine does not know, loads with them ignored, allocates through the
+** context's allocator and logs through the context's log. Both compute
+** Davies's equation, so both give the built-in davies model's pH. */
+static void test_abi_versions(void **state)
+{
+  watch w;
+  memset(&w, 0, sizeof w);
+  eqp_ctx *ctx = eqp_ctx_new(watch_alloc, &w);
+  assert_non_null(ctx);
+  assert_int_equal(eqp_ctx_add_plugin_dir(ctx, getenv("EQP_FIXTURE_DIR")), EQP_OK);
+  if (eqp_ctx_load_default_library(ctx) != EQP_OK) fail_msg("%s", eqp_ctx_errmsg(ctx));
+  eqp_ctx_set_log(ctx, watch_log, &w, EQP_LOG_DEBUG);
+  double davies = phosphate_pH(ctx, "davies");
+
+  assert_close(phosphate_pH(ctx, "abi_1_0"), davies, 1e-12);
+  assert_true(logged(&w, "3 plugin: abi_1_0: created from a 1.0 descriptor"));
+  eqp_solution_opts o = EQP_SOLUTION_OPTS_INIT;
+  o.activity = "abi_1_0";
+  eqp_solution *s;
+  assert_int_equal(eqp_solution_new(ctx, &o, &s), EQP_OK);
+  assert_int_equal(eqp_solution_set_activity_param(s, "coefficient", 0.2), EQP_E_PLUGIN);
+  assert_contains(eqp_ctx_errmsg(ctx), "takes no parameters");
+  eqp_solution_free(s);
+
+  assert_close(phosphate_pH(ctx, "abi_future"), davies, 1e-12);
+  assert_true(logged(&w, "4 plugin: abi_future: state from the context's allocator"));
+  assert_true(w.got_4104 > 0);
+  assert_int_equal(w.freed_4104, w.got_4104);
+  eqp_ctx_free(ctx);
+}
+
 int main(void)
 {
   const struct CMUnitTest tests[] = {
@@ -206,6 +296,7 @@ int main(void)
     cmocka_unit_test(test_renamed_plugin),
     cmocka_unit_test(test_unterminated_messages),
     cmocka_unit_test(test_davies_values),
+    cmocka_unit_test(test_abi_versions),
   };
   return cmocka_run_group_tests(tests, NULL, NULL);
 }

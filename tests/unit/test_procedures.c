@@ -10,7 +10,10 @@ static const double Ka = 1.7538805018417602e-05;   /* 10^-4.756, species/acetate
 
 static eqp_solution *make(const char *model, double water)
 {
-  eqp_solution_opts o = {water, 298.15, model};
+  eqp_solution_opts o = EQP_SOLUTION_OPTS_INIT;
+  o.water = water;
+  o.temperature_K = 298.15;
+  o.activity = model;
   eqp_solution *s;
   if (eqp_solution_new(ctx, &o, &s) != EQP_OK) fail_msg("%s", eqp_ctx_errmsg(ctx));
   return s;
@@ -96,7 +99,10 @@ static void test_weak_acid_titration(void **state)
   eqp_solution *s = make("ideal", W0), *naoh = make("ideal", 1);
   eqp_solution_add(s, "CH3COOH", 0.1 * W0, EQP_Q_AMOUNT);
   eqp_solution_add(naoh, "NaOH", 0.1, EQP_Q_AMOUNT);
-  eqp_titration t = {NULL, naoh, 0.5e-3, 80e-3, NAN, 0, NULL, 0};
+  eqp_titration t = EQP_TITRATION_INIT;
+  t.stock = naoh;
+  t.step = 0.5e-3;
+  t.to = 80e-3;
   eqp_curve *c;
   assert_int_equal(eqp_solution_titrate(s, &t, &c), EQP_OK);
   /* every row against the exact charge balance */
@@ -147,7 +153,10 @@ static void test_strong_titration_closed_form(void **state)
   eqp_solution *s = make("ideal", W0), *naoh = make("ideal", 1);
   eqp_solution_add(s, "HCl", 0.01 * W0, EQP_Q_AMOUNT);
   eqp_solution_add(naoh, "NaOH", 0.01, EQP_Q_AMOUNT);
-  eqp_titration t = {NULL, naoh, 1e-3, 50e-3, NAN, 0, NULL, 0};
+  eqp_titration t = EQP_TITRATION_INIT;
+  t.stock = naoh;
+  t.step = 1e-3;
+  t.to = 50e-3;
   eqp_curve *c;
   assert_int_equal(eqp_solution_titrate(s, &t, &c), EQP_OK);
   for (size_t i = 0; i < eqp_curve_rows(c); i++) {

@@ -207,7 +207,10 @@ static void test_random_recipes(void **state)
   int by_rc[16] = {0};
   for (int t = 0; t < N; t++) {
     int mi = t % NMODELS;
-    eqp_solution_opts o = {1, 273.15 + 90 * uniform(), models[mi].name};
+    eqp_solution_opts o = EQP_SOLUTION_OPTS_INIT;
+    o.water = 1;
+    o.temperature_K = 273.15 + 90 * uniform();
+    o.activity = models[mi].name;
     eqp_solution *s;
     assert_int_equal(eqp_solution_new(ctx, &o, &s), EQP_OK);
     added a = {0};
@@ -294,7 +297,10 @@ static void test_random_adjustments(void **state)
   int reached = 0, refused = 0, N = env_int("EQP_STRESS_N", 21000) / 20;
   for (int t = 0; t < N; t++) {
     int mi = t % NMODELS;
-    eqp_solution_opts o = {1, 273.15 + 90 * uniform(), models[mi].name};
+    eqp_solution_opts o = EQP_SOLUTION_OPTS_INIT;
+    o.water = 1;
+    o.temperature_K = 273.15 + 90 * uniform();
+    o.activity = models[mi].name;
     eqp_solution *s;
     assert_int_equal(eqp_solution_new(ctx, &o, &s), EQP_OK);
     const char *s0 = start[(int)(uniform() * 8)];

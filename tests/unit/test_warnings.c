@@ -44,7 +44,10 @@ static int teardown(void **state)
 
 static eqp_solution *solution(const char *model, double T)
 {
-  eqp_solution_opts o = {1.0, T, model};
+  eqp_solution_opts o = EQP_SOLUTION_OPTS_INIT;
+  o.water = 1.0;
+  o.temperature_K = T;
+  o.activity = model;
   eqp_solution *s;
   assert_int_equal(eqp_solution_new(ctx, &o, &s), EQP_OK);
   return s;
@@ -142,7 +145,12 @@ static void test_concentration_scale(void **state)
 ** [] and "about 1000.0 mL of water in all". */
 static void test_concentrated_recipe(void **state)
 {
-  eqp_recipe_spec sp = {"Tris", NULL, 0, 8.0, 3.0, 1.0, 298.15, NULL, NAN, NULL, 0};
+  eqp_recipe_spec sp = EQP_RECIPE_SPEC_INIT;
+  sp.buffer = "Tris";
+  sp.pH = 8.0;
+  sp.total = 3.0;
+  sp.volume = 1.0;
+  sp.T = 298.15;
   eqp_recipe *r;
   seen.n = 0;
   assert_int_equal(eqp_recipe_make(ctx, &sp, &r), EQP_OK);
@@ -169,7 +177,12 @@ static void test_concentrated_recipe(void **state)
 ** 119.98 g/mol / 2.36, Na2HPO4 141.96 / 1.7 g/mL), take 1.0-1.7 L. */
 static void test_impossible_recipe(void **state)
 {
-  eqp_recipe_spec sp = {"phosphate", NULL, 0, 7.0, 20.0, 1.0, 298.15, NULL, NAN, NULL, 0};
+  eqp_recipe_spec sp = EQP_RECIPE_SPEC_INIT;
+  sp.buffer = "phosphate";
+  sp.pH = 7.0;
+  sp.total = 20.0;
+  sp.volume = 1.0;
+  sp.T = 298.15;
   eqp_recipe *r = NULL;
   assert_int_equal(eqp_recipe_make(ctx, &sp, &r), EQP_E_INPUT);
   assert_null(r);
@@ -208,7 +221,10 @@ static void test_titration_warns(void **state)
   eqp_solution *s = solution("davies", 298.15);
   assert_int_equal(eqp_solution_add_str(s, "NaCl", "0.45 mol"), EQP_OK);
   assert_int_equal(eqp_solution_add_str(s, "CH3COOH", "0.1 mol"), EQP_OK);
-  eqp_titration t = {"NaOH", NULL, 0.01, 0.2, NAN, 0, NULL, 0};
+  eqp_titration t = EQP_TITRATION_INIT;
+  t.reagent = "NaOH";
+  t.step = 0.01;
+  t.to = 0.2;
   eqp_curve *c;
   seen.n = 0;
   assert_int_equal(eqp_solution_titrate(s, &t, &c), EQP_OK);

@@ -3,6 +3,7 @@
 #ifndef EQUIPOISE_H
 #define EQUIPOISE_H
 
+#include <math.h>
 #include <stddef.h>
 #include <stdio.h>
 #include "version.h"
@@ -45,8 +46,25 @@ EQP_API const char *eqp_status_name(int status);
 /* A short English description of a status. Static. */
 EQP_API const char *eqp_status_str(int status);
 
+/* The version of the library that runs, which may be newer than the
+** headers a program was built with: EQP_VERSION_STRING and
+** EQP_VERSION_NUMBER as the library was built. Static. */
+EQP_API const char *eqp_version(void);
+EQP_API int eqp_version_number(void);
+
 /* Allocator with lua_Alloc's shape: nsize 0 frees, otherwise realloc. */
 typedef void *(*eqp_alloc_fn)(void *ud, void *ptr, size_t osize, size_t nsize);
+
+/*
+** Option structs begin with their own size, so that the library can grow
+** them at their end and still read a struct compiled against older
+** headers. Start every one from its INIT macro, which sets the size and
+** the defaults, then set the members you need:
+**   eqp_titration t = EQP_TITRATION_INIT;
+**   t.reagent = "NaOH"; t.step = 0.1e-3; t.to = 20e-3;
+** A struct whose size is 0 (`= {0}`), smaller than the first published
+** one, or larger than this library knows is refused with EQP_E_ARG.
+*/
 
 typedef struct eqp_ctx eqp_ctx;           /* allocator, species, plugins, errors */
 typedef struct eqp_solution eqp_solution; /* a composition being equilibrated */
@@ -69,6 +87,34 @@ EQP_API const char *eqp_ctx_errmsg(const eqp_ctx *ctx);
 EQP_API int eqp_ctx_errcode(const eqp_ctx *ctx);
 EQP_API void eqp_ctx_clear_error(eqp_ctx *ctx);
 
+/* Diagnostics. The library never writes to stderr and never reads the
+** environment on its own: what it has to say goes to the context's log
+** callback, if one is set, and a program chooses what to show. Levels, most
+** severe first: */
+#define EQP_LOG_ERROR 1   /* something failed (also returned as a status) */
+#define EQP_LOG_WARN  2   /* a result may be less than it seems */
+#define EQP_LOG_INFO  3   /* what was loaded from where; plugins' own lines */
+#define EQP_LOG_DEBUG 4   /* search paths, decisions of the solver */
+#define EQP_LOG_TRACE 5   /* one line per KINSOL call and per start iteration */
+/* msg is one line without its newline, borrowed for the call. The callback
+** must not call back into the context. */
+typedef void (*eqp_log_fn)(void *ud, int level, const char *msg);
+/* Send messages of level <= max_level to fn (NULL fn or max_level 0: none,
+** the default). */
+EQP_API void eqp_ctx_set_log(eqp_ctx *ctx, eqp_log_fn fn, void *ud, int max_level);
+/* "error", "warn", "info", "debug", "trace"; "?" otherwise. Static. */
+EQP_API const char *eqp_log_level_name(int level);
+
+/* The default configuration, the one place the library reads the
+** environment: EQUIPOISE_SPECIES_PATH and EQUIPOISE_PLUGIN_PATH (folders,
+** colon-separated) and the user's species folder ($XDG_DATA_HOME/
+** equipoise/species, else ~/.local/share/equipoise/species), each copied
+** now and used in its place on the paths below. The command and the Lua
+** module call it; a program embedding the library calls it to behave as
+** they do, or leaves it out to depend on its own calls only. Call it before
+** the library loads. EQP_OK or EQP_E_NOMEM. */
+EQP_API int eqp_ctx_default_config(eqp_ctx *ctx);
+
 /* Load one species file (path) or every *.lua file in a folder, checking
 ** the whole set before any of it becomes visible. On failure nothing of the
 ** file or folder is kept and the message reads "file:line: what is wrong".
@@ -84,10 +130,13 @@ EQP_API int eqp_ctx_load_species_text(eqp_ctx *ctx, const char *text,
 /* Load the species library: every *.lua file on the species path, a list
 ** of folders searched in this order:
 **   1. folders added with eqp_ctx_add_species_dir (the last added first);
-**   2. EQUIPOISE_SPECIES_PATH, colon-separated (each must be a folder);
+**   2. EQUIPOISE_SPECIES_PATH, colon-separated (each must be a folder), and
 **   3. the user's folder, $XDG_DATA_HOME/equipoise/species or
-**      ~/.local/share/equipoise/species, when it exists;
-**   4. the built-in library (the build tree's, else the installed one).
+**      ~/.local/share/equipoise/species, when it exists: both only after
+**      eqp_ctx_default_config;
+**   4. the built-in library, found from where the library file is:
+**      <libdir>/../share/equipoise/species in the install layout (the
+**      build tree has the same layout).
 ** A file in an earlier folder replaces the file of the same name in a later
 ** one (a notice says so). A file with problems, and a file that needs what
 ** such a file defines, is left out with a notice naming it; the rest loads,
@@ -109,8 +158,9 @@ EQP_API size_t eqp_ctx_notice_count(const eqp_ctx *ctx);
 EQP_API const char *eqp_ctx_notice(const eqp_ctx *ctx, size_t i);
 
 /* Prepend a folder to the plugin search path (copied). The path is, in
-** order: folders added here, EQUIPOISE_PLUGIN_PATH (colon-separated), the
-** build tree's plugin folder, the install folder. */
+** order: folders added here, EQUIPOISE_PLUGIN_PATH (colon-separated; after
+** eqp_ctx_default_config), and the plugins that came with the library,
+** <libdir>/equipoise/plugins beside the library file. */
 EQP_API int eqp_ctx_add_plugin_dir(eqp_ctx *ctx, const char *dir);
 
 /* Library contents, for listing. Indexes run from 0 to count-1. The strings
@@ -217,10 +267,14 @@ EQP_API int eqp_formula_molar_mass(eqp_ctx *ctx, const char *formula, double *gm
 /* ----------------------------------------------------------- solution */
 
 typedef struct eqp_solution_opts {
+  size_t size;              /* sizeof(eqp_solution_opts): set by the INIT macro */
   double water;             /* mass of water, kg; > 0 */
   double temperature_K;     /* 273.15 .. 373.15 */
   const char *activity;     /* plugin name; NULL means "davies" */
 } eqp_solution_opts;
+/* 1 kg of water at 25 C, the Davies model. */
+#define EQP_SOLUTION_OPTS_INIT \
+  { .size = sizeof(eqp_solution_opts), .water = 1.0, .temperature_K = 298.15, .activity = NULL }
 
 /* New solution of pure water. Loads the default library if nothing is
 ** loaded yet and the activity plugin named in opts. */
@@ -301,6 +355,7 @@ EQP_API int eqp_solution_equilibrate(eqp_solution *s, eqp_result **out);
 /* --------------------------------------------------------- titration */
 
 typedef struct eqp_titration {
+  size_t size;                  /* sizeof(eqp_titration): set by the INIT macro */
   const char *reagent;          /* titrant by reagent name ... */
   const eqp_solution *stock;    /* ... or a stock solution (exactly one) */
   double step;                  /* largest step: mol (reagent) or L (stock) */
@@ -310,6 +365,10 @@ typedef struct eqp_titration {
   const char *const *species;   /* extra columns: molality of each */
   size_t nspecies;
 } eqp_titration;
+/* No titrant, step or end yet (set them); no pH stop; steps of at most 0.1 pH. */
+#define EQP_TITRATION_INIT \
+  { .size = sizeof(eqp_titration), .reagent = NULL, .stock = NULL, .step = 0, .to = 0, \
+    .until_pH = NAN, .max_dpH = 0.1, .species = NULL, .nspecies = 0 }
 
 /* Titrate a copy of s (s is unchanged). Steps shrink so that no step moves
 ** the pH by more than max_dpH (a step that moves it by more than twice that
@@ -359,6 +418,7 @@ EQP_API void eqp_free_string(char *s);
 ** constant ionic medium: the activity coefficients of the chosen model at
 ** the stated ionic strength (set by the medium salt), log K at T. */
 typedef struct eqp_distribution_spec {
+  size_t size;               /* sizeof(eqp_distribution_spec): set by the INIT macro */
   const char *system;        /* any species or reagent of the system: "HPO4^2-", "citric acid" */
   double pH_lo, pH_hi;       /* 0, 0: 0 .. 14 */
   size_t points;             /* 0: 281 */
@@ -367,6 +427,10 @@ typedef struct eqp_distribution_spec {
   const char *activity;      /* model; NULL: "davies" */
   const char *medium;        /* salt setting the ionic strength; NULL: "NaCl" */
 } eqp_distribution_spec;
+/* No system yet (set it); pH 0 .. 14 in 281 points at 25 C, infinite dilution. */
+#define EQP_DISTRIBUTION_SPEC_INIT \
+  { .size = sizeof(eqp_distribution_spec), .system = NULL, .pH_lo = 0, .pH_hi = 14, \
+    .points = 281, .T = 298.15, .ionic_strength = 0, .activity = NULL, .medium = NULL }
 
 /* Columns: pH, then the fraction (0..1) of each form, most protonated
 ** first. A system with a polynuclear form (two or more of the ligand in one
@@ -377,6 +441,7 @@ EQP_API int eqp_distribution(eqp_ctx *ctx, const eqp_distribution_spec *d, eqp_c
 ** at the same total, one column each after pH; NaN where a buffer cannot be
 ** made at that pH. */
 typedef struct eqp_capacity_spec {
+  size_t size;               /* sizeof(eqp_capacity_spec): set by the INIT macro */
   const char *const *buffers; /* buffer systems; NULL: all of the library */
   size_t nbuffers;
   double total;              /* mol/L */
@@ -387,6 +452,12 @@ typedef struct eqp_capacity_spec {
   size_t points;             /* 0: 61 */
   double window_lo, window_hi; /* the working window, shaded in plots; NaN: none */
 } eqp_capacity_spec;
+/* Every buffer of the library, no total yet (set it), 1 L at 25 C, pH 3 .. 11
+** in 61 points, no window. */
+#define EQP_CAPACITY_SPEC_INIT \
+  { .size = sizeof(eqp_capacity_spec), .buffers = NULL, .nbuffers = 0, .total = NAN, \
+    .volume = 1.0, .T = 298.15, .activity = NULL, .pH_lo = 3, .pH_hi = 11, .points = 61, \
+    .window_lo = NAN, .window_hi = NAN }
 EQP_API int eqp_capacity_sweep(eqp_ctx *ctx, const eqp_capacity_spec *c, eqp_curve **out);
 
 /* pH of s at points temperatures from T0 to T1 (K), the composition kept
@@ -483,6 +554,7 @@ EQP_API int eqp_plot_columns(const eqp_curve *c, const char *xcol, const char *c
 typedef struct eqp_recipe eqp_recipe;
 
 typedef struct eqp_recipe_spec {
+  size_t size;                    /* sizeof(eqp_recipe_spec): set by the INIT macro */
   const char *buffer;             /* a buffer system of the library ("phosphate"), or NULL */
   const char *const *reagents;    /* or the two reagents to use: acid and base form, or the
                                      buffer substance and a strong acid or base titrant */
@@ -496,6 +568,11 @@ typedef struct eqp_recipe_spec {
   const char *salt;               /* for the ionic strength; NULL: NaCl */
   double titrant_molar;           /* titrant stock, mol/L; 0: 1 M */
 } eqp_recipe_spec;
+/* No buffer, pH or total yet (set them); 1 L at 25 C, no salt, a 1 M titrant. */
+#define EQP_RECIPE_SPEC_INIT \
+  { .size = sizeof(eqp_recipe_spec), .buffer = NULL, .reagents = NULL, .nreagents = 0, \
+    .pH = NAN, .total = NAN, .volume = 1.0, .T = 298.15, .activity = NULL, \
+    .ionic_strength = NAN, .salt = NULL, .titrant_molar = 1.0 }
 
 enum { EQP_ROLE_SOLID = 1, EQP_ROLE_TITRANT = 2, EQP_ROLE_SALT = 3, EQP_ROLE_WATER = 4 };
 

@@ -13,10 +13,11 @@ extern "C" {
 /*
 ** Versioning. abi_version packs major (high 16 bits) and minor (low 16 bits).
 ** Within one major version, structs only grow at their end; a reader checks
-** struct_size before touching a member added in a later minor version.
+** struct_size (EQP_PLUGIN_HAS) before touching a member added in a later
+** minor version. The sizes of 1.0 are frozen below the structs.
 */
 #define EQP_PLUGIN_ABI_MAJOR 1
-#define EQP_PLUGIN_ABI_MINOR 0
+#define EQP_PLUGIN_ABI_MINOR 1
 #define EQP_PLUGIN_ABI_VERSION \
   ((uint32_t)EQP_PLUGIN_ABI_MAJOR << 16 | (uint32_t)EQP_PLUGIN_ABI_MINOR)
 
@@ -31,14 +32,31 @@ extern "C" {
 #define EQP_PLUGIN_EXPORT
 #endif
 
-/* What the host offers a plugin. Read-only; lives as long as the plugin. */
+/* Levels of ctx_log, as in equipoise.h (most severe first). */
+#define EQP_LOG_ERROR 1
+#define EQP_LOG_WARN  2
+#define EQP_LOG_INFO  3
+#define EQP_LOG_DEBUG 4
+#define EQP_LOG_TRACE 5
+
+/* What the host offers a plugin: one table per context, read-only, living
+** as long as the context that loaded the plugin. */
 typedef struct eqp_host_api {
   uint32_t abi_version;
   uint32_t struct_size;          /* sizeof(eqp_host_api) as the host built it */
   /* 1.0 */
-  void *(*alloc)(size_t n);      /* host allocator; NULL on exhaustion */
+  void *(*alloc)(size_t n);      /* malloc-like; NULL on exhaustion */
   void (*free)(void *p);         /* frees what alloc returned; NULL ok */
-  void (*log)(const char *msg);  /* diagnostic line, shown with --verbose */
+  void (*log)(const char *msg);  /* a line to the log of the context that is
+                                    calling the plugin, at EQP_LOG_INFO */
+  /* 1.1: test EQP_PLUGIN_HAS(host, ud) before use */
+  void *ud;                      /* the host's data: pass it to the calls below */
+  /* The context's own allocator, lua_Alloc's shape: nsize 0 frees ptr
+  ** (osize bytes) and returns NULL; otherwise (re)allocates, NULL on
+  ** exhaustion. Memory from it counts against the program's allocator. */
+  void *(*ctx_alloc)(void *ud, void *ptr, size_t osize, size_t nsize);
+  /* A line to the context's log at a level (EQP_LOG_*). */
+  void (*ctx_log)(void *ud, int level, const char *msg);
 } eqp_host_api;
 
 typedef enum eqp_plugin_kind {
@@ -115,6 +133,32 @@ typedef struct eqp_plugin_desc {
   /* 1.0: validity range of the model; beyond it results carry a warning */
   double max_ionic_strength; /* mol/kg; 0 means no stated limit */
 } eqp_plugin_desc;
+
+/*
+** The sizes of ABI 1.0, frozen: a descriptor smaller than
+** EQP_PLUGIN_DESC_SIZE_1_0 or operations smaller than their required part
+** are refused; a plugin must not read a host table beyond
+** EQP_HOST_API_SIZE_1_0 without EQP_PLUGIN_HAS. Each is the end of the last
+** member 1.0 had, so members appended later never change them (on LP64:
+** 32, 56, 32 and 48 bytes).
+*/
+#define EQP_HOST_API_SIZE_1_0 (offsetof(eqp_host_api, log) + sizeof(void (*)(void)))
+#define EQP_PLUGIN_DESC_SIZE_1_0 (offsetof(eqp_plugin_desc, max_ionic_strength) + sizeof(double))
+#define EQP_ACTIVITY_OPS_REQUIRED (offsetof(eqp_activity_ops, log_gamma) + sizeof(void (*)(void)))
+#define EQP_ACTIVITY_OPS_SIZE_1_0 (offsetof(eqp_activity_ops, bind) + sizeof(void (*)(void)))
+
+/*
+** Whether the struct at p, which records its size in struct_size (the host
+** table, a descriptor, operations), was built with member m. Anything added
+** after 1.0 is read only when this holds:
+**   if (EQP_PLUGIN_HAS(host, ctx_log)) host->ctx_log(host->ud, EQP_LOG_DEBUG, "...");
+** EQP_PLUGIN_HAS_OP also requires the member (an optional operation or a
+** host function) to be non-NULL, which is what a caller needs.
+*/
+#define EQP_PLUGIN_HAS(p, m)                                                     \
+  ((size_t)(p)->struct_size >=                                                   \
+   (size_t)((const char *)&(p)->m - (const char *)(p)) + sizeof((p)->m))
+#define EQP_PLUGIN_HAS_OP(p, m) (EQP_PLUGIN_HAS(p, m) && (p)->m != NULL)
 
 /* The one symbol a plugin exports. Return the descriptor, or NULL after
 ** writing a reason into err. */

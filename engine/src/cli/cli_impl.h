@@ -34,6 +34,11 @@ enum {
 #define CLI_JSON_SCHEMA_VERSION 1
 
 int cli_exit_code(int status);
+/* The engine's log on stderr: warnings, plus what was loaded with verbose
+** (or EQUIPOISE_VERBOSE), plus the solver's trace with trace (or
+** EQUIPOISE_TRACE); and the default configuration (the environment's
+** species and plugin paths). Returns its status (config.c). */
+int cli_configure(eqp_ctx *ctx, int verbose, int trace);
 /* The usage lines, printed with every usage error. */
 extern const char cli_usage[];
 /* equipoise species list | show | check (species_cmd.c). */
@@ -45,6 +50,7 @@ typedef struct cli_run {
   int verbose, trusted;
   long long max_steps;         /* 0: no limit */
   size_t max_memory;           /* bytes; 0: no limit */
+  int trace;                   /* --trace: the solver's progress on stderr */
   const char **param_names, **param_values;
   int nparams;
   const char *write_dirs[CLI_MAX_DIRS];   /* --allow-write */

@@ -1,6 +1,7 @@
 /* equipoise: run experiments, explore the species library, list plugins. */
 /* SPDX-License-Identifier: MIT */
 #include "cli_impl.h"
+#include <equipoise/plugin.h>
 #include <errno.h>
 #include <signal.h>
 #include <stdio.h>
@@ -10,7 +11,7 @@
 
 const char cli_usage[] =
   "usage: equipoise run FILE.lua [--param NAME=VALUE ...] [--json | --jsonl]\n"
-  "                 [--report OUT.html] [--verbose] [--allow-write DIR ...]\n"
+  "                 [--report OUT.html] [--verbose] [--trace] [--allow-write DIR ...]\n"
   "                 [--max-instructions N] [--max-memory SIZE] [--trusted]\n"
   "       equipoise plot distribution|capacity|csv ... -o OUT.svg|.png|.pdf\n"
   "       equipoise species list [--json] | show NAME [--temperature T] [--json]\n"
@@ -30,7 +31,9 @@ static const char help[] =
   "    --report OUT.html write one self-contained HTML page of the run: each\n"
   "                      step with its results, tables, figures, warnings,\n"
   "                      cautions and the provenance of every constant\n"
-  "    --verbose         show a Lua stack trace on errors\n"
+  "    --verbose         show a Lua stack trace on errors, and what the engine\n"
+  "                      and its plugins report as they load\n"
+  "    --trace           also the solver's progress, one line per Newton solve\n"
   "    --allow-write DIR let the script write files in DIR too (repeatable)\n"
   "    --max-instructions N   stop the script after N instructions (default\n"
   "                      1000000000; 0: no limit); suffixes k, M, G\n"
@@ -62,7 +65,8 @@ static const char help[] =
   "\n"
   "environment: EQUIPOISE_SPECIES_PATH (colon-separated species folders, before\n"
   "~/.local/share/equipoise/species and the built-in library), EQUIPOISE_PLUGIN_PATH\n"
-  "(colon-separated plugin folders)\n"
+  "(colon-separated plugin folders), EQUIPOISE_VERBOSE and EQUIPOISE_TRACE (as\n"
+  "--verbose and --trace)\n"
   "\n"
   "Results are estimates: confirm pH with a calibrated meter. Strong acids and\n"
   "bases and concentrated stocks are hazardous: follow the safety data sheet\n"
@@ -98,6 +102,10 @@ static int cmd_plugins(void)
 {
   eqp_ctx *ctx = eqp_ctx_new(NULL, NULL);
   if (!ctx) return EXIT_NOMEM;
+  if (cli_configure(ctx, 0, 0) < 0) {
+    eqp_ctx_free(ctx);
+    return EXIT_NOMEM;
+  }
   int n = 0;
   eqp_ctx_list_plugins(ctx, print_plugin, &n);
   eqp_ctx_free(ctx);
@@ -178,6 +186,7 @@ static int run_option(run_args *ra, int argc, char **argv, int *i)
   const char *a = argv[*i], *v = *i + 1 < argc ? argv[*i + 1] : NULL;
   if (strcmp(a, "--json") == 0 || strcmp(a, "--jsonl") == 0) return 0;
   if (strcmp(a, "--verbose") == 0) run->verbose = 1;
+  else if (strcmp(a, "--trace") == 0) run->trace = 1;
   else if (strcmp(a, "--trusted") == 0) run->trusted = 1;
   else if (strcmp(a, "--report") == 0 && v) run->report = argv[++*i];
   else if (strncmp(a, "--report=", 9) == 0 && a[9]) run->report = a + 9;
@@ -241,7 +250,8 @@ int main(int argc, char **argv)
     return EXIT_OK;
   }
   if (strcmp(cmd, "--version") == 0) {
-    printf("equipoise %s (plugin ABI %d.%d)\n", EQP_VERSION_STRING, 1, 0);
+    printf("equipoise %s (plugin ABI %d.%d)\n", eqp_version(), EQP_PLUGIN_ABI_MAJOR,
+           EQP_PLUGIN_ABI_MINOR);
     return EXIT_OK;
   }
   if (strcmp(cmd, "run") == 0) return cmd_run(argc - 2, argv + 2);

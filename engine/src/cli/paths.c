@@ -4,19 +4,13 @@
 ** resolved (symbolic links and "..") before they are judged. */
 /* SPDX-License-Identifier: MIT */
 #include "cli_impl.h"
+#include "../eqp_impl.h"
 #include <errno.h>
 #include <limits.h>
 #include <stdlib.h>
 #include <string.h>
 #include <sys/stat.h>
 #include <unistd.h>
-
-#ifndef EQP_BUILD_SPECIES_DIR
-#define EQP_BUILD_SPECIES_DIR ""
-#endif
-#ifndef EQP_INSTALL_SPECIES_DIR
-#define EQP_INSTALL_SPECIES_DIR ""
-#endif
 
 static void add_root(char (*roots)[4096], int *n, int max, const char *dir)
 {
@@ -38,10 +32,15 @@ void cli_paths_init(cli_state *st)
   else if (home && *home) snprintf(user, sizeof user, "%s/.local/share/equipoise/species", home);
   add_root(st->read_roots, &st->nread, maxr, st->script_dir);
   add_root(st->read_roots, &st->nread, maxr, ".");
-  add_root(st->read_roots, &st->nread, maxr, getenv("EQUIPOISE_SPECIES_PATH"));
+  const char *env = getenv("EQUIPOISE_SPECIES_PATH");   /* colon-separated */
+  char buf[8192], *save = NULL;
+  snprintf(buf, sizeof buf, "%s", env ? env : "");
+  for (char *d = strtok_r(buf, ":", &save); d; d = strtok_r(NULL, ":", &save))
+    add_root(st->read_roots, &st->nread, maxr, d);
   add_root(st->read_roots, &st->nread, maxr, user);
-  add_root(st->read_roots, &st->nread, maxr, EQP_BUILD_SPECIES_DIR);
-  add_root(st->read_roots, &st->nread, maxr, EQP_INSTALL_SPECIES_DIR);
+  char builtin[4096];   /* the library's own species, found beside it */
+  if (eqpi_builtin_dir(EQPI_DIR_SPECIES, builtin, sizeof builtin) == 0)
+    add_root(st->read_roots, &st->nread, maxr, builtin);
   add_root(st->write_roots, &st->nwrite, maxw, ".");
   for (int i = 0; i < run->nwrite_dirs; i++) {
     add_root(st->write_roots, &st->nwrite, maxw, run->write_dirs[i]);

@@ -189,6 +189,10 @@ int cli_plot(int argc, char **argv)
   }
   eqp_ctx *ctx = eqp_ctx_new(NULL, NULL);
   if (!ctx) return EXIT_NOMEM;
+  if (cli_configure(ctx, 0, 0) < 0) {
+    eqp_ctx_free(ctx);
+    return EXIT_NOMEM;
+  }
   eqp_plot *p = NULL;
   eqp_curve *c = NULL;
   int rc = eqp_ctx_load_default_library(ctx), code = EXIT_OK;
@@ -196,13 +200,18 @@ int cli_plot(int argc, char **argv)
   if (rc < 0) {
     code = cli_exit_code(rc);
   } else if (strcmp(kind, "distribution") == 0 && o.npos == 2) {
-    eqp_distribution_spec d = {o.pos[1], isnan(o.lo) ? 0 : o.lo, isnan(o.hi) ? 0 : o.hi, 0,
-                               o.T + 273.15, o.I, o.activity, o.medium};
+    eqp_distribution_spec d = EQP_DISTRIBUTION_SPEC_INIT;
+    d.system = o.pos[1];
+    if (!isnan(o.lo)) d.pH_lo = o.lo;
+    if (!isnan(o.hi)) d.pH_hi = o.hi;
+    d.T = o.T + 273.15;
+    d.ionic_strength = o.I;
+    d.activity = o.activity;
+    d.medium = o.medium;
     rc = eqp_distribution(ctx, &d, &c);
     if (rc == EQP_OK) rc = eqp_plot_distribution(c, &d, &p);
   } else if (strcmp(kind, "capacity") == 0) {
-    eqp_capacity_spec s;
-    memset(&s, 0, sizeof s);
+    eqp_capacity_spec s = EQP_CAPACITY_SPEC_INIT;
     eqp_quantity k;
     s.buffers = (const char *const *)o.pos + 1;
     s.nbuffers = (size_t)o.npos - 1;

@@ -60,6 +60,8 @@ static int setup(lua_State *L)
 {
   cli_state *st = lua_touserdata(L, 1);
   cli_open_environment(L, st);
+  eqp_ctx *ctx = cli_ctx(L);   /* the module's: its log on stderr */
+  if (ctx) cli_configure(ctx, st->run->verbose, st->run->trace);
   cli_progress_attach(L);
   if (st->run->report) cli_journal_install(L);
   lua_getfield(L, LUA_REGISTRYINDEX, EQPL_LOG);

@@ -138,6 +138,10 @@ int cli_species(int argc, char **argv)
   }
   eqp_ctx *ctx = eqp_ctx_new(NULL, NULL);
   if (!ctx) return EXIT_NOMEM;
+  if (cli_configure(ctx, 0, 0) < 0) {
+    eqp_ctx_free(ctx);
+    return EXIT_NOMEM;
+  }
   if (strcmp(subs[k].name, "check") == 0) {
     code = check(ctx, o.args[0]);
   } else {

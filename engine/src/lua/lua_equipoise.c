@@ -207,7 +207,9 @@ int eqp_lua_open(lua_State *L)
   }
   lua_setmetatable(L, -2);
   c->ctx = eqpl_host_ctx_new(L);
-  if (!c->ctx) return luaL_error(L, "equipoise: out of memory");
+  /* a script's module reads the documented environment, as the command does */
+  if (!c->ctx || eqp_ctx_default_config(c->ctx) < 0)
+    return luaL_error(L, "equipoise: out of memory");
   lua_pushlightuserdata(L, c->ctx);   /* for the command's report */
   lua_setfield(L, LUA_REGISTRYINDEX, EQPL_CTX ".ptr");
   int ctxidx = lua_gettop(L);

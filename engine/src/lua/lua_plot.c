@@ -366,7 +366,7 @@ static int eq_distribution(lua_State *L)
   eqp_ctx *ctx = eqpl_ctx_of(L);
   luaL_checktype(L, 1, LUA_TTABLE);
   check_keys(L, 1, keys, "eq.distribution");
-  eqp_distribution_spec d = {0};
+  eqp_distribution_spec d = EQP_DISTRIBUTION_SPEC_INIT;
   d.system = opt_string(L, 1, "system", "eq.distribution");
   if (!d.system) return eqpl_input_error(L, "eq.distribution: 'system' names a species, reagent "
                                          "or buffer system ('phosphate', 'HPO4^2-')");
@@ -413,9 +413,7 @@ static int eq_capacity(lua_State *L)
   eqp_ctx *ctx = eqpl_ctx_of(L);
   luaL_checktype(L, 1, LUA_TTABLE);
   check_keys(L, 1, keys, "eq.capacity");
-  eqp_capacity_spec s;
-  memset(&s, 0, sizeof s);
-  s.window_lo = s.window_hi = NAN;
+  eqp_capacity_spec s = EQP_CAPACITY_SPEC_INIT;
   const char *names[64];
   int ty = lua_getfield(L, 1, "buffers");
   if (ty == LUA_TTABLE) {
@@ -524,7 +522,7 @@ static int curve_figure(lua_State *L, int curve, eqp_curve *c, int opts, eqp_plo
   }
   if (xcol || has_y) kind = "columns";
   if (kind && strcmp(kind, "distribution") == 0) {
-    eqp_distribution_spec d = {0};
+    eqp_distribution_spec d = EQP_DISTRIBUTION_SPEC_INIT;
     lua_getfield(L, spec, "system");
     d.system = lua_tostring(L, -1);
     lua_getfield(L, spec, "activity");
@@ -534,8 +532,7 @@ static int curve_figure(lua_State *L, int curve, eqp_curve *c, int opts, eqp_plo
     return eqp_plot_distribution(c, &d, p);
   }
   if (kind && strcmp(kind, "capacity") == 0) {
-    eqp_capacity_spec s;
-    memset(&s, 0, sizeof s);
+    eqp_capacity_spec s = EQP_CAPACITY_SPEC_INIT;
     s.total = kind_number(L, spec, "total");
     s.T = kind_number(L, spec, "T");
     s.window_lo = kind_number(L, spec, "window_lo");

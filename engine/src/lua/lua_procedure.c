@@ -213,7 +213,7 @@ static int sol_titrate(lua_State *L)
   }
   eqpl_val v[T_N];
   eqpl_options(L, 2, "titrate", titrate_opts, v, 0);
-  eqp_titration t = {NULL, NULL, 0, 0, NAN, 0, NULL, 0};
+  eqp_titration t = EQP_TITRATION_INIT;
   reagent_or_stock(L, v[T_WITH].idx, "titrate: with", &t.reagent, &t.stock);
   const char *what = t.reagent ? t.reagent : "stock";
   if (t.stock) {

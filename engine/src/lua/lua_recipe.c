@@ -48,7 +48,7 @@ enum { C_LOAD = R_COMMON, C_LOAD_WITH, C_WINDOW, C_COMPARE_N };
 /* Fill sp from the checked options v (the common part). */
 static void fill_spec(lua_State *L, const char *call, const eqpl_val *v, eqp_recipe_spec *sp)
 {
-  memset(sp, 0, sizeof *sp);
+  *sp = (eqp_recipe_spec)EQP_RECIPE_SPEC_INIT;
   sp->pH = v[R_PH].num;
   sp->total = v[R_TOTAL].num;
   sp->volume = v[R_VOLUME].given ? v[R_VOLUME].num : 1.0;

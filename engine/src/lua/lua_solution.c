@@ -120,7 +120,7 @@ int eqpl_solution_new(lua_State *L)
   eqpl_options(L, 1, "eq.solution", solution_opts, v, 0);
   if (v[O_WATER].given && v[O_VOLUME].given)
     return eqpl_input_error(L, "eq.solution: give either 'water' (a mass) or 'volume', not both");
-  eqp_solution_opts o;
+  eqp_solution_opts o = EQP_SOLUTION_OPTS_INIT;
   o.temperature_K = v[O_TEMPERATURE].given ? v[O_TEMPERATURE].num : 298.15;
   o.water = 1.0;
   if (v[O_WATER].given) o.water = v[O_WATER].num;
