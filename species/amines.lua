@@ -28,10 +28,10 @@ return {
   buffers = {
     { "glycine", free = "Gly", titrant = "NaOH",
       notes = { "range: buffers near pH 9.8 with NaOH, or near 2.4 with HCl (Goldberg et al. 2002)",
-                "metals: binds Cu2+ and other metal ions (common practice)" } },
+                "metals: binds Cu^2+ and other metal ions (common practice)" } },
     { "imidazole", free = "Im", titrant = "HCl",
       notes = { "UV: absorbs below about 230 nm (common practice)",
-                "metals: binds Cu2+, Zn2+ and Ni2+ strongly (common practice)",
+                "metals: binds Cu^2+, Zn^2+ and Ni^2+ strongly (common practice)",
                 "temperature: pKa falls about 0.02 per degree C (dH 36.64 kJ/mol, Goldberg et al. 2002)" } },
   },
 }

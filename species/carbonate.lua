@@ -44,6 +44,6 @@ return {
   buffers = {
     { "carbonate", pair = { "NaHCO3", "Na2CO3" },
       notes = { "air: exchanges CO2 with the air; keep closed, or use s:expose to follow it (common practice)",
-                "metals: precipitates Ca2+ and Mg2+ as carbonates (common practice)" } },
+                "metals: precipitates Ca^2+ and Mg^2+ as carbonates (common practice)" } },
   },
 }

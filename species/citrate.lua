@@ -31,7 +31,7 @@ return {
   },
   buffers = {
     { "citrate", pair = { "H3Cit", "Na3Cit" },
-      notes = { "metals: chelates Ca2+, Mg2+, Fe3+ and other metal ions (common practice)",
+      notes = { "metals: chelates Ca^2+, Mg^2+, Fe^3+ and other metal ions (common practice)",
                 "range: three overlapping pKa values buffer from about pH 2.5 to 7 (Goldberg et al. 2002)" } },
   },
 }

@@ -29,11 +29,11 @@ return {
   },
   buffers = {
     { "phosphate", pair = { "NaH2PO4", "Na2HPO4" },
-      notes = { "metals: precipitates Ca2+ and Mg2+ and binds many metal ions (common practice)",
+      notes = { "metals: precipitates Ca^2+ and Mg^2+ and binds many metal ions (common practice)",
                 "enzymes: inhibits some kinases and phosphatases (common practice)",
                 "temperature: pK2 moves little with temperature (dH 3.6 kJ/mol, Goldberg et al. 2002)" } },
     { "potassium phosphate", pair = { "KH2PO4", "K2HPO4" },
-      notes = { "metals: precipitates Ca2+ and Mg2+ (common practice)" } },
+      notes = { "metals: precipitates Ca^2+ and Mg^2+ (common practice)" } },
   },
   reagents = {
     { "H3PO4", names = { "phosphoric acid", "orthophosphoric acid" }, hazards = { "skin-corrosion", "eye-damage", "metal-corrosive" } },

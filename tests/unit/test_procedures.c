@@ -278,7 +278,7 @@ static void test_water_open_to_air(void **state)
   eqp_solution_free(s);
 }
 
-/* Saturation index of calcite: log10(a(Ca2+) a(CO3 2-)) - log Ksp(T), with
+/* Saturation index of calcite: log10(a(Ca^2+) a(CO3^2-)) - log Ksp(T), with
 ** log Ksp from the published equation of Plummer & Busenberg (1982),
 ** evaluated here: -171.9065 - 0.077993 T + 2839.319/T + 71.595 log10 T. */
 static void test_saturation_index(void **state)
