@@ -1,7 +1,7 @@
 /* Provenance: the constants a set of species and reagents depends on, each
 ** with its value, its temperature dependence and its source, as the
 ** species files give them. Acid steps are shown as dissociations with pKa,
-** other reactions as formations with log K (DESIGN s.4, notation). */
+** other reactions as formations with log K. */
 /* SPDX-License-Identifier: MIT */
 #include "eqp_impl.h"
 #include <math.h>

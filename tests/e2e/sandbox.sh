@@ -1,7 +1,7 @@
 #!/bin/sh
 # End-to-end checks of the script sandbox, the limits, the machine output
 # (--json, --jsonl) and atomic output files. Every check here failed before
-# the sandbox existed (issue: "never silently wrong, never unsafe").
+# the sandbox existed: nothing silently wrong, nothing unsafe.
 # Usage: sandbox.sh EQUIPOISE JSON_CHECK SOURCE_DIR BUILD_DIR
 set -u
 EQP=$1; JSON=$2; SRC=$3; BUILD=$4

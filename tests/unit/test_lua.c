@@ -130,7 +130,7 @@ static void test_strings_from_index(void **state)
 
 static void test_unknown_options(void **state)
 {
-  /* the example: it designed a recipe at 25 C with no salt */
+  /* a misspelt option would silently design a recipe at 25 C with no salt */
   refused("eq.recipe{ buffer = 'phosphate', pH = 7.4, total = '50 mM', temprature = 4 }", 1,
           "eq.recipe: unknown option 'temprature' (did you mean 'temperature'?)");
   refused("eq.recipe{ buffer = 'phosphate', pH = 7.4, total = '50 mM',\n"
