@@ -509,20 +509,27 @@ int eqp_ctx_describe(eqp_ctx *ctx, const char *name, double T, eqp_format fmt, c
   cJSON_AddNumberToObject(doc, "temperature", celsius(T));
   cJSON *e = cJSON_AddArrayToObject(doc, "entries");
   int s = eqpi_db_find_species(db, name), g = eqpi_db_find_reagent(db, name);
+  /* buffer systems, solids and gases by the same folded name ("CO₂(g)") */
+  char folded[256];
+  const char *key = eqpi_name_normalize(name, folded, sizeof folded) == 1 ? folded : name;
   if (s >= 0) cJSON_AddItemToArray(e, species_json(db, s, Ts, nT));
   if (g >= 0) cJSON_AddItemToArray(e, reagent_json(db, g));
   for (int i = 0; i < db->nbuffers; i++)
-    if (strcmp(db->buffers[i].name, name) == 0) cJSON_AddItemToArray(e, buffer_json(db, i, Ts, nT));
+    if (strcmp(db->buffers[i].name, key) == 0) cJSON_AddItemToArray(e, buffer_json(db, i, Ts, nT));
   for (int i = 0; i < db->nsolids; i++)
-    if (strcmp(db->solids[i].name, name) == 0) cJSON_AddItemToArray(e, solid_json(db, i, Ts, nT));
+    if (strcmp(db->solids[i].name, key) == 0) cJSON_AddItemToArray(e, solid_json(db, i, Ts, nT));
   for (int i = 0; i < db->ngases; i++)
-    if (strcmp(db->gases[i].name, name) == 0) cJSON_AddItemToArray(e, gas_json(db, i, Ts, nT));
+    if (strcmp(db->gases[i].name, key) == 0) cJSON_AddItemToArray(e, gas_json(db, i, Ts, nT));
   if (cJSON_GetArraySize(e) == 0) {
     cJSON_Delete(doc);
     const char *left_out = eqpi_library_note(ctx, name);
+    char hint[256];
     if (left_out)
       return eqpi_fail(ctx, EQP_E_UNKNOWN, "no species, reagent, buffer system, solid or gas "
                        "named '%s': %s", name, left_out);
+    if (*eqpi_name_hint(name, hint, sizeof hint))
+      return eqpi_fail(ctx, EQP_E_UNKNOWN, "no species, reagent, buffer system, solid or gas "
+                       "named '%s'%s", name, hint);
     return eqpi_fail(ctx, EQP_E_UNKNOWN, "no species, reagent, buffer system, solid or gas "
                      "named '%s' (equipoise species list shows them all)", name);
   }

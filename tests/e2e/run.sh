@@ -148,6 +148,9 @@ check species_check_good 0 "ok, 2 species added" -- "$EQP" species check "$CASES
 check notation_unicode 3 "ok notation" -- "$EQP" run "$CASES/notation.lua"
 check notation_old_style 3 "notation.lua:11: unknown species 'HPO4-2' (did you mean 'HPO4^2-'?" -- "$EQP" run "$CASES/notation.lua"
 check notation_show_unicode 0 "HPO4^2-" -- "$EQP" species show "HPO₄²⁻"
+check notation_show_unicode_gas 0 "CO2(g) ⇌ CO2   log K_H" -- "$EQP" species show "CO₂(g)"
+check notation_show_old_style 3 "named 'HPO4-2' (did you mean 'HPO4^2-'?" -- "$EQP" species show HPO4-2
+check notation_show_old_style_ion 3 "(did you mean 'Ca^2+'?" -- "$EQP" species show Ca+2
 check notation_file_old 4 "old.lua:7: .*write 'X^2-'" -- "$EQP" species check "$CASES/old_notation/old.lua"
 check notation_file_formula 4 "write 'SeO4^2-'" -- "$EQP" species check "$CASES/old_notation/old.lua"
 check species_check_bad 4 "bad_species.lua:6:" -- "$EQP" species check "$CASES/bad_species.lua"
