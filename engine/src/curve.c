@@ -112,39 +112,60 @@ int eqp_curve_write_csv(const eqp_curve *c, FILE *f)
 }
 
 /* Units as a bench chemist reads them: the column's factor from the stored
-** unit and its printed unit. Columns 0..4 are fixed (titrate.c). */
-static double text_unit(const eqp_curve *c, int j, int stock, const char **unit)
+** unit, and its printed unit, by the column's name (titrate.c, sweep.c,
+** distribution.c name them); the other columns by what the curve holds. */
+static double text_unit(const eqp_curve *c, int j, const char **unit)
 {
-  static const char *const fixed[] = {"mmol", "mL", "mL", "", NULL};
-  if (j < 4) {
-    *unit = fixed[j];
-    return j == 3 ? 1 : 1e3;
-  }
-  if (j == 4) {
+  static const struct { const char *name, *unit; double k; } named[] = {
+    {"amount", "mmol", 1e3}, {"volume", "mL", 1e3}, {"total_volume", "mL", 1e3},
+    {"pH", "", 1}, {"temperature", "\xC2\xB0" "C", 1}, {"ionic_strength", "mol/kg", 1},
+  };
+  int titration = c->ncols > 0 && strcmp(c->names[0], "amount") == 0;
+  for (size_t k = 0; k < sizeof named / sizeof named[0]; k++)
+    if (strcmp(c->names[j], named[k].name) == 0) {
+      *unit = named[k].unit;
+      return named[k].k;
+    }
+  if (titration && strcmp(c->names[j], "slope") == 0) {
+    int stock = c->nrows > 0 && isnan(c->v[0]);   /* no amount: a stock titrant */
     *unit = stock ? "pH/mL" : "pH/mmol";
     return 1e-3;
   }
-  *unit = "mM";
-  return 1e3 * (c->rho > 0 ? c->rho : 1);   /* molality x density: dilute solution */
+  if (titration) {
+    *unit = "mM";
+    return 1e3 * (c->rho > 0 ? c->rho : 1);   /* molality x density: dilute solution */
+  }
+  if (c->values == EQPI_VALUES_FRACTION) {
+    *unit = "fraction";
+    return 1;
+  }
+  if (c->values == EQPI_VALUES_BETA) {
+    *unit = "mM/pH";
+    return 1e3;
+  }
+  *unit = "";
+  return 1;
 }
 
 int eqp_curve_write_text(const eqp_curve *c, FILE *f)
 {
   if (!c || !f) return EQP_E_ARG;
-  int stock = c->nrows > 0 && isnan(c->v[0]);
   const char *unit;
   for (int j = 0; j < c->ncols; j++) fprintf(f, "%s%13s", j ? " " : "", c->names[j]);
   fputc('\n', f);
   for (int j = 0; j < c->ncols; j++) {
-    text_unit(c, j, stock, &unit);
-    fprintf(f, "%s%13s", j ? " " : "", unit);
+    text_unit(c, j, &unit);
+    int extra = 0;   /* UTF-8 continuation bytes take no column ("°C") */
+    for (const char *p = unit; *p; p++) extra += ((unsigned char)*p & 0xC0) == 0x80;
+    fprintf(f, "%s%*s", j ? " " : "", 13 + extra, unit);
   }
   fputc('\n', f);
   for (size_t i = 0; i < c->nrows; i++) {
     for (int j = 0; j < c->ncols; j++) {
-      double v = c->v[i * (size_t)c->ncols + j], k = text_unit(c, j, stock, &unit);
+      double v = c->v[i * (size_t)c->ncols + j], k = text_unit(c, j, &unit);
       if (isnan(v)) fprintf(f, "%s%13s", j ? " " : "", "-");
-      else fprintf(f, j == 3 ? "%s%13.3f" : "%s%13.5g", j ? " " : "", v * k);
+      else fprintf(f, strcmp(c->names[j], "pH") == 0 ? "%s%13.3f" : "%s%13.5g", j ? " " : "",
+                   v * k);
     }
     fputc('\n', f);
   }

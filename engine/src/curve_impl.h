@@ -22,7 +22,14 @@ struct eqp_curve {
   eqpi_eqpoint *eq;     /* in the order of the titration */
   size_t neq, capeq;
   double rho;           /* kg/L of water at the titration's temperature */
+  int values;           /* what the columns not named below hold (text tables) */
 };
+
+/* The columns of a curve other than amount, volume, total_volume, pH,
+** slope, temperature and ionic_strength: a titration's species molalities,
+** a distribution's fractions, a capacity sweep's beta in mol/(L pH), or
+** numbers without a known unit (a table read back from a file). */
+enum { EQPI_VALUES_OTHER, EQPI_VALUES_FRACTION, EQPI_VALUES_BETA };
 
 eqp_curve *eqpi_curve_new(eqp_ctx *ctx, int ncols, const char *const *names);
 int eqpi_curve_push(eqp_curve *c, const double *row);

@@ -227,6 +227,7 @@ int eqp_distribution(eqp_ctx *ctx, const eqp_distribution_spec *user, eqp_curve 
   for (int i = 0; i < L.n; i++) names[i + 1] = ctx->db.sp[L.sp[i]].name;
   eqp_curve *c = eqpi_curve_new(ctx, L.n + 1, names);
   if (!c) return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
+  c->values = EQPI_VALUES_FRACTION;
   for (size_t k = 0; k < np && rc == EQP_OK; k++) {
     double row[MAX_FORMS + 1], w[MAX_FORMS], top = -INFINITY, sum = 0;
     double pH = lo + (hi - lo) * (double)k / (double)(np - 1);

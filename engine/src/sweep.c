@@ -90,6 +90,7 @@ int eqp_capacity_sweep(eqp_ctx *ctx, const eqp_capacity_spec *user, eqp_curve **
   }
   eqp_curve *c = eqpi_curve_new(ctx, (int)nb + 1, names);
   if (!c) return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
+  c->values = EQPI_VALUES_BETA;
   for (size_t k = 0; k < np && rc == EQP_OK; k++) {
     double row[MAX_BUFFERS + 1];
     row[0] = s->pH_lo + (s->pH_hi - s->pH_lo) * (double)k / (double)(np - 1);

@@ -258,6 +258,97 @@ static void distribution_phosphate(void **state)
   eqp_ctx_free(ctx);
 }
 
+/* ---------------------------------------------------- printed tables */
+
+/* The text table of a curve (print(curve) in Lua). */
+static char *text_of(const eqp_curve *c)
+{
+  char *buf = NULL;
+  size_t len = 0;
+  FILE *f = open_memstream(&buf, &len);
+  assert_non_null(f);
+  assert_int_equal(eqp_curve_write_text(c, f), EQP_OK);
+  fclose(f);
+  return buf;
+}
+
+/* Line k (0: the names, 1: the units, 2: the first row) of a text table. */
+static const char *line_of(const char *text, int k)
+{
+  for (; k > 0 && text; k--) text = strchr(text, '\n') ? strchr(text, '\n') + 1 : NULL;
+  assert_non_null(text);
+  return text;
+}
+
+/* Each column of a printed table is in the unit its second line names,
+** whatever the curve: a distribution (fractions), a capacity sweep (mM per
+** pH) and a temperature sweep (°C, mol/kg), not only a titration. Acetic
+** acid at infinite dilution, pKa 4.756 (Goldberg, Kishore & Lennen, J.
+** Phys. Chem. Ref. Data 31, 231 (2002)): at pH 4 the acid is
+** 1 / (1 + 10^(4 - 4.756)) of the total; at pH = pKa its buffer capacity is
+** ln10 (C/4 + h) (D. D. Van Slyke, J. Biol. Chem. 52, 525 (1922)), 28.8 mM
+** per pH for C = 50 mM. Tris half neutralized with HCl, ideal: pH = pKa,
+** 8.072 at 25 C (Goldberg et al. 2002). */
+static void text_tables(void **state)
+{
+  (void)state;
+  eqp_ctx *ctx = test_ctx();
+  double pH, a, b;
+  eqp_distribution_spec d = EQP_DISTRIBUTION_SPEC_INIT;
+  d.system = "acetate";
+  d.pH_lo = 4;
+  d.pH_hi = 6;
+  d.points = 3;
+  eqp_curve *c;
+  if (eqp_distribution(ctx, &d, &c) != EQP_OK) fail_msg("%s", eqp_ctx_errmsg(ctx));
+  char *t = text_of(c);
+  assert_contains(line_of(t, 1), "fraction");
+  assert_int_equal(sscanf(line_of(t, 2), "%lf %lf %lf", &pH, &a, &b), 3);
+  assert_close(pH, 4.0, 1e-9);
+  assert_close(a, 1 / (1 + pow(10, 4 - 4.756)), 1e-4);
+  assert_close(a + b, 1, 1e-4);
+  free(t);
+  eqp_curve_free(c);
+
+  const char *acetate[] = {"acetate"};
+  eqp_capacity_spec cs = EQP_CAPACITY_SPEC_INIT;
+  cs.buffers = acetate;
+  cs.nbuffers = 1;
+  cs.total = 0.050;
+  cs.activity = "ideal";
+  cs.pH_lo = 4.756;
+  cs.pH_hi = 5.756;
+  cs.points = 2;
+  if (eqp_capacity_sweep(ctx, &cs, &c) != EQP_OK) fail_msg("%s", eqp_ctx_errmsg(ctx));
+  t = text_of(c);
+  assert_contains(line_of(t, 1), "mM/pH");
+  assert_int_equal(sscanf(line_of(t, 2), "%lf %lf", &pH, &b), 2);
+  assert_close(pH, 4.756, 1e-9);
+  assert_rel(b, log(10) * (0.050 / 4 + pow(10, -4.756)) * 1e3, 0.01);
+  free(t);
+  eqp_curve_free(c);
+
+  eqp_solution_opts o = EQP_SOLUTION_OPTS_INIT;
+  o.activity = "ideal";
+  eqp_solution *s;
+  assert_int_equal(eqp_solution_new(ctx, &o, &s), EQP_OK);
+  assert_int_equal(eqp_solution_add_str(s, "Tris", "25 mmol"), EQP_OK);
+  assert_int_equal(eqp_solution_add_str(s, "TrisHCl", "25 mmol"), EQP_OK);
+  if (eqp_solution_temperature_sweep(s, 293.15, 303.15, 3, &c) != EQP_OK)
+    fail_msg("%s", eqp_ctx_errmsg(ctx));
+  t = text_of(c);
+  assert_contains(line_of(t, 1), "\xC2\xB0" "C");
+  assert_contains(line_of(t, 1), "mol/kg");
+  assert_int_equal(sscanf(line_of(t, 3), "%lf %lf %lf", &a, &pH, &b), 3);
+  assert_close(a, 25, 1e-9);
+  assert_close(pH, 8.072, 0.002);
+  assert_close(b, 0.025, 1e-4);
+  free(t);
+  eqp_curve_free(c);
+  eqp_solution_free(s);
+  eqp_ctx_free(ctx);
+}
+
 /* ----------------------------------------------------------- output */
 
 static int count_files(const char *dir)
@@ -317,6 +408,7 @@ int main(void)
     cmocka_unit_test(titration_strong),
     cmocka_unit_test(titration_acetic),
     cmocka_unit_test(distribution_phosphate),
+    cmocka_unit_test(text_tables),
     cmocka_unit_test(formats_and_files),
   };
   return cmocka_run_group_tests(tests, NULL, NULL);
