@@ -37,12 +37,12 @@ static int beta_at(eqp_ctx *ctx, const eqp_capacity_spec *s, const char *buffer,
   *beta = NAN;
   eqp_recipe *r = NULL;
   eqp_solution *w = NULL;
-  double bkg, bL;
+  double bL, bkg;
   eqpi_cautions_hold(ctx, 1);     /* a curve of each buffer, not a preparation */
   int rc = eqp_recipe_make(ctx, &sp, &r);
   eqpi_cautions_hold(ctx, -1);
   if (rc == EQP_OK) rc = eqp_solution_copy(eqp_recipe_solution(r), &w);
-  if (rc == EQP_OK) rc = eqp_solution_buffer_capacity(w, &bkg, &bL);
+  if (rc == EQP_OK) rc = eqp_solution_buffer_capacity(w, &bL, &bkg);   /* per L, per kg */
   if (rc == EQP_OK && isfinite(bL)) *beta = bL;
   eqp_solution_free(w);
   eqp_recipe_free(r);

@@ -258,6 +258,41 @@ static void distribution_phosphate(void **state)
   eqp_ctx_free(ctx);
 }
 
+/* ------------------------------------------------------ capacity sweep */
+
+/* A capacity sweep gives beta per litre of buffer (docs/lua-api.md), which
+** at 80 C is 3 % below beta per kg of water (a litre of water holds 0.9718
+** kg there: G. S. Kell, J. Chem. Eng. Data 20, 97 (1975) [from memory]).
+** 50 mM acetate made at pH = pKa(80 C), ideal activities: D. D. Van Slyke,
+** J. Biol. Chem. 52, 525 (1922), beta = ln10 (C Ka h / (Ka + h)^2 + h + Kw/h)
+** = ln10 (C/4 + h) there (Kw/h below 1e-7). pKa(80 C) from 4.756, dH -0.41
+** kJ/mol and dCp -142 J/(K mol) at 25 C (Goldberg, Kishore & Lennen, J.
+** Phys. Chem. Ref. Data 31, 231 (2002)) by the integrated van't Hoff
+** equation. 1 % covers the volume the solids take in the recipe (0.3 %). */
+static void capacity_per_litre(void **state)
+{
+  (void)state;
+  eqp_ctx *ctx = test_ctx();
+  const double t0 = 298.15, T = 353.15, RL = 8.314462618 * log(10);
+  double pK = 4.756 + -410 / RL * (1 / T - 1 / t0) + 142 / RL * (t0 / T - 1 + log(T / t0));
+  const char *acetate[] = {"acetate"};
+  eqp_capacity_spec cs = EQP_CAPACITY_SPEC_INIT;
+  cs.buffers = acetate;
+  cs.nbuffers = 1;
+  cs.total = 0.050;
+  cs.T = T;
+  cs.activity = "ideal";
+  cs.pH_lo = pK;
+  cs.pH_hi = pK + 1;
+  cs.points = 2;
+  eqp_curve *c;
+  if (eqp_capacity_sweep(ctx, &cs, &c) != EQP_OK) fail_msg("%s", eqp_ctx_errmsg(ctx));
+  assert_close(eqp_curve_value(c, 0, 0), pK, 1e-12);
+  assert_rel(eqp_curve_value(c, 0, 1), log(10) * (0.050 / 4 + pow(10, -pK)), 0.01);
+  eqp_curve_free(c);
+  eqp_ctx_free(ctx);
+}
+
 /* ---------------------------------------------------- printed tables */
 
 /* The text table of a curve (print(curve) in Lua). */
@@ -408,6 +443,7 @@ int main(void)
     cmocka_unit_test(titration_strong),
     cmocka_unit_test(titration_acetic),
     cmocka_unit_test(distribution_phosphate),
+    cmocka_unit_test(capacity_per_litre),
     cmocka_unit_test(text_tables),
     cmocka_unit_test(formats_and_files),
   };
