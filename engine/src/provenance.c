@@ -137,10 +137,13 @@ static void report_all(walk *w)
     size_t used = (size_t)snprintf(eq, sizeof eq, "%s \xE2\x87\x8C", so->name);
     for (int j = 0; j < so->n; j++) {
       all &= w->sp[so->sp[j]];
-      if (used < sizeof eq)
-        used += (size_t)snprintf(eq + used, sizeof eq - used, "%s %.*g%s%s", j ? " +" : "",
-                                 so->nu[j] == 1 ? 0 : 6, so->nu[j] == 1 ? 0.0 : so->nu[j],
-                                 so->nu[j] == 1 ? "" : " ", db->sp[so->sp[j]].name);
+      if (used >= sizeof eq) continue;
+      if (so->nu[j] == 1)   /* a coefficient of 1 is not written */
+        used += (size_t)snprintf(eq + used, sizeof eq - used, "%s %s", j ? " +" : "",
+                                 db->sp[so->sp[j]].name);
+      else
+        used += (size_t)snprintf(eq + used, sizeof eq - used, "%s %g %s", j ? " +" : "",
+                                 so->nu[j], db->sp[so->sp[j]].name);
     }
     if (all) report_reaction(w, &so->ksp, "log Ksp", eq);
   }

@@ -277,6 +277,35 @@ static void test_constants_used(void **state)
   eqp_ctx_free(ctx);
 }
 
+/* The constants a report lists (eqp_ctx_constants): a solid dissolves into
+** its ions, a coefficient of 1 left unwritten (common practice; the report
+** printed "0Ca^2+"). */
+typedef struct seen { char ksp[8][128]; int n; } seen;
+
+static void collect_ksp(void *ud, const eqp_constant *k)
+{
+  seen *s = ud;
+  if (strcmp(k->kind, "log Ksp") == 0 && s->n < 8)
+    snprintf(s->ksp[s->n++], sizeof s->ksp[0], "%s", k->equation);
+}
+
+static void test_report_constants(void **state)
+{
+  (void)state;
+  eqp_ctx *ctx = test_ctx();
+  const char *names[] = {"CaCl2", "NaHCO3"};
+  seen s = {.n = 0};
+  assert_int_equal(eqp_ctx_constants(ctx, names, 2, collect_ksp, &s), EQP_OK);
+  assert_int_equal(s.n, 2);
+  static const char *const want[2][2] = {
+    {"calcite \u21cc Ca^2+ + CO3^2-", "calcite \u21cc CO3^2- + Ca^2+"},
+    {"aragonite \u21cc Ca^2+ + CO3^2-", "aragonite \u21cc CO3^2- + Ca^2+"}};
+  for (int k = 0; k < 2; k++)
+    if (strcmp(s.ksp[k], want[k][0]) != 0 && strcmp(s.ksp[k], want[k][1]) != 0)
+      fail_msg("'%s' is not '%s'", s.ksp[k], want[k][0]);
+  eqp_ctx_free(ctx);
+}
+
 int main(void)
 {
   const struct CMUnitTest tests[] = {
@@ -288,6 +317,7 @@ int main(void)
     cmocka_unit_test(test_refusals),
     cmocka_unit_test(test_list),
     cmocka_unit_test(test_constants_used),
+    cmocka_unit_test(test_report_constants),
   };
   return cmocka_run_group_tests(tests, NULL, NULL);
 }
