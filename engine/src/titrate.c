@@ -182,7 +182,9 @@ int eqp_solution_titrate(eqp_solution *s, const eqp_titration *user, eqp_curve *
       return eqpi_fail(ctx, EQP_E_UNKNOWN, "unknown species '%s'%s", spec->species[k],
                        eqpi_name_hint(spec->species[k], hint, sizeof hint));
   const char *names[MAX_COLS] = {"amount", "volume", "total_volume", "pH", "slope"};
-  for (size_t k = 0; k < spec->nspecies; k++) names[COL_SPECIES + k] = spec->species[k];
+  /* columns named in the ASCII form, however the species was asked for */
+  for (size_t k = 0; k < spec->nspecies; k++)
+    names[COL_SPECIES + k] = ctx->db.sp[eqpi_db_find_species(&ctx->db, spec->species[k])].name;
   eqp_solution *base = NULL, *w = NULL;
   titrant t = {0};
   eqp_curve *c = NULL;
