@@ -191,3 +191,45 @@ const char *eqp_ctx_buffer_note(const eqp_ctx *ctx, size_t i, size_t k)
   return ctx && i < (size_t)ctx->db.nbuffers && k < (size_t)ctx->db.buffers[i].nnotes
            ? ctx->db.buffers[i].notes[k] : NULL;
 }
+
+static const char *fold(const char *name, char *buf, size_t len)
+{
+  return needs_fold(name) && eqpi_name_normalize(name, buf, len) == 1 ? buf : name;
+}
+
+int eqpi_db_find_gas(const eqpi_db *db, const char *name)
+{
+  char buf[256];
+  if (!name) return -1;
+  name = fold(name, buf, sizeof buf);
+  for (int i = 0; i < db->ngases; i++)
+    if (strcmp(db->gases[i].name, name) == 0) return i;
+  return -1;
+}
+
+int eqpi_db_find_solid(const eqpi_db *db, const char *name)
+{
+  char buf[256];
+  if (!name) return -1;
+  name = fold(name, buf, sizeof buf);
+  for (int i = 0; i < db->nsolids; i++)
+    if (strcmp(db->solids[i].name, name) == 0) return i;
+  size_t n = strlen(name);
+  if (n < 4 || strcmp(name + n - 3, "(s)") != 0) return -1;
+  int found = -1;
+  for (int i = 0; i < db->nsolids; i++)
+    if (strlen(db->solids[i].formula) == n - 3 && strncmp(db->solids[i].formula, name, n - 3) == 0)
+      found = found == -1 ? i : -2;
+  return found;
+}
+
+void eqpi_db_solids_with_formula(const eqpi_db *db, const char *f, char *buf, size_t len)
+{
+  size_t used = 0, n = strlen(f);
+  if (len) buf[0] = '\0';
+  if (n > 3 && strcmp(f + n - 3, "(s)") == 0) n -= 3;
+  for (int i = 0; i < db->nsolids && used < len; i++)
+    if (strlen(db->solids[i].formula) == n && strncmp(db->solids[i].formula, f, n) == 0)
+      used += (size_t)snprintf(buf + used, len - used, "%s%s", used ? ", " : "",
+                               db->solids[i].name);
+}

@@ -516,8 +516,14 @@ int eqp_ctx_describe(eqp_ctx *ctx, const char *name, double T, eqp_format fmt, c
   if (g >= 0) cJSON_AddItemToArray(e, reagent_json(db, g));
   for (int i = 0; i < db->nbuffers; i++)
     if (strcmp(db->buffers[i].name, key) == 0) cJSON_AddItemToArray(e, buffer_json(db, i, Ts, nT));
-  for (int i = 0; i < db->nsolids; i++)
-    if (strcmp(db->solids[i].name, key) == 0) cJSON_AddItemToArray(e, solid_json(db, i, Ts, nT));
+  /* a solid by name, or "CaCO3(s)": every solid of that formula */
+  for (int i = 0; i < db->nsolids; i++) {
+    size_t fl = strlen(db->solids[i].formula);
+    if (strcmp(db->solids[i].name, key) == 0 ||
+        (strlen(key) == fl + 3 && strncmp(key, db->solids[i].formula, fl) == 0 &&
+         strcmp(key + fl, "(s)") == 0))
+      cJSON_AddItemToArray(e, solid_json(db, i, Ts, nT));
+  }
   for (int i = 0; i < db->ngases; i++)
     if (strcmp(db->gases[i].name, key) == 0) cJSON_AddItemToArray(e, gas_json(db, i, Ts, nT));
   if (cJSON_GetArraySize(e) == 0) {

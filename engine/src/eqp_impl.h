@@ -286,6 +286,14 @@ typedef struct eqpi_db {
 
 int eqpi_db_find_species(const eqpi_db *db, const char *name);
 int eqpi_db_find_reagent(const eqpi_db *db, const char *name);
+/* A solid by its name ("calcite"), or by its formula with the state symbol
+** ("CaCO3(s)") where one solid of the library has that formula; Unicode
+** spellings fold. -1 if none, -2 if the formula names several solids. */
+int eqpi_db_find_solid(const eqpi_db *db, const char *name);
+/* A gas by name ("CO2(g)", "CO₂(g)"); -1 if none. */
+int eqpi_db_find_gas(const eqpi_db *db, const char *name);
+/* "calcite, aragonite": the solids with formula f (for a message). */
+void eqpi_db_solids_with_formula(const eqpi_db *db, const char *f, char *buf, size_t len);
 /* Index every species and reagent name of db anew; -1 when out of memory
 ** (db is then unchanged). */
 int eqpi_db_rebuild_index(eqp_ctx *ctx, eqpi_db *db);

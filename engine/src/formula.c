@@ -107,6 +107,12 @@ static int is_dot(const char *p, size_t *len)
 int eqpi_formula_parse(const char *f, eqpi_comp *out, double *hydrate,
                        char *err, size_t errlen)
 {
+  char folded[256];     /* "Na₂HPO₄·7H₂O" reads as "Na2HPO4.7H2O" */
+  for (const unsigned char *q = (const unsigned char *)f; *q; q++)
+    if (*q >= 0x80) {
+      if (eqpi_name_normalize(f, folded, sizeof folded) == 1) f = folded;
+      break;
+    }
   fparser fp = {f, f, err, errlen};
   memset(out, 0, sizeof *out);
   if (hydrate) *hydrate = 0;

@@ -10,9 +10,8 @@
 
 static eqpi_gas *find_gas(eqpi_db *db, const char *name)
 {
-  for (int i = 0; i < db->ngases; i++)
-    if (strcmp(db->gases[i].name, name) == 0) return &db->gases[i];
-  return NULL;
+  int i = eqpi_db_find_gas(db, name);
+  return i < 0 ? NULL : &db->gases[i];
 }
 
 /* ln a(X) of the solution with v mol of X added to the totals N0. The

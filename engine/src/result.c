@@ -187,10 +187,15 @@ int eqp_result_saturation(const eqp_result *r, const char *solid, double *si)
 {
   if (!r || !solid || !si) return EQP_E_ARG;
   const eqpi_db *db = &r->ctx->db;
-  const eqpi_solid *s = NULL;
-  for (int i = 0; i < db->nsolids; i++)
-    if (strcmp(db->solids[i].name, solid) == 0) s = &db->solids[i];
-  if (!s) return eqpi_fail(r->ctx, EQP_E_UNKNOWN, "unknown solid '%s'", solid);
+  int k = eqpi_db_find_solid(db, solid);
+  if (k == -2) {
+    char which[256];
+    eqpi_db_solids_with_formula(db, solid, which, sizeof which);
+    return eqpi_fail(r->ctx, EQP_E_UNKNOWN, "'%s' names several solids (%s): name the one "
+                     "you mean", solid, which);
+  }
+  if (k < 0) return eqpi_fail(r->ctx, EQP_E_UNKNOWN, "unknown solid '%s'", solid);
+  const eqpi_solid *s = &db->solids[k];
   double iap = 0;
   for (int j = 0; j < s->n; j++) {
     if (s->sp[j] == db->water) continue;           /* unit activity */

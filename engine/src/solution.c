@@ -362,7 +362,11 @@ int eqp_solution_total(const eqp_solution *s, const char *component, double *mol
   const eqpi_db *db = &s->ctx->db;
   int sp = eqpi_db_find_species(db, component);
   if (sp < 0 || db->sp[sp].component < 0)
-    return eqpi_fail(s->ctx, EQP_E_UNKNOWN, "'%s' is not a component", component);
+  {
+    char hint[256];
+    return eqpi_fail(s->ctx, EQP_E_UNKNOWN, "'%s' is not a component%s", component,
+                     eqpi_name_hint(component, hint, sizeof hint));
+  }
   int c = db->sp[sp].component;
   *mol = c < s->ntotal ? s->total[c] : 0;
   return EQP_OK;
