@@ -247,10 +247,12 @@ static int ctx_record(eqp_ctx *ctx, int reagent)
   if (!t) return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
   ctx->caution_rg[ctx->ncautions] = reagent;
   ctx->caution_text[ctx->ncautions++] = t;
+  eqpi_observe_caution(ctx, ctx->db.rg[reagent].name, t);
   return EQP_OK;
 }
 
-int eqpi_use_reagent(eqp_solution *s, const eqpi_reagent *r)
+/* r went into s: its hazards are recorded on s and, unless held, in the run. */
+static int use(eqp_solution *s, const eqpi_reagent *r)
 {
   if (!r->nhazards) return EQP_OK;
   eqp_ctx *ctx = s->ctx;
@@ -258,6 +260,12 @@ int eqpi_use_reagent(eqp_solution *s, const eqpi_reagent *r)
   if (int_push(ctx, &s->hazard, &s->nhazard, &s->caphazard, g) < 0)
     return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
   return ctx->caution_hold ? EQP_OK : ctx_record(ctx, g);
+}
+
+int eqpi_use_reagent(eqp_solution *s, const eqpi_reagent *r)
+{
+  if (!s->ctx->caution_hold) eqpi_observe_reagent(s->ctx, r->name);
+  return use(s, r);
 }
 
 int eqpi_copy_hazards(eqp_solution *dst, const eqp_solution *src)
@@ -279,7 +287,7 @@ int eqpi_use_stock(eqp_solution *s, const eqp_solution *stock)
   for (int i = 0; i < stock->nhazard; i++) {
     /* the same library, or the reagent of the same name in s's own */
     int g = from == to ? stock->hazard[i] : eqpi_db_find_reagent(to, from->rg[stock->hazard[i]].name);
-    if (g >= 0 && eqpi_use_reagent(s, &to->rg[g]) < 0) return s->ctx->errcode;
+    if (g >= 0 && use(s, &to->rg[g]) < 0) return s->ctx->errcode;
   }
   return EQP_OK;
 }

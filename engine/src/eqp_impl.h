@@ -451,6 +451,8 @@ struct eqp_ctx {
   eqp_log_fn log_fn;
   void *log_ud;
   int log_level;
+  eqp_observer obs;         /* observer.c: the host's callbacks (all NULL: none) */
+  void *obs_ud;
 };
 
 /* ---------------------------------------------------------- log */
@@ -494,6 +496,14 @@ typedef struct eqpi_solve_stats {
   double unknown_g;     /* g of solutes whose volume is not known */
   const eqp_plugin_desc *replaced; /* the default model this state's model replaced */
 } eqpi_solve_stats;
+
+/* ---------------------------------------------------------- observer */
+
+/* Tell the host's observer (observer.c); each does nothing without one. */
+void eqpi_observe_result(eqp_ctx *ctx, const eqp_result *r);
+void eqpi_observe_curve(eqp_ctx *ctx, const eqp_curve *c);
+void eqpi_observe_reagent(eqp_ctx *ctx, const char *reagent);
+void eqpi_observe_caution(eqp_ctx *ctx, const char *reagent, const char *text);
 
 /* ---------------------------------------------------------- warnings */
 

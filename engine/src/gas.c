@@ -23,7 +23,7 @@ static int lna_at(eqp_solution *s, const double *N0, const double *a, double v, 
   for (int c = 0; c < s->ntotal; c++) s->total[c] = N0[c] + v * a[c];
   eqp_result *r;
   s->ctx->quiet += !show;
-  int rc = eqp_solution_equilibrate(s, &r);
+  int rc = eqpi_solution_equilibrate(s, &r);
   s->ctx->quiet -= !show;
   if (rc < 0) return rc;
   double act;

@@ -18,6 +18,7 @@ struct eqp_recipe {
   int nitems;
   eqp_recipe_item item[MAX_ITEMS];
   char names[MAX_ITEMS][96];
+  char printed[MAX_ITEMS][32];
   double pH, I, T, volume;
   eqp_solution *made;          /* the composition the recipe describes */
   char procedure[4096];
@@ -401,6 +402,30 @@ static int build(eqp_ctx *ctx, eqp_recipe_spec *sp, const plan *p, eqp_recipe *r
   return EQP_OK;
 }
 
+/* The quantity of each item as the procedure prints it. */
+static void print_items(eqp_recipe *r)
+{
+  for (int i = 0; i < r->nitems; i++) {
+    eqp_recipe_item *it = &r->item[i];
+    if (!isnan(it->grams)) snprintf(r->printed[i], sizeof r->printed[i], "%.4f g", it->grams);
+    else snprintf(r->printed[i], sizeof r->printed[i],
+                  it->role == EQP_ROLE_WATER ? "%.1f mL" : "%.2f mL", it->mL);
+    it->printed = r->printed[i];
+  }
+}
+
+/* Checks and defaults. */
+static int normalize(eqp_ctx *ctx, eqp_recipe_spec *sp)
+{
+  if (sp->volume == 0) sp->volume = 1;
+  if (!(sp->total > 0) || !(sp->volume > 0) || !isfinite(sp->total) || !isfinite(sp->volume))
+    return eqpi_fail(ctx, EQP_E_INPUT, "recipe: 'total' and 'volume' must be positive");
+  if (!(sp->pH > -1 && sp->pH < 15)) return eqpi_fail(ctx, EQP_E_INPUT, "recipe: pH %g", sp->pH);
+  if (!(sp->titrant_molar > 0)) sp->titrant_molar = 1.0;
+  if (sp->T == 0) sp->T = 298.15;
+  return EQP_OK;
+}
+
 int eqp_recipe_make(eqp_ctx *ctx, const eqp_recipe_spec *spec, eqp_recipe **out)
 {
   if (!ctx || !spec || !out) return eqpi_fail(ctx, EQP_E_ARG, "NULL argument");
@@ -408,11 +433,7 @@ int eqp_recipe_make(eqp_ctx *ctx, const eqp_recipe_spec *spec, eqp_recipe **out)
   eqp_recipe_spec sp = EQP_RECIPE_SPEC_INIT;
   int rc = eqpi_opts_read(ctx, "eqp_recipe_spec", spec, &sp, sizeof sp, EQPI_RECIPE_SPEC_0_1);
   if (rc < 0) return rc;
-  if (!(sp.total > 0) || !(sp.volume > 0) || !isfinite(sp.total) || !isfinite(sp.volume))
-    return eqpi_fail(ctx, EQP_E_INPUT, "recipe: 'total' and 'volume' must be positive");
-  if (!(sp.pH > -1 && sp.pH < 15)) return eqpi_fail(ctx, EQP_E_INPUT, "recipe: pH %g", sp.pH);
-  if (!(sp.titrant_molar > 0)) sp.titrant_molar = 1.0;
-  if (sp.T == 0) sp.T = 298.15;
+  if ((rc = normalize(ctx, &sp)) < 0) return rc;
   if (ctx->db.nsp == 0) {
     int rc0 = eqp_ctx_load_default_library(ctx);
     if (rc0 < 0) return rc0;
@@ -433,6 +454,7 @@ int eqp_recipe_make(eqp_ctx *ctx, const eqp_recipe_spec *spec, eqp_recipe **out)
     return rc;
   }
   write_procedure(r, &sp, &p);
+  print_items(r);
   char prefix[200];
   snprintf(prefix, sizeof prefix, "recipe for %s and %s, pH %.2f, %.4g mM", p.a->name,
            p.b->name, sp.pH, sp.total * 1e3);

@@ -2,6 +2,7 @@
 /* SPDX-License-Identifier: MIT */
 #include "result_impl.h"
 #include <math.h>
+#include <stddef.h>
 #include <stdio.h>
 #include <string.h>
 
@@ -100,6 +101,26 @@ void eqp_result_free(eqp_result *r)
 {
   if (r) eqpi_free(r->ctx, r, r->bytes);
 }
+
+/* One block: copied whole, its pointers moved to the copy. */
+int eqp_result_copy(const eqp_result *r, eqp_result **out)
+{
+  if (!r || !out) return EQP_E_ARG;
+  *out = NULL;
+  eqp_result *c = eqpi_malloc(r->ctx, r->bytes);
+  if (!c) return eqpi_fail(r->ctx, EQP_E_NOMEM, "out of memory");
+  memcpy(c, r, r->bytes);
+  ptrdiff_t d = (char *)c - (const char *)r;
+  c->m = (double *)((char *)r->m + d);
+  c->lg = (double *)((char *)r->lg + d);
+  c->sp = (int *)((char *)r->sp + d);
+  c->loc = (int *)((char *)r->loc + d);
+  for (int i = 0; i < c->nwarn; i++) c->warn[i] = r->warn[i] + d;
+  *out = c;
+  return EQP_OK;
+}
+
+eqp_ctx *eqpi_result_ctx(const eqp_result *r) { return r->ctx; }
 
 double eqp_result_pH(const eqp_result *r) { return r ? r->pH : NAN; }
 double eqp_result_ionic_strength(const eqp_result *r) { return r ? r->I : NAN; }

@@ -8,4 +8,7 @@
 int eqpi_result_make(eqp_ctx *ctx, const eqpi_system *sys, const eqpi_model *model, double T,
                      double water_kg, const eqpi_solve_stats *st, eqp_result **out);
 
+/* The context a result belongs to. */
+eqp_ctx *eqpi_result_ctx(const eqp_result *r);
+
 #endif

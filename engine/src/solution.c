@@ -318,13 +318,41 @@ int eqp_solution_add_str(eqp_solution *s, const char *reagent, const char *amoun
   return eqp_solution_add(s, reagent, v, k);
 }
 
-int eqp_solution_equilibrate(eqp_solution *s, eqp_result **out)
+int eqp_ctx_reagent_mol(eqp_ctx *ctx, const char *reagent, double value, eqp_quantity kind,
+                        double *mol)
+{
+  if (!ctx || !reagent || !mol) return eqpi_fail(ctx, EQP_E_ARG, "NULL argument");
+  if (!(value >= 0) || !isfinite(value))
+    return eqpi_fail(ctx, EQP_E_INPUT, "amount of %s: %g is not a finite, positive amount",
+                     reagent, value);
+  if (kind == EQP_Q_AMOUNT) {
+    *mol = value;
+    return EQP_OK;
+  }
+  if (kind != EQP_Q_MASS)
+    return eqpi_fail(ctx, EQP_E_INPUT, "amount of %s: an amount (mol) or a mass", reagent);
+  double M;
+  int rc = eqp_ctx_reagent_molar_mass(ctx, reagent, &M);
+  if (rc < 0) return rc;
+  *mol = value * 1e3 / M;     /* kg -> g, over g/mol */
+  return EQP_OK;
+}
+
+int eqpi_solution_equilibrate(eqp_solution *s, eqp_result **out)
 {
   if (!s || !out) return eqpi_fail(s ? s->ctx : NULL, EQP_E_ARG, "NULL argument");
   *out = NULL;
   int rc = grow_totals(s), k = 0;
   if (rc < 0) return rc;
   return eqpi_solution_equilibrate_from(s, &k, 1, out, NULL);
+}
+
+/* The caller's own result: the observer hears of it. */
+int eqp_solution_equilibrate(eqp_solution *s, eqp_result **out)
+{
+  int rc = eqpi_solution_equilibrate(s, out);
+  if (rc == EQP_OK) eqpi_observe_result(s->ctx, *out);
+  return rc;
 }
 
 /* ------------------------------------------------------------ volumes */
@@ -354,6 +382,18 @@ int eqp_solution_dilute(eqp_solution *s, double factor)
   if (!isfinite(factor) || factor < 1)
     return eqpi_fail(s->ctx, EQP_E_INPUT, "a dilution factor must be at least 1, got %g", factor);
   return apply(s, NULL, 0, s->water_kg, factor - 1, "diluting");
+}
+
+int eqp_solution_dilute_to(eqp_solution *s, double litres)
+{
+  if (!s) return EQP_E_ARG;
+  double V = eqp_solution_volume(s);
+  if (!(litres > 0) || !isfinite(litres))
+    return eqpi_fail(s->ctx, EQP_E_INPUT, "dilute to %g L: a positive volume", litres);
+  if (litres < V)
+    return eqpi_fail(s->ctx, EQP_E_INPUT, "dilute to %.6g mL: less than the solution's volume, "
+                     "%.6g mL (water cannot be taken away)", litres * 1e3, V * 1e3);
+  return eqp_solution_dilute(s, litres / V);
 }
 
 int eqp_solution_total(const eqp_solution *s, const char *component, double *mol)
@@ -387,7 +427,7 @@ int eqpi_solution_solved(eqp_solution *s)
   }
   eqp_result *r;
   s->ctx->quiet++;           /* a solve for a derivative: its result is not shown */
-  int rc = eqp_solution_equilibrate(s, &r);
+  int rc = eqpi_solution_equilibrate(s, &r);
   s->ctx->quiet--;
   eqp_result_free(r);
   return rc;

@@ -41,6 +41,9 @@ int eqpi_use_stock(eqp_solution *s, const eqp_solution *stock);
 /* The record of a copy: the same reagents, and no new use for the run. */
 int eqpi_copy_hazards(eqp_solution *dst, const eqp_solution *src);
 void eqpi_solution_hazards_free(eqp_solution *s);
+/* eqp_solution_equilibrate without telling the observer: for the states an
+** operation solves inside (titration points, budgets, comparisons). */
+int eqpi_solution_equilibrate(eqp_solution *s, eqp_result **out);
 /* Make sure s->sys holds the equilibrium of the present composition. */
 int eqpi_solution_solved(eqp_solution *s);
 /* Volume and unknown mass that k mol of reagent r brings into *L and *g. */

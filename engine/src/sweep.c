@@ -128,7 +128,7 @@ int eqp_solution_temperature_sweep(eqp_solution *s, double T0, double T1, size_t
     double T = T0 + (T1 - T0) * (double)k / (double)(points - 1);
     eqp_result *r;
     rc = eqp_solution_set_temperature(w, T);
-    if (rc == EQP_OK) rc = eqp_solution_equilibrate(w, &r);
+    if (rc == EQP_OK) rc = eqpi_solution_equilibrate(w, &r);
     if (rc == EQP_OK) {
       double row[3] = {T - 273.15, eqp_result_pH(r), eqp_result_ionic_strength(r)};
       eqp_result_free(r);

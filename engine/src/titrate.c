@@ -29,7 +29,7 @@ static int state_at(eqp_solution *w, const eqp_solution *base, const titrant *t,
   for (int c = 0; c < w->ntotal; c++) w->total[c] = base->total[c] + v * t->a[c];
   w->water_kg = base->water_kg + v * t->w;
   eqp_result *r;
-  int rc = eqp_solution_equilibrate(w, &r);
+  int rc = eqpi_solution_equilibrate(w, &r);
   if (rc < 0) return rc;
   *pH = eqp_result_pH(r);
   rc = eqpi_system_dpH(w->ctx, w->sys, t->a, t->w, w->water_kg, dpH);
@@ -257,5 +257,6 @@ out:
     return rc;
   }
   *out = c;
+  eqpi_observe_curve(ctx, c);
   return EQP_OK;
 }

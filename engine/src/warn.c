@@ -1,4 +1,4 @@
-/* Warnings of a solved state and their observer: a model beyond its stated
+/* Warnings of a solved state and their observers: a model beyond its stated
 ** range, temperature data missing or extrapolated, molarities that no longer
 ** follow from molalities, a default model that gave way to another. */
 /* SPDX-License-Identifier: MIT */
@@ -15,7 +15,9 @@ void eqp_ctx_set_warning_fn(eqp_ctx *ctx, eqp_warning_fn fn, void *ud)
 
 void eqpi_warn(eqp_ctx *ctx, const char *kind, const char *text)
 {
-  if (ctx && ctx->warn_fn && ctx->quiet == 0) ctx->warn_fn(ctx->warn_ud, kind, text);
+  if (!ctx || ctx->quiet) return;
+  if (ctx->warn_fn) ctx->warn_fn(ctx->warn_ud, kind, text);
+  if (ctx->obs.on_warning) ctx->obs.on_warning(ctx->obs_ud, kind, text);
 }
 
 void eqpi_warn_prefixed(void *ud, const char *kind, const char *text)

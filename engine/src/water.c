@@ -36,6 +36,11 @@ void eqpi_debye_huckel_AB(double T, double *A, double *B)
 
 double eqp_water_density(double T) { return eqpi_water_density(T); }
 
+/* A dilute solution's volume is that of its water: kg = L x kg/L. */
+double eqp_water_of_volume(double litres, double T) { return litres * eqpi_water_density(T); }
+
+double eqp_molal_of_molar(double molar, double T) { return molar / eqpi_water_density(T); }
+
 /* IAPWS R11-07 (2007), A. V. Bandura and S. N. Lvov, "The ionization
 ** constant of water over wide ranges of temperature and density",
 ** J. Phys. Chem. Ref. Data 35, 15-30 (2006); rho in g/cm3, T in K. */

@@ -226,7 +226,49 @@ EQP_API const char *eqp_ctx_source_path(const eqp_ctx *ctx, size_t i);
 ** show one warning per kind and step. text is borrowed for the call. fn
 ** NULL removes the observer. */
 typedef void (*eqp_warning_fn)(void *ud, const char *kind, const char *text);
+/* The same calls as the observer's on_warning (below); both are told when
+** both are set. */
 EQP_API void eqp_ctx_set_warning_fn(eqp_ctx *ctx, eqp_warning_fn fn, void *ud);
+
+/*
+** An observer: what a host wants to hear about as the engine makes it, as
+** callbacks, each optional (NULL: not told, and nothing is kept for it).
+** This is how a program learns, at the moment they happen, of the results,
+** curves, reagents, warnings and cautions of a run, wherever they come
+** from: its own calls, or a Lua script it runs through the module. The
+** engine keeps none of them for the observer; what a callback does not copy
+** is gone when it returns. Objects are borrowed for the call: keep a result
+** with eqp_result_copy, a curve as its JSON (eqp_curve_to_json). A callback
+** may read what it is given and the context, but must not free or change
+** it nor call back into the engine to make anything.
+** The struct begins with its size, so that it can grow at its end: start
+** from EQP_OBSERVER_INIT, then set the callbacks you want.
+*/
+typedef struct eqp_observer {
+  size_t size;                  /* sizeof(eqp_observer): set by EQP_OBSERVER_INIT */
+  /* every result eqp_solution_equilibrate returns to its caller (not the
+  ** states a titration, recipe, comparison or budget solves inside) */
+  void (*on_result)(void *ud, const eqp_result *r);
+  /* every curve eqp_solution_titrate returns */
+  void (*on_curve)(void *ud, const eqp_curve *c);
+  /* a reagent of the library went into a solution: added, used to adjust
+  ** the pH, titrated with, or put into a recipe's solution (each time;
+  ** not for the candidates of a capacity sweep). reagent is its library
+  ** name (eqp_ctx_constants takes it). */
+  void (*on_reagent_used)(void *ud, const char *reagent);
+  /* a warning, exactly as eqp_warning_fn above */
+  void (*on_warning)(void *ud, const char *kind, const char *text);
+  /* the first use in this context of a hazardous reagent: its library name
+  ** and its caution, as eqp_ctx_caution gives it */
+  void (*on_caution)(void *ud, const char *reagent, const char *text);
+} eqp_observer;
+#define EQP_OBSERVER_INIT                                                                  \
+  { .size = sizeof(eqp_observer), .on_result = NULL, .on_curve = NULL,                    \
+    .on_reagent_used = NULL, .on_warning = NULL, .on_caution = NULL }
+/* Register an observer (the struct is copied; ud is passed to every
+** callback), replacing the one before; obs NULL removes it. EQP_E_ARG for a
+** size of 0 or below the first published size, or above this library's. */
+EQP_API int eqp_ctx_set_observer(eqp_ctx *ctx, const eqp_observer *obs, void *ud);
 
 /* Plugin listing: every activity-model plugin found on the search path.
 ** The callback gets name, version, summary and the file it came from, or
@@ -259,6 +301,18 @@ EQP_API int eqp_parse_quantity(eqp_ctx *ctx, const char *text, unsigned allowed,
 
 /* Density of liquid water in kg/L at T (K) and 0.101325 MPa (Kell 1975). */
 EQP_API double eqp_water_density(double T);
+/* The scales of a dilute solution, whose volume is taken as that of its
+** water (docs/user-guide.md): the kg of water in litres of solution at T
+** (K), for a solution given by its volume; and mol/kg from mol/L at T, for
+** an ionic strength or a concentration given on the molar scale. */
+EQP_API double eqp_water_of_volume(double litres, double T);
+EQP_API double eqp_molal_of_molar(double molar, double T);
+
+/* An amount of a reagent given as amount (mol) or mass (kg, through its
+** molar mass) in mol. EQP_E_UNKNOWN for an unknown reagent, EQP_E_INPUT
+** for another kind of quantity or a negative or non-finite value. */
+EQP_API int eqp_ctx_reagent_mol(eqp_ctx *ctx, const char *reagent, double value,
+                                eqp_quantity kind, double *mol);
 
 /* Molar mass in g/mol of a formula such as "Na2HPO4.7H2O" or "Ca(OH)2",
 ** from the IUPAC standard atomic weights. EQP_E_INPUT on a bad formula. */
@@ -311,6 +365,10 @@ EQP_API int eqp_solution_mix(size_t n, eqp_solution *const *parts, const double 
                              eqp_solution **out);
 /* Multiply the water by factor (>= 1); solutes stay. */
 EQP_API int eqp_solution_dilute(eqp_solution *s, double factor);
+/* Make the solution up to litres with water: the factor is litres over its
+** volume. EQP_E_INPUT when litres is less than its volume (water cannot be
+** taken away). */
+EQP_API int eqp_solution_dilute_to(eqp_solution *s, double litres);
 /* Hazardous reagents a solution holds, added to it or to a stock poured
 ** into it: count and the i-th reagent's library name. Borrowed. */
 EQP_API size_t eqp_solution_hazard_count(const eqp_solution *s);
@@ -334,6 +392,27 @@ EQP_API int eqp_solution_buffer_capacity(eqp_solution *s, double *per_L, double 
 ** solution's water for a stock). */
 EQP_API int eqp_solution_adjust_pH(eqp_solution *s, double pH, const char *reagent,
                                    const eqp_solution *stock, double *mol, double *litres);
+
+/* How much a solution takes of acid or base before its pH leaves a window
+** around its present pH: the amounts that move it by exactly -window (acid)
+** and +window (base), each solved on a copy (s keeps its composition). */
+typedef struct eqp_budget_spec {
+  size_t size;                  /* sizeof(eqp_budget_spec): set by the INIT macro */
+  double window;                /* pH units either way; > 0 */
+  const char *acid, *base;      /* reagents of the library */
+} eqp_budget_spec;
+#define EQP_BUDGET_SPEC_INIT \
+  { .size = sizeof(eqp_budget_spec), .window = 0.1, .acid = "HCl", .base = "NaOH" }
+typedef struct eqp_budget {
+  double pH;                    /* the solution's pH now */
+  double window;
+  double acid_mol, base_mol;    /* amounts that reach pH - window and pH + window */
+  double acid_molar, base_molar;/* the same per litre of the solution, mol/L */
+} eqp_budget;
+/* spec NULL: the defaults of EQP_BUDGET_SPEC_INIT. EQP_E_INPUT when a side
+** cannot be reached with its reagent (eqp_solution_adjust_pH). */
+EQP_API int eqp_solution_load_budget(eqp_solution *s, const eqp_budget_spec *spec,
+                                     eqp_budget *out);
 
 /* Open the solution to a gas of the library at a partial pressure (atm):
 ** the gas dissolves, or leaves, until its dissolved species has the
@@ -561,7 +640,7 @@ typedef struct eqp_recipe_spec {
   size_t nreagents;               /* 0 or 2 */
   double pH;                      /* target at T */
   double total;                   /* buffer concentration, mol/L */
-  double volume;                  /* final volume, L */
+  double volume;                  /* final volume, L (0: 1 L) */
   double T;                       /* working temperature, K (0: 298.15) */
   const char *activity;           /* model; NULL: davies */
   double ionic_strength;          /* target, mol/kg; NaN: no salt */
@@ -582,6 +661,8 @@ typedef struct eqp_recipe_item {
   double grams;                   /* solids and salt; NaN otherwise */
   double mL;                      /* titrant stock and water; NaN otherwise */
   int role;                       /* EQP_ROLE_* */
+  const char *printed;            /* the quantity as the procedure prints it: "6.0570 g",
+                                     "12.34 mL" (titrant), "987.6 mL" (water) */
 } eqp_recipe_item;
 
 /* Design a preparation that gives spec->pH at spec->T. The amounts are
@@ -608,6 +689,50 @@ EQP_API const char *eqp_recipe_activity_model(const eqp_recipe *r);
 ** model that gave way, the volume its solids take. Borrowed. */
 EQP_API size_t eqp_recipe_warning_count(const eqp_recipe *r);
 EQP_API const char *eqp_recipe_warning(const eqp_recipe *r, size_t i);
+/* Buffer comparison: every buffer system of the library made by recipe at
+** the same pH, total, volume and temperature, then loaded with an acid or
+** base; ranked by how little its pH moves. */
+typedef struct eqp_compare_spec {
+  size_t size;                    /* sizeof(eqp_compare_spec): set by the INIT macro */
+  const eqp_recipe_spec *recipe;  /* pH, total, volume, T, activity, ionic strength, salt
+                                     and titrant of every candidate (its buffer and
+                                     reagents are not used); borrowed for the call */
+  double load;                    /* the load, mol per L of buffer; > 0 */
+  const char *load_with;          /* the reagent of the load: "HCl" (acid), "NaOH", ... */
+  double window;                  /* the tolerated pH change either way; > 0 */
+} eqp_compare_spec;
+#define EQP_COMPARE_SPEC_INIT \
+  { .size = sizeof(eqp_compare_spec), .recipe = NULL, .load = 0, .load_with = "HCl", \
+    .window = 0.1 }
+/* One candidate. Strings and lists are borrowed from the comparison. */
+typedef struct eqp_candidate {
+  const char *buffer;             /* the buffer system */
+  int possible;                   /* 0: it cannot be made at this pH (why says so) */
+  double beta;                    /* buffer capacity before the load, mol/(L . pH) */
+  double shift;                   /* pH under the load minus pH made */
+  int within_window;              /* |shift| <= window */
+  double pH;                      /* pH as made */
+  double ionic_strength;          /* under the load, mol/kg */
+  const char *why;                /* a line for a reader: the capacity and the shift, or
+                                     why it cannot be made */
+  size_t nnotes;                  /* the buffer system's notes (interferences, cautions) */
+  const char *const *notes;
+  size_t nwarnings;               /* the recipe's warnings, then those of the loaded
+                                     solution ("under the load: ...") */
+  const char *const *warnings;
+} eqp_candidate;
+typedef struct eqp_comparison eqp_comparison;
+/* Possible candidates first, by |shift|, then those that cannot be made, by
+** name. EQP_E_INPUT for a bad spec; a candidate that cannot be made is a
+** row, not an error. The caller frees *out with eqp_comparison_free. */
+EQP_API int eqp_compare_buffers(eqp_ctx *ctx, const eqp_compare_spec *spec, eqp_comparison **out);
+EQP_API void eqp_comparison_free(eqp_comparison *c);
+EQP_API size_t eqp_comparison_count(const eqp_comparison *c);
+EQP_API const eqp_candidate *eqp_comparison_at(const eqp_comparison *c, size_t i);
+/* The ranking as a reader sees it: a heading line, then one line per
+** candidate and its notes, each ending in a newline. Borrowed. */
+EQP_API const char *eqp_comparison_text(const eqp_comparison *c);
+
 /* Buffer systems of the library, for listing and comparing. */
 EQP_API size_t eqp_ctx_buffer_count(const eqp_ctx *ctx);
 EQP_API const char *eqp_ctx_buffer_name(const eqp_ctx *ctx, size_t i);
@@ -651,6 +776,21 @@ EQP_API double eqp_result_species_log_gamma(const eqp_result *r, size_t i);
 EQP_API size_t eqp_result_warning_count(const eqp_result *r);
 EQP_API const char *eqp_result_warning(const eqp_result *r, size_t i);
 
+/* A copy of a result, for an observer that keeps what it is shown; free it
+** with eqp_result_free. EQP_E_NOMEM, EQP_E_ARG. */
+EQP_API int eqp_result_copy(const eqp_result *r, eqp_result **out);
+/* The result as a JSON text: pH, ionic_strength, temperature (C), water,
+** activity_model, residual, iterations, species [{name, molality, gamma}],
+** saturation_index {solid: SI} for the library's solids whose ions are
+** present, warnings (docs/json-output.md). Free with eqp_free_string; NULL
+** when memory is exhausted. */
+EQP_API char *eqp_result_to_json(const eqp_result *r);
+/* The result as a table for a reader: a line of pH, ionic strength,
+** temperature and model, then each species, largest molality first, in mM
+** (molality x density of water), mol/kg and gamma, then its warnings. Free
+** with eqp_free_string; NULL when memory is exhausted. */
+EQP_API char *eqp_result_to_text(const eqp_result *r);
+
 /* The constants n results of this context used -- the reactions of every
 ** species present, the solids with a saturation index, the gases a
 ** solution was opened to -- each with what it is, its value at 25 C and at
@@ -668,6 +808,10 @@ struct lua_State;
 EQP_API int luaopen_equipoise(struct lua_State *L);
 /* The same, under a name of our prefix (used by the loadable module). */
 EQP_API int eqp_lua_open(struct lua_State *L);
+/* The context of the module opened in L (NULL before it is opened), owned
+** by the Lua state: a host registers its observer on it (eqp_ctx_set_observer)
+** to hear of what the script makes. */
+EQP_API eqp_ctx *eqp_lua_context(struct lua_State *L);
 
 #ifdef __cplusplus
 }

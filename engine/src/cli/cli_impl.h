@@ -58,6 +58,35 @@ typedef struct cli_run {
   const char *report;          /* --report FILE.html, or NULL */
 } cli_run;
 
+/* A set of strings (copies), in order of insertion. */
+typedef struct cli_strings {
+  char **item;                    /* in order */
+  size_t n, cap;
+  char **slot;                    /* open addressing over item's strings */
+  size_t nslot;
+} cli_strings;
+
+/* Add s (copied) unless present: 1 added, 0 present, -1 out of memory. */
+int cli_strings_add(cli_strings *set, const char *s);
+void cli_strings_free(cli_strings *set);
+
+#define CLI_KEEP_RESULTS 256      /* results kept for the provenance of their constants */
+
+/* What the run made, as the engine's observer tells of it (observe.c):
+** only what this run's output needs is kept. */
+typedef struct cli_record {
+  void *results, *curves;         /* cJSON arrays (--json), with "where" */
+  size_t nresults, ncurves;       /* made so far */
+  eqp_result *kept[CLI_KEEP_RESULTS];   /* copies, for the provenance (--json, --jsonl,
+                                           --report) */
+  size_t nkept;
+  cli_strings species;            /* names of every species a result held (--report) */
+  cli_strings reagents;           /* library names of the reagents used (--report) */
+  cli_strings seen;               /* "where\nkind\nskeleton" of warnings shown */
+  cli_strings warnings;           /* "where: text", each kind once per line */
+  cli_strings cautions;           /* texts, once per reagent */
+} cli_record;
+
 /* Everything one run of a script needs; there is one per process. */
 typedef struct cli_state {
   const cli_run *run;
@@ -66,10 +95,8 @@ typedef struct cli_state {
   eqpl_host_alloc engine_alloc;   /* the engine's memory goes through lim too */
   FILE *doc;                      /* the document: the real stdout */
   FILE *stray;                    /* JSON modes: what others wrote to fd 1 */
-  int log_ref, curves_ref;        /* registry refs: the module's logs */
-  int where_ref, cwhere_ref;      /* registry refs: file:line of each entry */
-  int seen_ref;                   /* registry ref: warnings already shown */
-  size_t nresults, ncurves;       /* entries already observed */
+  eqp_ctx *ctx;                   /* the module's context, once it is open */
+  cli_record rec;
   char script_dir[4096];
   char read_roots[CLI_MAX_DIRS + 6][4096];
   char write_roots[CLI_MAX_DIRS + 1][4096];
@@ -101,11 +128,13 @@ int cli_print(lua_State *L);
 /* io.write (returns its upvalue, io.stdout, if any) and io.stdout:write. */
 int cli_write(lua_State *L);
 int cli_write_method(lua_State *L);
-/* EQPL_HOOKS.logged: observe what the module has just logged. */
-int cli_logged(lua_State *L);
-void cli_observe(lua_State *L, cli_state *st);
 /* Write one JSON Lines record (takes ownership of o) and flush it. */
 void cli_emit(cli_state *st, void *cjson_object);
+
+/* observe.c: register the run's observer on the module's context ctx. */
+void cli_observe_attach(cli_state *st, eqp_ctx *ctx);
+/* Free what the observer kept. */
+void cli_record_free(cli_record *rec);
 
 /* report.c: warnings, cautions, the JSON document and the closing record. */
 void cli_report_text(cli_state *st);
@@ -113,18 +142,18 @@ void cli_report_json(cli_state *st, int code, const char *error);
 void cli_report_summary(cli_state *st, int code, const char *error);
 /* The start record of a streamed run. */
 void cli_report_start(cli_state *st);
-/* A result as a JSON object (cJSON *), for the document and the stream. */
-void *cli_result_json(const eqp_result *r, const eqp_ctx *ctx);
-/* The engine context of the run (NULL if the module never opened). */
-eqp_ctx *cli_ctx(lua_State *L);
+/* A result or a curve as a JSON object (cJSON *), for the document and the
+** stream; NULL when memory is exhausted. */
+void *cli_result_json(const eqp_result *r);
+void *cli_curve_json(const eqp_curve *c);
 /* A JSON string (cJSON *) of len bytes: NUL and invalid UTF-8 become U+FFFD. */
 void *cli_json_bytes(const char *s, size_t len);
 /* Write the JSON text and a newline to f in one write(2), with any invalid
 ** UTF-8 replaced by U+FFFD. */
 void cli_put_json_line(FILE *f, const char *text);
 
-/* Collect the caution of each hazardous reagent used; calls f. */
-void cli_each_caution(lua_State *L, void (*f)(void *, const char *), void *ud);
+/* The caution of each hazardous reagent the run used, in order; calls f. */
+void cli_each_caution(cli_state *st, void (*f)(void *, const char *), void *ud);
 
 /* Record every call of the module and of solution and curve methods, and
 ** printed lines, for the report (journal.c). */
@@ -132,7 +161,7 @@ void cli_journal_install(lua_State *L);
 /* A progress line on stderr for long operations, when stderr is a terminal. */
 void cli_progress_attach(lua_State *L);
 /* Write the HTML report of a finished run to run->report (report_html.c). */
-int cli_write_report(lua_State *L, const cli_run *run, int exit_code, const char *error);
+int cli_write_report(cli_state *st, int exit_code, const char *error);
 /* equipoise plot ... (plot_cmd.c) */
 int cli_plot(int argc, char **argv);
 

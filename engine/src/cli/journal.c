@@ -61,10 +61,7 @@ static progress the_progress;
 void cli_progress_attach(lua_State *L)
 {
   if (!isatty(STDERR_FILENO)) return;   /* silent when piped or redirected */
-  eqp_ctx *ctx = NULL;
-  if (lua_getfield(L, LUA_REGISTRYINDEX, EQPL_CTX ".ptr") == LUA_TLIGHTUSERDATA)
-    ctx = lua_touserdata(L, -1);
-  lua_pop(L, 1);
+  eqp_ctx *ctx = eqp_lua_context(L);
   if (ctx) eqp_ctx_set_progress(ctx, show_progress, &the_progress);
 }
 

@@ -14,29 +14,19 @@ static const char general_caution[] =
   "meter. For clinical, pharmaceutical or food use follow validated methods and local "
   "regulations.";
 
-eqp_ctx *cli_ctx(lua_State *L)
-{
-  eqp_ctx *ctx = NULL;
-  if (lua_getfield(L, LUA_REGISTRYINDEX, EQPL_CTX ".ptr") == LUA_TLIGHTUSERDATA)
-    ctx = lua_touserdata(L, -1);
-  lua_pop(L, 1);
-  return ctx;
-}
-
 /* The engine records every hazardous reagent a run used, whichever way it
-** entered a solution, once per reagent. */
-void cli_each_caution(lua_State *L, void (*f)(void *, const char *), void *ud)
+** entered a solution, once per reagent; the observer heard of each. */
+void cli_each_caution(cli_state *st, void (*f)(void *, const char *), void *ud)
 {
-  eqp_ctx *ctx = cli_ctx(L);
-  for (size_t i = 0; ctx && i < eqp_ctx_caution_count(ctx); i++) f(ud, eqp_ctx_caution(ctx, i));
+  for (size_t i = 0; i < st->rec.cautions.n; i++) f(ud, st->rec.cautions.item[i]);
 }
 
 /* What loading the species library had to say (a file left out, a file
 ** replaced), as warnings. */
-static void each_notice(lua_State *L, void (*f)(void *, const char *), void *ud)
+static void each_notice(cli_state *st, void (*f)(void *, const char *), void *ud)
 {
-  eqp_ctx *ctx = cli_ctx(L);
-  for (size_t i = 0; ctx && i < eqp_ctx_notice_count(ctx); i++) f(ud, eqp_ctx_notice(ctx, i));
+  for (size_t i = 0; st->ctx && i < eqp_ctx_notice_count(st->ctx); i++)
+    f(ud, eqp_ctx_notice(st->ctx, i));
 }
 
 static void print_warning(void *ud, const char *text)
@@ -47,48 +37,15 @@ static void print_warning(void *ud, const char *text)
 
 static void print_caution(void *ud, const char *text)
 {
+  (void)ud;
   fprintf(stderr, "caution: %s\n", text);
 }
 
-/* Each distinct warning once, with where its result was made, in order. */
-static void each_warning(cli_state *st, void (*f)(void *, const char *), void *ud)
-{
-  lua_State *L = st->L;
-  if (!L || st->log_ref == LUA_NOREF) return;
-  lua_rawgeti(L, LUA_REGISTRYINDEX, st->log_ref);
-  lua_rawgeti(L, LUA_REGISTRYINDEX, st->where_ref);
-  lua_newtable(L);   /* seen */
-  lua_Integer n = (lua_Integer)lua_rawlen(L, -3);
-  for (lua_Integer i = 1; i <= n; i++) {
-    lua_rawgeti(L, -3, i);
-    eqpl_result *u = luaL_testudata(L, -1, EQPL_RESULT);
-    lua_pop(L, 1);
-    lua_rawgeti(L, -2, i);
-    const char *where = lua_tostring(L, -1);
-    where = where ? where : "";
-    for (size_t w = 0; u && u->r && w < eqp_result_warning_count(u->r); w++) {
-      lua_pushfstring(L, "%s%s%s", where, *where ? ": " : "", eqp_result_warning(u->r, w));
-      const char *text = lua_tostring(L, -1);
-      if (lua_getfield(L, -3, text) == LUA_TNIL) {
-        lua_pushboolean(L, 1);
-        lua_setfield(L, -5, text);
-        f(ud, text);
-      }
-      lua_pop(L, 2);
-    }
-    lua_pop(L, 1);
-  }
-  lua_pop(L, 3);
-}
-
-/* Warnings were shown as they came (output.c); the cautions close the run. */
+/* Warnings were shown as they came (observe.c); the cautions close the run. */
 void cli_report_text(cli_state *st)
 {
-  if (st->L) {
-    cli_observe(st->L, st);
-    each_notice(st->L, print_warning, NULL);
-    cli_each_caution(st->L, print_caution, NULL);
-  }
+  each_notice(st, print_warning, NULL);
+  cli_each_caution(st, print_caution, NULL);
 }
 
 static const char water_sources[] =
@@ -102,37 +59,16 @@ static void add_string(void *ud, const char *text)
   cJSON_AddItemToArray(ud, cJSON_CreateString(text));
 }
 
-static cJSON *result_json(const eqp_result *r, const eqp_ctx *ctx)
+/* The engine's JSON of a result or a curve, as a cJSON object. */
+static cJSON *parsed(char *text)
 {
-  cJSON *o = cJSON_CreateObject();
-  cJSON_AddNumberToObject(o, "pH", eqp_result_pH(r));
-  cJSON_AddNumberToObject(o, "ionic_strength", eqp_result_ionic_strength(r));
-  cJSON_AddNumberToObject(o, "temperature", eqp_result_temperature_K(r) - 273.15);
-  cJSON_AddNumberToObject(o, "water", eqp_result_water(r));
-  cJSON_AddStringToObject(o, "activity_model", eqp_result_activity_model(r));
-  cJSON_AddNumberToObject(o, "residual", eqp_result_residual(r));
-  cJSON_AddNumberToObject(o, "iterations", (double)eqp_result_iterations(r));
-  cJSON *sp = cJSON_AddArrayToObject(o, "species");
-  for (size_t i = 0; i < eqp_result_species_count(r); i++) {
-    cJSON *e = cJSON_CreateObject();
-    cJSON_AddStringToObject(e, "name", eqp_result_species_name(r, i));
-    cJSON_AddNumberToObject(e, "molality", eqp_result_species_molality(r, i));
-    cJSON_AddNumberToObject(e, "gamma", pow(10.0, eqp_result_species_log_gamma(r, i)));
-    cJSON_AddItemToArray(sp, e);
-  }
-  cJSON *sat = cJSON_AddObjectToObject(o, "saturation_index");
-  for (size_t i = 0; ctx && i < eqp_ctx_solid_count(ctx); i++) {
-    double si;
-    if (eqp_result_saturation(r, eqp_ctx_solid_name(ctx, i), &si) == EQP_OK && isfinite(si))
-      cJSON_AddNumberToObject(sat, eqp_ctx_solid_name(ctx, i), si);
-  }
-  cJSON *w = cJSON_AddArrayToObject(o, "warnings");
-  for (size_t i = 0; i < eqp_result_warning_count(r); i++)
-    cJSON_AddItemToArray(w, cJSON_CreateString(eqp_result_warning(r, i)));
+  cJSON *o = text ? cJSON_Parse(text) : NULL;
+  eqp_free_string(text);
   return o;
 }
 
-void *cli_result_json(const eqp_result *r, const eqp_ctx *ctx) { return result_json(r, ctx); }
+void *cli_result_json(const eqp_result *r) { return parsed(eqp_result_to_json(r)); }
+void *cli_curve_json(const eqp_curve *c) { return parsed(eqp_curve_to_json(c)); }
 
 /* Length of the valid UTF-8 sequence at s (at most n bytes), or 0. */
 static size_t utf8_len(const unsigned char *s, size_t n)
@@ -236,46 +172,6 @@ static void add_status(cJSON *doc, int code, const char *error)
   else cJSON_AddNullToObject(doc, "error");
 }
 
-/* Each entry of a log (registry ref) with its location, through f. */
-static void each_logged(cli_state *st, int ref, int wref, const char *meta, cJSON *arr,
-                        cJSON *(*f)(void *u, const eqp_ctx *ctx))
-{
-  lua_State *L = st->L;
-  if (!L || ref == LUA_NOREF) return;
-  eqp_ctx *ctx = cli_ctx(L);
-  lua_rawgeti(L, LUA_REGISTRYINDEX, ref);
-  lua_rawgeti(L, LUA_REGISTRYINDEX, wref);
-  lua_Integer n = (lua_Integer)lua_rawlen(L, -2);
-  for (lua_Integer i = 1; i <= n; i++) {
-    lua_rawgeti(L, -2, i);
-    void *u = luaL_testudata(L, -1, meta);
-    cJSON *o = u ? f(u, ctx) : NULL;
-    lua_rawgeti(L, -2, i);
-    if (o) {
-      cJSON_AddStringToObject(o, "where", lua_isstring(L, -1) ? lua_tostring(L, -1) : "");
-      cJSON_AddItemToArray(arr, o);
-    }
-    lua_pop(L, 2);
-  }
-  lua_pop(L, 2);
-}
-
-static cJSON *one_result(void *u, const eqp_ctx *ctx)
-{
-  eqpl_result *r = u;
-  return r->r ? result_json(r->r, ctx) : NULL;
-}
-
-static cJSON *one_curve(void *u, const eqp_ctx *ctx)
-{
-  eqpl_curve *c = u;
-  (void)ctx;
-  char *text = c->c ? eqp_curve_to_json(c->c) : NULL;
-  cJSON *o = text ? cJSON_Parse(text) : NULL;
-  eqp_free_string(text);
-  return o;
-}
-
 /* What the script printed (--json) and what others wrote to fd 1, as lines. */
 static void add_output(cli_state *st, cJSON *out)
 {
@@ -309,33 +205,15 @@ static void add_output(cli_state *st, cJSON *out)
   lua_settop(L, t - 1);
 }
 
-/* The results of the run (at most max), for the provenance of their constants. */
-static size_t used_results(cli_state *st, const eqp_result **used, size_t max)
-{
-  lua_State *L = st->L;
-  size_t n = 0;
-  if (!L || st->log_ref == LUA_NOREF) return 0;
-  lua_rawgeti(L, LUA_REGISTRYINDEX, st->log_ref);
-  lua_Integer len = (lua_Integer)lua_rawlen(L, -1);
-  for (lua_Integer i = 1; i <= len && n < max; i++) {
-    lua_rawgeti(L, -1, i);
-    eqpl_result *u = luaL_testudata(L, -1, EQPL_RESULT);
-    if (u && u->r) used[n++] = u->r;
-    lua_pop(L, 1);
-  }
-  lua_pop(L, 1);
-  return n;
-}
-
 static void add_closing(cli_state *st, cJSON *doc)
 {
-  eqp_ctx *ctx = st->L ? cli_ctx(st->L) : NULL;
+  eqp_ctx *ctx = st->ctx;
   cJSON *warnings = cJSON_AddArrayToObject(doc, "warnings");
-  if (st->L) each_notice(st->L, add_string, warnings);
-  each_warning(st, add_string, warnings);
+  each_notice(st, add_string, warnings);
+  for (size_t i = 0; i < st->rec.warnings.n; i++) add_string(warnings, st->rec.warnings.item[i]);
   cJSON *cautions = cJSON_AddArrayToObject(doc, "cautions");
   cJSON_AddItemToArray(cautions, cJSON_CreateString(general_caution));
-  if (st->L) cli_each_caution(st->L, add_string, cautions);
+  cli_each_caution(st, add_string, cautions);
   cJSON *lim = cJSON_AddObjectToObject(doc, "limits");
   cJSON_AddNumberToObject(lim, "instructions", (double)st->lim.steps);
   cJSON_AddNumberToObject(lim, "max_instructions", (double)st->run->max_steps);
@@ -346,9 +224,8 @@ static void add_closing(cli_state *st, cJSON *doc)
   for (size_t i = 0; ctx && i < eqp_ctx_source_count(ctx); i++)
     cJSON_AddItemToArray(files, cJSON_CreateString(eqp_ctx_source_path(ctx, i)));
   cJSON_AddStringToObject(prov, "water_properties", water_sources);
-  const eqp_result *used[256];
-  size_t nused = used_results(st, used, sizeof used / sizeof used[0]);
-  char *constants = ctx ? eqp_ctx_constants_to_json(ctx, used, nused) : NULL;
+  char *constants = ctx ? eqp_ctx_constants_to_json(ctx, (const eqp_result *const *)st->rec.kept,
+                                                    st->rec.nkept) : NULL;
   cJSON *list = constants ? cJSON_Parse(constants) : NULL;
   cJSON_AddItemToObject(prov, "constants", list ? list : cJSON_CreateArray());
   eqp_free_string(constants);
@@ -366,16 +243,21 @@ static void print_doc(cli_state *st, cJSON *doc, int formatted)
   cJSON_Delete(doc);
 }
 
+/* The list the observer kept (detached: the document owns it now), or []. */
+static cJSON *take(void **list)
+{
+  cJSON *l = *list ? *list : cJSON_CreateArray();
+  *list = NULL;
+  return l;
+}
+
 void cli_report_json(cli_state *st, int code, const char *error)
 {
-  if (st->L) cli_observe(st->L, st);
   cJSON *doc = cJSON_CreateObject();
   add_head(doc, st->run);
   add_status(doc, code, error);
-  each_logged(st, st->log_ref, st->where_ref, EQPL_RESULT,
-              cJSON_AddArrayToObject(doc, "results"), one_result);
-  each_logged(st, st->curves_ref, st->cwhere_ref, EQPL_CURVE,
-              cJSON_AddArrayToObject(doc, "curves"), one_curve);
+  cJSON_AddItemToObject(doc, "results", take(&st->rec.results));
+  cJSON_AddItemToObject(doc, "curves", take(&st->rec.curves));
   add_output(st, cJSON_AddArrayToObject(doc, "output"));
   add_closing(st, doc);
   print_doc(st, doc, 1);
@@ -392,7 +274,6 @@ void cli_report_start(cli_state *st)
 /* The closing record of a stream: what others wrote to fd 1, then the summary. */
 void cli_report_summary(cli_state *st, int code, const char *error)
 {
-  if (st->L) cli_observe(st->L, st);
   if (st->stray && st->L) {
     cJSON *lines = cJSON_CreateArray();
     add_output(st, lines);
@@ -407,8 +288,8 @@ void cli_report_summary(cli_state *st, int code, const char *error)
   cJSON *o = cJSON_CreateObject();
   cJSON_AddStringToObject(o, "type", "summary");
   add_status(o, code, error);
-  cJSON_AddNumberToObject(o, "results", (double)st->nresults);
-  cJSON_AddNumberToObject(o, "curves", (double)st->ncurves);
+  cJSON_AddNumberToObject(o, "results", (double)st->rec.nresults);
+  cJSON_AddNumberToObject(o, "curves", (double)st->rec.ncurves);
   add_closing(st, o);
   print_doc(st, o, 0);
 }

@@ -17,6 +17,7 @@
 
 typedef struct report {
   lua_State *L;
+  cli_state *st;
   eqp_ctx *ctx;
   FILE *f;
   int nfig;             /* figures embedded so far */
@@ -417,32 +418,16 @@ static void add_caution(void *ud, const char *text)
   fputs("</div>\n", f);
 }
 
-/* Each distinct warning of the run's results once, in order. */
+/* Each kind of warning of the run once per script line, in order, with
+** where it arose. */
 static void warnings(report *rp)
 {
-  lua_State *L = rp->L;
-  if (lua_getfield(L, LUA_REGISTRYINDEX, EQPL_LOG) != LUA_TTABLE) {
-    lua_pop(L, 1);
-    return;
+  const cli_strings *w = &rp->st->rec.warnings;
+  for (size_t i = 0; i < w->n; i++) {
+    fputs("<div class=warning>", rp->f);
+    esc(rp->f, w->item[i]);
+    fputs("</div>\n", rp->f);
   }
-  lua_newtable(L);
-  for (lua_Integer i = 1; i <= (lua_Integer)lua_rawlen(L, -2); i++) {
-    lua_rawgeti(L, -2, i);
-    eqpl_result *u = luaL_testudata(L, -1, EQPL_RESULT);
-    lua_pop(L, 1);
-    for (size_t w = 0; u && u->r && w < eqp_result_warning_count(u->r); w++) {
-      const char *text = eqp_result_warning(u->r, w);
-      if (lua_getfield(L, -1, text) == LUA_TNIL) {
-        lua_pushboolean(L, 1);
-        lua_setfield(L, -3, text);
-        fputs("<div class=warning>", rp->f);
-        esc(rp->f, text);
-        fputs("</div>\n", rp->f);
-      }
-      lua_pop(L, 1);
-    }
-  }
-  lua_pop(L, 2);
 }
 
 static void one_constant(void *ud, const eqp_constant *k)
@@ -477,27 +462,13 @@ static void one_constant(void *ud, const eqp_constant *k)
 
 static void provenance(report *rp)
 {
-  lua_State *L = rp->L;
   FILE *f = rp->f;
   const char *names[512];
   size_t n = 0;
-  /* reagents added, and every species any result held */
-  if (lua_getfield(L, LUA_REGISTRYINDEX, EQPL_USED) == LUA_TTABLE) {
-    lua_pushnil(L);
-    while (lua_next(L, -2) && n < 256) {
-      lua_pop(L, 1);
-      if (lua_type(L, -1) == LUA_TSTRING) names[n++] = lua_tostring(L, -1);
-    }
-  }
-  if (lua_getfield(L, LUA_REGISTRYINDEX, EQPL_LOG) == LUA_TTABLE) {
-    for (lua_Integer i = 1; i <= (lua_Integer)lua_rawlen(L, -1) && n < 512; i++) {
-      lua_rawgeti(L, -1, i);
-      eqpl_result *u = luaL_testudata(L, -1, EQPL_RESULT);
-      lua_pop(L, 1);
-      for (size_t s = 0; u && u->r && s < eqp_result_species_count(u->r) && n < 512; s++)
-        names[n++] = eqp_result_species_name(u->r, s);   /* borrowed from the context */
-    }
-  }
+  /* the reagents used, and every species any result held */
+  const cli_record *rec = &rp->st->rec;
+  for (size_t i = 0; i < rec->reagents.n && n < 256; i++) names[n++] = rec->reagents.item[i];
+  for (size_t i = 0; i < rec->species.n && n < 512; i++) names[n++] = rec->species.item[i];
   fputs("<h2 id=provenance>Provenance of the constants</h2>\n<p>Every constant of the "
         "species that the reagents of this run can form, as its species file gives it: value "
         "at 25 &deg;C (log K, pKa, ion size in &Aring;, interaction coefficient in kg/mol), "
@@ -513,7 +484,6 @@ static void provenance(report *rp)
   } else {
     fputs("</table>\n", f);
   }
-  lua_pop(L, 2);
   fputs("<p>Water: density from Kell (1975), relative permittivity from Malmberg &amp; "
         "Maryott (1956), giving the Debye&ndash;H&uuml;ckel A and B at each temperature; "
         "pK<sub>w</sub> from the IAPWS R11-07 formulation (Bandura &amp; Lvov 2006).</p>\n"
@@ -549,12 +519,11 @@ static void source_listing(report *rp, const char *path)
 
 /* ------------------------------------------------------------- write */
 
-int cli_write_report(lua_State *L, const cli_run *run, int exit_code, const char *error)
+int cli_write_report(cli_state *st, int exit_code, const char *error)
 {
-  report rp = {L, NULL, NULL, 0, LUA_NOREF};
-  if (lua_getfield(L, LUA_REGISTRYINDEX, EQPL_CTX ".ptr") == LUA_TLIGHTUSERDATA)
-    rp.ctx = lua_touserdata(L, -1);
-  lua_pop(L, 1);
+  lua_State *L = st->L;
+  const cli_run *run = st->run;
+  report rp = {L, st, st->ctx, NULL, 0, LUA_NOREF};
   char *buf = NULL;
   size_t len = 0;
   FILE *f = open_memstream(&buf, &len);
@@ -598,7 +567,7 @@ int cli_write_report(lua_State *L, const cli_run *run, int exit_code, const char
   add_caution(f, "Results are model estimates: confirm the pH of every preparation with a "
               "calibrated meter. For clinical, pharmaceutical or food use follow validated "
               "methods and local regulations.");
-  cli_each_caution(L, add_caution, f);
+  cli_each_caution(st, add_caution, f);
   warnings(&rp);
   procedure(&rp);
   provenance(&rp);

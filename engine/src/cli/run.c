@@ -54,26 +54,18 @@ static int on_panic(lua_State *L)
   _exit(EXIT_NOMEM);
 }
 
-/* Under lua_pcall: the environment, the logs to watch, the script loaded as
-** text, and the thread it will run in (left on the stack). */
+/* Under lua_pcall: the environment, the observer of what the engine makes,
+** the script loaded as text, and the thread it will run in (left on the
+** stack). */
 static int setup(lua_State *L)
 {
   cli_state *st = lua_touserdata(L, 1);
   cli_open_environment(L, st);
-  eqp_ctx *ctx = cli_ctx(L);   /* the module's: its log on stderr */
+  eqp_ctx *ctx = eqp_lua_context(L);   /* the module's: its log on stderr */
   if (ctx) cli_configure(ctx, st->run->verbose, st->run->trace);
+  cli_observe_attach(st, ctx);
   cli_progress_attach(L);
   if (st->run->report) cli_journal_install(L);
-  lua_getfield(L, LUA_REGISTRYINDEX, EQPL_LOG);
-  st->log_ref = luaL_ref(L, LUA_REGISTRYINDEX);
-  lua_getfield(L, LUA_REGISTRYINDEX, EQPL_CURVES);
-  st->curves_ref = luaL_ref(L, LUA_REGISTRYINDEX);
-  lua_newtable(L);
-  st->where_ref = luaL_ref(L, LUA_REGISTRYINDEX);
-  lua_newtable(L);
-  st->cwhere_ref = luaL_ref(L, LUA_REGISTRYINDEX);
-  lua_newtable(L);
-  st->seen_ref = luaL_ref(L, LUA_REGISTRYINDEX);
   lua_State *co = lua_newthread(L);
   int rc = luaL_loadfilex(co, st->run->script, "t");
   if (rc != LUA_OK) {
@@ -225,7 +217,6 @@ static void init_state(cli_state *st, const cli_run *run)
 {
   memset(st, 0, sizeof *st);
   st->run = run;
-  st->log_ref = st->curves_ref = st->where_ref = st->cwhere_ref = st->seen_ref = LUA_NOREF;
   eqpi_limits_init(&st->lim, NULL, NULL, run->max_memory, run->max_steps);
   st->lim.steps_hint = "raise it with --max-instructions N, or 0 for no limit";
   st->lim.mem_hint = "raise it with --max-memory SIZE such as 4G, or 0 for no limit";
@@ -283,8 +274,9 @@ int cli_run_script(const cli_run *run)
   }
   st.lim.max_mem = 0;   /* the report is not the script: no cap on it */
   report(&st, code, err, trace);
-  if (run->report && cli_write_report(L, run, code, err) < 0 && code == EXIT_OK)
+  if (run->report && cli_write_report(&st, code, err) < 0 && code == EXIT_OK)
     code = EXIT_WRITE;
+  cli_record_free(&st.rec);   /* its results belong to the context the state frees */
   lua_close(L);
   st.L = NULL;
   close_output(&st);

@@ -303,8 +303,6 @@ void cli_open_environment(lua_State *L, cli_state *st)
   lua_newtable(L);
   lua_pushlightuserdata(L, &st->engine_alloc);
   lua_setfield(L, -2, "alloc");
-  lua_pushcfunction(L, cli_logged);
-  lua_setfield(L, -2, "logged");
   lua_setfield(L, LUA_REGISTRYINDEX, EQPL_HOOKS);
   if (st->run->trusted) open_trusted(L, st);
   else open_sandbox(L);

@@ -15,12 +15,39 @@ eqp_ctx *eqpl_ctx_of(lua_State *L)
 
 void *eqpl_new_handle(lua_State *L, size_t size, const char *meta)
 {
+  eqpl_ctx *c = lua_touserdata(L, lua_upvalueindex(1));
+  if (c) eqpl_account(L, c);    /* a new object: the engine has likely grown */
   void *u = lua_newuserdatauv(L, size, 1);
   memset(u, 0, size);
   luaL_setmetatable(L, meta);
   lua_pushvalue(L, lua_upvalueindex(1));
   lua_setiuservalue(L, -2, 1);
   return u;
+}
+
+static int hold_gc(lua_State *L)
+{
+  eqpl_hold_free(lua_touserdata(L, 1));
+  return 0;
+}
+
+eqpl_hold *eqpl_hold_new(lua_State *L, void (*free_fn)(void *p))
+{
+  eqpl_hold *h = lua_newuserdatauv(L, sizeof *h, 0);
+  h->p = NULL;
+  h->free_fn = free_fn;
+  if (luaL_newmetatable(L, "equipoise.hold")) {
+    lua_pushcfunction(L, hold_gc);
+    lua_setfield(L, -2, "__gc");
+  }
+  lua_setmetatable(L, -2);
+  return h;
+}
+
+void eqpl_hold_free(eqpl_hold *h)
+{
+  if (h && h->p) h->free_fn(h->p);
+  if (h) h->p = NULL;
 }
 
 void eqpl_create_meta(lua_State *L, int ctx, const char *name, const luaL_Reg *methods,
@@ -193,6 +220,15 @@ int luaopen_equipoise(lua_State *L)
   return eqp_lua_open(L);
 }
 
+eqp_ctx *eqp_lua_context(lua_State *L)
+{
+  eqp_ctx *ctx = NULL;
+  if (lua_getfield(L, LUA_REGISTRYINDEX, EQPL_CTX ".ptr") == LUA_TLIGHTUSERDATA)
+    ctx = lua_touserdata(L, -1);
+  lua_pop(L, 1);
+  return ctx;
+}
+
 int eqp_lua_open(lua_State *L)
 {
   luaL_checkversion(L);
@@ -206,23 +242,17 @@ int eqp_lua_open(lua_State *L)
     lua_setfield(L, -2, "__gc");
   }
   lua_setmetatable(L, -2);
-  c->ctx = eqpl_host_ctx_new(L);
+  c->ctx = eqpl_host_ctx_new(L, c);
   /* a script's module reads the documented environment, as the command does */
   if (!c->ctx || eqp_ctx_default_config(c->ctx) < 0)
     return luaL_error(L, "equipoise: out of memory");
-  lua_pushlightuserdata(L, c->ctx);   /* for the command's report */
+  lua_pushlightuserdata(L, c->ctx);   /* for eqp_lua_context */
   lua_setfield(L, LUA_REGISTRYINDEX, EQPL_CTX ".ptr");
   int ctxidx = lua_gettop(L);
   eqpl_open_solution(L);
   eqpl_open_result(L);
   eqpl_open_curve(L);
   eqpl_open_procedure(L);
-  lua_newtable(L);
-  lua_setfield(L, LUA_REGISTRYINDEX, EQPL_CURVES);
-  lua_newtable(L);
-  lua_setfield(L, LUA_REGISTRYINDEX, EQPL_LOG);
-  lua_newtable(L);
-  lua_setfield(L, LUA_REGISTRYINDEX, EQPL_USED);
   luaL_newlibtable(L, eq_funcs);
   lua_pushvalue(L, ctxidx);
   luaL_setfuncs(L, eq_funcs, 1);

@@ -11,16 +11,19 @@
 #define EQPL_SOLUTION "equipoise.solution"
 #define EQPL_RESULT "equipoise.result"
 #define EQPL_CURVE "equipoise.curve"
-#define EQPL_CURVES "equipoise.curves"      /* registry: curves of the run, in order */
 #define EQPL_LASTERR "equipoise.lasterr"    /* registry: {message, status} */
-#define EQPL_LOG "equipoise.log"            /* registry: results of the run, in order */
-#define EQPL_USED "equipoise.used"          /* registry: set of reagent names added */
 #define EQPL_HOOKS "equipoise.hooks"        /* registry: host callbacks (CLI) */
 #define EQPL_PLOT "equipoise.plot"
-#define EQPL_PLOTS "equipoise.plots"        /* registry: {plot, file, line} of the run */
 #define EQPL_CURVEKIND "equipoise.curvekind" /* registry: curve -> how it was made (weak) */
 
-typedef struct eqpl_ctx { eqp_ctx *ctx; } eqpl_ctx;
+/* The module's context: a full userdata, so its address is stable for the
+** allocator that counts the engine's memory through it (lua_host.c). */
+typedef struct eqpl_ctx {
+  eqp_ctx *ctx;
+  eqp_alloc_fn alloc;         /* where the engine's memory comes from */
+  void *alloc_ud;
+  long long grown;            /* bytes the engine took since the collector was told */
+} eqpl_ctx;
 typedef struct eqpl_solution { eqp_solution *s; } eqpl_solution;
 typedef struct eqpl_result { eqp_result *r; } eqpl_result;
 typedef struct eqpl_curve { eqp_curve *c; } eqpl_curve;
@@ -32,17 +35,23 @@ typedef struct eqpl_host_alloc { eqp_alloc_fn fn; void *ud; } eqpl_host_alloc;
 /* The path argument at idx, as the host allows it for reading (mode 'r') or
 ** writing ('w'); it replaces the argument. Raises when the host refuses it. */
 const char *eqpl_host_path(lua_State *L, int idx, int mode);
-/* Append the value at the top to the registry log (EQPL_LOG, EQPL_CURVES)
-** and tell the host (EQPL_HOOKS.logged, called with the log's name). */
-void eqpl_log(lua_State *L, const char *log);
-/* A new context with the host's allocator (or the Lua state's). */
-eqp_ctx *eqpl_host_ctx_new(lua_State *L);
+/* A new context with the host's allocator (or the Lua state's), counted
+** through c. */
+eqp_ctx *eqpl_host_ctx_new(lua_State *L, eqpl_ctx *c);
+/* Tell the collector of the memory the engine has taken since the last time. */
+void eqpl_account(lua_State *L, eqpl_ctx *c);
 
 /* Push a new handle userdata of the given size, zeroed, with its metatable
 ** and a link to the context (the caller's upvalue 1) so that the context
 ** outlives it. The handle exists before the C object it will hold, so a
 ** failure in between leaves a closed handle, never a dangling one. */
 void *eqpl_new_handle(lua_State *L, size_t size, const char *meta);
+/* An engine object the binding owns while it builds Lua values from it: a
+** memory error in between frees it through the holder's __gc. Set p; clear
+** it (after freeing) when done. */
+typedef struct eqpl_hold { void *p; void (*free_fn)(void *p); } eqpl_hold;
+eqpl_hold *eqpl_hold_new(lua_State *L, void (*free_fn)(void *p));
+void eqpl_hold_free(eqpl_hold *h);
 /* The context of this Lua state (upvalue 1 of every binding). */
 eqp_ctx *eqpl_ctx_of(lua_State *L);
 /* Raise a Lua error with the context's message; remembers the engine status

@@ -108,28 +108,11 @@ static eqp_plot *check_plot(lua_State *L, int idx)
   return u->p;
 }
 
-/* Own p in a new plot object on the stack; remembers it for the report
-** with the file it was written to and the script line. */
-static void push_plot(lua_State *L, eqp_plot *p, const char *file)
+/* Own p in a new plot object on the stack. */
+static void push_plot(lua_State *L, eqp_plot *p)
 {
   eqpl_plot *u = eqpl_new_handle(L, sizeof *u, EQPL_PLOT);
   u->p = p;
-  int obj = lua_gettop(L);
-  lua_getfield(L, LUA_REGISTRYINDEX, EQPL_PLOTS);
-  lua_createtable(L, 0, 3);
-  lua_pushvalue(L, obj);
-  lua_setfield(L, -2, "plot");
-  if (file) {
-    lua_pushstring(L, file);
-    lua_setfield(L, -2, "file");
-  }
-  lua_Debug ar;
-  if (lua_getstack(L, 1, &ar) && lua_getinfo(L, "Sl", &ar) && ar.currentline > 0) {
-    lua_pushinteger(L, ar.currentline);
-    lua_setfield(L, -2, "line");
-  }
-  lua_rawseti(L, -2, (lua_Integer)lua_rawlen(L, -2) + 1);
-  lua_settop(L, obj);
 }
 
 static int host_path(lua_State *L)
@@ -159,7 +142,7 @@ static int finish_plot(lua_State *L, eqp_plot *p, int rc, const char *file)
     eqp_plot_free(p);
     return eqpl_fail(L, ctx, rc);
   }
-  push_plot(L, p, file);   /* the name as the script gave it */
+  push_plot(L, p);
   return 1;
 }
 
@@ -641,8 +624,6 @@ static const luaL_Reg sweep_methods[] = {
 void eqpl_open_plot(lua_State *L, int ctx)
 {
   eqpl_create_meta(L, ctx, EQPL_PLOT, plot_methods, plot_index, plot_meta);
-  lua_newtable(L);
-  lua_setfield(L, LUA_REGISTRYINDEX, EQPL_PLOTS);
   lua_newtable(L);                    /* curve -> how it was made; weak keys */
   lua_createtable(L, 0, 1);
   lua_pushstring(L, "k");

@@ -17,13 +17,10 @@ static double check_amount(lua_State *L, int idx, const char *reagent, const cha
   eqp_ctx *ctx = eqpl_ctx_of(L);
   eqp_quantity k;
   double v = eqpl_check_quantity(L, idx, what, EQP_Q_AMOUNT | EQP_Q_MASS, 0, HUGE_VAL,
-                                 EQPL_ABOVE, &k);
-  if (k == EQP_Q_MASS) {
-    double M;
-    if (eqp_ctx_reagent_molar_mass(ctx, reagent, &M) < 0) return eqpl_fail(L, ctx, EQP_E_UNKNOWN);
-    v = v * 1e3 / M;
-  }
-  return v;
+                                 EQPL_ABOVE, &k), mol;
+  int rc = eqp_ctx_reagent_mol(ctx, reagent, v, k, &mol);
+  if (rc < 0) return eqpl_fail(L, ctx, rc);
+  return mol;
 }
 
 /* s:pour(stock, "10 mL") -> s */
@@ -55,10 +52,13 @@ static int sol_dilute(lua_State *L)
     eqpl_val to;
     eqpl_options(L, 2, "dilute", dilute_opts, &to, 0);
     double V = eqp_solution_volume(u->s);
-    if (to.num < V)
+    if (to.num < V)     /* the engine refuses too: here the message quotes the script */
       return eqpl_input_error(L, "dilute: to = '%s' is less than the solution's volume, %.6g mL "
                               "(water cannot be taken away)", lua_tostring(L, to.idx), V * 1e3);
-    f = to.num / V;
+    int rc = eqp_solution_dilute_to(u->s, to.num);
+    if (rc < 0) return eqpl_fail(L, eqpl_ctx_of(L), rc);
+    lua_settop(L, 1);
+    return 1;
   } else {
     char buf[96];
     return eqpl_input_error(L, "dilute: a factor (2) or { to = '500 mL' }; got %s",
@@ -131,35 +131,25 @@ static int sol_load_budget(lua_State *L)
   eqp_ctx *ctx = eqpl_ctx_of(L);
   eqpl_val v[3];
   eqpl_options(L, 2, "load_budget", budget_opts, v, 0);
-  double window = v[0].given ? v[0].num : 0.1;
-  const char *acid = v[1].given ? v[1].str : "HCl", *base = v[2].given ? v[2].str : "NaOH";
-  eqp_result *r;
-  int rc = eqp_solution_equilibrate(u->s, &r);
+  eqp_budget_spec sp = EQP_BUDGET_SPEC_INIT;
+  if (v[0].given) sp.window = v[0].num;
+  if (v[1].given) sp.acid = v[1].str;
+  if (v[2].given) sp.base = v[2].str;
+  eqp_budget b;
+  int rc = eqp_solution_load_budget(u->s, &sp, &b);
   if (rc < 0) return eqpl_fail(L, ctx, rc);
-  double pH = eqp_result_pH(r), amount[2], litres;
-  eqp_result_free(r);
-  const char *reagent[2] = {acid, base};
-  for (int k = 0; k < 2; k++) {
-    eqp_solution *c;
-    if ((rc = eqp_solution_copy(u->s, &c)) < 0) return eqpl_fail(L, ctx, rc);
-    rc = eqp_solution_adjust_pH(c, pH + (k ? window : -window), reagent[k], NULL, &amount[k],
-                                &litres);
-    eqp_solution_free(c);
-    if (rc < 0) return eqpl_fail(L, ctx, rc);
-  }
-  double V = eqp_solution_volume(u->s);
-  lua_createtable(L, 0, 7);
-  lua_pushnumber(L, pH);
+  lua_createtable(L, 0, 6);
+  lua_pushnumber(L, b.pH);
   lua_setfield(L, -2, "pH");
-  lua_pushnumber(L, window);
+  lua_pushnumber(L, b.window);
   lua_setfield(L, -2, "window");
-  lua_pushnumber(L, amount[0] * 1e3);
+  lua_pushnumber(L, b.acid_mol * 1e3);
   lua_setfield(L, -2, "acid_mmol");
-  lua_pushnumber(L, amount[1] * 1e3);
+  lua_pushnumber(L, b.base_mol * 1e3);
   lua_setfield(L, -2, "base_mmol");
-  lua_pushnumber(L, amount[0] * 1e3 / V);
+  lua_pushnumber(L, b.acid_molar * 1e3);
   lua_setfield(L, -2, "acid_mM");
-  lua_pushnumber(L, amount[1] * 1e3 / V);
+  lua_pushnumber(L, b.base_molar * 1e3);
   lua_setfield(L, -2, "base_mM");
   return 1;
 }
@@ -234,7 +224,6 @@ static int sol_titrate(lua_State *L)
   int rc = eqp_solution_titrate(u->s, &t, &c);
   if (rc < 0) return eqpl_fail(L, ctx, rc);
   eqpl_push_curve(L, c);
-  eqpl_log(L, EQPL_CURVES);
   return 1;
 }
 

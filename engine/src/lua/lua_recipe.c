@@ -55,9 +55,8 @@ static void fill_spec(lua_State *L, const char *call, const eqpl_val *v, eqp_rec
   sp->T = v[R_T].given ? v[R_T].num : 298.15;
   sp->ionic_strength = NAN;
   if (v[R_I].given) {
-    /* I on the molar scale converts to molal through the density of water */
     double I = v[R_I].num;
-    sp->ionic_strength = v[R_I].unit == EQP_Q_MOLARITY ? I / eqp_water_density(sp->T) : I;
+    sp->ionic_strength = v[R_I].unit == EQP_Q_MOLARITY ? eqp_molal_of_molar(I, sp->T) : I;
   } else if (v[R_SALT].given) {
     eqpl_input_error(L, "%s: salt = '%s' needs an ionic_strength to reach, such as '0.15 M'",
                      call, v[R_SALT].str);
@@ -77,15 +76,18 @@ static const char *role_name(int role)
   }
 }
 
-/* The recipe's warnings as a list of strings. */
-static void push_warnings(lua_State *L, const eqp_recipe *r)
+/* A list of n strings at list[0..n). */
+static void push_strings(lua_State *L, size_t n, const char *const *list)
 {
-  lua_createtable(L, (int)eqp_recipe_warning_count(r), 0);
-  for (size_t i = 0; i < eqp_recipe_warning_count(r); i++) {
-    lua_pushstring(L, eqp_recipe_warning(r, i));
+  lua_createtable(L, (int)n, 0);
+  for (size_t i = 0; i < n; i++) {
+    lua_pushstring(L, list[i]);
     lua_rawseti(L, -2, (lua_Integer)i + 1);
   }
 }
+
+static void free_comparison(void *p) { eqp_comparison_free(p); }
+static void free_recipe(void *p) { eqp_recipe_free(p); }
 
 static int recipe_tostring(lua_State *L)
 {
@@ -120,13 +122,14 @@ static int eq_recipe(lua_State *L)
   int quiet = v[R_QUIET].given && v[R_QUIET].num != 0;
   if (eqp_ctx_load_default_library(ctx) < 0) return eqpl_fail(L, ctx, eqp_ctx_errcode(ctx));
   eqp_recipe *r;
+  eqpl_hold *h = eqpl_hold_new(L, free_recipe);
   int rc = eqp_recipe_make(ctx, &sp, &r);
   if (rc < 0) return eqpl_fail(L, ctx, rc);
+  h->p = r;
   lua_createtable(L, 0, 6);
   lua_createtable(L, (int)eqp_recipe_item_count(r), 0);
   for (size_t i = 0; i < eqp_recipe_item_count(r); i++) {
     const eqp_recipe_item *it = eqp_recipe_item_at(r, i);
-    char printed[64];
     lua_createtable(L, 0, 6);
     lua_pushstring(L, it->reagent);
     lua_setfield(L, -2, "reagent");
@@ -134,16 +137,9 @@ static int eq_recipe(lua_State *L)
     lua_setfield(L, -2, "role");
     lua_pushnumber(L, it->mol * 1e3);
     lua_setfield(L, -2, "mmol");
-    if (!isnan(it->grams)) {
-      lua_pushnumber(L, it->grams);
-      lua_setfield(L, -2, "grams");
-      snprintf(printed, sizeof printed, "%.4f g", it->grams);
-    } else {
-      lua_pushnumber(L, it->mL);
-      lua_setfield(L, -2, "mL");
-      snprintf(printed, sizeof printed, it->role == EQP_ROLE_WATER ? "%.1f mL" : "%.2f mL", it->mL);
-    }
-    lua_pushstring(L, printed);      /* the quantity as the procedure prints it */
+    lua_pushnumber(L, isnan(it->grams) ? it->mL : it->grams);
+    lua_setfield(L, -2, isnan(it->grams) ? "mL" : "grams");
+    lua_pushstring(L, it->printed);      /* the quantity as the procedure prints it */
     lua_setfield(L, -2, "printed");
     lua_rawseti(L, -2, (lua_Integer)i + 1);
   }
@@ -160,16 +156,15 @@ static int eq_recipe(lua_State *L)
   lua_setfield(L, -2, "procedure");
   lua_pushstring(L, eqp_recipe_activity_model(r));
   lua_setfield(L, -2, "activity");
-  push_warnings(L, r);
-  lua_setfield(L, -2, "warnings");
-  eqp_solution *copy;
-  if ((rc = eqp_solution_copy(eqp_recipe_solution(r), &copy)) < 0) {
-    eqp_recipe_free(r);
-    return eqpl_fail(L, ctx, rc);
+  lua_createtable(L, (int)eqp_recipe_warning_count(r), 0);
+  for (size_t i = 0; i < eqp_recipe_warning_count(r); i++) {
+    lua_pushstring(L, eqp_recipe_warning(r, i));
+    lua_rawseti(L, -2, (lua_Integer)i + 1);
   }
-  eqp_recipe_free(r);
+  lua_setfield(L, -2, "warnings");
   eqpl_solution *u = eqpl_new_handle(L, sizeof *u, EQPL_SOLUTION);
-  u->s = copy;
+  if ((rc = eqp_solution_copy(eqp_recipe_solution(r), &u->s)) < 0) return eqpl_fail(L, ctx, rc);
+  eqpl_hold_free(h);
   lua_setfield(L, -2, "solution");
   lua_createtable(L, 0, 1);
   lua_pushcfunction(L, recipe_tostring);
@@ -184,55 +179,17 @@ static int eq_recipe(lua_State *L)
   return 1;
 }
 
-/* One line through print, so that --json captures it. */
-static void emit(lua_State *L, const char *line)
+/* Each line of text through print, so that --json captures it. */
+static void emit_lines(lua_State *L, const char *text)
 {
-  lua_getglobal(L, "print");
-  lua_pushstring(L, line);
-  lua_call(L, 1, 0);
-}
-
-/* One candidate of eq.compare_buffers: make it, load it, measure it. */
-static int candidate(lua_State *L, eqp_ctx *ctx, eqp_recipe_spec *sp, double load_mol,
-                     const char *load_with, double window, double out[5], char *why, size_t len)
-{
-  eqp_recipe *r;
-  int rc = eqp_recipe_make(ctx, sp, &r);
-  if (rc < 0) {
-    snprintf(why, len, "%s", eqp_ctx_errmsg(ctx));
-    lua_newtable(L);
-    return rc;
+  for (const char *p = text; *p;) {
+    const char *nl = strchr(p, '\n');
+    size_t len = nl ? (size_t)(nl - p) : strlen(p);
+    lua_getglobal(L, "print");
+    lua_pushlstring(L, p, len);
+    lua_call(L, 1, 0);
+    p += len + (nl != NULL);
   }
-  push_warnings(L, r);       /* the row's warnings: the recipe's, then the loaded solution's */
-  eqp_solution *s = NULL;
-  eqp_result *res = NULL;
-  double bkg, bL, pH0 = eqp_recipe_pH(r);
-  rc = eqp_solution_copy(eqp_recipe_solution(r), &s);
-  if (rc == EQP_OK) rc = eqp_solution_buffer_capacity(s, &bL, &bkg);
-  if (rc == EQP_OK) rc = eqp_solution_add(s, load_with, load_mol, EQP_Q_AMOUNT);
-  if (rc == EQP_OK) rc = eqp_solution_equilibrate(s, &res);
-  for (size_t i = 0; res && i < eqp_result_warning_count(res); i++) {
-    lua_pushfstring(L, "under the load: %s", eqp_result_warning(res, i));
-    lua_rawseti(L, -2, (lua_Integer)lua_rawlen(L, -2) + 1);
-  }
-  if (rc == EQP_OK) {
-    out[0] = bL;
-    out[1] = eqp_result_pH(res) - pH0;
-    out[2] = fabs(out[1]) <= window;
-    out[3] = pH0;
-    out[4] = eqp_result_ionic_strength(res);
-    /* the most a monoprotic buffer of total C gives, at its pKa: ln10 C / 4
-    ** (Van Slyke 1922); far below that the system is not buffering here */
-    double share = bL / (log(10) * sp->total / 4);
-    snprintf(why, len, "%sbeta %.1f mM per pH; the load moves the pH by %+.3f",
-             share < 0.2 ? "far from its pKa here; " : "", bL * 1e3, out[1]);
-  } else {
-    snprintf(why, len, "%s", eqp_ctx_errmsg(ctx));
-  }
-  eqp_result_free(res);
-  eqp_solution_free(s);
-  eqp_recipe_free(r);
-  return rc;
 }
 
 /* eq.compare_buffers{ pH =, temperature =, total =, volume =, load = "2 mM",
@@ -247,83 +204,45 @@ static int eq_compare(lua_State *L)
   eqpl_options(L, 1, "eq.compare_buffers", compare_opts, v, 0);
   eqp_recipe_spec base;
   fill_spec(L, "eq.compare_buffers", v, &base);
-  double load = v[C_LOAD].num;
-  const char *load_with = v[C_LOAD_WITH].given ? v[C_LOAD_WITH].str : "HCl";
-  double window = v[C_WINDOW].given ? v[C_WINDOW].num : 0.1;
+  eqp_compare_spec sp = EQP_COMPARE_SPEC_INIT;
+  sp.recipe = &base;
+  sp.load = v[C_LOAD].num;
+  if (v[C_LOAD_WITH].given) sp.load_with = v[C_LOAD_WITH].str;
+  if (v[C_WINDOW].given) sp.window = v[C_WINDOW].num;
   int quiet = v[R_QUIET].given && v[R_QUIET].num != 0;
   if (eqp_ctx_load_default_library(ctx) < 0) return eqpl_fail(L, ctx, eqp_ctx_errcode(ctx));
-  size_t nb = eqp_ctx_buffer_count(ctx);
-  lua_createtable(L, (int)nb, 0);
-  int list = lua_gettop(L), n = 0;
-  for (size_t i = 0; i < nb; i++) {
-    eqp_recipe_spec sp = base;
-    sp.buffer = eqp_ctx_buffer_name(ctx, i);
-    sp.reagents = NULL;
-    sp.nreagents = 0;
-    double m[5] = {0, 0, 0, 0, 0};
-    char why[512];
-    int rc = candidate(L, ctx, &sp, load * base.volume, load_with, window, m, why, sizeof why);
+  eqp_comparison *cmp;
+  eqpl_hold *h = eqpl_hold_new(L, free_comparison);
+  int rc = eqp_compare_buffers(ctx, &sp, &cmp);
+  if (rc < 0) return eqpl_fail(L, ctx, rc);
+  h->p = cmp;
+  size_t n = eqp_comparison_count(cmp);
+  lua_createtable(L, (int)n, 0);
+  int list = lua_gettop(L);
+  for (size_t i = 0; i < n; i++) {
+    const eqp_candidate *c = eqp_comparison_at(cmp, i);
     lua_createtable(L, 0, 9);
-    lua_insert(L, -2);
+    push_strings(L, c->nwarnings, c->warnings);
     lua_setfield(L, -2, "warnings");
-    lua_pushstring(L, sp.buffer);
+    lua_pushstring(L, c->buffer);
     lua_setfield(L, -2, "buffer");
-    lua_pushboolean(L, rc == EQP_OK);
+    lua_pushboolean(L, c->possible);
     lua_setfield(L, -2, "possible");
-    if (rc == EQP_OK) {
-      lua_pushnumber(L, m[0]); lua_setfield(L, -2, "beta");
-      lua_pushnumber(L, m[1]); lua_setfield(L, -2, "shift");
-      lua_pushboolean(L, m[2] != 0); lua_setfield(L, -2, "within_window");
+    if (c->possible) {
+      lua_pushnumber(L, c->beta); lua_setfield(L, -2, "beta");
+      lua_pushnumber(L, c->shift); lua_setfield(L, -2, "shift");
+      lua_pushboolean(L, c->within_window); lua_setfield(L, -2, "within_window");
     }
-    lua_pushstring(L, why);
+    lua_pushstring(L, c->why);
     lua_setfield(L, -2, "why");
-    lua_createtable(L, (int)eqp_ctx_buffer_note_count(ctx, i), 0);
-    for (size_t q = 0; q < eqp_ctx_buffer_note_count(ctx, i); q++) {
-      lua_pushstring(L, eqp_ctx_buffer_note(ctx, i, q));
-      lua_rawseti(L, -2, (lua_Integer)q + 1);
-    }
+    push_strings(L, c->nnotes, c->notes);
     lua_setfield(L, -2, "notes");
-    lua_rawseti(L, list, ++n);
+    lua_rawseti(L, list, (lua_Integer)i + 1);
   }
-  /* rank: possible first, then by the size of the pH shift under the load */
-  lua_getglobal(L, "table");
-  lua_getfield(L, -1, "sort");
-  lua_pushvalue(L, list);
-  luaL_loadstring(L, "local a, b = ...\n"
-                     "if a.possible ~= b.possible then return a.possible end\n"
-                     "if not a.possible then return a.buffer < b.buffer end\n"
-                     "return math.abs(a.shift) < math.abs(b.shift)");
-  lua_call(L, 2, 0);
-  lua_pop(L, 1);
-  if (!quiet) {
-    char line[768];
-    snprintf(line, sizeof line, "Buffers for pH %.2f at %.1f C, %.4g mM, load %.4g mM %s, "
-             "window +-%.2f:", base.pH, base.T - 273.15, base.total * 1e3, load * 1e3,
-             load_with, window);
-    emit(L, line);
-    for (int i = 1; i <= n; i++) {
-      lua_rawgeti(L, list, i);
-      int row = lua_gettop(L);
-      lua_getfield(L, row, "buffer");
-      lua_getfield(L, row, "why");
-      lua_getfield(L, row, "possible");
-      lua_getfield(L, row, "within_window");
-      snprintf(line, sizeof line, "%2d. %-20s %s%s", i, lua_tostring(L, row + 1),
-               !lua_toboolean(L, row + 3) ? "cannot be made: "
-               : lua_toboolean(L, row + 4) ? "" : "(leaves the window) ",
-               lua_tostring(L, row + 2));
-      lua_settop(L, row);
-      emit(L, line);
-      lua_getfield(L, row, "notes");
-      for (lua_Integer q = 1; q <= (lua_Integer)lua_rawlen(L, row + 1); q++) {
-        lua_rawgeti(L, row + 1, q);
-        snprintf(line, sizeof line, "      note: %s", lua_tostring(L, -1));
-        lua_pop(L, 1);
-        emit(L, line);
-      }
-      lua_settop(L, row - 1);
-    }
-  }
+  /* the text is copied before the comparison goes: print may raise */
+  lua_pushstring(L, eqp_comparison_text(cmp));
+  eqpl_hold_free(h);
+  if (!quiet) emit_lines(L, lua_tostring(L, -1));
   lua_settop(L, list);
   return 1;
 }

@@ -80,30 +80,10 @@ static int result_species(lua_State *L)
 
 static int result_tostring(lua_State *L)
 {
-  eqp_result *r = check_result(L, 1);
-  luaL_Buffer b;
-  char line[256];
-  size_t n;
-  row *rows = sorted_rows(L, r, &n);
-  luaL_buffinit(L, &b);
-  double rho = eqp_result_water_density(r);
-  snprintf(line, sizeof line, "pH %.3f   ionic strength %.4g mol/kg   %.2f \u00b0C   activity "
-           "model %s\n", eqp_result_pH(r), eqp_result_ionic_strength(r),
-           eqp_result_temperature_K(r) - 273.15, eqp_result_activity_model(r));
-  luaL_addstring(&b, line);
-  /* mM as a bench chemist reads it (molality x density of water, dilute) */
-  snprintf(line, sizeof line, "  %-16s %12s %14s %8s\n", "species", "mM", "mol/kg", "gamma");
-  luaL_addstring(&b, line);
-  for (size_t i = 0; i < n; i++) {
-    snprintf(line, sizeof line, "  %-16s %12.5g %14.6e %8.4f\n", rows[i].name,
-             rows[i].m * rho * 1e3, rows[i].m, pow(10.0, rows[i].lg));
-    luaL_addstring(&b, line);
-  }
-  for (size_t i = 0; i < eqp_result_warning_count(r); i++) {
-    snprintf(line, sizeof line, "  warning: %s\n", eqp_result_warning(r, i));
-    luaL_addstring(&b, line);
-  }
-  luaL_pushresult(&b);
+  char *text = eqp_result_to_text(check_result(L, 1));
+  if (!text) return luaL_error(L, "out of memory");
+  lua_pushstring(L, text);
+  eqp_free_string(text);
   return 1;
 }
 

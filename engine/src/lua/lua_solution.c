@@ -122,10 +122,8 @@ int eqpl_solution_new(lua_State *L)
     return eqpl_input_error(L, "eq.solution: give either 'water' (a mass) or 'volume', not both");
   eqp_solution_opts o = EQP_SOLUTION_OPTS_INIT;
   o.temperature_K = v[O_TEMPERATURE].given ? v[O_TEMPERATURE].num : 298.15;
-  o.water = 1.0;
-  if (v[O_WATER].given) o.water = v[O_WATER].num;
-  /* a volume of water at T, the dilute approximation */
-  if (v[O_VOLUME].given) o.water = v[O_VOLUME].num * eqp_water_density(o.temperature_K);
+  o.water = v[O_WATER].given ? v[O_WATER].num : 1.0;
+  if (v[O_VOLUME].given) o.water = eqp_water_of_volume(v[O_VOLUME].num, o.temperature_K);
   int params;
   o.activity = read_activity(L, &v[O_ACTIVITY], &params);
   /* every option is checked before anything is loaded or made */
@@ -164,10 +162,6 @@ static int solution_add(lua_State *L)
   snprintf(what, sizeof what, "amount of %s", reagent);
   int rc = eqp_solution_add_str(u->s, reagent, eqpl_check_name(L, 3, what));
   if (rc < 0) return eqpl_fail(L, ctx, rc);
-  lua_getfield(L, LUA_REGISTRYINDEX, EQPL_USED);
-  lua_pushboolean(L, 1);
-  lua_setfield(L, -2, reagent);
-  lua_pop(L, 1);
   lua_settop(L, 1);
   return 1;
 }
@@ -181,7 +175,6 @@ static int solution_equilibrate(lua_State *L)
   int rc = eqp_solution_equilibrate(u->s, &r);
   if (rc < 0) return eqpl_fail(L, ctx, rc);
   eqpl_push_result(L, r);
-  eqpl_log(L, EQPL_LOG);
   return 1;
 }
 
