@@ -3,6 +3,7 @@
 #include "cli_impl.h"
 #include <equipoise/plugin.h>
 #include <errno.h>
+#include <getopt.h>
 #include <signal.h>
 #include <stdio.h>
 #include <stdlib.h>
@@ -153,10 +154,9 @@ typedef struct run_args {
 } run_args;
 
 /* A limit: --max-instructions N or --max-memory SIZE. */
-static int limit_option(run_args *ra, const char *a, const char *v)
+static int limit_option(run_args *ra, int mem, const char *v)
 {
   unsigned long long amount;
-  int mem = a[6] == 'm';
   if (parse_amount(v, mem, &amount) < 0 || amount > (unsigned long long)LLONG_MAX)
     return usage_error(&ra->run, mem ? "--max-memory needs a size such as 512M or 4G, not '%s'"
                                      : "--max-instructions needs a count such as 5G, not '%s'",
@@ -179,36 +179,96 @@ static int param_option(run_args *ra, const char *kv)
   return 0;
 }
 
-/* argv[*i]: an option (with its value, which moves *i) or the script. */
-static int run_option(run_args *ra, int argc, char **argv, int *i)
+enum { O_JSON = 256, O_JSONL, O_VERBOSE, O_TRACE, O_TRUSTED, O_REPORT, O_ALLOW_WRITE,
+       O_MAX_STEPS, O_MAX_MEMORY, O_PARAM };
+
+static const struct option run_options[] = {
+  {"json", no_argument, NULL, O_JSON},
+  {"jsonl", no_argument, NULL, O_JSONL},
+  {"verbose", no_argument, NULL, O_VERBOSE},
+  {"trace", no_argument, NULL, O_TRACE},
+  {"trusted", no_argument, NULL, O_TRUSTED},
+  {"report", required_argument, NULL, O_REPORT},
+  {"allow-write", required_argument, NULL, O_ALLOW_WRITE},
+  {"max-instructions", required_argument, NULL, O_MAX_STEPS},
+  {"max-memory", required_argument, NULL, O_MAX_MEMORY},
+  {"param", required_argument, NULL, O_PARAM},
+  {NULL, 0, NULL, 0},
+};
+
+/* The option word as written ("--verbose" of "--verbose", "--param" of
+** "--param=x"): getopt_long would take a prefix ("--tr") for the whole name,
+** and an option that widens what a script may do is spelled out. */
+static int spelled_out(const char *word, int index)
+{
+  const char *name = run_options[index].name;
+  size_t n = strlen(name);
+  return word[0] == '-' && word[1] == '-' && strncmp(word + 2, name, n) == 0 &&
+         (word[2 + n] == '\0' || word[2 + n] == '=');
+}
+
+/* One option (or, as 1, the script) from getopt_long; 0 or an exit code. */
+static int run_option(run_args *ra, int opt, const char *word, const char *arg)
 {
   cli_run *run = &ra->run;
-  const char *a = argv[*i], *v = *i + 1 < argc ? argv[*i + 1] : NULL;
-  if (strcmp(a, "--json") == 0 || strcmp(a, "--jsonl") == 0) return 0;
-  if (strcmp(a, "--verbose") == 0) run->verbose = 1;
-  else if (strcmp(a, "--trace") == 0) run->trace = 1;
-  else if (strcmp(a, "--trusted") == 0) run->trusted = 1;
-  else if (strcmp(a, "--report") == 0 && v) run->report = argv[++*i];
-  else if (strncmp(a, "--report=", 9) == 0 && a[9]) run->report = a + 9;
-  else if (strcmp(a, "--allow-write") == 0) {
-    if (!v || run->nwrite_dirs == CLI_MAX_DIRS)
-      return usage_error(run, "%s needs a folder (at most 16)", a);
-    run->write_dirs[run->nwrite_dirs++] = argv[++*i];
-  } else if (strcmp(a, "--max-instructions") == 0 || strcmp(a, "--max-memory") == 0) {
-    ++*i;
-    return limit_option(ra, a, v);
-  } else if (strcmp(a, "--param") == 0) {
-    return param_option(ra, *i + 1 < argc ? argv[++*i] : NULL);
-  } else if (strncmp(a, "--param=", 8) == 0) {
-    return param_option(ra, a + 8);
-  } else if (a[0] == '-' && a[1]) {
-    return usage_error(run, "unknown option '%s'", a);
-  } else if (!run->script) {
-    run->script = a;
-  } else {
-    return usage_error(run, "one script at a time (also '%s')", a);
+  switch (opt) {
+  case O_JSON: case O_JSONL: return 0;    /* read first, in cmd_run */
+  case O_VERBOSE: run->verbose = 1; return 0;
+  case O_TRACE: run->trace = 1; return 0;
+  case O_TRUSTED: run->trusted = 1; return 0;
+  case O_REPORT:
+    if (!*arg) return usage_error(run, "unknown option '%s'", word);
+    run->report = arg;
+    return 0;
+  case O_ALLOW_WRITE:
+    if (run->nwrite_dirs == CLI_MAX_DIRS)
+      return usage_error(run, "%s needs a folder (at most 16)", "--allow-write");
+    run->write_dirs[run->nwrite_dirs++] = arg;
+    return 0;
+  case O_MAX_STEPS: case O_MAX_MEMORY: return limit_option(ra, opt == O_MAX_MEMORY, arg);
+  case O_PARAM: return param_option(ra, arg);
+  case 1:
+    if (run->script) return usage_error(run, "one script at a time (also '%s')", arg);
+    run->script = arg;
+    return 0;
   }
-  return 0;
+  return usage_error(run, "unknown option '%s'", word);
+}
+
+/* An option that needs a value and has none, as the command has always said. */
+static int missing_value(run_args *ra, int opt, const char *word)
+{
+  switch (opt) {
+  case O_ALLOW_WRITE: return usage_error(&ra->run, "%s needs a folder (at most 16)", word);
+  case O_MAX_STEPS: case O_MAX_MEMORY: return limit_option(ra, opt == O_MAX_MEMORY, NULL);
+  case O_PARAM: return param_option(ra, NULL);
+  }
+  return usage_error(&ra->run, "unknown option '%s'", word);
+}
+
+/* The words after "run", parsed with getopt_long in order ("-" first in the
+** option string: the script comes back as option 1 where it stands; ":"
+** next: a missing value is told apart from an unknown option). */
+static int parse_run(run_args *ra, int argc, char **argv)
+{
+  optind = 0;          /* a fresh scan */
+  opterr = 0;          /* our messages, in the output form asked for */
+  int code = 0, opt, index, prev = 1;
+  while (code == 0 && (opt = getopt_long(argc, argv, "-:", run_options, &index)) != -1) {
+    /* the word just read; a cluster of short options ("-xy") is read in place */
+    const char *word = optind > prev ? argv[optind - 1] : argv[optind];
+    if (opt != 1 && opt != '?' && opt != ':' && optarg && optarg == argv[optind - 1])
+      word = argv[optind - 2];                  /* "--report FILE": the option before it */
+    prev = optind;
+    if (opt == ':') code = missing_value(ra, optopt, word);
+    else if (opt == '?') code = usage_error(&ra->run, "unknown option '%s'", word);
+    else if (opt != 1 && !spelled_out(word, index))
+      code = usage_error(&ra->run, "unknown option '%s'", word);
+    else code = run_option(ra, opt, word, optarg);
+  }
+  for (int i = optind; code == 0 && i < argc; i++)   /* after "--": only scripts */
+    code = run_option(ra, 1, argv[i], argv[i]);
+  return code;
 }
 
 static int cmd_run(int argc, char **argv)
@@ -219,7 +279,7 @@ static int cmd_run(int argc, char **argv)
   ra.run.param_values = ra.values;
   ra.run.max_steps = CLI_DEFAULT_STEPS;
   ra.run.max_memory = CLI_DEFAULT_MEMORY;
-  for (int i = 0; i < argc; i++) {   /* first the output form, so that errors take it */
+  for (int i = 1; i < argc; i++) {   /* first the output form, so that errors take it */
     if (strcmp(argv[i], "--json") == 0) ra.run.json = 1;
     if (strcmp(argv[i], "--jsonl") == 0) ra.run.jsonl = 1;
   }
@@ -227,7 +287,7 @@ static int cmd_run(int argc, char **argv)
     ra.run.json = 0;
     code = usage_error(&ra.run, "%s", "--json and --jsonl: choose one");
   }
-  for (int i = 0; i < argc && code == 0; i++) code = run_option(&ra, argc, argv, &i);
+  if (code == 0) code = parse_run(&ra, argc, argv);
   if (code == 0 && !ra.run.script) code = usage_error(&ra.run, "%s", "run needs a script");
   if (code == 0) code = cli_run_script(&ra.run);
   for (int i = 0; i < ra.nowned; i++) free(ra.owned[i]);
@@ -254,7 +314,7 @@ int main(int argc, char **argv)
            EQP_PLUGIN_ABI_MINOR);
     return EXIT_OK;
   }
-  if (strcmp(cmd, "run") == 0) return cmd_run(argc - 2, argv + 2);
+  if (strcmp(cmd, "run") == 0) return cmd_run(argc - 1, argv + 1);   /* argv[0] is "run" */
   if (strcmp(cmd, "species") == 0) return cli_species(argc - 2, argv + 2);
   if (strcmp(cmd, "plot") == 0) return cli_plot(argc - 2, argv + 2);
   if (strcmp(cmd, "plugins") == 0) {

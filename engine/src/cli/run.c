@@ -222,8 +222,8 @@ static void init_state(cli_state *st, const cli_run *run)
   st->lim.mem_hint = "raise it with --max-memory SIZE such as 4G, or 0 for no limit";
   st->engine_alloc.fn = eqpi_limits_engine_alloc;
   st->engine_alloc.ud = &st->lim;
-  const char *slash = strrchr(run->script, '/');
-  if (slash == run->script) snprintf(st->script_dir, sizeof st->script_dir, "/");
+  const char *slash = run->script ? strrchr(run->script, '/') : NULL;   /* none: a usage error */
+  if (slash && slash == run->script) snprintf(st->script_dir, sizeof st->script_dir, "/");
   else if (slash) snprintf(st->script_dir, sizeof st->script_dir, "%.*s",
                            (int)(slash - run->script), run->script);
   else snprintf(st->script_dir, sizeof st->script_dir, ".");

@@ -158,9 +158,14 @@ static int solution_add(lua_State *L)
   }
   if (lua_type(L, 3) != LUA_TSTRING)
     return eqpl_input_error(L, "amount of %s: expected a string such as '10 mmol'", reagent);
-  char what[160];
-  snprintf(what, sizeof what, "amount of %s", reagent);
-  int rc = eqp_solution_add_str(u->s, reagent, eqpl_check_name(L, 3, what));
+  size_t len;
+  const char *amount = lua_tolstring(L, 3, &len);
+  if (len == 0 || strlen(amount) != len) {   /* the message is written only when needed */
+    char what[160];
+    snprintf(what, sizeof what, "amount of %s", reagent);
+    eqpl_check_name(L, 3, what);
+  }
+  int rc = eqp_solution_add_str(u->s, reagent, amount);
   if (rc < 0) return eqpl_fail(L, ctx, rc);
   lua_settop(L, 1);
   return 1;
