@@ -245,6 +245,24 @@ check_near json_curve_pH 8.404 0.01 "" -- "$JSON" curves.0.equivalence_points.0.
 # every point carries its sharpness (a number; >= 2 by the rule of docs/methods.md)
 check json_curve_sharpness 0 "^[0-9]" -- "$JSON" curves.0.equivalence_points.0.sharpness < "$TMP/j3"
 
+# warnings of titrations and pH adjustments, beside the line that made them:
+# in the text, the JSON document, the stream and the report; each kind once
+# per line, however many points the titration has
+"$EQP" run "$CASES/warn_paths.lua" >"$TMP/wp.out" 2>"$TMP/wp.err"; code=$?
+n=$(grep -c "^warning: .*warn_paths.lua:5: ionic strength .* beyond the stated range of the 'davies'" "$TMP/wp.err")
+if [ "$code" -eq 0 ] && [ "$n" = 1 ]; then echo "ok   warn_titration_text"; pass=$((pass + 1))
+else echo "FAIL warn_titration_text: exit $code, $n warnings for line 5 (want 1)"; sed 's/^/  | /' "$TMP/wp.err" | head; fail=$((fail + 1)); fi
+check warn_adjust_text 0 "warn_paths.lua:6: pH adjustment to 5.00 with NaOH: ionic strength" -- "$EQP" run "$CASES/warn_paths.lua"
+"$EQP" run "$CASES/warn_paths.lua" --json >"$TMP/wp.json"
+check warn_titration_json 0 "warn_paths.lua:5: ionic strength" -- "$JSON" warnings.0 warnings.1 warnings.2 warnings.3 < "$TMP/wp.json"
+check warn_adjust_json 0 "warn_paths.lua:6: pH adjustment" -- "$JSON" warnings.0 warnings.1 warnings.2 warnings.3 < "$TMP/wp.json"
+"$EQP" run "$CASES/warn_paths.lua" --jsonl >"$TMP/wp.jsonl"
+check warn_jsonl 0 '"type":"warning","where":"[^"]*warn_paths.lua:5","kind":"ionic-strength"' -- cat "$TMP/wp.jsonl"
+"$EQP" run "$CASES/warn_paths.lua" --report "$TMP/wp.html" >/dev/null 2>&1
+check warn_report 0 "warn_paths.lua:6: pH adjustment to 5.00 with NaOH" -- cat "$TMP/wp.html"
+# a usage error before the script is named, in the streamed form
+check json_jsonl_usage 2 '"exit_code":2' -- "$EQP" run --jsonl
+
 # the same module in a stock lua5.4
 if command -v lua5.4 >/dev/null; then
   # a sanitizer build's module needs the sanitizer runtime loaded first
