@@ -6,18 +6,13 @@
 #include <math.h>
 #include <string.h>
 
-/* The first published size of eqp_budget_spec (version 0.1). */
-#define BUDGET_SPEC_0_1 (offsetof(eqp_budget_spec, base) + sizeof(const char *))
-
 static int read_spec(eqp_ctx *ctx, const eqp_budget_spec *user, eqp_budget_spec *sp)
 {
   const eqp_budget_spec dflt = EQP_BUDGET_SPEC_INIT;
   *sp = dflt;
   if (!user) return EQP_OK;
-  if (user->size < BUDGET_SPEC_0_1 || user->size > sizeof *sp)
-    return eqpi_fail(ctx, EQP_E_ARG, "eqp_budget_spec of %zu bytes: start it from "
-                     "EQP_BUDGET_SPEC_INIT", user->size);
-  memcpy(sp, user, user->size);
+  int rc = eqpi_opts_read(ctx, "eqp_budget_spec", user, sp, sizeof *sp, EQPI_BUDGET_SPEC_0_1);
+  if (rc < 0) return rc;
   if (!(sp->window > 0 && sp->window <= 7))
     return eqpi_fail(ctx, EQP_E_INPUT, "load budget: the window %g must be above 0 and at most "
                      "7 pH units", sp->window);

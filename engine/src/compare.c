@@ -10,9 +10,6 @@
 
 #define MAX_WARN 20
 
-/* The first published size of eqp_compare_spec (version 0.1). */
-#define COMPARE_SPEC_0_1 (offsetof(eqp_compare_spec, window) + sizeof(double))
-
 typedef struct cand {
   eqp_candidate pub;
   char why[512];
@@ -134,10 +131,8 @@ static int check_spec(eqp_ctx *ctx, const eqp_compare_spec *user, eqp_compare_sp
 {
   const eqp_compare_spec dflt = EQP_COMPARE_SPEC_INIT;
   *sp = dflt;
-  if (user->size < COMPARE_SPEC_0_1 || user->size > sizeof *sp)
-    return eqpi_fail(ctx, EQP_E_ARG, "eqp_compare_spec of %zu bytes: start it from "
-                     "EQP_COMPARE_SPEC_INIT", user->size);
-  memcpy(sp, user, user->size);
+  int rc = eqpi_opts_read(ctx, "eqp_compare_spec", user, sp, sizeof *sp, EQPI_COMPARE_SPEC_0_1);
+  if (rc < 0) return rc;
   if (!sp->recipe || !sp->load_with)
     return eqpi_fail(ctx, EQP_E_ARG, "compare buffers: NULL recipe or load reagent");
   if (!(sp->load > 0) || !isfinite(sp->load))
@@ -146,7 +141,10 @@ static int check_spec(eqp_ctx *ctx, const eqp_compare_spec *user, eqp_compare_sp
   if (!(sp->window > 0 && sp->window <= 7))
     return eqpi_fail(ctx, EQP_E_INPUT, "compare buffers: the window %g must be above 0 and at "
                      "most 7 pH units", sp->window);
-  *rs = *sp->recipe;
+  *rs = (eqp_recipe_spec)EQP_RECIPE_SPEC_INIT;
+  if ((rc = eqpi_opts_read(ctx, "eqp_recipe_spec", sp->recipe, rs, sizeof *rs,
+                           EQPI_RECIPE_SPEC_0_1)) < 0)
+    return rc;
   rs->buffer = NULL;
   rs->reagents = NULL;
   rs->nreagents = 0;

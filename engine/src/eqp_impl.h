@@ -66,6 +66,9 @@ int eqpi_opts_read(eqp_ctx *ctx, const char *type, const void *user, void *local
 #define EQPI_DISTRIBUTION_SPEC_0_1 EQPI_SIZE_UPTO(eqp_distribution_spec, medium)
 #define EQPI_CAPACITY_SPEC_0_1 EQPI_SIZE_UPTO(eqp_capacity_spec, window_hi)
 #define EQPI_RECIPE_SPEC_0_1 EQPI_SIZE_UPTO(eqp_recipe_spec, titrant_molar)
+#define EQPI_OBSERVER_0_1 EQPI_SIZE_UPTO(eqp_observer, on_caution)
+#define EQPI_BUDGET_SPEC_0_1 EQPI_SIZE_UPTO(eqp_budget_spec, base)
+#define EQPI_COMPARE_SPEC_0_1 EQPI_SIZE_UPTO(eqp_compare_spec, window)
 
 /* ---------------------------------------------------------- formulas */
 

@@ -5,21 +5,19 @@
 #include "eqp_impl.h"
 #include <string.h>
 
-/* The size of the first published eqp_observer (version 0.1). */
-#define OBSERVER_0_1 (offsetof(eqp_observer, on_caution) + sizeof(void (*)(void)))
-
 int eqp_ctx_set_observer(eqp_ctx *ctx, const eqp_observer *obs, void *ud)
 {
   if (!ctx) return EQP_E_ARG;
   memset(&ctx->obs, 0, sizeof ctx->obs);
   ctx->obs_ud = NULL;
   if (!obs) return EQP_OK;
-  if (obs->size < OBSERVER_0_1 || obs->size > sizeof ctx->obs)
-    return eqpi_fail(ctx, EQP_E_ARG, "eqp_observer of %zu bytes: start it from "
-                     "EQP_OBSERVER_INIT (this library reads %zu to %zu bytes)", obs->size,
-                     (size_t)OBSERVER_0_1, sizeof ctx->obs);
-  memcpy(&ctx->obs, obs, obs->size);   /* a smaller, older struct leaves the rest NULL */
-  ctx->obs.size = sizeof ctx->obs;
+  /* a smaller, older struct leaves the callbacks it does not have NULL */
+  int rc = eqpi_opts_read(ctx, "eqp_observer", obs, &ctx->obs, sizeof ctx->obs,
+                          EQPI_OBSERVER_0_1);
+  if (rc < 0) {
+    memset(&ctx->obs, 0, sizeof ctx->obs);
+    return rc;
+  }
   ctx->obs_ud = ud;
   return EQP_OK;
 }

@@ -10,7 +10,8 @@ int main(int argc, char **argv)
 {
   long n = argc > 1 ? atol(argv[1]) : 20000;
   eqp_ctx *ctx = eqp_ctx_new(NULL, NULL);
-  eqp_solution_opts o = {1.0, 298.15, "davies"};
+  eqp_solution_opts o = EQP_SOLUTION_OPTS_INIT;
+  o.activity = "davies";
   eqp_solution *s;
   eqp_result *r;
   if (!ctx || eqp_solution_new(ctx, &o, &s) < 0 ||

@@ -8,8 +8,7 @@ int main(int argc, char **argv)
   start(argc, argv);
   /* eq.compare_buffers{ pH = 7.2, temperature = 30, total = "100 mM", volume = "1 L",
   **                     load = "2 mM", load_with = "HCl", window = 0.05 } */
-  eqp_recipe_spec rs;
-  memset(&rs, 0, sizeof rs);
+  eqp_recipe_spec rs = EQP_RECIPE_SPEC_INIT;
   rs.pH = 7.2;
   rs.total = q("100 mM", EQP_Q_MOLARITY);
   rs.volume = q("1 L", EQP_Q_VOLUME);
@@ -46,8 +45,7 @@ int main(int argc, char **argv)
   size_t n = 0;
   for (size_t i = 0; i < eqp_comparison_count(ranked) && n < 4; i++)
     if (eqp_comparison_at(ranked, i)->possible) names[n++] = eqp_comparison_at(ranked, i)->buffer;
-  eqp_capacity_spec cap;
-  memset(&cap, 0, sizeof cap);
+  eqp_capacity_spec cap = EQP_CAPACITY_SPEC_INIT;
   cap.buffers = names;
   cap.nbuffers = n;
   cap.total = q("100 mM", EQP_Q_MOLARITY);
@@ -59,8 +57,7 @@ int main(int argc, char **argv)
   cap.window_hi = 7.25;
   eqp_curve *c;
   check(eqp_capacity_sweep(ctx, &cap, &c), "capacity");
-  eqp_capacity_spec drawn;       /* what curve:plot knows of how the curve was made */
-  memset(&drawn, 0, sizeof drawn);
+  eqp_capacity_spec drawn = EQP_CAPACITY_SPEC_INIT;   /* what curve:plot knows of it */
   drawn.total = cap.total;
   drawn.T = cap.T;
   drawn.window_lo = cap.window_lo;

@@ -84,7 +84,7 @@ static inline double q(const char *text, unsigned kinds)
 static inline eqp_solution *solution(const char *vol, const char *water, double T,
                                       const char *model)
 {
-  eqp_solution_opts o;
+  eqp_solution_opts o = EQP_SOLUTION_OPTS_INIT;
   o.temperature_K = T;
   o.water = water ? q(water, EQP_Q_MASS) : 1.0;
   if (vol) o.water = eqp_water_of_volume(q(vol, EQP_Q_VOLUME), o.temperature_K);
@@ -133,7 +133,7 @@ static inline void write_plot(int rc, eqp_plot *p, const char *file)
 static inline void plot_distribution(const eqp_curve *c, const char *system, double I, double T,
                               const char *file)
 {
-  eqp_distribution_spec d = {0};
+  eqp_distribution_spec d = EQP_DISTRIBUTION_SPEC_INIT;
   d.system = system;
   d.ionic_strength = I;
   d.T = T;
@@ -146,7 +146,7 @@ static inline void plot_distribution(const eqp_curve *c, const char *system, dou
 static inline eqp_curve *distribution(const char *system, double I, double T, double lo,
                                       double hi)
 {
-  eqp_distribution_spec d = {0};
+  eqp_distribution_spec d = EQP_DISTRIBUTION_SPEC_INIT;
   d.system = system;
   d.ionic_strength = I;
   d.T = T;

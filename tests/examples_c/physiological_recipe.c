@@ -7,8 +7,7 @@ int main(int argc, char **argv)
 {
   start(argc, argv);
   const char *using[] = {"NaH2PO4.H2O", "Na2HPO4.7H2O"};
-  eqp_recipe_spec rs;
-  memset(&rs, 0, sizeof rs);
+  eqp_recipe_spec rs = EQP_RECIPE_SPEC_INIT;
   rs.buffer = "phosphate";
   rs.reagents = using;
   rs.nreagents = 2;
@@ -38,8 +37,7 @@ int main(int argc, char **argv)
   if (!(fabs(pH - 7.40) <= 0.005)) die("the printed recipe does not give its pH back");
 
   const char *buffers[] = {"phosphate"};
-  eqp_capacity_spec cap;
-  memset(&cap, 0, sizeof cap);
+  eqp_capacity_spec cap = EQP_CAPACITY_SPEC_INIT;
   cap.buffers = buffers;
   cap.nbuffers = 1;
   cap.total = q("50 mM", EQP_Q_MOLARITY);
@@ -51,8 +49,7 @@ int main(int argc, char **argv)
   cap.window_hi = 7.45;
   eqp_curve *c;
   check(eqp_capacity_sweep(ctx, &cap, &c), "capacity");
-  eqp_capacity_spec drawn;
-  memset(&drawn, 0, sizeof drawn);
+  eqp_capacity_spec drawn = EQP_CAPACITY_SPEC_INIT;
   drawn.total = cap.total;
   drawn.T = cap.T;
   drawn.window_lo = cap.window_lo;

@@ -11,8 +11,12 @@ int main(int argc, char **argv)
   add(naoh, "NaOH", "0.1 mol");
   /* sample:titrate{ with = naoh, step = "0.25 mL", to = "15 mL", species = { "CH3COO-" } } */
   const char *species[] = {"CH3COO-"};
-  eqp_titration t = {NULL, naoh, q("0.25 mL", EQP_Q_VOLUME), q("15 mL", EQP_Q_VOLUME), NAN, 0,
-                     species, 1};
+  eqp_titration t = EQP_TITRATION_INIT;
+  t.stock = naoh;
+  t.step = q("0.25 mL", EQP_Q_VOLUME);
+  t.to = q("15 mL", EQP_Q_VOLUME);
+  t.species = species;
+  t.nspecies = 1;
   eqp_curve *curve;
   check(eqp_solution_titrate(sample, &t, &curve), "titrate");
   printf("%d points\n", (int)eqp_curve_rows(curve));

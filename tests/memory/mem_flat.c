@@ -51,7 +51,9 @@ int main(int argc, char **argv)
   long n = argc > 1 ? atol(argv[1]) : 1000000;
   long bound = argc > 2 ? atol(argv[2]) : 1024;
   eqp_ctx *ctx = eqp_ctx_new(counting, NULL);
-  eqp_solution_opts o = {10.0, 298.15, "davies"};
+  eqp_solution_opts o = EQP_SOLUTION_OPTS_INIT;
+  o.water = 10.0;
+  o.activity = "davies";
   eqp_solution *s;
   if (!ctx || eqp_solution_new(ctx, &o, &s) < 0) fail(ctx, "solution");
   if (eqp_solution_add_str(s, "KH2PO4", "250 mmol") < 0 ||

@@ -87,7 +87,8 @@ static int teardown(void **state)
 
 static eqp_solution *phosphate(void)
 {
-  eqp_solution_opts o = {1.0, 298.15, "davies"};
+  eqp_solution_opts o = EQP_SOLUTION_OPTS_INIT;
+  o.activity = "davies";
   eqp_solution *s;
   assert_int_equal(eqp_solution_new(ctx, &o, &s), EQP_OK);
   assert_int_equal(eqp_solution_add_str(s, "KH2PO4", "25 mmol"), EQP_OK);
@@ -107,7 +108,10 @@ static void test_observer_hears_what_is_made(void **state)
   assert_int_equal(seen.results, 1);
   assert_close(seen.pH[0], eqp_result_pH(r), 0);
   eqp_result_free(r);
-  eqp_titration t = {"NaOH", NULL, 1e-3, 10e-3, NAN, 0, NULL, 0};
+  eqp_titration t = EQP_TITRATION_INIT;
+  t.reagent = "NaOH";
+  t.step = 1e-3;
+  t.to = 10e-3;
   eqp_curve *c;
   assert_int_equal(eqp_solution_titrate(s, &t, &c), EQP_OK);
   assert_true(eqp_curve_rows(c) > 5);
@@ -133,12 +137,16 @@ static void test_observer_hears_what_is_made(void **state)
 static void test_warnings_of_titrations_and_adjustments(void **state)
 {
   (void)state;
-  eqp_solution_opts o = {1.0, 298.15, "davies"};
+  eqp_solution_opts o = EQP_SOLUTION_OPTS_INIT;
+  o.activity = "davies";
   eqp_solution *s;
   assert_int_equal(eqp_solution_new(ctx, &o, &s), EQP_OK);
   assert_int_equal(eqp_solution_add_str(s, "NaCl", "0.8 mol"), EQP_OK);
   assert_int_equal(eqp_solution_add_str(s, "CH3COOH", "10 mmol"), EQP_OK);
-  eqp_titration t = {"NaOH", NULL, 1e-3, 5e-3, NAN, 0, NULL, 0};
+  eqp_titration t = EQP_TITRATION_INIT;
+  t.reagent = "NaOH";
+  t.step = 1e-3;
+  t.to = 5e-3;
   eqp_curve *c;
   assert_int_equal(eqp_solution_titrate(s, &t, &c), EQP_OK);
   eqp_curve_free(c);
@@ -158,7 +166,7 @@ static void test_observer_size(void **state)
   eqp_observer zero;
   memset(&zero, 0, sizeof zero);
   assert_int_equal(eqp_ctx_set_observer(ctx, &zero, NULL), EQP_E_ARG);
-  assert_contains(eqp_ctx_errmsg(ctx), "EQP_OBSERVER_INIT");
+  assert_contains(eqp_ctx_errmsg(ctx), "INIT macro");
   assert_int_equal(eqp_ctx_set_observer(ctx, NULL, NULL), EQP_OK);
   eqp_solution *s = phosphate();
   eqp_result *r;
@@ -216,7 +224,8 @@ static void test_result_copy_json_text(void **state)
 static void test_load_budget_against_charge_balance(void **state)
 {
   (void)state;
-  eqp_solution_opts o = {1.0, 298.15, "ideal"};
+  eqp_solution_opts o = EQP_SOLUTION_OPTS_INIT;
+  o.activity = "ideal";
   eqp_solution *s;
   assert_int_equal(eqp_solution_new(ctx, &o, &s), EQP_OK);
   assert_int_equal(eqp_solution_add_str(s, "CH3COOH", "10 mmol"), EQP_OK);
@@ -262,8 +271,7 @@ static void test_load_budget_against_charge_balance(void **state)
 static void test_compare_buffers(void **state)
 {
   (void)state;
-  eqp_recipe_spec rs;
-  memset(&rs, 0, sizeof rs);
+  eqp_recipe_spec rs = EQP_RECIPE_SPEC_INIT;
   rs.pH = 7.2;
   rs.total = 0.05;
   rs.volume = 1;
