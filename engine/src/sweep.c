@@ -117,6 +117,7 @@ int eqp_solution_temperature_sweep(eqp_solution *s, double T0, double T1, size_t
   if (!(T0 >= 273.15 && T1 <= 373.15 && T0 < T1))
     return eqpi_fail(ctx, EQP_E_INPUT, "temperatures %g .. %g K: low first, within 273.15 .. "
                      "373.15", T0, T1);
+  if (points == 0) points = floor(T1 - T0) + 1 < 2 ? 2 : (size_t)(floor(T1 - T0) + 1);
   if (points < 2 || points > 10001) return eqpi_fail(ctx, EQP_E_INPUT, "2 to 10001 points");
   static const char *const names[] = {"temperature", "pH", "ionic_strength"};
   eqp_solution *w;

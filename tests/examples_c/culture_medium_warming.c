@@ -43,9 +43,8 @@ int main(int argc, char **argv)
 
   /* s:temperature_sweep{ from = 4, to = 40 }: one point per degree */
   double T0 = CELSIUS(4), T1 = CELSIUS(40);
-  double np = floor(T1 - T0) + 1 < 2 ? 2 : floor(T1 - T0) + 1;
   eqp_curve *c;
-  check(eqp_solution_temperature_sweep(s, T0, T1, (size_t)np, &c), "temperature sweep");
+  check(eqp_solution_temperature_sweep(s, T0, T1, 0, &c), "temperature sweep");
   const char *y[] = {"pH"};
   eqp_plot *p = NULL;
   int rc = eqp_plot_columns(c, "temperature", y, 1, "pH against temperature", &p);

@@ -49,9 +49,8 @@ int main(int argc, char **argv)
   for (int m = 0; m < 4 && rc == EQP_OK; m++) {
     eqp_solution *s = tris_buffer(models[m]);
     double T0 = CELSIUS(4), T1 = CELSIUS(37);
-    double np = floor(T1 - T0) + 1 < 2 ? 2 : floor(T1 - T0) + 1;
     eqp_curve *c;
-    check(eqp_solution_temperature_sweep(s, T0, T1, (size_t)np, &c), "temperature sweep");
+    check(eqp_solution_temperature_sweep(s, T0, T1, 0, &c), "temperature sweep");
     double T[64], pH[64];
     size_t n = eqp_curve_rows(c);
     for (size_t i = 0; i < n && i < 64; i++) {

@@ -540,7 +540,8 @@ typedef struct eqp_capacity_spec {
 EQP_API int eqp_capacity_sweep(eqp_ctx *ctx, const eqp_capacity_spec *c, eqp_curve **out);
 
 /* pH of s at points temperatures from T0 to T1 (K), the composition kept
-** (s unchanged). Columns: temperature (C), pH, ionic_strength (mol/kg). */
+** (s unchanged); points 0: one per degree (at least 2). Columns:
+** temperature (C), pH, ionic_strength (mol/kg). */
 EQP_API int eqp_solution_temperature_sweep(eqp_solution *s, double T0, double T1, size_t points,
                                            eqp_curve **out);
 

@@ -77,8 +77,7 @@ void cli_strings_free(cli_strings *set);
 typedef struct cli_record {
   void *results, *curves;         /* cJSON arrays (--json), with "where" */
   size_t nresults, ncurves;       /* made so far */
-  eqp_result *kept[CLI_KEEP_RESULTS];   /* copies, for the provenance (--json, --jsonl,
-                                           --report) */
+  eqp_result *kept[CLI_KEEP_RESULTS];   /* copies, for the provenance (--json, --jsonl) */
   size_t nkept;
   cli_strings species;            /* names of every species a result held (--report) */
   cli_strings reagents;           /* library names of the reagents used (--report) */

@@ -112,12 +112,13 @@ static void on_result(void *ud, const eqp_result *r)
   cli_state *st = ud;
   cli_record *rec = &st->rec;
   rec->nresults++;
-  if (rec->nkept < CLI_KEEP_RESULTS && eqp_result_copy(r, &rec->kept[rec->nkept]) == EQP_OK)
-    rec->nkept++;
   if (st->run->report)
     for (size_t i = 0; i < eqp_result_species_count(r); i++)
       cli_strings_add(&rec->species, eqp_result_species_name(r, i));
   if (!st->run->json && !st->run->jsonl) return;
+  /* the JSON provenance lists the constants of the first results */
+  if (rec->nkept < CLI_KEEP_RESULTS && eqp_result_copy(r, &rec->kept[rec->nkept]) == EQP_OK)
+    rec->nkept++;
   char at[300];
   where(st, at, sizeof at);
   cJSON *o = cli_result_json(r);

@@ -460,9 +460,9 @@ static int sol_temperature_sweep(lua_State *L)
   double T0 = opt_temperature(L, 2, "from", NAN), T1 = opt_temperature(L, 2, "to", NAN);
   if (isnan(T0) || isnan(T1))
     return eqpl_input_error(L, "temperature_sweep: 'from' and 'to' are temperatures in C");
-  double np = opt_number(L, 2, "points", 0, "temperature_sweep");
-  if (np == 0) np = floor(T1 - T0) + 1 < 2 ? 2 : floor(T1 - T0) + 1;   /* one per degree */
-  if (!(np >= 2 && np <= 10001)) return eqpl_input_error(L, "temperature_sweep: 2 to 10001 points");
+  double np = opt_number(L, 2, "points", 0, "temperature_sweep");   /* 0: one per degree */
+  if (!(np == 0 || (np >= 2 && np <= 10001)))
+    return eqpl_input_error(L, "temperature_sweep: 2 to 10001 points");
   eqp_curve *c;
   int rc = eqp_solution_temperature_sweep(u->s, T0, T1, (size_t)np, &c);
   if (rc < 0) return eqpl_fail(L, ctx, rc);
