@@ -40,6 +40,35 @@ typedef struct plan {
   const eqpi_reagent *salt;
 } plan;
 
+/* Whether component c has protonated forms: a species made of c alone
+** besides H+ and water (PO4^3- has HPO4^2-; Na+ and Cl- have none). */
+static int has_ladder(const eqpi_db *db, int c)
+{
+  for (int j = 0; j < db->nsp; j++) {
+    const eqpi_species *s = &db->sp[j];
+    int only_c = 0, other = 0;
+    for (int t = 0; t < s->nterm; t++) {
+      int cs = db->comp_species[s->term_comp[t]];
+      if (cs == db->h_plus || cs == db->water || s->term_nu[t] == 0) continue;
+      if (s->term_comp[t] == c) only_c = 1;
+      else other = 1;
+    }
+    if (only_c && !other && j != db->comp_species[c]) return 1;
+  }
+  return 0;
+}
+
+/* Whether reagent u releases the acid or base of reagent form (a component
+** with protonated forms that both hold): KH2PO4 for NaH2PO4, not Tris. */
+static int same_system(const eqpi_db *db, const eqpi_reagent *form, const eqpi_reagent *u)
+{
+  for (int a = 0; a < form->nterm; a++)
+    for (int b = 0; b < u->nterm; b++)
+      if (form->term_comp[a] == u->term_comp[b] && has_ladder(db, form->term_comp[a]))
+        return 1;
+  return 0;
+}
+
 static int choose(eqp_ctx *ctx, const eqp_recipe_spec *sp, plan *p)
 {
   memset(p, 0, sizeof *p);
@@ -57,7 +86,14 @@ static int choose(eqp_ctx *ctx, const eqp_recipe_spec *sp, plan *p)
       if (strcmp(ctx->db.buffers[i].name, sp->buffer) == 0) b = &ctx->db.buffers[i];
     if (!b) return eqpi_fail(ctx, EQP_E_UNKNOWN, "recipe: no buffer '%s' in the library",
                              sp->buffer);
-    if (!r1) {
+    if (r1) {   /* the reagents on the shelf must make this buffer, not another */
+      const eqpi_reagent *form = &ctx->db.rg[b->acid >= 0 ? b->acid : b->free];
+      const eqpi_reagent *u1 = reagent_of(ctx, r1), *u2 = reagent_of(ctx, r2);
+      if (u1 && u2 && !same_system(&ctx->db, form, u1) && !same_system(&ctx->db, form, u2))
+        return eqpi_fail(ctx, EQP_E_INPUT, "recipe: using = { %s, %s } does not make the buffer "
+                         "'%s' (%s is one of its reagents); name the buffer of these reagents, "
+                         "or leave out 'buffer'", r1, r2, b->name, form->name);
+    } else {
       if (b->acid >= 0) {
         r1 = ctx->db.rg[b->acid].name;
         r2 = ctx->db.rg[b->base].name;

@@ -170,6 +170,34 @@ static void test_no_root_beyond_100_mol_kg(void **state)
   eqp_solution_free(s);
 }
 
+/* A buffer and the reagents on the shelf name one system. buffer =
+** "phosphate" with using = { "Tris", "HCl" } printed a Tris recipe, the
+** phosphate silently dropped. Forms of the same system from other salts or
+** as hydrates (the documented example) are the same buffer. */
+static void test_recipe_using_must_make_its_buffer(void **state)
+{
+  const char *tris[] = {"Tris", "HCl"}, *potassium[] = {"KH2PO4", "K2HPO4"},
+             *hydrates[] = {"NaH2PO4.H2O", "Na2HPO4.7H2O"}, *salts[] = {"NaCl", "KCl"};
+  eqp_recipe_spec sp = {"phosphate", tris, 2, 7.2, 0.05, 1.0, 298.15, NULL, NAN, NULL, 0};
+  eqp_recipe *r = NULL;
+  assert_int_equal(eqp_recipe_make(ctx, &sp, &r), EQP_E_INPUT);
+  assert_null(r);
+  assert_non_null(strstr(eqp_ctx_errmsg(ctx), "does not make the buffer 'phosphate'"));
+  sp.reagents = salts;   /* Na+ is no acid or base: the sodium salts share no system */
+  assert_int_equal(eqp_recipe_make(ctx, &sp, &r), EQP_E_INPUT);
+  sp.reagents = potassium;
+  assert_int_equal(eqp_recipe_make(ctx, &sp, &r), EQP_OK);
+  eqp_recipe_free(r);
+  sp.reagents = hydrates;
+  assert_int_equal(eqp_recipe_make(ctx, &sp, &r), EQP_OK);
+  eqp_recipe_free(r);
+  sp.buffer = "Tris";
+  sp.reagents = tris;
+  sp.pH = 8.0;
+  assert_int_equal(eqp_recipe_make(ctx, &sp, &r), EQP_OK);
+  eqp_recipe_free(r);
+}
+
 int main(void)
 {
   const struct CMUnitTest tests[] = {
@@ -179,6 +207,7 @@ int main(void)
     cmocka_unit_test(test_nan_constant_is_a_data_error),
     cmocka_unit_test(test_verify_sees_nan_in_any_row),
     cmocka_unit_test(test_no_root_beyond_100_mol_kg),
+    cmocka_unit_test(test_recipe_using_must_make_its_buffer),
   };
   return cmocka_run_group_tests(tests, setup, teardown);
 }
