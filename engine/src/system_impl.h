@@ -15,7 +15,8 @@ struct eqpi_system {
   size_t bytes;         /* of the block below */
   double *u_last;       /* nmax: the last converged unknowns */
   double *tot_last;     /* nc: the totals they were converged for */
-  double *S_last;       /* nmax: row scales there */
+  double *S_last;       /* nmax: row scales there; the ionic strength row's entry
+                           holds the computed I (the tangent needs it) */
   double *work;         /* 2 nmax * nmax + 2 nmax */
   double *lng_hold;     /* ns: ln gamma held by the proton-balance start */
   double **cols;        /* nmax */
