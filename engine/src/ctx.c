@@ -33,6 +33,8 @@ eqp_ctx *eqp_ctx_new(eqp_alloc_fn alloc, void *ud)
 void eqp_ctx_free(eqp_ctx *ctx)
 {
   if (!ctx) return;
+  eqpi_newton_pool_free(ctx);
+  eqpi_tableau_cache_free(ctx);
   eqpi_plugins_free(ctx);
   for (int i = 0; i < ctx->nplugin_dirs; i++) eqpi_strfree(ctx, ctx->plugin_dirs[i]);
   eqpi_free(ctx, ctx->plugin_dirs, sizeof(char *) * (size_t)ctx->nplugin_dirs);

@@ -5,7 +5,6 @@
 ** the solve is refused (docs/activity-models.md). */
 /* SPDX-License-Identifier: MIT */
 #include "solution_impl.h"
-#include "system_impl.h"
 #include <math.h>
 #include <stdio.h>
 #include <string.h>
@@ -63,7 +62,7 @@ int eqpi_chain_refuse(eqp_solution *s, double I, const char *what)
       used += (size_t)snprintf(ranges + used, sizeof ranges - used, "%s%s <= %g", k ? ", " : "",
                                m->desc->name, m->desc->max_ionic_strength);
   }
-  if (s->sys) s->sys->solved = false;
+  eqpi_system_forget(s->sys);
   return eqpi_fail(s->ctx, EQP_E_INPUT, "%s: the ionic strength, %.3g mol/kg, is beyond the "
                    "stated range of every activity model the default may use (%s mol/kg); "
                    "name a model with activity = \"...\" to get an extrapolated estimate, "
@@ -82,6 +81,26 @@ static int molalities(eqp_solution *s, double *mol)
                        ctx->db.sp[ctx->db.comp_species[c]].name, mol[c], EQPI_MAX_MOLALITY);
   }
   return EQP_OK;
+}
+
+int eqpi_solution_adjust(eqp_solution *s, eqpi_adjust *aj, int n, double *v, eqpi_solve_stats *st,
+                         int *k, const char *what)
+{
+  int rc = eqpi_system_adjust(s->ctx, &s->sys, aj, n, v, st);
+  while (rc == EQP_OK && s->model_default) {
+    double I = eqpi_system_ionic_strength(s->sys);
+    int next = eqpi_chain_choice(s, I, *k);
+    if (next == *k) break;
+    if (next < 0) {
+      char msg[160];
+      snprintf(msg, sizeof msg, "%s with the default activity model", what);
+      return eqpi_chain_refuse(s, I, msg);
+    }
+    eqpi_model *m = eqpi_chain_model(s, *k = next);
+    for (int j = 0; j < n; j++) aj[j].model = m;
+    rc = eqpi_system_adjust(s->ctx, &s->sys, aj, n, v, st);
+  }
+  return rc;
 }
 
 int eqpi_solution_equilibrate_from(eqp_solution *s, int *kp, int follow, eqp_result **out,

@@ -20,6 +20,7 @@
 #define EQPI_VERIFY_TOL 1e-10       /* largest relative residual a result may have */
 #define EQPI_MAX_WATER 1e6          /* kg of water a solution may hold */
 #define EQPI_MAX_MOLALITY 100.0     /* mol/kg: beyond, not an aqueous solution */
+#define EQPI_TABLEAU_CACHE 4        /* tableaux a context keeps for new solutions */
 
 #if defined(__GNUC__)
 #define EQPI_PRINTF(a, b) __attribute__((format(printf, a, b)))
@@ -69,6 +70,8 @@ int eqpi_opts_read(eqp_ctx *ctx, const char *type, const void *user, void *local
 #define EQPI_OBSERVER_0_1 EQPI_SIZE_UPTO(eqp_observer, on_caution)
 #define EQPI_BUDGET_SPEC_0_1 EQPI_SIZE_UPTO(eqp_budget_spec, base)
 #define EQPI_COMPARE_SPEC_0_1 EQPI_SIZE_UPTO(eqp_compare_spec, window)
+/* Structs first published after 0.1.0: their first sizes. */
+#define EQPI_TARGET_FIRST EQPI_SIZE_UPTO(eqp_target, litres)
 
 /* ---------------------------------------------------------- formulas */
 
@@ -352,6 +355,14 @@ int eqpi_model_bind(eqpi_model *m, const eqp_species_info *info, char *warn, siz
                     char *err, size_t elen);
 int eqpi_model_log_gamma(eqpi_model *m, const eqp_activity_in *in, double *lg, char *err,
                          size_t len);
+/* Which derivatives the model gives (ABI 1.1): none, d lg / dI of a model
+** of the ionic strength alone, or directional derivatives. */
+enum { EQPI_DERIV_NONE = 0, EQPI_DERIV_I = 1, EQPI_DERIV_TANGENT = 2 };
+int eqpi_model_derivs(const eqpi_model *m);
+int eqpi_model_dlog_gamma_dI(eqpi_model *m, const eqp_activity_in *in, double *dlg, char *err,
+                             size_t len);
+int eqpi_model_tangent(eqpi_model *m, const eqp_activity_in *in, const double *dm, double dI,
+                       double *dlg, char *err, size_t len);
 void eqpi_plugins_free(eqp_ctx *ctx);
 /* Check a descriptor as loaded from path; 0 or an error message in err. */
 int eqpi_plugin_check(const eqp_plugin_desc *d, const char *path, char *err, size_t len);
@@ -456,6 +467,9 @@ struct eqp_ctx {
   int log_level;
   eqp_observer obs;         /* observer.c: the host's callbacks (all NULL: none) */
   void *obs_ud;
+  struct eqpi_newton *newton_pool;   /* idle Newton workspaces (newton.c) */
+  int newton_pooled;
+  struct eqpi_tableau *tableaux[EQPI_TABLEAU_CACHE];  /* the last tableaux made (tableau.c) */
 };
 
 /* ---------------------------------------------------------- log */
@@ -543,24 +557,58 @@ extern const char *const eqpi_default_chain[EQPI_DEFAULT_CHAIN];
 int eqpi_system_solve(eqp_ctx *ctx, eqpi_system **sysp, const double *totals,
                       double T, eqpi_model *model, eqpi_solve_stats *stats);
 void eqpi_system_free(eqp_ctx *ctx, eqpi_system *sys);
+/* Whether the system holds the solution for these totals (mol over the
+** database's components, in water_kg) at T (K). */
+bool eqpi_system_current(const eqpi_system *s, const double *total, double water_kg, double T);
+/* The next solve starts cold. NULL ok. */
+void eqpi_system_forget(eqpi_system *s);
+/* A system for a copy of a solution, with model (the copy's): the same
+** tableau and the last solution as its warm start. NULL when src holds no
+** solution or memory is short (the copy then starts cold). */
+eqpi_system *eqpi_system_clone(eqp_ctx *ctx, const eqpi_system *src, eqpi_model *model);
+/* The model the system was last prepared with. */
+const eqpi_model *eqpi_system_model(const eqpi_system *s);
+/* Free the idle Newton workspaces of the context (newton.c), and its
+** cached tableaux (tableau.c; one a system still uses goes with it). */
+void eqpi_newton_pool_free(eqp_ctx *ctx);
+void eqpi_tableau_cache_free(eqp_ctx *ctx);
 
-/* Adding v units of a direction to N0 moles in W0 kg of water: a (moles per
-** unit, over the database's components) and w (kg of water per unit). */
+/* What an adjustment holds: the pH, the activity of a species, or the
+** ionic strength. */
+enum { EQPI_ADJ_PH = 0, EQPI_ADJ_ACTIVITY = 1, EQPI_ADJ_IONIC = 2, EQPI_ADJ_FREE = 3 };
+
+/* One target of an adjustment: v units of a direction (a: moles per unit,
+** over the database's components; w: kg of water per unit) added to N0
+** moles in W0 kg of water until the target holds. The targets of one
+** adjustment share N0, W0, T and the model (those of the first). */
 typedef struct eqpi_adjust {
   const double *N0, *a;
   double W0, w, T;
   eqpi_model *model;
-  double pH;            /* target */
-  double v0, vmax;      /* the search interval of v */
+  double pH;            /* target of EQPI_ADJ_PH */
+  double v0;            /* where the search starts (solved first) */
+  double vmin, vmax;    /* what v may be; vmin <= v0 */
   const char *what;     /* the reagent, for messages */
   const char *vmax_text;/* "5 mol per kg of water", for messages */
+  int kind;             /* EQPI_ADJ_* (0, the pH, when left out) */
+  int species;          /* EQPI_ADJ_ACTIVITY: the species (database index) */
+  double value;         /* its activity; free molality or ionic strength, mol/kg */
+  int floor_ok;         /* vmin is an answer when even it overshoots (a gas all gone) */
 } eqpi_adjust;
 
-/* Find v with pH(v) = target: the fixed-activity system by KINSOL, with
-** bracketing as the fallback. On success the system holds the solution
-** at v. EQP_E_INPUT when the target cannot be reached. */
-int eqpi_system_adjust(eqp_ctx *ctx, eqpi_system **sysp, const eqpi_adjust *aj, double *v,
+/* Find the amounts v[0..n-1] that meet the n targets together: one solve of
+** the problem with the amounts as unknowns and a fixed-activity (or ionic
+** strength) row each (KINSOL), with Brent's method on ordinary solves as
+** the fallback. On success the system holds the solution at v. EQP_E_INPUT
+** when a target cannot be reached. */
+int eqpi_system_adjust(eqp_ctx *ctx, eqpi_system **sysp, const eqpi_adjust *aj, int n, double *v,
                        eqpi_solve_stats *st);
+/* Hold the activity of component comp (database index) at exp(lna), the
+** charge balanced by component counter: one solve with those two rows; the
+** totals (mol/kg over the database's components, as solved before) of both
+** become outputs in *tc and *tq. On success the system holds the solution. */
+int eqpi_system_fix(eqp_ctx *ctx, eqpi_system **sysp, const double *totals, double T,
+                    eqpi_model *model, int comp, double lna, int counter, double *tc, double *tq);
 /* dpH/dv of the solved system for a direction (global components). */
 int eqpi_system_dpH(eqp_ctx *ctx, eqpi_system *s, const double *a_global, double w, double W,
                     double *dpH);
@@ -570,7 +618,9 @@ int eqpi_system_nspecies(const eqpi_system *sys);
 int eqpi_system_species(const eqpi_system *sys, int i, double *m, double *lg);
 double eqpi_system_ionic_strength(const eqpi_system *sys);
 
-/* Small dense LU with partial pivoting: A is n x n row-major. */
+/* Small dense LU with partial pivoting (SUNDIALS's, newton.c): A is n x n
+** row-major, n <= 64; after eqpi_lu_factor it holds the factors in
+** SUNDIALS's order, for eqpi_lu_solve only. */
 int eqpi_lu_factor(double *A, int *piv, int n);
 void eqpi_lu_solve(const double *A, const int *piv, int n, double *b);
 

@@ -1,36 +1,17 @@
 /* Open to a gas: the amount of a gas that dissolves (or leaves) until its
-** dissolved species has the activity Henry's law gives at the partial
-** pressure, a(X) = K_H p. a(X) rises monotonically with the amount of X,
-** so the amount is found by bracketing with ordinary solves. */
+** dissolved species X has the activity Henry's law gives at the partial
+** pressure, a(X) = K_H p: one solve with the amount of X an unknown and
+** a(X) held fixed (adjust.c), the amount an output. */
 /* SPDX-License-Identifier: MIT */
 #include "solution_impl.h"
-#include "system_impl.h"
 #include <math.h>
+#include <stdio.h>
 #include <string.h>
 
 static eqpi_gas *find_gas(eqpi_db *db, const char *name)
 {
   int i = eqpi_db_find_gas(db, name);
   return i < 0 ? NULL : &db->gases[i];
-}
-
-/* ln a(X) of the solution with v mol of X added to the totals N0. The
-** warnings of the bracketing's solves are not shown, those of the last
-** (show) are: it is the state the solution is left in. */
-static int lna_at(eqp_solution *s, const double *N0, const double *a, double v, int x,
-                  double *lna, int show)
-{
-  for (int c = 0; c < s->ntotal; c++) s->total[c] = N0[c] + v * a[c];
-  eqp_result *r;
-  s->ctx->quiet += !show;
-  int rc = eqpi_solution_equilibrate(s, &r);
-  s->ctx->quiet -= !show;
-  if (rc < 0) return rc;
-  double act;
-  eqp_result_activity(r, s->ctx->db.sp[x].name, &act);
-  eqp_result_free(r);
-  *lna = act > 0 ? log(act) : -INFINITY;
-  return EQP_OK;
 }
 
 int eqp_solution_expose(eqp_solution *s, const char *gas, double p_atm, double *mol)
@@ -45,57 +26,52 @@ int eqp_solution_expose(eqp_solution *s, const char *gas, double p_atm, double *
                      "atm", gas);
   g->used = 1;   /* its K_H joins the provenance of the run */
   eqpi_tnotes notes = {0, 0};
-  double target = EQPI_LN10 * eqpi_reaction_logK(&g->kh, s->T, &notes) + log(p_atm);
+  double lnKH = EQPI_LN10 * eqpi_reaction_logK(&g->kh, s->T, &notes);
   int rc = EQP_OK;
   size_t n = (size_t)s->ntotal + 1;
-  double *a = eqpi_calloc(ctx, n, sizeof(double)), *N0 = eqpi_calloc(ctx, n, sizeof(double));
-  if (!a || !N0) { rc = eqpi_fail(ctx, EQP_E_NOMEM, "out of memory"); goto out; }
+  double *a = eqpi_calloc(ctx, n, sizeof(double));
+  if (!a) return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
   const eqpi_species *x = &db->sp[g->species];
   int water = db->sp[db->water].component, hplus = db->sp[db->h_plus].component;
   for (int t = 0; t < x->nterm; t++)
     if (x->term_comp[t] != water) a[x->term_comp[t]] = x->term_nu[t];
-  memcpy(N0, s->total, sizeof(double) * (size_t)s->ntotal);
   /* the gas can leave only what the solution holds: no total but H+'s may
-  ** go negative */
+  ** go negative, and a trace stays, so every species exists */
   double lo = -INFINITY;
+  int holds = 1;
   for (int c = 0; c < s->ntotal; c++)
-    if (c != hplus && a[c] > 0) lo = fmax(lo, -N0[c] / a[c]);
+    if (c != hplus && a[c] > 0) {
+      lo = fmax(lo, -s->total[c] / a[c]);
+      holds &= s->total[c] > 0;
+    }
   if (!isfinite(lo)) lo = 0;
-  double scale = fmax(1e-9 * s->water_kg, fabs(lo) * 1e-12);
-  lo += scale;                                 /* a trace stays, so every species exists */
-  double flo, fhi, hi = fmax(1e-6 * s->water_kg, 2 * scale);
-  if ((rc = lna_at(s, N0, a, lo, g->species, &flo, 0)) < 0) goto out;
-  flo -= target;
-  if ((rc = lna_at(s, N0, a, hi, g->species, &fhi, 0)) < 0) goto out;
-  fhi -= target;
-  for (int k = 0; fhi < 0 && k < 60; k++) {
-    lo = hi;
-    flo = fhi;
-    hi *= 4;
-    if (hi > 20 * s->water_kg) {
-      rc = eqpi_fail(ctx, EQP_E_INPUT, "%s at %g atm would need more than 20 mol per kg of "
-                     "water", gas, p_atm);
-      goto out;
-    }
-    if ((rc = lna_at(s, N0, a, hi, g->species, &fhi, 0)) < 0) goto out;
-    fhi -= target;
+  double trace = fmax(1e-9 * s->water_kg, fabs(lo) * 1e-12);
+  char limit[96];
+  snprintf(limit, sizeof limit, "20 mol per kg of water");
+  eqpi_adjust aj = {.N0 = s->total, .a = a, .W0 = s->water_kg, .T = s->T, .model = &s->model,
+                    .vmin = lo + trace, .vmax = 20 * s->water_kg, .what = gas,
+                    .vmax_text = limit, .kind = EQPI_ADJ_ACTIVITY, .species = g->species,
+                    .value = exp(lnKH) * p_atm, .floor_ok = 1};
+  aj.v0 = holds && lo + trace < 0 ? 0 : aj.vmin;
+  double v;
+  eqpi_solve_stats st = {0};
+  int k = 0;
+  char what[160];
+  snprintf(what, sizeof what, "exposure to %s", gas);
+  ctx->quiet++;
+  rc = eqpi_solution_adjust(s, &aj, 1, &v, &st, &k, what);
+  ctx->quiet--;
+  if (rc == EQP_E_INPUT && strstr(eqp_ctx_errmsg(ctx), "out of reach"))
+    rc = eqpi_fail(ctx, EQP_E_INPUT, "%s at %g atm would need more than 20 mol per kg of water",
+                   gas, p_atm);
+  if (rc == EQP_OK) {
+    for (int c = 0; c < s->ntotal; c++) s->total[c] += v * a[c];
+    if (mol) *mol = v;
+    /* the state the solution is left in: its warnings reach the observer */
+    eqp_result *r;
+    rc = eqpi_solution_equilibrate_from(s, &k, 1, &r, NULL);
+    eqp_result_free(r);
   }
-  if (flo > 0) {      /* even the trace is above the target: nothing left to lose */
-    hi = lo;
-  } else {
-    for (int it = 0; it < 200 && hi - lo > 1e-15 * fmax(fabs(hi), fabs(lo)); it++) {
-      double mid = 0.5 * (lo + hi), f;
-      if ((rc = lna_at(s, N0, a, mid, g->species, &f, 0)) < 0) goto out;
-      if (f - target < 0) lo = mid;
-      else hi = mid;
-    }
-  }
-  double fend;
-  if ((rc = lna_at(s, N0, a, hi, g->species, &fend, 1)) < 0) goto out;
-  if (mol) *mol = hi;
-out:
-  if (rc < 0 && N0) memcpy(s->total, N0, sizeof(double) * (size_t)s->ntotal);
   eqpi_free(ctx, a, n * sizeof(double));
-  eqpi_free(ctx, N0, n * sizeof(double));
   return rc;
 }

@@ -338,6 +338,33 @@ int eqpi_model_log_gamma(eqpi_model *m, const eqp_activity_in *in, double *lg, c
   return rc;
 }
 
+/* The optional derivative operations of ABI 1.2, read only where the
+** plugin's operations table is large enough to hold them. */
+int eqpi_model_derivs(const eqpi_model *m)
+{
+  if (EQP_PLUGIN_HAS_OP(m->ops, dlog_gamma_dI)) return EQPI_DERIV_I;
+  if (EQP_PLUGIN_HAS_OP(m->ops, log_gamma_tangent)) return EQPI_DERIV_TANGENT;
+  return EQPI_DERIV_NONE;
+}
+
+int eqpi_model_dlog_gamma_dI(eqpi_model *m, const eqp_activity_in *in, double *dlg, char *err,
+                             size_t len)
+{
+  if (len) err[0] = '\0';
+  int rc = m->ops->dlog_gamma_dI(m->state, in, dlg, err, len);
+  plugin_text(err, len, "");
+  return rc;
+}
+
+int eqpi_model_tangent(eqpi_model *m, const eqp_activity_in *in, const double *dm, double dI,
+                       double *dlg, char *err, size_t len)
+{
+  if (len) err[0] = '\0';
+  int rc = m->ops->log_gamma_tangent(m->state, in, dm, dI, dlg, err, len);
+  plugin_text(err, len, "");
+  return rc;
+}
+
 void eqpi_model_close(eqp_ctx *ctx, eqpi_model *m)
 {
   if (m && m->ops) {

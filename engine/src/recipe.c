@@ -1,11 +1,10 @@
 /* Recipes: the amounts of a buffer's reagents (two solid forms, or a free
 ** acid or base and a titrant stock), plus a neutral salt for a target
-** ionic strength, that give a target pH at a working temperature. The pH
-** condition is solved with the H+ activity held fixed (eqpi_system_adjust);
-** the ionic strength by secant iteration around it. */
+** ionic strength, that give a target pH at a working temperature: one
+** solve with the H+ activity and the ionic strength held at their targets
+** and the amounts unknown (eqpi_system_adjust). */
 /* SPDX-License-Identifier: MIT */
 #include "solution_impl.h"
-#include "system_impl.h"
 #include <math.h>
 #include <stdio.h>
 #include <string.h>
@@ -120,10 +119,13 @@ static int choose(eqp_ctx *ctx, const eqp_recipe_spec *sp, plan *p)
   return EQP_OK;
 }
 
-/* Make the buffer at salt s_mol; *v is the base-form fraction (pair) or
-** litres of titrant stock. The solution *out holds the composition. */
-static int make_at(eqp_ctx *ctx, const eqp_recipe_spec *sp, const plan *p, double s_mol,
-                   double W, int k, eqp_solution **out, double *v)
+/* Make the buffer in W kg of water with model k of the chain: one solve
+** with the H+ activity held at the target and the amount v unknown (the
+** base-form fraction of a pair, or litres of titrant stock), and, with_salt,
+** the ionic strength held at its target too with the salt's amount unknown.
+** The solution *out holds the composition. */
+static int make_at(eqp_ctx *ctx, const eqp_recipe_spec *sp, const plan *p, double W, int k,
+                   int with_salt, eqp_solution **out, double *v, double *salt)
 {
   double n = sp->total * sp->volume;
   eqp_solution_opts o = EQP_SOLUTION_OPTS_INIT;
@@ -139,49 +141,61 @@ static int make_at(eqp_ctx *ctx, const eqp_recipe_spec *sp, const plan *p, doubl
     return eqpi_fail(ctx, EQP_E_PLUGIN, "activity model '%s' is not available",
                      eqpi_default_chain[k]);
   }
-  double *a = eqpi_calloc(ctx, (size_t)s->ntotal + 1, sizeof(double)), wa, wb;
+  size_t nb = (size_t)s->ntotal + 1;
+  double *a = eqpi_calloc(ctx, 2 * nb, sizeof(double)), *as = a + nb, wa, wb;
   if (!a) { eqp_solution_free(s); return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory"); }
   /* the water of crystallisation and of the titrant is part of the final
   ** volume, so the solvent stays at W while the amounts vary */
   if ((rc = eqpi_use_reagent(s, p->a)) < 0 || (rc = eqpi_use_reagent(s, p->b)) < 0 ||
       (p->salt && (rc = eqpi_use_reagent(s, p->salt)) < 0)) {
-    eqpi_free(ctx, a, sizeof(double) * ((size_t)s->ntotal + 1));
+    eqpi_free(ctx, a, 2 * nb * sizeof(double));
     eqp_solution_free(s);
     return rc;
   }
   eqpi_reagent_dir(s, p->a, s->total, &wa, n);
-  if (p->salt) eqpi_reagent_dir(s, p->salt, s->total, &wb, s_mol);
-  eqpi_adjust aj = {s->total, a, W, 0, sp->T, model, sp->pH, 0, 0, "", ""};
-  char what[160], limit[96];
+  eqpi_adjust aj[2] = {{.N0 = s->total, .a = a, .W0 = W, .T = sp->T, .model = model,
+                        .pH = sp->pH, .kind = EQPI_ADJ_PH}};
+  char what[160], limit[96], salt_limit[96];
   if (p->titrant) {
     eqpi_reagent_dir(s, p->b, a, &wb, sp->titrant_molar);     /* per L of stock */
-    aj.vmax = sp->volume;
-    snprintf(what, sizeof what, "%s and %s", p->a->name, p->b->name);
+    aj[0].vmax = sp->volume;
     snprintf(limit, sizeof limit, "a titrant volume equal to the final volume");
   } else {
     eqpi_reagent_dir(s, p->b, a, &wb, n);                     /* all base form */
-    double *acid = eqpi_calloc(ctx, (size_t)s->ntotal + 1, sizeof(double));
-    if (!acid) { rc = eqpi_fail(ctx, EQP_E_NOMEM, "out of memory"); goto out; }
-    eqpi_reagent_dir(s, p->a, acid, &wa, n);
-    for (int c = 0; c < s->ntotal; c++) a[c] -= acid[c];       /* per unit: swap a for b */
-    eqpi_free(ctx, acid, sizeof(double) * ((size_t)s->ntotal + 1));
-    aj.vmax = 1;
-    snprintf(what, sizeof what, "%s and %s", p->a->name, p->b->name);
+    eqpi_reagent_dir(s, p->a, as, &wa, n);
+    for (int c = 0; c < s->ntotal; c++) a[c] -= as[c];         /* per unit: swap a for b */
+    memset(as, 0, nb * sizeof(double));
+    aj[0].vmax = 1;
     snprintf(limit, sizeof limit, "the base form alone");
   }
-  aj.what = what;
-  aj.vmax_text = limit;
-  aj.v0 = aj.vmax * 1e-9;
+  snprintf(what, sizeof what, "%s and %s", p->a->name, p->b->name);
+  aj[0].what = what;
+  aj[0].vmax_text = limit;
+  aj[0].v0 = aj[0].vmin = aj[0].vmax * 1e-9;
+  if (with_salt) {
+    eqpi_reagent_dir(s, p->salt, as, &wb, 1.0);               /* per mol of salt */
+    snprintf(salt_limit, sizeof salt_limit, "20 mol of %s per kg of water", p->salt->name);
+    aj[1] = aj[0];
+    aj[1].a = as;
+    aj[1].kind = EQPI_ADJ_IONIC;
+    aj[1].value = sp->ionic_strength;
+    aj[1].what = p->salt->name;
+    aj[1].vmax_text = salt_limit;
+    aj[1].vmax = 20 * W;
+    aj[1].v0 = aj[1].vmin = aj[1].vmax * 1e-12;
+  }
   eqpi_solve_stats st;
-  rc = eqpi_system_adjust(ctx, &s->sys, &aj, v, &st);
+  double vv[2] = {0, 0};
+  rc = eqpi_system_adjust(ctx, &s->sys, aj, with_salt ? 2 : 1, vv, &st);
   if (rc == EQP_OK)
-    for (int c = 0; c < s->ntotal; c++) s->total[c] += *v * a[c];
-out:
-  eqpi_free(ctx, a, sizeof(double) * ((size_t)s->ntotal + 1));
+    for (int c = 0; c < s->ntotal; c++) s->total[c] += vv[0] * a[c] + vv[1] * as[c];
+  eqpi_free(ctx, a, 2 * nb * sizeof(double));
   if (rc < 0) {
     eqp_solution_free(s);
     return rc;
   }
+  *v = vv[0];
+  if (salt) *salt = vv[1];
   *out = s;
   return EQP_OK;
 }
@@ -253,28 +267,18 @@ static int design(eqp_ctx *ctx, const eqp_recipe_spec *sp, const plan *p, double
                   eqp_solution **sout, double *v, double *salt)
 {
   eqp_solution *s = NULL;
-  int rc = make_at(ctx, sp, p, 0, W, k, &s, v);
+  int rc = make_at(ctx, sp, p, W, k, 0, &s, v, NULL);
   if (rc < 0) return rc;
   *salt = 0;
   if (p->salt) {
-    /* secant on the salt amount: I is nearly linear in it */
+    /* the salt for the ionic strength: both targets in one solve */
     double I0 = ionic_strength(s, k), target = sp->ionic_strength;
-    if (!(target >= I0 - 1e-9)) {
-      eqp_solution_free(s);
+    eqp_solution_free(s);
+    if (!(target >= I0 - 1e-9))
       return isnan(I0) ? eqp_ctx_errcode(ctx)
                        : eqpi_fail(ctx, EQP_E_INPUT, "recipe: the buffer alone has ionic "
                                    "strength %.4f mol/kg, above the target %.4f", I0, target);
-    }
-    double s0 = 0, f0 = I0 - target, s1 = (target - I0) * W, f1 = 0;
-    for (int it = 0; it < 30 && fabs(f0) > 1e-10 * target; it++) {
-      eqp_solution_free(s);
-      if ((rc = make_at(ctx, sp, p, s1, W, k, &s, v)) < 0) return rc;
-      f1 = ionic_strength(s, k) - target;
-      if (isnan(f1)) { eqp_solution_free(s); return eqp_ctx_errcode(ctx); }
-      double s2 = f1 == f0 ? s1 : s1 - f1 * (s1 - s0) / (f1 - f0);
-      s0 = s1; f0 = f1; s1 = s2 > 0 ? s2 : 0.5 * s1;
-    }
-    *salt = s0;
+    if ((rc = make_at(ctx, sp, p, W, k, 1, &s, v, salt)) < 0) return rc;
   }
   *sout = s;
   return EQP_OK;

@@ -13,7 +13,6 @@ struct eqp_result {
   size_t bytes;           /* whole block, for the allocator */
   int ns, ndb;
   int *sp;                /* global species */
-  int *loc;               /* global species -> local, -1 if absent */
   double *m, *lg;
   double pH, I, T, water_kg, rho, residual;
   long iters;
@@ -56,7 +55,7 @@ int eqpi_result_make(eqp_ctx *ctx, const eqpi_system *sys, const eqpi_model *mod
                      "most %g mol/kg is a solution)", I, EQPI_MAX_MOLALITY);
   wlist w = {0, 0, NULL, NULL};
   eqpi_state_warnings(model, I, T, water_kg, st, gather, &w);
-  size_t fixed = sizeof(eqp_result) + sizeof(int) * (size_t)(ns + ndb) +
+  size_t fixed = sizeof(eqp_result) + sizeof(int) * (size_t)ns +
                  sizeof(double) * (size_t)(2 * ns) + 16;
   size_t bytes = fixed + w.bytes;
   eqp_result *r = eqpi_malloc(ctx, bytes);
@@ -68,12 +67,9 @@ int eqpi_result_make(eqp_ctx *ctx, const eqpi_system *sys, const eqpi_model *mod
   r->m = (double *)(r + 1);
   r->lg = r->m + ns;
   r->sp = (int *)(r->lg + ns);
-  r->loc = r->sp + ns;
-  for (int i = 0; i < ndb; i++) r->loc[i] = -1;
   int h = -1;
   for (int i = 0; i < ns; i++) {
-    r->sp[i] = eqpi_system_species(sys, i, &r->m[i], &r->lg[i]);
-    r->loc[r->sp[i]] = i;
+    r->sp[i] = eqpi_system_species(sys, i, &r->m[i], &r->lg[i]);   /* ascending */
     if (r->sp[i] == ctx->db.h_plus) h = i;
   }
   r->pH = h >= 0 ? -(log10(r->m[h]) + r->lg[h]) : NAN;
@@ -114,7 +110,6 @@ int eqp_result_copy(const eqp_result *r, eqp_result **out)
   c->m = (double *)((char *)r->m + d);
   c->lg = (double *)((char *)r->lg + d);
   c->sp = (int *)((char *)r->sp + d);
-  c->loc = (int *)((char *)r->loc + d);
   for (int i = 0; i < c->nwarn; i++) c->warn[i] = r->warn[i] + d;
   *out = c;
   return EQP_OK;
@@ -153,6 +148,19 @@ double eqp_result_species_log_gamma(const eqp_result *r, size_t i)
   return r && i < (size_t)r->ns ? r->lg[i] : NAN;
 }
 
+/* Local index of library species g (the species are in library order), or -1. */
+static int local_of(const eqp_result *r, int g)
+{
+  int lo = 0, hi = r->ns - 1;
+  while (lo <= hi) {
+    int mid = (lo + hi) / 2;
+    if (r->sp[mid] == g) return mid;
+    if (r->sp[mid] < g) lo = mid + 1;
+    else hi = mid - 1;
+  }
+  return -1;
+}
+
 /* Local index of a species name: >= 0 present, -1 in the library but absent
 ** from this solution, < -1 unknown (message recorded). */
 static int lookup(const eqp_result *r, const char *sp)
@@ -164,7 +172,7 @@ static int lookup(const eqp_result *r, const char *sp)
     eqpi_fail(r->ctx, EQP_E_UNKNOWN, "unknown species '%s'%s", sp, eqpi_name_hint(sp, hint, sizeof hint));
     return -2;
   }
-  return g < r->ndb ? r->loc[g] : -1;
+  return local_of(r, g);
 }
 
 int eqp_result_molality(const eqp_result *r, const char *sp, double *out)
@@ -220,7 +228,7 @@ int eqp_result_saturation(const eqp_result *r, const char *solid, double *si)
   double iap = 0;
   for (int j = 0; j < s->n; j++) {
     if (s->sp[j] == db->water) continue;           /* unit activity */
-    int i = s->sp[j] < r->ndb ? r->loc[s->sp[j]] : -1;
+    int i = local_of(r, s->sp[j]);
     if (i < 0 || !(r->m[i] > 0)) {
       *si = -INFINITY;
       return EQP_OK;

@@ -1,7 +1,6 @@
 /* Solutions: composition, additions with units, equilibration. */
 /* SPDX-License-Identifier: MIT */
 #include "solution_impl.h"
-#include "system_impl.h"
 #include <ctype.h>
 #include <math.h>
 #include <stdio.h>
@@ -10,7 +9,7 @@
 
 
 
-static int grow_totals(eqp_solution *s)
+int eqpi_solution_grow(eqp_solution *s)
 {
   int need = s->ctx->db.ncomp;
   if (s->ntotal >= need) return EQP_OK;
@@ -83,7 +82,7 @@ int eqp_solution_new(eqp_ctx *ctx, const eqp_solution_opts *user, eqp_solution *
   s->T = opts->temperature_K;
   s->model_default = opts->activity == NULL;
   rc = eqpi_model_open(ctx, opts->activity ? opts->activity : "davies", &s->model);
-  if (rc == EQP_OK) rc = grow_totals(s);
+  if (rc == EQP_OK) rc = eqpi_solution_grow(s);
   if (rc < 0) {
     eqp_solution_free(s);
     return rc;
@@ -114,7 +113,7 @@ int eqp_solution_copy(const eqp_solution *s, eqp_solution **out)
   int rc = eqp_solution_new(s->ctx, &o, out);
   if (rc < 0) return rc;
   eqp_solution *c = *out;
-  if ((rc = grow_totals(c)) < 0) {
+  if ((rc = eqpi_solution_grow(c)) < 0) {
     eqp_solution_free(c);
     *out = NULL;
     return rc;
@@ -134,6 +133,11 @@ int eqp_solution_copy(const eqp_solution *s, eqp_solution **out)
       *out = NULL;
       return rc;
     }
+  /* the last solution as the copy's warm start (without it, a cold one),
+  ** when it was solved with the solution's own model */
+  if (eqpi_system_current(s->sys, s->total, s->water_kg, s->T) &&
+      eqpi_system_model(s->sys) == &s->model)
+    c->sys = eqpi_system_clone(c->ctx, s->sys, &c->model);
   return EQP_OK;
 }
 
@@ -149,6 +153,7 @@ int eqp_solution_set_activity_param(eqp_solution *s, const char *name, double va
     return eqpi_fail(s->ctx, EQP_E_PLUGIN, "activity model '%s': %s", s->model.desc->name,
                      err[0] ? err : "parameter refused");
   s->model_default = false;   /* a model given parameters is chosen, not defaulted */
+  eqpi_system_forget(s->sys); /* its last solution was for the old parameters */
   /* the parameters are part of the copy's model too */
   if (s->nparams < (int)(sizeof s->pname / sizeof s->pname[0])) {
     snprintf(s->pname[s->nparams], sizeof s->pname[0], "%s", name);
@@ -229,7 +234,6 @@ void eqpi_reagent_dir(const eqp_solution *s, const eqpi_reagent *r, double *a, d
   *w = reagent_water(db, r);
 }
 
-static void solution_bulk(eqp_solution *s, const eqpi_reagent *r, double k);
 
 static int is_water(const eqp_solution *s, const eqpi_reagent *r)
 {
@@ -269,7 +273,7 @@ int eqp_solution_add(eqp_solution *s, const char *reagent, double value, eqp_qua
   if (!isfinite(mol))
     return eqpi_fail(ctx, EQP_E_INPUT, "amount of %s overflows (not a finite number of "
                      "moles)", reagent);
-  int rc = grow_totals(s);
+  int rc = eqpi_solution_grow(s);
   if (rc < 0) return rc;
   /* check every total the reagent changes before changing any */
   double W = s->water_kg + mol * reagent_water(&ctx->db, r), w;
@@ -282,7 +286,7 @@ int eqp_solution_add(eqp_solution *s, const char *reagent, double value, eqp_qua
   if (rc < 0 || (rc = eqpi_use_reagent(s, r)) < 0) return rc;   /* recorded once it goes in */
   eqpi_reagent_dir(s, r, s->total, &w, mol);
   s->water_kg = W;
-  solution_bulk(s, r, mol);
+  eqpi_solution_bulk(s, r, mol);
   return EQP_OK;
 }
 
@@ -295,7 +299,7 @@ void eqpi_reagent_bulk(const eqpi_reagent *r, double k, double *L, double *g)
 
 /* The same for s, remembering the last reagent: one titrant added again and
 ** again is common. */
-static void solution_bulk(eqp_solution *s, const eqpi_reagent *r, double k)
+void eqpi_solution_bulk(eqp_solution *s, const eqpi_reagent *r, double k)
 {
   if (r != s->vol_r || s->vol_gen != s->ctx->db.generation) {
     s->vol_known = eqpi_reagent_volume(r, &s->vol_L);
@@ -342,7 +346,7 @@ int eqpi_solution_equilibrate(eqp_solution *s, eqp_result **out)
 {
   if (!s || !out) return eqpi_fail(s ? s->ctx : NULL, EQP_E_ARG, "NULL argument");
   *out = NULL;
-  int rc = grow_totals(s), k = 0;
+  int rc = eqpi_solution_grow(s), k = 0;
   if (rc < 0) return rc;
   return eqpi_solution_equilibrate_from(s, &k, 1, out, NULL);
 }
@@ -363,7 +367,7 @@ int eqp_solution_pour(eqp_solution *s, const eqp_solution *stock, double litres)
   if (!isfinite(litres) || litres < 0)
     return eqpi_fail(s->ctx, EQP_E_INPUT, "volume to pour must be a non-negative number");
   if (stock == s) return eqpi_fail(s->ctx, EQP_E_INPUT, "a solution cannot be poured into itself");
-  int rc = grow_totals(s);
+  int rc = eqpi_solution_grow(s);
   if (rc < 0 || (litres > 0 && (rc = eqpi_use_stock(s, stock)) < 0)) return rc;
   /* the stock is a reservoir: a portion of its composition, by volume of
   ** its water at its own temperature, is added; the stock is unchanged */
@@ -417,14 +421,7 @@ int eqp_solution_total(const eqp_solution *s, const char *component, double *mol
 /* The solved system of s, solving first if needed. */
 int eqpi_solution_solved(eqp_solution *s)
 {
-  if (s->sys && s->sys->solved && s->sys->Tk == s->T) {
-    /* still the same composition? */
-    int same = 1;
-    for (int c = 0; c < s->sys->nc && same; c++)
-      same = fabs(s->sys->tot_last[c] - s->total[s->sys->comp[c]] / s->water_kg) <=
-             1e-15 * fabs(s->sys->tot_last[c]);
-    if (same) return EQP_OK;
-  }
+  if (eqpi_system_current(s->sys, s->total, s->water_kg, s->T)) return EQP_OK;
   eqp_result *r;
   s->ctx->quiet++;           /* a solve for a derivative: its result is not shown */
   int rc = eqpi_solution_equilibrate(s, &r);
@@ -472,89 +469,6 @@ int eqp_solution_buffer_capacity(eqp_solution *s, double *per_L, double *per_kg)
 }
 
 /* ------------------------------------------------------------ adjustment */
-
-/* The adjustment with the solution's model; for the default model beyond
-** its range, the same adjustment again with the next model of the chain. */
-static int adjust_chain(eqp_solution *s, eqpi_adjust *aj, double *v, eqpi_solve_stats *st,
-                        int *k)
-{
-  int rc = eqpi_system_adjust(s->ctx, &s->sys, aj, v, st);
-  while (rc == EQP_OK && s->model_default) {
-    double I = eqpi_system_ionic_strength(s->sys);
-    int next = eqpi_chain_choice(s, I, *k);
-    if (next == *k) break;
-    if (next < 0) return eqpi_chain_refuse(s, I, "pH adjustment with the default activity model");
-    aj->model = eqpi_chain_model(s, *k = next);
-    rc = eqpi_system_adjust(s->ctx, &s->sys, aj, v, st);
-  }
-  return rc;
-}
-
-int eqp_solution_adjust_pH(eqp_solution *s, double pH, const char *reagent,
-                           const eqp_solution *stock, double *mol, double *litres)
-{
-  if (!s || (!reagent && !stock)) return eqpi_fail(s ? s->ctx : NULL, EQP_E_ARG, "NULL argument");
-  eqp_ctx *ctx = s->ctx;
-  if (!isfinite(pH) || pH < -2 || pH > 16)
-    return eqpi_fail(ctx, EQP_E_INPUT, "target pH %g is outside -2..16", pH);
-  int rc = grow_totals(s);
-  if (rc < 0) return rc;
-  size_t n = (size_t)s->ntotal + 1;
-  double *a = eqpi_calloc(ctx, n, sizeof(double));
-  if (!a) return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
-  eqpi_adjust aj = {s->total, a, s->water_kg, 0, s->T, &s->model, pH, 0, 0, reagent, ""};
-  char what[128], limit[96];
-  double L_per_unit;         /* litres per unit of v: a stock, or a liquid reagent */
-  const eqpi_reagent *used = NULL;
-  if (stock) {
-    for (int c = 0; c < stock->ntotal && c < s->ntotal; c++) a[c] = stock->total[c] / stock->water_kg;
-    aj.w = 1;                                 /* v: kg of the stock's water */
-    aj.vmax = 20 * s->water_kg;
-    L_per_unit = 1 / eqpi_water_density(stock->T);
-    snprintf(what, sizeof what, "the stock solution");
-    snprintf(limit, sizeof limit, "20 times the solution's own water");
-  } else {
-    const eqpi_reagent *r = NULL;
-    if ((rc = eqpi_find_reagent(s, reagent, &r)) < 0) goto out;
-    used = r;
-    eqpi_reagent_dir(s, r, a, &aj.w, 1.0);          /* v: mol of the reagent */
-    aj.vmax = 5 * s->water_kg;
-    L_per_unit = r->molar_mass / (1e3 * r->density); /* NaN for a solid */
-    snprintf(what, sizeof what, "%s", reagent);
-    snprintf(limit, sizeof limit, "5 mol of %s per kg of water", reagent);
-  }
-  aj.what = what;
-  aj.vmax_text = limit;
-  aj.v0 = aj.vmax * 1e-12;   /* a trace, so that every component of the reagent is present */
-  double v;
-  eqpi_solve_stats st = {0};
-  int k = 0;
-  if ((rc = adjust_chain(s, &aj, &v, &st, &k)) < 0) goto out;
-  rc = stock ? eqpi_use_stock(s, stock) : eqpi_use_reagent(s, used);
-  if (rc < 0) goto out;
-  for (int c = 0; c < s->ntotal; c++) s->total[c] += v * a[c];
-  s->water_kg += v * aj.w;
-  if (stock) {
-    s->solute_L += v / stock->water_kg * stock->solute_L;
-    s->unknown_g += v / stock->water_kg * stock->unknown_g;
-  } else {
-    solution_bulk(s, used, v);
-  }
-  if (mol) *mol = stock ? NAN : v;
-  if (litres) *litres = v * L_per_unit;
-  /* the adjusted state's warnings go to the observer: there is no result */
-  st.solute_L = s->solute_L;
-  st.unknown_g = s->unknown_g;
-  st.replaced = k > 0 ? s->model.desc : NULL;
-  char prefix[160];
-  snprintf(prefix, sizeof prefix, "pH adjustment to %.2f with %s", pH, what);
-  eqpi_prefixed pw = {ctx, prefix};
-  eqpi_state_warnings(aj.model, eqpi_system_ionic_strength(s->sys), s->T, s->water_kg, &st,
-                      eqpi_warn_prefixed, &pw);
-out:
-  eqpi_free(ctx, a, n * sizeof(double));
-  return rc;
-}
 
 int eqp_solution_mix(size_t n, eqp_solution *const *parts, const double *litres,
                      eqp_solution **out)

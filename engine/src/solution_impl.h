@@ -44,6 +44,10 @@ void eqpi_solution_hazards_free(eqp_solution *s);
 /* eqp_solution_equilibrate without telling the observer: for the states an
 ** operation solves inside (titration points, budgets, comparisons). */
 int eqpi_solution_equilibrate(eqp_solution *s, eqp_result **out);
+/* Room in s->total for every component of the library. */
+int eqpi_solution_grow(eqp_solution *s);
+/* The volume (or unknown mass) k mol of reagent r brings into s. */
+void eqpi_solution_bulk(eqp_solution *s, const eqpi_reagent *r, double k);
 /* Make sure s->sys holds the equilibrium of the present composition. */
 int eqpi_solution_solved(eqp_solution *s);
 /* Volume and unknown mass that k mol of reagent r brings into *L and *g. */
@@ -64,5 +68,11 @@ void eqpi_chain_close(eqp_solution *s);
 ** *st (if not NULL) the statistics the result's warnings came from. */
 int eqpi_solution_equilibrate_from(eqp_solution *s, int *k, int follow, eqp_result **out,
                                    eqpi_solve_stats *st);
+/* The adjustment of n targets with model *k of the chain (0: the solution's
+** own), then, for the default model, again with the next ones while the
+** ionic strength is beyond the range of the one used; what names the
+** operation in a refusal ("pH adjustment"). */
+int eqpi_solution_adjust(eqp_solution *s, eqpi_adjust *aj, int n, double *v, eqpi_solve_stats *st,
+                         int *k, const char *what);
 
 #endif

@@ -1,11 +1,12 @@
 /* Titrations: a curve of successive equilibria, with steps that shrink
-** where the pH moves fast, and equivalence points located at the sharp
-** maxima of |dpH/dV| (the derivative from implicit differentiation, the
-** maximum found by golden-section search). */
+** where the pH moves fast, an end exactly at a requested pH (the titrant's
+** amount solved with the H+ activity fixed), and equivalence points located
+** at the sharp maxima of |dpH/dV| (the derivative from implicit
+** differentiation, the maximum found by Brent's minimiser). */
 /* SPDX-License-Identifier: MIT */
+#include "brent_impl.h"
 #include "curve_impl.h"
 #include "solution_impl.h"
-#include "system_impl.h"
 #include <math.h>
 #include <stdio.h>
 #include <string.h>
@@ -52,31 +53,42 @@ static int push_row(eqp_curve *c, const eqp_solution *w, const titrant *t, doubl
   return eqpi_curve_push(c, row);
 }
 
-/* Golden-section search for the largest |dpH/dv| in [lo, hi]: its place,
-** pH and slope. */
+typedef struct slope_at { eqp_solution *w; const eqp_solution *base; const titrant *t; } slope_at;
+
+/* -|dpH/dv| at v, for the minimiser. */
+static int neg_slope(void *ud, double v, double *f)
+{
+  slope_at *a = ud;
+  double pH, d;
+  int rc = state_at(a->w, a->base, a->t, v, &pH, &d, NULL);
+  *f = -fabs(d);
+  return rc;
+}
+
+/* The largest |dpH/dv| in [lo, hi] by Brent's minimiser: its place, pH and
+** slope. */
 static int refine(eqp_solution *w, const eqp_solution *base, const titrant *t, double lo,
                   double hi, double *vbest, double *pHbest, double *dbest)
 {
-  const double g = 0.6180339887498949;
-  double x1 = hi - g * (hi - lo), x2 = lo + g * (hi - lo), p1, p2, d1, d2;
-  int rc = state_at(w, base, t, x1, &p1, &d1, NULL);
-  if (rc == EQP_OK) rc = state_at(w, base, t, x2, &p2, &d2, NULL);
-  for (int it = 0; rc == EQP_OK && it < 60 && hi - lo > 1e-12 * fabs(hi); it++) {
-    if (fabs(d1) > fabs(d2)) {
-      hi = x2; x2 = x1; d2 = d1; p2 = p1;
-      x1 = hi - g * (hi - lo);
-      rc = state_at(w, base, t, x1, &p1, &d1, NULL);
-    } else {
-      lo = x1; x1 = x2; d1 = d2; p1 = p2;
-      x2 = lo + g * (hi - lo);
-      rc = state_at(w, base, t, x2, &p2, &d2, NULL);
-    }
-  }
+  slope_at a = {w, base, t};
+  int rc = eqpi_brent_min(neg_slope, &a, lo, hi, 1e-11, 100, vbest, NULL);
   if (rc < 0) return rc;
-  *vbest = 0.5 * (lo + hi);
   rc = state_at(w, base, t, *vbest, pHbest, dbest, NULL);
   *dbest = fabs(*dbest);
   return rc;
+}
+
+/* The amount of titrant in [v, v + h] that brings the pH to the target:
+** one solve with the H+ activity fixed and the amount unknown. */
+static int until_at(eqp_solution *w, const eqp_solution *base, const titrant *t, double v,
+                    double h, double pH_target, double *vend)
+{
+  eqpi_adjust aj = {.N0 = base->total, .a = t->a, .W0 = base->water_kg, .w = t->w, .T = base->T,
+                    .model = &w->model, .pH = pH_target, .v0 = v, .vmin = v, .vmax = v + h,
+                    .what = "the titrant", .vmax_text = "the last step", .kind = EQPI_ADJ_PH};
+  eqpi_solve_stats st;
+  int k = 0;
+  return eqpi_solution_adjust(w, &aj, 1, vend, &st, &k, "titration");
 }
 
 /* The lowest |slope| of the rows on one side of row i (dir -1 or +1), up to
@@ -220,17 +232,13 @@ int eqp_solution_titrate(eqp_solution *s, const eqp_titration *user, eqp_curve *
       if ((rc = state_at(w, base, &t, v + h, &pH1, &dpH1, &r)) < 0) goto out;
     }
     if (until && (pH1 - spec->until_pH) * (pH - spec->until_pH) <= 0) {
-      /* crossed: finish exactly at the requested pH, by bisection on v */
+      /* crossed: finish exactly at the requested pH */
       eqp_result_free(r);
-      double lo = v, hi = v + h;
-      for (int it = 0; it < 100 && hi - lo > 1e-14 * hi; it++) {
-        double mid = 0.5 * (lo + hi), pm, dm;
-        if ((rc = state_at(w, base, &t, mid, &pm, &dm, NULL)) < 0) goto out;
-        if ((pm - spec->until_pH) * (pH - spec->until_pH) > 0) lo = mid;
-        else hi = mid;
-      }
-      if ((rc = state_at(w, base, &t, hi, &pH1, &dpH1, &r)) < 0) break;
-      rc = push_row(c, w, &t, hi, pH1, dpH1, r, spec);
+      double vend = v + h;
+      if (pH1 != spec->until_pH && (rc = until_at(w, base, &t, v, h, spec->until_pH, &vend)) < 0)
+        goto out;
+      if ((rc = state_at(w, base, &t, vend, &pH1, &dpH1, &r)) < 0) break;
+      rc = push_row(c, w, &t, vend, pH1, dpH1, r, spec);
       eqp_result_free(r);
       break;
     }

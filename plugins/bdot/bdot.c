@@ -89,6 +89,24 @@ static int bd_log_gamma(void *state, const eqp_activity_in *in, double *lg, char
   return 0;
 }
 
+/* d log10 g / dI = -A z^2 / (2 sqrt(I) (1 + B a sqrt(I))^2) + b */
+static int bd_dI(void *state, const eqp_activity_in *in, double *dlg, char *err, size_t errlen)
+{
+  const bdot_state *st = state;
+  double s = sqrt(in->ionic_strength);
+  for (size_t i = 0; i < in->n; i++) {
+    double z = in->charge[i];
+    if (z == 0) {
+      dlg[i] = 0;
+      continue;
+    }
+    double a = i < st->n ? st->a[i] : EQP_DEFAULT_ION_SIZE, d = 1.0 + in->B * a * s;
+    double b = i < st->n && !isnan(st->b[i]) ? st->b[i] : st->bdot;
+    dlg[i] = -in->A * z * z * 0.5 / (s * d * d) + b;
+  }
+  return 0;
+}
+
 static int bd_set_param(void *state, const char *name, double value, char *err, size_t errlen)
 {
   bdot_state *st = state;
@@ -101,7 +119,8 @@ static int bd_set_param(void *state, const char *name, double value, char *err, 
 }
 
 static const eqp_activity_ops bd_ops = {
-  sizeof(eqp_activity_ops), bd_create, bd_destroy, bd_log_gamma, bd_set_param, bd_bind,
+  sizeof(eqp_activity_ops), bd_create, bd_destroy, bd_log_gamma, bd_set_param, bd_bind, bd_dI,
+  NULL,
 };
 
 static const eqp_plugin_desc bd_desc = {

@@ -41,6 +41,17 @@ static int davies_log_gamma(void *state, const eqp_activity_in *in, double *lg,
   return 0;
 }
 
+/* d log10 g / dI = -A z^2 (1 / (2 sqrt(I) (1 + sqrt(I))^2) - c) */
+static int davies_dI(void *state, const eqp_activity_in *in, double *dlg, char *err,
+                     size_t errlen)
+{
+  const davies_state *st = state;
+  double sI = sqrt(in->ionic_strength);
+  double f = -in->A * (0.5 / (sI * (1.0 + sI) * (1.0 + sI)) - st->c);
+  for (size_t i = 0; i < in->n; i++) dlg[i] = f * in->charge[i] * in->charge[i];
+  return 0;
+}
+
 static int davies_set_param(void *state, const char *name, double value,
                             char *err, size_t errlen)
 {
@@ -59,7 +70,7 @@ static int davies_set_param(void *state, const char *name, double value,
 
 static const eqp_activity_ops davies_ops = {
   sizeof(eqp_activity_ops), davies_create, davies_destroy, davies_log_gamma,
-  davies_set_param, NULL,
+  davies_set_param, NULL, davies_dI, NULL,
 };
 
 static const eqp_plugin_desc davies_desc = {

@@ -72,8 +72,22 @@ static int ext_log_gamma(void *state, const eqp_activity_in *in, double *lg, cha
   return 0;
 }
 
+/* d log10 g / dI = -A z^2 / (2 sqrt(I) (1 + B a sqrt(I))^2) */
+static int ext_dI(void *state, const eqp_activity_in *in, double *dlg, char *err, size_t errlen)
+{
+  const ext_state *st = state;
+  double s = sqrt(in->ionic_strength);
+  for (size_t i = 0; i < in->n; i++) {
+    double z = in->charge[i];
+    double a = i < st->n ? st->a[i] : EQP_DEFAULT_ION_SIZE, d = 1.0 + in->B * a * s;
+    dlg[i] = z == 0 ? 0.0 : -in->A * z * z * 0.5 / (s * d * d);
+  }
+  return 0;
+}
+
 static const eqp_activity_ops ext_ops = {
-  sizeof(eqp_activity_ops), ext_create, ext_destroy, ext_log_gamma, NULL, ext_bind,
+  sizeof(eqp_activity_ops), ext_create, ext_destroy, ext_log_gamma, NULL, ext_bind, ext_dI,
+  NULL,
 };
 
 static const eqp_plugin_desc ext_desc = {

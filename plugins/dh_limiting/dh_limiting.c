@@ -22,8 +22,16 @@ static int ll_log_gamma(void *state, const eqp_activity_in *in, double *lg, char
   return 0;
 }
 
+/* d log10 g / dI = -A z^2 / (2 sqrt(I)) */
+static int ll_dI(void *state, const eqp_activity_in *in, double *dlg, char *err, size_t errlen)
+{
+  double f = -in->A * 0.5 / sqrt(in->ionic_strength);
+  for (size_t i = 0; i < in->n; i++) dlg[i] = f * in->charge[i] * in->charge[i];
+  return 0;
+}
+
 static const eqp_activity_ops ll_ops = {
-  sizeof(eqp_activity_ops), ll_create, ll_destroy, ll_log_gamma, NULL, NULL,
+  sizeof(eqp_activity_ops), ll_create, ll_destroy, ll_log_gamma, NULL, NULL, ll_dI, NULL,
 };
 
 static const eqp_plugin_desc ll_desc = {

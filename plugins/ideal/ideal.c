@@ -17,8 +17,16 @@ static int ideal_log_gamma(void *state, const eqp_activity_in *in, double *lg,
   return 0;
 }
 
+static int ideal_dI(void *state, const eqp_activity_in *in, double *dlg, char *err,
+                    size_t errlen)
+{
+  for (size_t i = 0; i < in->n; i++) dlg[i] = 0.0;
+  return 0;
+}
+
 static const eqp_activity_ops ideal_ops = {
-  sizeof(eqp_activity_ops), ideal_create, ideal_destroy, ideal_log_gamma, NULL, NULL,
+  sizeof(eqp_activity_ops), ideal_create, ideal_destroy, ideal_log_gamma, NULL, NULL, ideal_dI,
+  NULL,
 };
 
 static const eqp_plugin_desc ideal_desc = {

@@ -87,8 +87,31 @@ static int sit_log_gamma(void *state, const eqp_activity_in *in, double *lg, cha
   return 0;
 }
 
+/* The derivative along (dm, dI): -z_i^2 D'(I) dI + sum_j e(i,j) dm_j, with
+** D'(I) = A / (2 sqrt(I) (1 + 1.5 sqrt(I))^2). */
+static int sit_tangent(void *state, const eqp_activity_in *in, const double *dm, double dI,
+                       double *dlg, char *err, size_t errlen)
+{
+  const sit_state *st = state;
+  double s = sqrt(in->ionic_strength), d = 1.0 + 1.5 * s;
+  double dD = in->A * 0.5 / (s * d * d) * dI;
+  for (size_t i = 0; i < in->n; i++) {
+    double z = in->charge[i];
+    if (z == 0) {
+      dlg[i] = 0;
+      continue;
+    }
+    double sum = 0;
+    if (dm && in->n == st->n)
+      for (size_t j = 0; j < in->n; j++) sum += st->eps[i * st->n + j] * dm[j];
+    dlg[i] = -z * z * dD + sum;
+  }
+  return 0;
+}
+
 static const eqp_activity_ops sit_ops = {
-  sizeof(eqp_activity_ops), sit_create, sit_destroy, sit_log_gamma, NULL, sit_bind,
+  sizeof(eqp_activity_ops), sit_create, sit_destroy, sit_log_gamma, NULL, sit_bind, NULL,
+  sit_tangent,
 };
 
 static const eqp_plugin_desc sit_desc = {

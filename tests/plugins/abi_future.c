@@ -55,7 +55,7 @@ typedef struct desc_future {
   const char *future_note;
 } desc_future;
 
-static const ops_future ops = {{sizeof ops, make, drop, davies, NULL, NULL}, future_op};
+static const ops_future ops = {{sizeof ops, make, drop, davies, NULL, NULL, NULL, NULL}, future_op};
 static const desc_future desc = {
   {(uint32_t)EQP_PLUGIN_ABI_MAJOR << 16 | (EQP_PLUGIN_ABI_MINOR + 7), sizeof desc,
    EQP_PLUGIN_SIZES, EQP_PLUGIN_ACTIVITY, "abi_future", "1.8",

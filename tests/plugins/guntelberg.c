@@ -16,7 +16,7 @@ static int lg(void *s, const eqp_activity_in *in, double *out, char *e, size_t n
   return 0;
 }
 
-static const eqp_activity_ops ops = {sizeof ops, make, drop, lg, 0, 0};
+static const eqp_activity_ops ops = {sizeof ops, make, drop, lg, 0, 0, 0, 0};
 static const eqp_plugin_desc desc = {
   EQP_PLUGIN_ABI_VERSION, sizeof desc, EQP_PLUGIN_SIZES, EQP_PLUGIN_ACTIVITY, "guntelberg",
   "0.1", "Guentelberg equation (built out of tree)", &ops, 0.1};

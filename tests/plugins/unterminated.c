@@ -62,7 +62,7 @@ static int bind(void *s, const eqp_species_info *info, char *w, size_t wn, char 
   return 0;
 }
 
-static const eqp_activity_ops ops = {sizeof ops, make, drop, lg, setp, bind};
+static const eqp_activity_ops ops = {sizeof ops, make, drop, lg, setp, bind, 0, 0};
 static const eqp_plugin_desc desc = {
   EQP_PLUGIN_ABI_VERSION, sizeof desc, EQP_PLUGIN_SIZES, EQP_PLUGIN_ACTIVITY, STR(UNTERM_NAME),
   "1.0", "fixture writing messages without their NUL", &ops, 0};

@@ -131,13 +131,13 @@ static void test_verify_sees_nan_in_any_row(void **state)
   int worst;
   double ok = eqpi_sys_verify(sys, sys->u_last, &worst);
   assert_true(ok <= EQPI_VERIFY_TOL);
-  for (int k = 0; k < sys->nx; k++) {
-    double keep = sys->tot[sys->xcomp[k]];
-    sys->tot[sys->xcomp[k]] = NAN;
+  for (int k = 0; k < sys->prob->nx; k++) {
+    double keep = sys->prob->tot[sys->prob->xcomp[k]];
+    sys->prob->tot[sys->prob->xcomp[k]] = NAN;
     double bad = eqpi_sys_verify(sys, sys->u_last, &worst);
     if (!(bad > EQPI_VERIFY_TOL)) fail_msg("row %d: NaN total verified as %g", k, bad);
     assert_int_equal(worst, k);
-    sys->tot[sys->xcomp[k]] = keep;
+    sys->prob->tot[sys->prob->xcomp[k]] = keep;
   }
   eqp_solution_free(s);
 }

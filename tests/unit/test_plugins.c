@@ -39,7 +39,7 @@ static void test_refusals(void **state)
 
 static void test_checks_directly(void **state)
 {
-  static const eqp_activity_ops ops = {sizeof ops, NULL, NULL, NULL, NULL, NULL};
+  static const eqp_activity_ops ops = {sizeof ops, NULL, NULL, NULL, NULL, NULL, NULL, NULL};
   eqp_plugin_desc d = {EQP_PLUGIN_ABI_VERSION, sizeof d, EQP_PLUGIN_SIZES, EQP_PLUGIN_ACTIVITY,
                        "x", "1", "s", &ops, 0};
   char err[256];

@@ -79,21 +79,21 @@ static void test_active_system(void **state)
   eqpi_system *sys = NULL;
   eqpi_solve_stats st;
   assert_int_equal(eqpi_system_solve(ctx, &sys, tot, 298.15, &model, &st), EQP_OK);
-  assert_int_equal(sys->nc, 3);                   /* H+, PO4^3-, Na+ */
-  assert_int_equal(sys->ns, 7);                   /* water itself is not a solute */
-  assert_int_equal(sys->nx, 2);                   /* Na+ is a spectator */
-  assert_int_equal(sys->n, 3);                    /* plus ln I */
+  assert_int_equal(sys->tab->nc, 3);                   /* H+, PO4^3-, Na+ */
+  assert_int_equal(sys->tab->ns, 7);                   /* water itself is not a solute */
+  assert_int_equal(sys->prob->nx, 2);                   /* Na+ is a spectator */
+  assert_int_equal(sys->prob->n, 3);                    /* plus ln I */
   /* same components again: the structure and KINSOL instance are reused */
-  void *kmem = sys->kmem;
+  void *kmem = sys->ws->kmem;
   tot[na] = 0.021;          /* + 1 mmol NaOH: Na+ up, H+ down */
   tot[h] = 0.009;
   assert_int_equal(eqpi_system_solve(ctx, &sys, tot, 298.15, &model, &st), EQP_OK);
-  assert_ptr_equal(sys->kmem, kmem);
+  assert_ptr_equal(sys->ws->kmem, kmem);
   /* a new component rebuilds it */
   tot[db->sp[eqpi_db_find_species(db, "Cl-")].component] = 0.001;   /* + 1 mmol HCl */
   tot[h] += 0.001;
   assert_int_equal(eqpi_system_solve(ctx, &sys, tot, 298.15, &model, &st), EQP_OK);
-  assert_int_equal(sys->nc, 4);
+  assert_int_equal(sys->tab->nc, 4);
   /* a negative total is refused */
   tot[na] = -0.5;
   assert_int_equal(eqpi_system_solve(ctx, &sys, tot, 298.15, &model, &st), EQP_E_INPUT);

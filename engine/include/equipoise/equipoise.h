@@ -413,6 +413,53 @@ typedef struct eqp_budget {
 ** cannot be reached with its reagent (eqp_solution_adjust_pH). */
 EQP_API int eqp_solution_load_budget(eqp_solution *s, const eqp_budget_spec *spec,
                                      eqp_budget *out);
+/* What a target of eqp_solution_adjust holds. */
+typedef enum eqp_target_kind {
+  EQP_TARGET_PH = 0,              /* value: the pH */
+  EQP_TARGET_ACTIVITY = 1,        /* value: the activity of species */
+  EQP_TARGET_FREE = 2,            /* value: the free molality of species, mol/kg */
+  EQP_TARGET_IONIC_STRENGTH = 3   /* value: mol/kg */
+} eqp_target_kind;
+
+/* One target of an adjustment and the reagent (or stock) that meets it. */
+typedef struct eqp_target {
+  size_t size;                  /* sizeof(eqp_target): set by the INIT macro */
+  eqp_target_kind kind;
+  const char *species;          /* EQP_TARGET_ACTIVITY and EQP_TARGET_FREE: "Ca^2+", "CO2" */
+  double value;
+  const char *reagent;          /* adjusted with this reagent ... */
+  const eqp_solution *stock;    /* ... or with this stock solution (exactly one) */
+  double mol;                   /* out: mol of the reagent added (NaN for a stock) */
+  double litres;                /* out: L of the stock, or of a liquid reagent (NaN otherwise) */
+} eqp_target;
+/* A pH target with no value or reagent yet (set them). */
+#define EQP_TARGET_INIT \
+  { .size = sizeof(eqp_target), .kind = EQP_TARGET_PH, .species = NULL, .value = NAN, \
+    .reagent = NULL, .stock = NULL, .mol = NAN, .litres = NAN }
+
+#define EQP_MAX_TARGETS 4
+
+/* Add the amounts of reagents (or stocks) that meet n targets together
+** (1 <= n <= EQP_MAX_TARGETS): the pH with KOH and the free Ca^2+ with
+** CaCl2, say. Each element starts from EQP_TARGET_INIT (the elements are
+** read with the size the first one gives). One solve of the equilibrium
+** with each amount an unknown and each target a fixed activity (or free
+** molality, or ionic strength);
+** Brent's method on ordinary solves when that fails. On success every
+** addition is made and each target's mol and litres say how much. Each
+** amount is at most 5 mol per kg of water (20 times the solution's water
+** for a stock). EQP_E_INPUT when a target is out of reach. */
+EQP_API int eqp_solution_adjust(eqp_solution *s, eqp_target *targets, size_t n);
+/* Hold the activity of a component (a free ion: "Ca^2+", "H+") at a value,
+** with counter_ion (a charged component: "Cl-", "Na+") balancing the
+** charge: one solve with the component's row a fixed activity and the
+** counter-ion's row the charge balance, both totals outputs. The solution
+** keeps the totals found; *mol and *mol_counter (either may be NULL)
+** receive what was added, negative for what was taken away. EQP_E_INPUT
+** when a total would have to be negative (name a counter-ion of the other
+** charge). */
+EQP_API int eqp_solution_fix_activity(eqp_solution *s, const char *component, double activity,
+                                      const char *counter_ion, double *mol, double *mol_counter);
 
 /* Open the solution to a gas of the library at a partial pressure (atm):
 ** the gas dissolves, or leaves, until its dissolved species has the
@@ -452,7 +499,7 @@ typedef struct eqp_titration {
 /* Titrate a copy of s (s is unchanged). Steps shrink so that no step moves
 ** the pH by more than max_dpH (a step that moves it by more than twice that
 ** is taken again, shorter). Equivalence points are the interior maxima of
-** |dpH/dv| (v: mol or L of titrant), refined by golden-section search on
+** |dpH/dv| (v: mol or L of titrant), refined by Brent's minimiser on
 ** the analytic slope, whose slope is at least EQP_EQ_MIN_SHARPNESS times the
 ** lowest slope between it and the next steeper point or the end of the
 ** curve on either side (methods.md). Columns (the names Lua, JSON and CSV

@@ -17,7 +17,7 @@ extern "C" {
 ** minor version. The sizes of 1.0 are frozen below the structs.
 */
 #define EQP_PLUGIN_ABI_MAJOR 1
-#define EQP_PLUGIN_ABI_MINOR 1
+#define EQP_PLUGIN_ABI_MINOR 2
 #define EQP_PLUGIN_ABI_VERSION \
   ((uint32_t)EQP_PLUGIN_ABI_MAJOR << 16 | (uint32_t)EQP_PLUGIN_ABI_MINOR)
 
@@ -118,6 +118,20 @@ typedef struct eqp_activity_ops {
   ** (warnlen bytes, empty if none). Return 0, or non-zero with err. */
   int (*bind)(void *state, const eqp_species_info *info, char *warn, size_t warnlen,
               char *err, size_t errlen);
+  /* 1.2, optional: derivatives (both NULL: the host differentiates by
+  ** difference quotients). A model gives at most one of the two. */
+  /* For a model whose log gamma reads the ionic strength but not the
+  ** molalities: dlg[i] = d log10 gamma_i / dI at the point in describes.
+  ** Giving it declares that in->molality is not read. Return 0 or non-zero
+  ** with err. */
+  int (*dlog_gamma_dI)(void *state, const eqp_activity_in *in, double *dlg, char *err,
+                       size_t errlen);
+  /* For any model: the derivative of log10 gamma along a direction at the
+  ** point in describes, dlg[i] = sum_j (d lg_i / d m_j) dm[j] + (d lg_i / dI) dI,
+  ** m being in->molality; dm is NULL when the molalities do not move.
+  ** Return 0 or non-zero with err. */
+  int (*log_gamma_tangent)(void *state, const eqp_activity_in *in, const double *dm, double dI,
+                           double *dlg, char *err, size_t errlen);
 } eqp_activity_ops;
 
 /* The descriptor a plugin's entry returns. Static and read-only. */

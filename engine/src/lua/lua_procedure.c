@@ -117,6 +117,89 @@ static int sol_adjust(lua_State *L)
   return 2;
 }
 
+static const eqpl_opt target_opts[] = {
+  {"with", EQPL_ANY, 0, 0, 0, EQPL_REQUIRED, "a reagent name or a stock solution"},
+  {"pH", EQPL_NUMBER, 0, EQPL_PH_MIN, EQPL_PH_MAX, 0, NULL},
+  {"species", EQPL_NAME, 0, 0, 0, 0, "a species name, such as 'Ca^2+'"},
+  {"activity", EQPL_NUMBER, 0, 0, 100, EQPL_ABOVE, NULL},
+  {"free", EQPL_QUANTITY, EQP_Q_MOLALITY, 0, 100, EQPL_ABOVE, "a molality, such as '1 umol/kg'"},
+  {"ionic_strength", EQPL_QUANTITY, EQP_Q_MOLALITY, 0, 100, EQPL_ABOVE,
+   "a molality, such as '0.15 mol/kg'"},
+  {NULL, 0, 0, 0, 0, 0, NULL},
+};
+
+/* One target table at idx into t: exactly one of pH, activity (with
+** species), free (with species), ionic_strength. */
+static void check_target(lua_State *L, int idx, int k, eqp_target *t)
+{
+  char call[40];
+  snprintf(call, sizeof call, "adjust: target %d", k);
+  luaL_checktype(L, idx, LUA_TTABLE);
+  eqpl_val v[6];
+  eqpl_options(L, idx, call, target_opts, v, 0);
+  int n = v[1].given + v[3].given + v[4].given + v[5].given;
+  if (n != 1)
+    eqpl_input_error(L, "%s needs exactly one of pH, activity, free, ionic_strength", call);
+  if ((v[3].given || v[4].given) != v[2].given)
+    eqpl_input_error(L, "%s: species goes with activity or free, and only with them", call);
+  eqp_target init = EQP_TARGET_INIT;
+  *t = init;
+  reagent_or_stock(L, v[0].idx, "adjust: with", &t->reagent, &t->stock);
+  t->species = v[2].given ? v[2].str : NULL;
+  if (v[1].given) { t->kind = EQP_TARGET_PH; t->value = v[1].num; }
+  if (v[3].given) { t->kind = EQP_TARGET_ACTIVITY; t->value = v[3].num; }
+  if (v[4].given) { t->kind = EQP_TARGET_FREE; t->value = v[4].num; }
+  if (v[5].given) { t->kind = EQP_TARGET_IONIC_STRENGTH; t->value = v[5].num; }
+}
+
+/* s:adjust{ { pH = 7.2, with = "KOH" }, { species = "Ca^2+", free = "1 umol/kg",
+** with = "CaCl2" } } -> { { mol = , litres = }, ... }: all targets at once */
+static int sol_adjust_targets(lua_State *L)
+{
+  eqpl_solution *u = eqpl_check_solution(L, 1);
+  luaL_checktype(L, 2, LUA_TTABLE);
+  lua_Integer n = luaL_len(L, 2);
+  if (n < 1 || n > EQP_MAX_TARGETS)
+    eqpl_input_error(L, "adjust: a list of 1 to %d targets", EQP_MAX_TARGETS);
+  eqp_target t[EQP_MAX_TARGETS];
+  for (int k = 0; k < (int)n; k++) {
+    lua_rawgeti(L, 2, k + 1);            /* anchors the target's strings */
+    check_target(L, lua_gettop(L), k + 1, &t[k]);
+  }
+  int rc = eqp_solution_adjust(u->s, t, (size_t)n);
+  if (rc < 0) return eqpl_fail(L, eqpl_ctx_of(L), rc);
+  lua_createtable(L, (int)n, 0);
+  for (int k = 0; k < (int)n; k++) {
+    lua_createtable(L, 0, 2);
+    if (!isnan(t[k].mol)) {
+      lua_pushnumber(L, t[k].mol);
+      lua_setfield(L, -2, "mol");
+    }
+    if (!isnan(t[k].litres)) {
+      lua_pushnumber(L, t[k].litres);
+      lua_setfield(L, -2, "litres");
+    }
+    lua_rawseti(L, -2, k + 1);
+  }
+  return 1;
+}
+
+/* s:fix_activity("Ca^2+", 1e-6, "Cl-") -> mol of the component added, mol of
+** the counter-ion added (negative: taken away) */
+static int sol_fix_activity(lua_State *L)
+{
+  eqpl_solution *u = eqpl_check_solution(L, 1);
+  const char *comp = eqpl_check_name(L, 2, "fix_activity: the component");
+  double a = eqpl_check_number(L, 3, "fix_activity: the activity", 0, 100, EQPL_ABOVE);
+  const char *counter = eqpl_check_name(L, 4, "fix_activity: the counter-ion");
+  double mol, molq;
+  int rc = eqp_solution_fix_activity(u->s, comp, a, counter, &mol, &molq);
+  if (rc < 0) return eqpl_fail(L, eqpl_ctx_of(L), rc);
+  lua_pushnumber(L, mol);
+  lua_pushnumber(L, molq);
+  return 2;
+}
+
 static const eqpl_opt budget_opts[] = {
   {"window", EQPL_NUMBER, 0, 0, 7, EQPL_ABOVE, NULL},
   {"acid", EQPL_NAME, 0, 0, 0, 0, "a reagent name, such as 'HCl'"},
@@ -232,6 +315,8 @@ static const luaL_Reg procedure_methods[] = {
   {"dilute", sol_dilute},
   {"buffer_capacity", sol_buffer_capacity},
   {"adjust_pH", sol_adjust},
+  {"adjust", sol_adjust_targets},
+  {"fix_activity", sol_fix_activity},
   {"load_budget", sol_load_budget},
   {"total", sol_total},
   {"expose", sol_expose},
