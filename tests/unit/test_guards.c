@@ -178,7 +178,12 @@ static void test_recipe_using_must_make_its_buffer(void **state)
 {
   const char *tris[] = {"Tris", "HCl"}, *potassium[] = {"KH2PO4", "K2HPO4"},
              *hydrates[] = {"NaH2PO4.H2O", "Na2HPO4.7H2O"}, *salts[] = {"NaCl", "KCl"};
-  eqp_recipe_spec sp = {"phosphate", tris, 2, 7.2, 0.05, 1.0, 298.15, NULL, NAN, NULL, 0};
+  eqp_recipe_spec sp = EQP_RECIPE_SPEC_INIT;
+  sp.buffer = "phosphate";
+  sp.reagents = tris;
+  sp.nreagents = 2;
+  sp.pH = 7.2;
+  sp.total = 0.05;
   eqp_recipe *r = NULL;
   assert_int_equal(eqp_recipe_make(ctx, &sp, &r), EQP_E_INPUT);
   assert_null(r);

@@ -714,8 +714,8 @@ typedef struct eqp_recipe_item {
 } eqp_recipe_item;
 
 /* Design a preparation that gives spec->pH at spec->T. The amounts are
-** solved with a(H+) fixed (and secant iteration on the salt for the ionic
-** strength) in the water the solids leave of the final volume (crystal
+** solved in one solve with a(H+) fixed and, for the ionic strength, the salt
+** as a second unknown amount, in the water the solids leave of the final volume (crystal
 ** densities, docs/methods.md); the solution made from them is equilibrated
 ** once more and its pH reported. EQP_E_INPUT when the pH is out of reach of
 ** the reagents, when the solids alone would fill the volume, or when the
