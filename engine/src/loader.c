@@ -79,9 +79,32 @@ static const char *cv_str(conv *c, const char *s)
 
 /* A species or reagent name: Unicode and variant spellings fold to the
 ** canonical ASCII form; the sign-first charge ("HPO4-2") is refused. */
+/* A name is looked up, printed, and becomes a CSV or JSON column: valid
+** UTF-8, no control characters and none of the characters a shell or a
+** markup language gives a meaning to. */
+static int bad_name(const char *s)
+{
+  const unsigned char *p = (const unsigned char *)s;
+  while (*p) {
+    if (*p < 0x20 || *p == 0x7f || strchr("$`\"\\;|&<>{}", *p)) return 1;
+    int n = *p < 0x80 ? 1 : (*p & 0xE0) == 0xC0 ? 2 : (*p & 0xF0) == 0xE0 ? 3
+          : (*p & 0xF8) == 0xF0 ? 4 : 0;
+    if (!n || (n == 2 && *p < 0xC2)) return 1;
+    for (int k = 1; k < n; k++)
+      if ((p[k] & 0xC0) != 0x80) return 1;
+    p += n;
+  }
+  return 0;
+}
+
 static const char *cv_name(conv *c, const char *s)
 {
   char buf[256], good[256];
+  if (bad_name(s)) {
+    CV_ERR(c, "a name must be valid UTF-8 without control characters or any of "
+           "$ ` \" \\ ; | & < > { }");
+    return NULL;
+  }
   if (eqpi_name_old_style(s, good, sizeof good)) {
     CV_ERR(c, "'%s': charge written sign first; write '%s' (number first, then the sign, "
            "after a caret)", s, good);
@@ -310,8 +333,16 @@ static void cv_ladder_numbers(conv *c, const char *key, int n, double *v, double
   cv_pop(c);
 }
 
-/* A list of strings at key; returns count. */
+/* A list of strings at key; returns count. Names (text 0) are checked as
+** names; text (notes) only for valid UTF-8 without control characters. */
+static int cv_strings_as(conv *c, const char *key, const char ***out, int text);
+
 static int cv_strings(conv *c, const char *key, const char ***out)
+{
+  return cv_strings_as(c, key, out, 0);
+}
+
+static int cv_strings_as(conv *c, const char *key, const char ***out, int text)
 {
   cv_push(c, key);
   int t = cv_field(c, key);
@@ -321,7 +352,20 @@ static int cv_strings(conv *c, const char *key, const char ***out)
     n = (int)lua_rawlen(c->L, -1);
     const char **v = n ? eqpi_arena_alloc(c->ctx, &c->st->arena, sizeof *v * (size_t)n) : NULL;
     for (int i = 0; i < n && v; i++) {
-      v[i] = cv_pos_string(c, i + 1);
+      if (!text) {
+        v[i] = cv_pos_string(c, i + 1);
+        continue;
+      }
+      cv_pushi(c, i + 1);
+      int ti = lua_rawgeti(c->L, -1, i + 1);
+      const char *str = ti == LUA_TSTRING ? lua_tostring(c->L, -1) : NULL;
+      int ok = str != NULL;
+      for (const unsigned char *q = (const unsigned char *)str; ok && *q; q++)
+        ok = *q >= 0x20 && *q != 0x7f;
+      if (ok) v[i] = cv_str(c, str);
+      else CV_ERR(c, "expected text without control characters");
+      lua_pop(c->L, 1);
+      cv_pop(c);
     }
     *out = v;
   } else if (t != LUA_TNIL) {
@@ -673,7 +717,7 @@ static void cv_buffer(conv *c)
   b->titrant = cv_string(c, "titrant", 0);
   if (!b->free != !b->titrant) CV_ERR(c, "'free' and 'titrant' go together");
   if (!np && !b->free) CV_ERR(c, "a buffer names a 'pair' of reagents or a 'free' reagent and its 'titrant'");
-  b->nnotes = cv_strings(c, "notes", &b->notes);
+  b->nnotes = cv_strings_as(c, "notes", &b->notes, 1);
   b->file = c->file;
   b->line = cv_line(c);
 }

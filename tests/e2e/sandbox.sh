@@ -33,6 +33,27 @@ check() {
 # snippet NAME CODE: a script in the working folder
 snippet() { printf '%s\n' "$2" > "$W/$1.lua"; }
 
+# --- writes: output files only, no hidden files, no shell in names ---------
+# (a name with $() written as a CSV header into .bashrc ran at the next shell)
+snippet w_dot 'local s = eq.solution{}
+s:add("NaCl", "1 mmol")
+s:titrate{ with = "HCl", step = "0.1 mmol", to = "0.2 mmol" }:write_csv(".bashrc")'
+check write_hidden_refused 10 "w_dot.lua:3: cannot write '.bashrc'" -- "$EQP" run w_dot.lua
+[ -e "$W/.bashrc" ] && bad "a hidden file was written"
+snippet w_script 'local s = eq.solution{}
+s:add("NaCl", "1 mmol")
+s:titrate{ with = "HCl", step = "0.1 mmol", to = "0.2 mmol" }:write_json("w_script.lua")'
+check write_script_refused 10 "writes only output files" -- "$EQP" run w_script.lua
+grep -q titrate "$W/w_script.lua" || bad "the running script was replaced"
+snippet w_shell_name 'local n = "Zz$(echo PWNED >/tmp/x)"
+local s = eq.solution{ species = { sources = { x = "y" }, species = { { n, formula = "Na+" } } } }'
+check name_with_shell_refused 4 "a name must be valid UTF-8 without control characters" -- "$EQP" run w_shell_name.lua
+snippet w_csv_ok 'local s = eq.solution{}
+s:add("NaCl", "1 mmol")
+s:titrate{ with = "HCl", step = "0.1 mmol", to = "0.2 mmol" }:write_csv("curve.csv")
+print("written")'
+check write_output_allowed 0 "written" -- "$EQP" run w_csv_ok.lua
+
 # --- what a sandboxed script does not get (exit 10, with the line) ----------
 snippet s_execute 'local x = 1
 os.execute("echo escaped")'

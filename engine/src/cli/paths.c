@@ -9,6 +9,7 @@
 #include <limits.h>
 #include <stdlib.h>
 #include <string.h>
+#include <strings.h>
 #include <sys/stat.h>
 #include <unistd.h>
 
@@ -87,6 +88,22 @@ static const char *list(char (*roots)[4096], int n, char *buf, size_t len)
   return buf;
 }
 
+/* What a sandboxed script may write: output files only, so that it cannot
+** replace a shell's start-up file, a script or a species file. */
+static const char *const output_types[] = {".csv", ".json", ".jsonl", ".svg", ".png", ".pdf",
+                                           ".html", ".txt", NULL};
+
+static int output_name(const char *path)
+{
+  const char *slash = strrchr(path, '/');
+  const char *base = slash ? slash + 1 : path;
+  const char *dot = strrchr(base, '.');
+  if (base[0] == '.' || !dot || dot == base) return 0;
+  for (int i = 0; output_types[i]; i++)
+    if (strcasecmp(dot, output_types[i]) == 0) return 1;
+  return 0;
+}
+
 int cli_path_check(lua_State *L)
 {
   cli_state *st = cli_current;
@@ -96,6 +113,10 @@ int cli_path_check(lua_State *L)
   if (write) {
     int rc = resolve_write(path, real, sizeof real);
     if (rc == -1) return cli_refuse(L, "cannot write '%s': not a file name", path);
+    if (!output_name(path))
+      return cli_refuse(L, "cannot write '%s': a script writes only output files (.csv, .json, "
+                        ".jsonl, .svg, .png, .pdf, .html, .txt) and no hidden files; run a "
+                        "script you trust with --trusted", path);
     if (rc == -2) {   /* no such folder: let the writer say so */
       lua_settop(L, 1);
       return 1;
