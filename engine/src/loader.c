@@ -82,11 +82,11 @@ static const char *cv_str(conv *c, const char *s)
 /* A name is looked up, printed, and becomes a CSV or JSON column: valid
 ** UTF-8, no control characters and none of the characters a shell or a
 ** markup language gives a meaning to. */
-static int bad_name(const char *s)
+static int bad_text(const char *s, int name)
 {
   const unsigned char *p = (const unsigned char *)s;
   while (*p) {
-    if (*p < 0x20 || *p == 0x7f || strchr("$`\"\\;|&<>{}", *p)) return 1;
+    if (*p < 0x20 || *p == 0x7f || (name && strchr("$`\"\\;|&<>{}", *p))) return 1;
     int n = *p < 0x80 ? 1 : (*p & 0xE0) == 0xC0 ? 2 : (*p & 0xF0) == 0xE0 ? 3
           : (*p & 0xF8) == 0xF0 ? 4 : 0;
     if (!n || (n == 2 && *p < 0xC2)) return 1;
@@ -100,7 +100,7 @@ static int bad_name(const char *s)
 static const char *cv_name(conv *c, const char *s)
 {
   char buf[256], good[256];
-  if (bad_name(s)) {
+  if (bad_text(s, 1)) {
     CV_ERR(c, "a name must be valid UTF-8 without control characters or any of "
            "$ ` \" \\ ; | & < > { }");
     return NULL;
@@ -359,11 +359,8 @@ static int cv_strings_as(conv *c, const char *key, const char ***out, int text)
       cv_pushi(c, i + 1);
       int ti = lua_rawgeti(c->L, -1, i + 1);
       const char *str = ti == LUA_TSTRING ? lua_tostring(c->L, -1) : NULL;
-      int ok = str != NULL;
-      for (const unsigned char *q = (const unsigned char *)str; ok && *q; q++)
-        ok = *q >= 0x20 && *q != 0x7f;
-      if (ok) v[i] = cv_str(c, str);
-      else CV_ERR(c, "expected text without control characters");
+      if (str && !bad_text(str, 0)) v[i] = cv_str(c, str);
+      else CV_ERR(c, "expected text: valid UTF-8 without control characters");
       lua_pop(c->L, 1);
       cv_pop(c);
     }
