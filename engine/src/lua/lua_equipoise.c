@@ -229,6 +229,14 @@ eqp_ctx *eqp_lua_context(lua_State *L)
   return ctx;
 }
 
+void eqpl_push_print(lua_State *L)
+{
+  if (lua_getfield(L, LUA_REGISTRYINDEX, EQPL_PRINT) == LUA_TFUNCTION) return;
+  lua_pop(L, 1);
+  if (lua_getglobal(L, "print") != LUA_TFUNCTION)
+    luaL_error(L, "there is no print function to write the text through (pass quiet = true)");
+}
+
 int eqp_lua_open(lua_State *L)
 {
   luaL_checkversion(L);
@@ -262,6 +270,10 @@ int eqp_lua_open(lua_State *L)
   lua_setfield(L, -2, "version");
   lua_pushvalue(L, -1);
   lua_setfield(L, LUA_REGISTRYINDEX, "equipoise.module");
+  /* the host's print as the module found it: a script that replaces or
+  ** removes its own print does not break what the module writes */
+  if (lua_getglobal(L, "print") == LUA_TFUNCTION) lua_setfield(L, LUA_REGISTRYINDEX, EQPL_PRINT);
+  else lua_pop(L, 1);
   lua_remove(L, ctxidx);
   return 1;
 }

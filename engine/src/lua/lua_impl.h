@@ -80,6 +80,11 @@ double eqpl_check_volume(lua_State *L, int idx, const char *what);
 /* Push a new result object for r (takes ownership); links it to the ctx. */
 void eqpl_push_result(lua_State *L, eqp_result *r);
 eqpl_solution *eqpl_check_solution(lua_State *L, int idx);
+#define EQPL_PRINT "equipoise.print"
+/* Push the print the module writes text through: the host's, as found when
+** the module opened, else the present global one. */
+void eqpl_push_print(lua_State *L);
+
 /* Load species given as a file name or an inline table at idx. */
 void eqpl_load_species(lua_State *L, eqp_ctx *ctx, int idx);
 

@@ -172,7 +172,7 @@ static int eq_recipe(lua_State *L)
   lua_setmetatable(L, -2);
   if (!quiet) {
     lua_getfield(L, -1, "procedure");
-    lua_getglobal(L, "print");     /* through print, so --json captures it */
+    eqpl_push_print(L);            /* through print, so --json captures it */
     lua_insert(L, -2);
     lua_call(L, 1, 0);
   }
@@ -185,7 +185,7 @@ static void emit_lines(lua_State *L, const char *text)
   for (const char *p = text; *p;) {
     const char *nl = strchr(p, '\n');
     size_t len = nl ? (size_t)(nl - p) : strlen(p);
-    lua_getglobal(L, "print");
+    eqpl_push_print(L);
     lua_pushlstring(L, p, len);
     lua_call(L, 1, 0);
     p += len + (nl != NULL);
