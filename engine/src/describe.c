@@ -241,6 +241,18 @@ static cJSON *constant_json(const eqpi_reaction *r, const view *v, const double 
   return o;
 }
 
+int eqpi_describe_reaction(const eqpi_db *db, const eqpi_reaction *r, char *eq, size_t len,
+                           const char **constant, double *sign, double *dsign)
+{
+  view v;
+  view_reaction(db, r, &v);
+  snprintf(eq, len, "%s", v.equation);
+  *constant = v.constant;
+  *sign = v.sign;
+  *dsign = v.dsign;
+  return 0;
+}
+
 static cJSON *reaction_json(const eqpi_db *db, int k, const double *T, int nT)
 {
   view v;
@@ -637,5 +649,77 @@ char *eqp_ctx_constants_to_json(eqp_ctx *ctx, const eqp_result *const *res, size
   eqpi_free(ctx, so, (size_t)db->nsolids + 1);
   char *text = a ? cJSON_PrintUnformatted(a) : NULL;
   cJSON_Delete(a);
+  return text;
+}
+
+char *eqp_ctx_constants_of_json(eqp_ctx *ctx, const char *const *names, size_t n,
+                                const double *T_K, size_t nT_K)
+{
+  if (!ctx || (n && !names)) return NULL;
+  unsigned char *sp;
+  if (eqpi_constants_mark(ctx, names, n, &sp) < 0) return NULL;
+  const eqpi_db *db = &ctx->db;
+  double T[MAX_T];
+  int nT = 1;
+  T[0] = EQPI_T25;
+  for (size_t i = 0; i < nT_K; i++) {
+    int seen = 0;
+    for (int k = 0; k < nT; k++) seen |= fabs(T[k] - T_K[i]) < 1e-6;
+    if (!seen && nT < MAX_T && isfinite(T_K[i])) T[nT++] = T_K[i];
+  }
+  unsigned char *rx = eqpi_calloc(ctx, (size_t)db->nrx + 1, 1);
+  cJSON *doc = rx ? cJSON_CreateObject() : NULL;
+  cJSON *a = doc ? cJSON_AddArrayToObject(doc, "constants") : NULL;
+  cJSON *par = doc ? cJSON_AddArrayToObject(doc, "parameters") : NULL;
+  for (int i = 0; a && i < db->nsp; i++)
+    for (int q = 0; sp[i] && q < db->sp[i].nrx; q++) rx[db->sp[i].rx_idx[q]] = 1;
+  for (int k = 0; a && k < db->nrx; k++)
+    if (rx[k]) cJSON_AddItemToArray(a, reaction_json(db, k, T, nT));
+  for (int k = 0; a && k < db->nsolids; k++) {
+    int all = 1;
+    for (int j = 0; j < db->solids[k].n; j++) all &= sp[db->solids[k].sp[j]];
+    if (all) cJSON_AddItemToArray(a, solid_constant(db, &db->solids[k], T, nT));
+  }
+  for (int k = 0; a && k < db->ngases; k++)
+    if (sp[db->gases[k].species]) cJSON_AddItemToArray(a, gas_constant(db, &db->gases[k], T, nT));
+  /* the activity models' parameters of the same species */
+  for (int i = 0; par && i < db->nsp; i++) {
+    const eqpi_species *s = &db->sp[i];
+    if (!sp[i]) continue;
+    if (!isnan(s->size)) {
+      cJSON *o = cJSON_CreateObject();
+      cJSON_AddStringToObject(o, "name", "ion_size");
+      cJSON_AddStringToObject(o, "species", s->name);
+      cJSON_AddNumberToObject(o, "value", s->size);
+      cJSON_AddStringToObject(o, "source", s->size_source ? s->size_source : "");
+      add_defined(o, s->file, s->line);
+      cJSON_AddItemToArray(par, o);
+    }
+    for (int k = 0; k < s->nparam; k++) {
+      cJSON *o = cJSON_CreateObject();
+      cJSON_AddStringToObject(o, "name", s->pkey[k]);
+      cJSON_AddStringToObject(o, "species", s->name);
+      cJSON_AddNumberToObject(o, "value", s->pval[k]);
+      cJSON_AddStringToObject(o, "source", s->params_source ? s->params_source : "");
+      add_defined(o, s->file, s->line);
+      cJSON_AddItemToArray(par, o);
+    }
+  }
+  for (int k = 0; par && k < db->npairs; k++) {
+    const eqpi_pairparam *p = &db->pairs[k];
+    if (!sp[p->a] || !sp[p->b]) continue;
+    cJSON *o = cJSON_CreateObject();
+    cJSON_AddStringToObject(o, "name", p->key);
+    cJSON_AddStringToObject(o, "species", db->sp[p->a].name);
+    cJSON_AddStringToObject(o, "with", db->sp[p->b].name);
+    cJSON_AddNumberToObject(o, "value", p->value);
+    cJSON_AddStringToObject(o, "source", p->source ? p->source : "");
+    add_defined(o, p->file, p->line);
+    cJSON_AddItemToArray(par, o);
+  }
+  eqpi_free(ctx, rx, (size_t)db->nrx + 1);
+  eqpi_free(ctx, sp, (size_t)db->nsp + 1);
+  char *text = doc ? cJSON_PrintUnformatted(doc) : NULL;
+  cJSON_Delete(doc);
   return text;
 }

@@ -290,6 +290,18 @@ typedef struct eqpi_db {
   unsigned generation;  /* bumps on every commit */
 } eqpi_db;
 
+/* ---------------------------------------------------------- provenance */
+
+/* Species that the named species and reagents (with water) can form: a
+** calloc'd flag per species of the context's library (nsp + 1 bytes). */
+int eqpi_constants_mark(eqp_ctx *ctx, const char *const *names, size_t n, unsigned char **sp);
+/* A reaction as `species show` writes it (describe.c): its equation, the
+** name of its constant, and the signs that turn the stored log K and
+** dH, dCp into the shown ones. */
+int eqpi_describe_reaction(const eqpi_db *db, const eqpi_reaction *r, char *eq, size_t len,
+                           const char **constant, double *sign, double *dsign);
+
+
 int eqpi_db_find_species(const eqpi_db *db, const char *name);
 int eqpi_db_find_reagent(const eqpi_db *db, const char *name);
 /* A solid by its name ("calcite"), or by its formula with the state symbol

@@ -53,6 +53,7 @@ static void report_reaction(walk *w, const eqpi_reaction *r, const char *kind_hi
   char eq[512], tw[160];
   size_t used = 0;
   eqp_constant k = {0};
+  double sign = 1, dsign = 1, value = r->logK;
   int acid = r->n == 2 && r->product >= 0 &&
              ((r->reactant[1] == db->h_plus && r->nu[1] == 1 && r->nu[0] == 1) ||
               (r->reactant[0] == db->h_plus && r->nu[0] == 1 && r->nu[1] == 1));
@@ -61,6 +62,12 @@ static void report_reaction(walk *w, const eqpi_reaction *r, const char *kind_hi
     k.kind = kind_hint;
     k.dH = r->dH;
     k.dCp = r->dCp;
+  } else if (!kind_hint && eqpi_describe_reaction(db, r, eq, sizeof eq, &k.kind, &sign,
+                                                  &dsign) == 0) {
+    /* as `species show` writes it: dissociations with pKa, formations with log β */
+    k.dH = dsign * r->dH;
+    k.dCp = dsign * r->dCp;
+    value = sign * r->logK;
   } else if (acid && !kind_hint) {
     /* HA = A + H+ with pKa: the formation constant of HA from A and H+ */
     int base = r->reactant[0] == db->h_plus ? r->reactant[1] : r->reactant[0];
@@ -89,7 +96,7 @@ static void report_reaction(walk *w, const eqpi_reaction *r, const char *kind_hi
   }
   temperature_words(r, tw, sizeof tw);
   k.equation = eq;
-  k.value = r->logK;
+  k.value = value;
   k.temperature = tw;
   k.source = r->source ? r->source : "";
   k.file = r->file ? r->file : "";
@@ -162,6 +169,28 @@ static void report_all(walk *w)
                       pp->file ? pp->file : "", pp->line};
     w->fn(w->ud, &k);
   }
+}
+
+int eqpi_constants_mark(eqp_ctx *ctx, const char *const *names, size_t n, unsigned char **spp)
+{
+  *spp = NULL;
+  int rc = eqp_ctx_load_default_library(ctx);
+  if (rc < 0) return rc;
+  const eqpi_db *db = &ctx->db;
+  size_t nc = (size_t)db->ncomp + 1, ns = (size_t)db->nsp + 1;
+  walk w = {ctx, eqpi_calloc(ctx, nc, 1), eqpi_calloc(ctx, ns, 1), NULL, NULL, NULL};
+  if (!w.comp || !w.sp) rc = eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
+  for (int c = 0; rc == EQP_OK && c < db->ncomp; c++)
+    if (db->comp_species[c] == db->h_plus || db->comp_species[c] == db->water) w.comp[c] = 1;
+  for (size_t i = 0; rc == EQP_OK && i < n; i++) rc = add_name(&w, names[i]);
+  for (int i = 0; rc == EQP_OK && i < db->nsp; i++) w.sp[i] = formed(&w, &db->sp[i]);
+  eqpi_free(ctx, w.comp, nc);
+  if (rc < 0) {
+    eqpi_free(ctx, w.sp, ns);
+    return rc;
+  }
+  *spp = w.sp;
+  return EQP_OK;
 }
 
 int eqp_ctx_constants(eqp_ctx *ctx, const char *const *names, size_t n, eqp_constant_fn fn,

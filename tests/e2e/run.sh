@@ -239,6 +239,11 @@ check adjust_unreachable 3 "adjust_unreachable.lua:3: pH 10.000 is out of reach 
 check titrate_bad_end 3 "needs an end" -- "$EQP" run "$CASES/titrate_no_end.lua"
 "$EQP" run "$EX/unknown_acid.lua" --json --param csv="$TMP/c2.csv" --allow-write "$TMP" >"$TMP/j3"
 check json_saturation 0 "^[0-9.-]" -- sh -c "'$EQP' run '$CASES/calcite.lua' --json | '$JSON' results.0.saturation_index.calcite"
+# provenance names the constants behind a titration that made no result:
+# acetic acid's pKa with its source (Goldberg, Kishore & Lennen 2002)
+check json_provenance_titration 0 "^CH3COOH ⇌ H+ + CH3COO-$" -- "$JSON" provenance.constants.0.equation < "$TMP/j3"
+check json_provenance_source 0 "Goldberg" -- "$JSON" provenance.constants.0.source < "$TMP/j3"
+check json_provenance_parameters 0 "ion_size" -- "$JSON" provenance.parameters.0.name < "$TMP/j3"
 check json_curve 0 "^1$" -- "$JSON" curves.0.equivalence_points < "$TMP/j3"
 # acetate at the equivalence point: C = 0.85 mmol / 58.5 mL; a(OH-) = g sqrt(Kb C),
 # Kb = Kw/Ka, pKa 4.756 (Goldberg et al. 2002, from memory), pKw 13.995 (IAPWS

@@ -845,6 +845,13 @@ EQP_API char *eqp_result_to_text(const eqp_result *r);
 ** every temperature of the results, and its source: a JSON array
 ** (docs/json-output.md, "constants"). Free it with eqp_free_string; NULL
 ** when memory is exhausted. */
+/* The constants of every species the named species and reagents can form
+** (with water): {"constants": [...], "parameters": [...]}, the constants
+** with their values at 25 C and at each temperature T_K (kelvin), the
+** parameters (ion sizes, model coefficients, interactions) with their
+** sources (docs/json-output.md). Free with eqp_free_string; NULL on error. */
+EQP_API char *eqp_ctx_constants_of_json(eqp_ctx *ctx, const char *const *names, size_t n,
+                                        const double *T_K, size_t nT);
 EQP_API char *eqp_ctx_constants_to_json(eqp_ctx *ctx, const eqp_result *const *results,
                                         size_t n);
 

@@ -79,8 +79,10 @@ typedef struct cli_record {
   size_t nresults, ncurves;       /* made so far */
   eqp_result *kept[CLI_KEEP_RESULTS];   /* copies, for the provenance (--json, --jsonl) */
   size_t nkept;
-  cli_strings species;            /* names of every species a result held (--report) */
+  cli_strings species;            /* names of every species a result held (provenance) */
   cli_strings reagents;           /* library names of the reagents used (--report) */
+  double temps[16];               /* distinct temperatures of the results, K (provenance) */
+  size_t ntemps;
   cli_strings seen;               /* "where\nkind\nskeleton" of warnings shown */
   cli_strings warnings;           /* "where: text", each kind once per line */
   cli_strings cautions;           /* texts, once per reagent */

@@ -6,6 +6,7 @@
 ** it: the --json document, the provenance, the --report page. */
 /* SPDX-License-Identifier: MIT */
 #include "cli_impl.h"
+#include <math.h>
 #include <cjson/cJSON.h>
 #include <ctype.h>
 #include <stdlib.h>
@@ -112,9 +113,14 @@ static void on_result(void *ud, const eqp_result *r)
   cli_state *st = ud;
   cli_record *rec = &st->rec;
   rec->nresults++;
-  if (st->run->report)
+  if (st->run->report || st->run->json || st->run->jsonl) {
     for (size_t i = 0; i < eqp_result_species_count(r); i++)
       cli_strings_add(&rec->species, eqp_result_species_name(r, i));
+    double T = eqp_result_temperature_K(r);
+    int seen = 0;
+    for (size_t i = 0; i < rec->ntemps; i++) seen |= fabs(rec->temps[i] - T) < 1e-6;
+    if (!seen && rec->ntemps < sizeof rec->temps / sizeof rec->temps[0]) rec->temps[rec->ntemps++] = T;
+  }
   if (!st->run->json && !st->run->jsonl) return;
   /* the JSON provenance lists the constants of the first results */
   if (rec->nkept < CLI_KEEP_RESULTS && eqp_result_copy(r, &rec->kept[rec->nkept]) == EQP_OK)
@@ -212,7 +218,7 @@ void cli_observe_attach(cli_state *st, eqp_ctx *ctx)
   /* a plain run keeps no result: it hears of none */
   if (run->json || run->jsonl || run->report) obs.on_result = on_result;
   if (run->json || run->jsonl) obs.on_curve = on_curve;
-  if (run->report) obs.on_reagent_used = on_reagent_used;
+  if (run->json || run->jsonl || run->report) obs.on_reagent_used = on_reagent_used;
   st->ctx = ctx;
   eqp_ctx_set_observer(ctx, &obs, st);
 }

@@ -224,10 +224,20 @@ static void add_closing(cli_state *st, cJSON *doc)
   for (size_t i = 0; ctx && i < eqp_ctx_source_count(ctx); i++)
     cJSON_AddItemToArray(files, cJSON_CreateString(eqp_ctx_source_path(ctx, i)));
   cJSON_AddStringToObject(prov, "water_properties", water_sources);
-  char *constants = ctx ? eqp_ctx_constants_to_json(ctx, (const eqp_result *const *)st->rec.kept,
-                                                    st->rec.nkept) : NULL;
-  cJSON *list = constants ? cJSON_Parse(constants) : NULL;
+  /* every constant of the species the run's reagents and results can form,
+  ** at 25 C and at each temperature of its results */
+  const char *names[512];
+  size_t n = 0;
+  const cli_record *rec = &st->rec;
+  for (size_t i = 0; i < rec->reagents.n && n < 256; i++) names[n++] = rec->reagents.item[i];
+  for (size_t i = 0; i < rec->species.n && n < 512; i++) names[n++] = rec->species.item[i];
+  char *constants = ctx ? eqp_ctx_constants_of_json(ctx, names, n, rec->temps, rec->ntemps) : NULL;
+  cJSON *both = constants ? cJSON_Parse(constants) : NULL;
+  cJSON *list = both ? cJSON_DetachItemFromObject(both, "constants") : NULL;
+  cJSON *par = both ? cJSON_DetachItemFromObject(both, "parameters") : NULL;
   cJSON_AddItemToObject(prov, "constants", list ? list : cJSON_CreateArray());
+  cJSON_AddItemToObject(prov, "parameters", par ? par : cJSON_CreateArray());
+  cJSON_Delete(both);
   eqp_free_string(constants);
 }
 
