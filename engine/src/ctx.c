@@ -1,6 +1,10 @@
 /* The context: allocator, error message, loading species files and
 ** folders (the library and its path are in library.c), plugin path. */
 /* SPDX-License-Identifier: MIT */
+#include <errno.h>
+#include <fcntl.h>
+#include <sys/stat.h>
+#include <unistd.h>
 #include "stage_impl.h"
 #include <errno.h>
 #include <stdio.h>
@@ -45,10 +49,30 @@ void eqp_ctx_free(eqp_ctx *ctx)
   ctx->alloc(ctx->ud, ctx, sizeof *ctx, 0);
 }
 
+FILE *eqpi_fopen_regular(const char *path)
+{
+  /* without O_NONBLOCK, opening a FIFO waits for a writer: a hang */
+  int fd = open(path, O_RDONLY | O_NONBLOCK | O_CLOEXEC);
+  if (fd < 0) return NULL;
+  struct stat st;
+  if (fstat(fd, &st) < 0 || !S_ISREG(st.st_mode)) {
+    close(fd);
+    errno = EINVAL;
+    return NULL;
+  }
+  int fl = fcntl(fd, F_GETFL);
+  if (fl >= 0) fcntl(fd, F_SETFL, fl & ~O_NONBLOCK);
+  FILE *f = fdopen(fd, "rb");
+  if (!f) close(fd);
+  return f;
+}
+
 int eqpi_read_file(eqp_ctx *ctx, const char *path, char **text, size_t *len, size_t *capp)
 {
-  FILE *f = fopen(path, "rb");
-  if (!f) return eqpi_fail(ctx, EQP_E_IO, "%s: cannot open: %s", path, strerror(errno));
+  FILE *f = eqpi_fopen_regular(path);
+  if (!f)
+    return eqpi_fail(ctx, EQP_E_IO, "%s: cannot open: %s", path,
+                     errno == EINVAL ? "not a regular file" : strerror(errno));
   size_t cap = 8192, n = 0;
   char *buf = eqpi_malloc(ctx, cap);
   while (buf) {
@@ -71,6 +95,10 @@ int eqpi_read_file(eqp_ctx *ctx, const char *path, char **text, size_t *len, siz
   if (err) {
     eqpi_free(ctx, buf, cap);
     return eqpi_fail(ctx, EQP_E_IO, "%s: read error", path);
+  }
+  if (n >= 3 && memcmp(buf, "\xEF\xBB\xBF", 3) == 0) {   /* a UTF-8 byte-order mark */
+    memmove(buf, buf + 3, n - 3);
+    n -= 3;
   }
   *text = buf;
   *len = n;

@@ -98,6 +98,11 @@ double eqpi_comp_mass(const eqpi_comp *c);
 ** returns 0 if equal within 1e-9. */
 int eqpi_comp_diff(const eqpi_comp *a, const eqpi_comp *b, char *buf, size_t len);
 
+/* fopen(path, "rb") of a regular file only, without waiting on a FIFO;
+** NULL with errno (EINVAL: not a regular file). */
+#include <stdio.h>
+FILE *eqpi_fopen_regular(const char *path);
+
 /* ---------------------------------------------------------- notation */
 
 /* Fold Unicode sub- and superscripts ("HPO₄²⁻") and ASCII variants ("Na^+")

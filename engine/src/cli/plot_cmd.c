@@ -2,6 +2,7 @@
 ** curve:plot and eq.plot. */
 /* SPDX-License-Identifier: MIT */
 #include "cli_impl.h"
+#include "../eqp_impl.h"
 #include <math.h>
 #include <stdio.h>
 #include <stdlib.h>
@@ -97,7 +98,7 @@ static char *next_field(char **s, const char *seps)
 /* Read a CSV of numbers with a header line (empty field: a gap). */
 static int read_csv(eqp_ctx *ctx, const char *path, eqp_curve **out)
 {
-  FILE *f = fopen(path, "r");
+  FILE *f = eqpi_fopen_regular(path);
   if (!f) {
     fprintf(stderr, "equipoise plot: cannot read '%s'\n", path);
     return EXIT_USAGE;
