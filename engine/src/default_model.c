@@ -129,12 +129,30 @@ int eqpi_solution_equilibrate_from(eqp_solution *s, int *kp, int follow, eqp_res
     model = eqpi_chain_model(s, k);
     rc = eqpi_system_solve(ctx, &s->sys, mol, s->T, model, &st);
   }
+  /* solids allowed to form: the active set over the totals (the default
+  ** is none, so nothing here runs) */
+  double *amt = NULL;
+  size_t amt_bytes = sizeof(double) * (size_t)(ctx->db.nsolids > 0 ? ctx->db.nsolids : 1);
+  int any = 0;
+  for (int j = 0; j < ctx->db.nsolids; j++) any |= eqpi_solution_allowed(s, j);
+  if (rc == EQP_OK && any) {
+    if (!(amt = eqpi_malloc(ctx, amt_bytes))) rc = eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
+    else rc = eqpi_precipitate(s, mol, model, &st, amt);
+  }
   if (mol != stack) eqpi_free(ctx, mol, sizeof(double) * (size_t)s->ntotal);
-  if (rc < 0) return rc;
-  st.solute_L = s->solute_L;
-  st.unknown_g = s->unknown_g;
-  st.replaced = k > 0 && s->model_default ? s->model.desc : NULL;
-  *kp = k;
-  if (stout) *stout = st;
-  return eqpi_result_make(ctx, s->sys, model, s->T, s->water_kg, &st, out);
+  if (rc == EQP_OK) {
+    st.solute_L = s->solute_L;
+    st.unknown_g = s->unknown_g;
+    st.replaced = k > 0 && s->model_default ? s->model.desc : NULL;
+    *kp = k;
+    if (stout) *stout = st;
+    rc = eqpi_result_make(ctx, s->sys, model, s->T, s->water_kg, &st, out);
+    if (rc == EQP_OK && amt &&
+        (rc = eqpi_result_set_solids(*out, amt, ctx->db.nsolids, s->water_kg)) < 0) {
+      eqp_result_free(*out);
+      *out = NULL;
+    }
+  }
+  eqpi_free(ctx, amt, amt_bytes);
+  return rc;
 }

@@ -264,6 +264,8 @@ typedef struct eqpi_solid {
   eqpi_reaction ksp;
 } eqpi_solid;
 
+#define EQPI_MAX_SOLIDS_PRESENT 8   /* phases present at once in a result */
+
 typedef struct eqpi_source {
   const char *path;
 } eqpi_source;

@@ -19,6 +19,9 @@ struct eqp_result {
   const char *model;
   int nwarn;
   const char *warn[MAX_WARN];   /* into the end of the block */
+  int nsolid;                   /* solids present (precipitate.c) */
+  int solid_k[EQPI_MAX_SOLIDS_PRESENT];
+  double solid_mol[EQPI_MAX_SOLIDS_PRESENT];
 };
 
 /* The warnings of a state are written twice: once to size the result's
@@ -83,6 +86,7 @@ int eqpi_result_make(eqp_ctx *ctx, const eqpi_system *sys, const eqpi_model *mod
   r->rho = eqpi_water_density(T);
   r->residual = st->residual;
   r->iters = st->iterations;
+  r->nsolid = 0;
   r->model = model->desc->name;
   r->nwarn = w.n;
   if (w.n) {
@@ -238,6 +242,48 @@ int eqp_result_saturation(const eqp_result *r, const char *solid, double *si)
   eqpi_tnotes notes = {0, 0};
   *si = iap - eqpi_reaction_logK(&s->ksp, r->T, &notes);
   return EQP_OK;
+}
+
+int eqpi_result_set_solids(eqp_result *r, const double *amounts, int n, double water_kg)
+{
+  r->nsolid = 0;
+  for (int k = 0; k < n; k++) {
+    if (!(amounts[k] > 0)) continue;
+    if (r->nsolid >= EQPI_MAX_SOLIDS_PRESENT)
+      return eqpi_fail(r->ctx, EQP_E_INPUT, "more than %d solids at once",
+                       EQPI_MAX_SOLIDS_PRESENT);
+    r->solid_k[r->nsolid] = k;
+    r->solid_mol[r->nsolid++] = amounts[k] * water_kg;
+  }
+  return EQP_OK;
+}
+
+/* mol of a solid present (0 when it is not). */
+int eqp_result_solid(const eqp_result *r, const char *solid, double *mol)
+{
+  if (!r || !solid || !mol) return EQP_E_ARG;
+  const eqpi_db *db = &r->ctx->db;
+  int k = eqpi_db_find_solid(db, solid);
+  if (k == -2) {
+    char which[256];
+    eqpi_db_solids_with_formula(db, solid, which, sizeof which);
+    return eqpi_fail(r->ctx, EQP_E_UNKNOWN, "'%s' names several solids (%s): name the one "
+                     "you mean", solid, which);
+  }
+  if (k < 0) return eqpi_fail(r->ctx, EQP_E_UNKNOWN, "unknown solid '%s'", solid);
+  *mol = 0;
+  for (int q = 0; q < r->nsolid; q++)
+    if (r->solid_k[q] == k) *mol = r->solid_mol[q];
+  return EQP_OK;
+}
+
+size_t eqp_result_solid_count(const eqp_result *r) { return r ? (size_t)r->nsolid : 0; }
+
+const char *eqp_result_solid_name(const eqp_result *r, size_t i, double *mol)
+{
+  if (!r || i >= (size_t)r->nsolid) return NULL;
+  if (mol) *mol = r->solid_mol[i];
+  return r->ctx->db.solids[r->solid_k[i]].name;
 }
 
 size_t eqp_ctx_solid_count(const eqp_ctx *ctx) { return ctx ? (size_t)ctx->db.nsolids : 0; }

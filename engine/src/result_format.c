@@ -34,6 +34,14 @@ char *eqp_result_to_json(const eqp_result *r)
     if (eqp_result_saturation(r, eqp_ctx_solid_name(ctx, i), &si) == EQP_OK && isfinite(si))
       cJSON_AddNumberToObject(sat, eqp_ctx_solid_name(ctx, i), si);
   }
+  if (eqp_result_solid_count(r)) {    /* only when solids were allowed and formed */
+    cJSON *so = cJSON_AddObjectToObject(o, "solids");
+    for (size_t i = 0; so && i < eqp_result_solid_count(r); i++) {
+      double mol;
+      const char *name = eqp_result_solid_name(r, i, &mol);
+      cJSON_AddNumberToObject(so, name, mol);
+    }
+  }
   cJSON *w = cJSON_AddArrayToObject(o, "warnings");
   for (size_t i = 0; w && i < eqp_result_warning_count(r); i++)
     cJSON_AddItemToArray(w, cJSON_CreateString(eqp_result_warning(r, i)));

@@ -11,4 +11,8 @@ int eqpi_result_make(eqp_ctx *ctx, const eqpi_system *sys, const eqpi_model *mod
 /* The context a result belongs to. */
 eqp_ctx *eqpi_result_ctx(const eqp_result *r);
 
+/* Give result r the amounts of the solids present (mol/kg of water_kg,
+** over the library's n solids). */
+int eqpi_result_set_solids(eqp_result *r, const double *amounts, int n, double water_kg);
+
 #endif

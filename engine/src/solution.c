@@ -100,6 +100,7 @@ void eqp_solution_free(eqp_solution *s)
   eqpi_model_close(ctx, &s->model);
   eqpi_free(ctx, s->total, sizeof(double) * (size_t)s->ntotal);
   eqpi_solution_hazards_free(s);
+  eqpi_free(ctx, s->allow, (size_t)(s->nallow > 0 ? s->nallow : 1));
   eqpi_free(ctx, s, sizeof *s);
 }
 
@@ -125,6 +126,16 @@ int eqp_solution_copy(const eqp_solution *s, eqp_solution **out)
     return rc;
   }
   c->model_default = s->model_default;
+  c->allow_all = s->allow_all;
+  if (s->nallow) {
+    if (!(c->allow = eqpi_malloc(c->ctx, (size_t)s->nallow))) {
+      eqp_solution_free(c);
+      *out = NULL;
+      return eqpi_fail(s->ctx, EQP_E_NOMEM, "out of memory");
+    }
+    memcpy(c->allow, s->allow, (size_t)s->nallow);
+    c->nallow = s->nallow;
+  }
   c->solute_L = s->solute_L;
   c->unknown_g = s->unknown_g;
   for (int i = 0; i < s->nparams; i++)

@@ -29,6 +29,11 @@ struct eqp_solution {
   unsigned vol_gen;
   double vol_L;
   int vol_known;
+  /* solids that may form or dissolve (precipitate.c): all, or flags over
+  ** the library's first nallow solids; none by default */
+  int allow_all;
+  unsigned char *allow;
+  int nallow;
 };
 
 int eqpi_find_reagent(eqp_solution *s, const char *name, const eqpi_reagent **r);
@@ -74,5 +79,13 @@ int eqpi_solution_equilibrate_from(eqp_solution *s, int *k, int follow, eqp_resu
 ** operation in a refusal ("pH adjustment"). */
 int eqpi_solution_adjust(eqp_solution *s, eqpi_adjust *aj, int n, double *v, eqpi_solve_stats *st,
                          int *k, const char *what);
+
+/* precipitate.c. Whether solid k of the library may form in s. */
+int eqpi_solution_allowed(const eqp_solution *s, int k);
+/* The active set of solids over the totals mol (mol/kg, nothing
+** precipitated) with model: s->sys ends solved for the dissolved totals,
+** amounts (one per solid of the library) holds mol/kg of each phase. */
+int eqpi_precipitate(eqp_solution *s, const double *mol, eqpi_model *model,
+                     eqpi_solve_stats *st, double *amounts);
 
 #endif

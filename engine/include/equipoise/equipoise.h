@@ -478,6 +478,15 @@ EQP_API double eqp_solution_volume(const eqp_solution *s);
 ** residuals. */
 EQP_API int eqp_solution_equilibrate(eqp_solution *s, eqp_result **out);
 
+/* Solids that may form (or, added as reagents, stay undissolved) at
+** equilibrium: the n named solids of the library (n = 0: none, the
+** default, since supersaturated media are often metastable for days), or
+** all of them. EQP_E_UNKNOWN for a name not in the library. Replaces the
+** previous choice. An inconsistent set (two solids fixing the same ion
+** activities) makes equilibrate fail with EQP_E_INPUT. */
+EQP_API int eqp_solution_allow_solids(eqp_solution *s, const char *const *names, size_t n);
+EQP_API int eqp_solution_allow_all_solids(eqp_solution *s, int on);
+
 /* --------------------------------------------------------- titration */
 
 typedef struct eqp_titration {
@@ -809,8 +818,14 @@ EQP_API int eqp_result_gamma(const eqp_result *r, const char *sp, double *out);
 
 /* Saturation index log10(IAP/Ksp) of a solid of the library at the
 ** result's temperature (-inf when one of its ions is absent). Positive:
-** supersaturated. Precipitation itself is not modelled. */
+** supersaturated; 0 for a solid present. */
 EQP_API int eqp_result_saturation(const eqp_result *r, const char *solid, double *si);
+/* mol of a solid present at equilibrium (0 when it is not, or when solids
+** were not allowed to form: eqp_solution_allow_solids). */
+EQP_API int eqp_result_solid(const eqp_result *r, const char *solid, double *mol);
+/* The solids present, by index 0 .. count-1: name (borrowed) and *mol. */
+EQP_API size_t eqp_result_solid_count(const eqp_result *r);
+EQP_API const char *eqp_result_solid_name(const eqp_result *r, size_t i, double *mol);
 EQP_API size_t eqp_ctx_solid_count(const eqp_ctx *ctx);
 EQP_API const char *eqp_ctx_solid_name(const eqp_ctx *ctx, size_t i);
 

@@ -36,6 +36,7 @@ static int result_molarity(lua_State *L) { return per_species(L, eqp_result_mola
 static int result_activity(lua_State *L) { return per_species(L, eqp_result_activity); }
 static int result_gamma(lua_State *L) { return per_species(L, eqp_result_gamma); }
 static int result_saturation(lua_State *L) { return per_species(L, eqp_result_saturation); }
+static int result_solid(lua_State *L) { return per_species(L, eqp_result_solid); }
 
 /* r:species() -> { {name=, molality=, gamma=}, ... } by decreasing molality */
 typedef struct row { const char *name; double m, lg; } row;
@@ -93,6 +94,7 @@ static const luaL_Reg result_methods[] = {
   {"activity", result_activity},
   {"gamma", result_gamma},
   {"saturation", result_saturation},
+  {"solid", result_solid},
   {"species", result_species},
   {NULL, NULL},
 };

@@ -36,9 +36,57 @@ static const eqpl_opt solution_opts[] = {
   {"temperature", EQPL_TEMPERATURE, 0, 0, 0, 0, NULL},
   {"activity", EQPL_ANY, 0, 0, 0, 0, NULL},
   {"species", EQPL_ANY, 0, 0, 0, 0, NULL},
+  {"precipitate", EQPL_ANY, 0, 0, 0, 0, NULL},
   {NULL, 0, 0, 0, 0, 0, NULL},
 };
-enum { O_VOLUME, O_WATER, O_TEMPERATURE, O_ACTIVITY, O_SPECIES, O_N };
+enum { O_VOLUME, O_WATER, O_TEMPERATURE, O_ACTIVITY, O_SPECIES, O_PRECIPITATE, O_N };
+
+/* precipitate = true (every solid of the library), false, or a list of
+** solid names; an unknown name is refused with the nearest one. */
+static void read_precipitate(lua_State *L, eqp_ctx *ctx, eqp_solution *s, const eqpl_val *v)
+{
+  char buf[96];
+  if (!v->given) return;
+  int rc = EQP_OK;
+  if (lua_type(L, v->idx) == LUA_TBOOLEAN) {
+    rc = eqp_solution_allow_all_solids(s, lua_toboolean(L, v->idx));
+  } else if (lua_type(L, v->idx) == LUA_TTABLE) {
+    size_t n = lua_rawlen(L, v->idx), ns = eqp_ctx_solid_count(ctx);
+    const char **names = lua_newuserdatauv(L, sizeof(char *) * (n + 1), 0);  /* anchored */
+    const char **all = lua_newuserdatauv(L, sizeof(char *) * (ns + 1), 0);
+    for (size_t j = 0; j < ns; j++) all[j] = eqp_ctx_solid_name(ctx, j);
+    for (size_t i = 0; i < n; i++) {
+      lua_rawgeti(L, v->idx, (lua_Integer)i + 1);   /* stays on the stack: anchors the name */
+      names[i] = eqpl_check_name(L, -1, "eq.solution: precipitate, a solid's name,");
+      int known = 0;
+      for (size_t j = 0; j < ns && !known; j++) known = strcmp(all[j], names[i]) == 0;
+      if (!known) {
+        /* a formula naming one solid is fine too: the library decides */
+        const char *near = eqpl_nearest(names[i], strlen(names[i]), all, ns);
+        if (eqp_solution_allow_solids(s, &names[i], 1) < 0) {
+          if (near)
+            eqpl_input_error(L, "eq.solution: precipitate: unknown solid '%s' (did you mean "
+                             "'%s'?)", names[i], near);
+          eqpl_fail(L, ctx, eqp_ctx_errcode(ctx));
+          return;
+        }
+      }
+    }
+    lua_pushnil(L);
+    while (lua_next(L, v->idx)) {
+      if (!lua_isinteger(L, -2) || lua_tointeger(L, -2) < 1 ||
+          (size_t)lua_tointeger(L, -2) > n)
+        eqpl_input_error(L, "eq.solution: precipitate is a list of solids' names, such as "
+                         "{ 'calcite' }, or true for all");
+      lua_pop(L, 1);
+    }
+    rc = eqp_solution_allow_solids(s, names, n);
+  } else {
+    eqpl_input_error(L, "eq.solution: precipitate must be true, false or a list of solids "
+                     "such as { 'calcite' }; got %s", eqpl_describe(L, v->idx, buf, sizeof buf));
+  }
+  if (rc < 0) eqpl_fail(L, ctx, rc);
+}
 
 /* activity = "davies" or { "davies", coefficient = 0.2 }: the model's name;
 ** *params is the slot of a checked copy of the parameters (0: none), so
@@ -131,6 +179,7 @@ int eqpl_solution_new(lua_State *L)
   load_species(L, ctx, &v[O_SPECIES]);
   eqp_solution *s;
   eqpl_solution *u = eqpl_new_handle(L, sizeof *u, EQPL_SOLUTION);
+  int hidx = lua_gettop(L);
   int rc = eqp_solution_new(ctx, &o, &s);
   if (rc < 0) return eqpl_fail(L, ctx, rc);
   u->s = s;
@@ -142,6 +191,8 @@ int eqpl_solution_new(lua_State *L)
       lua_pop(L, 1);
     }
   }
+  read_precipitate(L, ctx, s, &v[O_PRECIPITATE]);
+  lua_pushvalue(L, hidx);
   return 1;
 }
 
