@@ -48,6 +48,22 @@ static void gather(void *ud, const char *kind, const char *text)
   w->n++;
 }
 
+/* A solid the result is supersaturated in: said, not formed (docs/user-guide.md). */
+static void supersaturation_notes(const eqp_result *r)
+{
+  const eqpi_db *db = &r->ctx->db;
+  for (int k = 0; k < db->nsolids; k++) {
+    double si;
+    if (eqp_result_saturation(r, db->solids[k].name, &si) != EQP_OK || !(si > 1e-6)) continue;
+    char w[320];
+    snprintf(w, sizeof w, "%s (%s) is supersaturated, saturation index %.2f: it may "
+             "precipitate; a solid forms only where precipitate = {...} allows it (many "
+             "supersaturated media stay metastable for days)", db->solids[k].name,
+             db->solids[k].formula, si);
+    eqpi_warn(r->ctx, "supersaturated", w);
+  }
+}
+
 int eqpi_result_make(eqp_ctx *ctx, const eqpi_system *sys, const eqpi_model *model, double T,
                      double water_kg, const eqpi_solve_stats *st, eqp_result **out)
 {
@@ -93,6 +109,7 @@ int eqpi_result_make(eqp_ctx *ctx, const eqpi_system *sys, const eqpi_model *mod
     wlist fill = {0, 0, r, (char *)r + fixed};
     eqpi_state_warnings(model, I, T, water_kg, st, gather, &fill);
   }
+  supersaturation_notes(r);
   *out = r;
   return EQP_OK;
 }

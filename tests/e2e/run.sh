@@ -147,6 +147,8 @@ check species_check_good 0 "ok, 2 species added" -- "$EQP" species check "$CASES
 # IUPAC charge notation (number then sign after a caret); Unicode accepted
 check notation_unicode 3 "ok notation" -- "$EQP" run "$CASES/notation.lua"
 check notation_old_style 3 "notation.lua:17: unknown species 'HPO4-2' (did you mean 'HPO4^2-'?" -- "$EQP" run "$CASES/notation.lua"
+check supersaturated_warns 0 "supersaturated.lua:5: calcite (CaCO3) is supersaturated" -- "$EQP" run "$CASES/supersaturated.lua"
+check supersaturated_json 0 "calcite (CaCO3) is supersaturated" -- sh -c "'$EQP' run '$CASES/supersaturated.lua' --json | '$JSON' warnings.0"
 check print_replaced 0 "Check with a pH meter" -- "$EQP" run "$CASES/print_replaced.lua"
 check notation_more 0 "ok notation more" -- "$EQP" run "$CASES/notation_more.lua"
 check notation_total_hint 3 "not a component (did you mean 'Na+'?" -- "$EQP" run "$CASES/notation_total.lua"
