@@ -10,7 +10,8 @@ build=${1:-build}
 # plots: PLplot with its cairo driver, a font with sub- and superscript
 # digits, libpng for the test that reads the report's screenshot
 packages="build-essential cmake pkg-config liblua5.4-dev lua5.4 libsundials-dev libcmocka-dev libcjson-dev
-  python3 python3-jsonschema libplplot-dev plplot-driver-cairo fonts-dejavu-core libpng-dev"
+  python3 python3-jsonschema libplplot-dev plplot-driver-cairo fonts-dejavu-core libpng-dev
+  uthash-dev"
 missing=""
 for p in $packages; do
   dpkg-query -W -f='${Status}' "$p" 2>/dev/null | grep -q "install ok installed" || missing="$missing $p"

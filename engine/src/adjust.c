@@ -94,7 +94,7 @@ static void local_dir(const eqpi_system *s, const double *g, double *l)
 ** does not have yet: they enter as spectators. */
 static double absent_dI(eqp_ctx *ctx, const eqpi_system *s, const double *a_global, double W)
 {
-  const eqpi_db *db = &ctx->db;
+  const eqpi_db *db = s->tab->db;
   double dI = 0;
   for (int c = 0; c < db->ncomp; c++)
     if (a_global[c] != 0 && (c >= s->tab->ncg || !s->tab->active[c]) &&
@@ -149,6 +149,7 @@ static double ln_measure(const eqpi_system *s, const eqpi_adjust *aj)
 /* An adjustment in progress: the targets, their amounts, and the totals. */
 typedef struct adj {
   eqp_ctx *ctx;
+  const eqpi_db *db;    /* the library of the solution */
   eqpi_system **sysp;
   const eqpi_adjust *aj;
   int n;
@@ -164,7 +165,7 @@ static int solve_at(adj *A)
 {
   eqp_ctx *ctx = A->ctx;
   const eqpi_adjust *aj = A->aj;
-  const eqpi_db *db = &ctx->db;
+  const eqpi_db *db = A->db;
   double W = aj[0].W0;
   for (int k = 0; k < A->n; k++) W += A->v[k] * aj[k].w;
   for (int c = 0; c < db->ncomp; c++) {
@@ -172,7 +173,7 @@ static int solve_at(adj *A)
     for (int k = 0; k < A->n; k++) N += A->v[k] * aj[k].a[c];
     A->tot[c] = N / W;
   }
-  int rc = eqpi_system_prepare(ctx, A->sysp, A->tot, aj[0].T, aj[0].model, A->extra);
+  int rc = eqpi_system_prepare(ctx, db, A->sysp, A->tot, aj[0].T, aj[0].model, A->extra);
   if (rc < 0) return rc;
   return eqpi_system_solve_prepared(ctx, *A->sysp, A->st);
 }
@@ -293,7 +294,7 @@ static int unreachable(eqp_ctx *ctx, const eqpi_system *s, const eqpi_adjust *aj
                      "(now %.3f)", aj->pH, aj->what, slope < 0 ? "raises" : "lowers", pH);
   }
   const char *what = aj->kind == EQPI_ADJ_IONIC ? "the ionic strength"
-                                                : ctx->db.sp[aj->species].name;
+                                                : s->tab->db->sp[aj->species].name;
   const char *unit = aj->kind == EQPI_ADJ_ACTIVITY ? "" : " mol/kg";
   const char *of = aj->kind == EQPI_ADJ_ACTIVITY ? "activity " :
                    aj->kind == EQPI_ADJ_FREE ? "free molality " : "";
@@ -333,10 +334,9 @@ static int brent_one(adj *A, int k, double slope)
   return miss(A, root, &f0);
 }
 
-int eqpi_system_adjust(eqp_ctx *ctx, eqpi_system **sysp, const eqpi_adjust *aj, int n,
-                       double *v_out, eqpi_solve_stats *st)
+int eqpi_system_adjust(eqp_ctx *ctx, const eqpi_db *db, eqpi_system **sysp,
+                       const eqpi_adjust *aj, int n, double *v_out, eqpi_solve_stats *st)
 {
-  const eqpi_db *db = &ctx->db;
   if (n < 1 || n > EQPI_MAX_AMOUNTS) return eqpi_fail(ctx, EQP_E_ARG, "1 to %d targets",
                                                       EQPI_MAX_AMOUNTS);
   size_t nb = (size_t)db->ncomp + 1;
@@ -344,7 +344,7 @@ int eqpi_system_adjust(eqp_ctx *ctx, eqpi_system **sysp, const eqpi_adjust *aj, 
   if (!tot) return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
   double v[EQPI_MAX_AMOUNTS], now[EQPI_MAX_AMOUNTS], want[EQPI_MAX_AMOUNTS];
   double D[EQPI_MAX_AMOUNTS * EQPI_MAX_AMOUNTS], vlin[EQPI_MAX_AMOUNTS];
-  adj A = {ctx, sysp, aj, n, v, tot, tot + nb, st, 0};
+  adj A = {ctx, db, sysp, aj, n, v, tot, tot + nb, st, 0};
   for (int k = 0; k < n; k++) {
     v[k] = aj[k].v0;
     for (int c = 0; c < db->ncomp; c++) A.extra[c] += fabs(aj[k].a[c]);
@@ -444,10 +444,10 @@ static void unfix(eqpi_system *s, int c, int q, double tc, double tq, const doub
   memcpy(s->tot_last, P->tot, sizeof(double) * (size_t)nc);
 }
 
-int eqpi_system_fix(eqp_ctx *ctx, eqpi_system **sysp, const double *totals, double T,
-                    eqpi_model *model, int comp, double lna, int counter, double *tc, double *tq)
+int eqpi_system_fix(eqp_ctx *ctx, const eqpi_db *db, eqpi_system **sysp, const double *totals,
+                    double T, eqpi_model *model, int comp, double lna, int counter, double *tc,
+                    double *tq)
 {
-  const eqpi_db *db = &ctx->db;
   size_t nb = (size_t)db->ncomp + 1;
   double *tot = eqpi_calloc(ctx, 2 * nb, sizeof(double)), *extra = tot + nb;
   if (!tot) return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
@@ -461,7 +461,7 @@ int eqpi_system_fix(eqp_ctx *ctx, eqpi_system **sysp, const double *totals, doub
       tot[hplus] -= z * 1e-12;
     }
   extra[comp] = extra[counter] = 1;
-  int rc = eqpi_system_prepare(ctx, sysp, tot, T, model, extra);
+  int rc = eqpi_system_prepare(ctx, db, sysp, tot, T, model, extra);
   if (rc == EQP_OK) rc = eqpi_system_solve_prepared(ctx, *sysp, NULL);
   eqpi_free(ctx, tot, 2 * nb * sizeof(double));
   if (rc < 0) return rc;

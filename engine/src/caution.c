@@ -213,41 +213,43 @@ static int int_push(eqp_ctx *ctx, int **arr, int *n, int *cap, int v)
 {
   for (int i = 0; i < *n; i++)
     if ((*arr)[i] == v) return 0;
-  if (*n == *cap) {
-    int nc = *cap ? *cap * 2 : 8;
-    int *p = eqpi_realloc(ctx, *arr, sizeof *p * (size_t)*cap, sizeof *p * (size_t)nc);
-    if (!p) return -1;
-    *arr = p;
-    *cap = nc;
-  }
+  if (eqpi_grow(ctx, arr, cap, *n + 1, sizeof **arr) < 0) return -1;
   (*arr)[(*n)++] = v;
   return 1;
 }
 
-/* The context's record: reagent index and its caution text, in order of first use. */
-static int ctx_record(eqp_ctx *ctx, int reagent)
+/* The context's record: reagent name and its caution text, in order of
+** first use (by name: solutions may use libraries of their own). */
+static int ctx_record(eqp_ctx *ctx, const eqpi_db *db, int reagent)
 {
-  for (int i = 0; i < ctx->ncautions; i++)
-    if (ctx->caution_rg[i] == reagent) return EQP_OK;
-  char text[1024];
-  eqpi_caution_text(&ctx->db, reagent, text, sizeof text);
-  if (ctx->ncautions == ctx->capcautions) {
-    int nc = ctx->capcautions ? ctx->capcautions * 2 : 8;
-    int *rg = eqpi_realloc(ctx, ctx->caution_rg, sizeof *rg * (size_t)ctx->capcautions,
-                           sizeof *rg * (size_t)nc);
-    if (!rg) return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
-    ctx->caution_rg = rg;
-    char **tx = eqpi_realloc(ctx, ctx->caution_text, sizeof *tx * (size_t)ctx->capcautions,
-                             sizeof *tx * (size_t)nc);
-    if (!tx) return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
-    ctx->caution_text = tx;
-    ctx->capcautions = nc;
+  if (ctx->caution_seen_gen == db->generation && ctx->caution_seen_rg == reagent)
+    return EQP_OK;                     /* the same again, as in a loop of additions */
+  const char *name = db->rg[reagent].name;
+  int known = 0;
+  for (int i = 0; i < ctx->ncautions && !known; i++) known = strcmp(ctx->caution_rg[i], name) == 0;
+  if (known) {
+    ctx->caution_seen_gen = db->generation;
+    ctx->caution_seen_rg = reagent;
+    return EQP_OK;
   }
-  char *t = eqpi_strdup(ctx, text);
-  if (!t) return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
-  ctx->caution_rg[ctx->ncautions] = reagent;
+  char text[1024];
+  eqpi_caution_text(db, reagent, text, sizeof text);
+  if (eqpi_grow(ctx, &ctx->caution_rg, &ctx->capcaution_rg, ctx->ncautions + 1,
+                sizeof(char *)) < 0 ||
+      eqpi_grow(ctx, &ctx->caution_text, &ctx->capcautions, ctx->ncautions + 1,
+                sizeof(char *)) < 0)
+    return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
+  char *t = eqpi_strdup(ctx, text), *nm = eqpi_strdup(ctx, name);
+  if (!t || !nm) {
+    eqpi_strfree(ctx, t);
+    eqpi_strfree(ctx, nm);
+    return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
+  }
+  ctx->caution_rg[ctx->ncautions] = nm;
   ctx->caution_text[ctx->ncautions++] = t;
-  eqpi_observe_caution(ctx, ctx->db.rg[reagent].name, t);
+  ctx->caution_seen_gen = db->generation;
+  ctx->caution_seen_rg = reagent;
+  eqpi_observe_caution(ctx, nm, t);
   return EQP_OK;
 }
 
@@ -256,10 +258,10 @@ static int use(eqp_solution *s, const eqpi_reagent *r)
 {
   if (!r->nhazards) return EQP_OK;
   eqp_ctx *ctx = s->ctx;
-  int g = (int)(r - ctx->db.rg);
+  int g = (int)(r - s->db->rg);
   if (int_push(ctx, &s->hazard, &s->nhazard, &s->caphazard, g) < 0)
     return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
-  return ctx->caution_hold ? EQP_OK : ctx_record(ctx, g);
+  return ctx->caution_hold ? EQP_OK : ctx_record(ctx, s->db, g);
 }
 
 int eqpi_use_reagent(eqp_solution *s, const eqpi_reagent *r)
@@ -283,7 +285,7 @@ void eqpi_cautions_hold(eqp_ctx *ctx, int delta)
 
 int eqpi_use_stock(eqp_solution *s, const eqp_solution *stock)
 {
-  const eqpi_db *from = &stock->ctx->db, *to = &s->ctx->db;
+  const eqpi_db *from = stock->db, *to = s->db;
   for (int i = 0; i < stock->nhazard; i++) {
     /* the same library, or the reagent of the same name in s's own */
     int g = from == to ? stock->hazard[i] : eqpi_db_find_reagent(to, from->rg[stock->hazard[i]].name);
@@ -301,12 +303,20 @@ void eqpi_solution_hazards_free(eqp_solution *s)
 
 void eqpi_cautions_free(eqp_ctx *ctx)
 {
-  for (int i = 0; i < ctx->ncautions; i++) eqpi_strfree(ctx, ctx->caution_text[i]);
+  for (int i = 0; i < ctx->ncautions; i++) {
+    eqpi_strfree(ctx, ctx->caution_text[i]);
+    eqpi_strfree(ctx, ctx->caution_rg[i]);
+  }
   eqpi_free(ctx, ctx->caution_text, sizeof *ctx->caution_text * (size_t)ctx->capcautions);
-  eqpi_free(ctx, ctx->caution_rg, sizeof *ctx->caution_rg * (size_t)ctx->capcautions);
+  eqpi_free(ctx, ctx->caution_rg, sizeof *ctx->caution_rg * (size_t)ctx->capcaution_rg);
   ctx->caution_text = NULL;
   ctx->caution_rg = NULL;
-  ctx->ncautions = ctx->capcautions = 0;
+  ctx->ncautions = ctx->capcautions = ctx->capcaution_rg = 0;
+  ctx->caution_seen_gen = 0;
+  for (int i = 0; i < ctx->ngases_used; i++) eqpi_strfree(ctx, ctx->gases_used[i]);
+  eqpi_free(ctx, ctx->gases_used, sizeof(char *) * (size_t)ctx->capgases_used);
+  ctx->gases_used = NULL;
+  ctx->ngases_used = ctx->capgases_used = 0;
 }
 
 /* ------------------------------------------------------------ public */
@@ -320,12 +330,32 @@ const char *eqp_ctx_caution(const eqp_ctx *ctx, size_t i)
 
 const char *eqp_ctx_caution_reagent(const eqp_ctx *ctx, size_t i)
 {
-  return ctx && i < (size_t)ctx->ncautions ? ctx->db.rg[ctx->caution_rg[i]].name : NULL;
+  return ctx && i < (size_t)ctx->ncautions ? ctx->caution_rg[i] : NULL;
 }
 
 size_t eqp_solution_hazard_count(const eqp_solution *s) { return s ? (size_t)s->nhazard : 0; }
 
 const char *eqp_solution_hazard_reagent(const eqp_solution *s, size_t i)
 {
-  return s && i < (size_t)s->nhazard ? s->ctx->db.rg[s->hazard[i]].name : NULL;
+  return s && i < (size_t)s->nhazard ? s->db->rg[s->hazard[i]].name : NULL;
+}
+
+/* ------------------------------------------------------------ gases */
+
+void eqpi_gas_used(eqp_ctx *ctx, const char *name)
+{
+  if (eqpi_gas_was_used(ctx, name)) return;
+  char *n = eqpi_strdup(ctx, name);      /* informational: a failure loses a line only */
+  if (n && eqpi_grow(ctx, &ctx->gases_used, &ctx->capgases_used, ctx->ngases_used + 1,
+                     sizeof(char *)) == 0)
+    ctx->gases_used[ctx->ngases_used++] = n;
+  else
+    eqpi_strfree(ctx, n);
+}
+
+int eqpi_gas_was_used(const eqp_ctx *ctx, const char *name)
+{
+  for (int i = 0; i < ctx->ngases_used; i++)
+    if (strcmp(ctx->gases_used[i], name) == 0) return 1;
+  return 0;
 }

@@ -249,17 +249,10 @@ static int resolve(committer *c, int i, int depth)
   return 0;
 }
 
-/* A new reagent entry under name (indexed); its index, or -1. */
+/* A new reagent entry under name (indexed); its index, or -1. Room for a
+** reagent per staged reagent and per staged species is reserved. */
 static int push_reagent(committer *c, const char *name)
 {
-  if (c->nrg == c->caprg) {
-    int nc = c->caprg * 2 + 16;
-    eqpi_reagent *p = eqpi_realloc(c->ctx, c->rg, sizeof *p * (size_t)c->caprg,
-                                   sizeof *p * (size_t)nc);
-    if (!p) return -1;
-    c->rg = p;
-    c->caprg = nc;
-  }
   memset(&c->rg[c->nrg], 0, sizeof c->rg[0]);
   c->rg[c->nrg].name = name;
   if (eqpi_index_put(c->ctx, &c->rgnew, name, c->nrg, NULL) < 0) return -1;
@@ -389,80 +382,94 @@ static void add_reagents(committer *c)
 static void committer_free(committer *c)
 {
   eqp_ctx *ctx = c->ctx;
-  eqpi_free(ctx, c->sp, sizeof *c->sp * (size_t)(c->db->nsp + c->st->nsp + 1));
-  eqpi_free(ctx, c->rx, sizeof *c->rx * (size_t)(c->db->nrx + c->st->nrx + 1));
-  eqpi_free(ctx, c->rg, sizeof *c->rg * (size_t)c->caprg);
-  eqpi_free(ctx, c->comp_species, sizeof(int) * (size_t)(c->db->ncomp + c->st->nsp + 1));
   eqpi_free(ctx, c->state, (size_t)(c->db->nsp + c->st->nsp + 1));
-  eqpi_free(ctx, c->pairs, sizeof *c->pairs * (size_t)c->cappairs);
-  eqpi_free(ctx, c->buf, sizeof *c->buf * (size_t)c->capbuf);
-  eqpi_free(ctx, c->gas, sizeof *c->gas * (size_t)c->capgas);
-  eqpi_free(ctx, c->sol, sizeof *c->sol * (size_t)c->capsol);
   eqpi_index_free(ctx, &c->spnew);
   eqpi_index_free(ctx, &c->rgnew);
   sparse_free(ctx, &c->comp);
   sparse_free(ctx, &c->rxn);
 }
 
-/* A growable copy of the n elements at src (none: stays NULL, cap 0). */
-static int dup_array(eqp_ctx *ctx, void **dst, const void *src, int n, size_t elem, int *cap)
+/* What the stage can add at most, so that the library being made has room
+** for it before anything is written (its arrays never move meanwhile). */
+static void room_for(const eqpi_stage *st, int nrec, eqpi_room *r)
 {
-  *dst = NULL;
-  *cap = 0;
-  if (n == 0) return 0;
-  if (!(*dst = eqpi_malloc(ctx, elem * (size_t)(n + 16)))) return -1;
-  memcpy(*dst, src, elem * (size_t)n);
-  *cap = n + 16;
-  return 0;
+  memset(r, 0, sizeof *r);
+  r->sp = st->nsp;
+  r->rx = st->nrx;
+  r->rg = st->nrg + st->nsp;        /* every new neutral species is a reagent too */
+  r->comp = st->nsp;
+  for (int k = 0; k < st->nin; k++) r->pairs += st->in[k].n;
+  r->buffers = st->nbf;
+  r->gases = st->ngs;
+  r->solids = st->nso;
+  r->files = st->nfiles;
+  r->loaded = nrec;
 }
 
-int eqpi_stage_commit(eqp_ctx *ctx, eqpi_stage *st)
+/* Fill the new library's counts, lists of files and sources loaded. */
+static int seal(committer *c, const eqpi_loaded *rec, int nrec)
 {
-  eqpi_db *db = &ctx->db;
+  eqpi_db *out = c->out;
+  eqpi_stage *st = c->st;
+  out->nsp = c->nsp;
+  out->nrx = c->nrx;
+  out->nrg = c->nrg;
+  out->ncomp = c->ncomp;
+  out->npairs = c->npairs;
+  out->nbuffers = c->nbuf;
+  out->ngases = c->ngas;
+  out->nsolids = c->nsol;
+  for (int f = 0; f < st->nfiles; f++) out->files[out->nfiles++] = st->files[f];
+  for (int k = 0; k < nrec; k++) {
+    const char *key = eqpi_arena_strdup(c->ctx, &st->arena, rec[k].key);
+    if (!key) return -1;
+    out->loaded[out->nloaded].key = key;
+    out->loaded[out->nloaded++].hash = rec[k].hash;
+  }
+  return eqpi_db_finish(out);
+}
+
+int eqpi_stage_commit(eqp_ctx *ctx, const eqpi_db *base, eqpi_stage *st, const eqpi_loaded *rec,
+                      int nrec, eqpi_db **out)
+{
   committer c;
   memset(&c, 0, sizeof c);
+  *out = NULL;
   c.ctx = ctx;
-  c.db = db;
+  c.db = base;
   c.st = st;
-  c.nsp = db->nsp;
-  c.nrx = db->nrx;
-  c.nrg = db->nrg;
-  c.ncomp = db->ncomp;
   int rc = EQP_E_DATA;
   /* Shape errors found while staging do not stop the checks of names and
   ** balances below, so one run reports every problem; nothing is kept. */
-  size_t maxsp = (size_t)(db->nsp + st->nsp + 1), maxrx = (size_t)(db->nrx + st->nrx + 1);
-  c.sp = eqpi_malloc(ctx, sizeof *c.sp * maxsp);
-  c.rx = eqpi_malloc(ctx, sizeof *c.rx * maxrx);
-  c.caprg = db->nrg + st->nrg * 2 + 16;
-  c.rg = eqpi_malloc(ctx, sizeof *c.rg * (size_t)c.caprg);
-  c.comp_species = eqpi_malloc(ctx, sizeof(int) * (size_t)(db->ncomp + st->nsp + 1));
-  c.state = eqpi_calloc(ctx, maxsp, 1);
-  if (!c.sp || !c.rx || !c.rg || !c.comp_species || !c.state) {
+  eqpi_room room;
+  room_for(st, nrec, &room);
+  c.out = eqpi_db_begin(ctx, base, &room, 0);
+  c.state = eqpi_calloc(ctx, (size_t)(base->nsp + st->nsp + 1), 1);
+  if (!c.out || !c.state) {
     rc = EQP_E_NOMEM;
     eqpi_stage_error(st, NULL, 0, "out of memory");
     goto fail;
   }
-  if (db->nsp) memcpy(c.sp, db->sp, sizeof *c.sp * (size_t)db->nsp);
-  if (db->nrx) memcpy(c.rx, db->rx, sizeof *c.rx * (size_t)db->nrx);
-  if (db->nrg) memcpy(c.rg, db->rg, sizeof *c.rg * (size_t)db->nrg);
-  if (db->ncomp) memcpy(c.comp_species, db->comp_species, sizeof(int) * (size_t)db->ncomp);
-  memset(c.state, 2, (size_t)db->nsp);
-  if (dup_array(ctx, (void **)&c.pairs, db->pairs, db->npairs, sizeof *c.pairs, &c.cappairs) < 0 ||
-      dup_array(ctx, (void **)&c.buf, db->buffers, db->nbuffers, sizeof *c.buf, &c.capbuf) < 0 ||
-      dup_array(ctx, (void **)&c.gas, db->gases, db->ngases, sizeof *c.gas, &c.capgas) < 0 ||
-      dup_array(ctx, (void **)&c.sol, db->solids, db->nsolids, sizeof *c.sol, &c.capsol) < 0) {
-    rc = EQP_E_NOMEM;
-    eqpi_stage_error(st, NULL, 0, "out of memory");
-    goto fail;
-  }
-  c.npairs = db->npairs;
-  c.nbuf = db->nbuffers;
-  c.ngas = db->ngases;
-  c.nsol = db->nsolids;
+  c.sp = c.out->sp;
+  c.nsp = base->nsp;
+  c.rx = c.out->rx;
+  c.nrx = base->nrx;
+  c.rg = c.out->rg;
+  c.nrg = base->nrg;
+  c.comp_species = c.out->comp_species;
+  c.ncomp = base->ncomp;
+  c.pairs = c.out->pairs;
+  c.npairs = base->npairs;
+  c.buf = c.out->buffers;
+  c.nbuf = base->nbuffers;
+  c.gas = c.out->gases;
+  c.ngas = base->ngases;
+  c.sol = c.out->solids;
+  c.nsol = base->nsolids;
+  memset(c.state, 2, (size_t)base->nsp);
   add_species(&c);
   add_reactions(&c);
-  for (int i = db->nsp; i < c.nsp; i++)
+  for (int i = base->nsp; i < c.nsp; i++)
     if (c.sp[i].rxn < 0) {
       c.sp[i].component = c.ncomp;
       c.comp_species[c.ncomp++] = i;
@@ -473,7 +480,7 @@ int eqpi_stage_commit(eqp_ctx *ctx, eqpi_stage *st)
     eqpi_stage_error(st, NULL, 0, "out of memory");
     goto fail;
   }
-  for (int i = db->nsp; i < c.nsp; i++)
+  for (int i = base->nsp; i < c.nsp; i++)
     if (resolve(&c, i, 0) < 0) goto fail;
   add_reagents(&c);
   eqpi_commit_interactions(&c);
@@ -481,59 +488,19 @@ int eqpi_stage_commit(eqp_ctx *ctx, eqpi_stage *st)
   eqpi_commit_gases(&c);
   eqpi_commit_solids(&c);
   if (st->nerr) goto fail;
-  /* Success: nothing below can fail except the index, rebuilt on the
-  ** new arrays before the old ones are released. */
-  eqpi_db next = *db;
-  next.sp = c.sp; next.nsp = c.nsp; next.capsp = (int)maxsp;
-  next.rx = c.rx; next.nrx = c.nrx; next.caprx = (int)maxrx;
-  next.rg = c.rg; next.nrg = c.nrg; next.caprg = c.caprg;
-  next.comp_species = c.comp_species; next.ncomp = c.ncomp;
-  next.pairs = c.pairs; next.npairs = c.npairs; next.cappairs = c.cappairs;
-  next.buffers = c.buf; next.nbuffers = c.nbuf; next.capbuffers = c.capbuf;
-  next.gases = c.gas; next.ngases = c.ngas; next.capgases = c.capgas;
-  next.solids = c.sol; next.nsolids = c.nsol; next.capsolids = c.capsol;
-  next.capcomp = db->ncomp + st->nsp + 1;
-  memset(&next.spidx, 0, sizeof next.spidx);
-  memset(&next.rgidx, 0, sizeof next.rgidx);
-  if (eqpi_db_rebuild_index(ctx, &next) < 0) {
+  if (seal(&c, rec, nrec) < 0) {
     rc = EQP_E_NOMEM;
     eqpi_stage_error(st, NULL, 0, "out of memory");
     goto fail;
   }
-  for (int f = 0; f < st->nfiles; f++) {
-    if (db->nfiles == db->capfiles) {
-      int nc = db->capfiles * 2 + 8;
-      const char **p = eqpi_realloc(ctx, db->files, sizeof *p * (size_t)db->capfiles,
-                                    sizeof *p * (size_t)nc);
-      if (!p) break;   /* the list of files is informational only */
-      db->files = p;
-      db->capfiles = nc;
-    }
-    db->files[db->nfiles++] = st->files[f];
-  }
-  next.files = db->files; next.nfiles = db->nfiles; next.capfiles = db->capfiles;
-  eqpi_free(ctx, db->sp, sizeof *db->sp * (size_t)db->capsp);
-  eqpi_free(ctx, db->rx, sizeof *db->rx * (size_t)db->caprx);
-  eqpi_free(ctx, db->rg, sizeof *db->rg * (size_t)db->caprg);
-  eqpi_free(ctx, db->comp_species, sizeof(int) * (size_t)db->capcomp);
-  eqpi_index_free(ctx, &db->spidx);
-  eqpi_index_free(ctx, &db->rgidx);
-  eqpi_free(ctx, db->pairs, sizeof *db->pairs * (size_t)db->cappairs);
-  eqpi_free(ctx, db->buffers, sizeof *db->buffers * (size_t)db->capbuffers);
-  eqpi_free(ctx, db->gases, sizeof *db->gases * (size_t)db->capgases);
-  eqpi_free(ctx, db->solids, sizeof *db->solids * (size_t)db->capsolids);
-  eqpi_free(ctx, c.state, maxsp);
-  eqpi_index_free(ctx, &c.spnew);
-  eqpi_index_free(ctx, &c.rgnew);
-  sparse_free(ctx, &c.comp);
-  sparse_free(ctx, &c.rxn);
-  *db = next;
-  eqpi_arena_splice(&db->arena, &st->arena);
-  db->h_plus = eqpi_db_find_species(db, "H+");
-  db->water = eqpi_db_find_species(db, "H2O");
-  db->generation++;
+  /* the strings and arrays of the entries are the new library's now */
+  eqpi_arena_splice(&c.out->arena, &st->arena);
+  *out = c.out;
+  c.out = NULL;
+  committer_free(&c);
   return EQP_OK;
 fail:
+  eqpi_db_release(c.out);
   committer_free(&c);
   if (st->nerr > 1) {
     char tail[64];

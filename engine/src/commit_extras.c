@@ -18,8 +18,6 @@ int eqpi_commit_find_reagent(const committer *c, const char *name)
   return i >= 0 ? i : eqpi_index_get(&c->rgnew, name);
 }
 
-/* Resolve the names of each interaction; a pair and key given twice is an
-** error. The new parameters go to c->pairs after the existing ones. */
 /* "a b key" with a <= b: the name of a pair parameter in an index. */
 static const char *pair_key(committer *c, eqpi_arena **tmp, int a, int b, const char *key)
 {
@@ -28,6 +26,9 @@ static const char *pair_key(committer *c, eqpi_arena **tmp, int a, int b, const 
   return eqpi_arena_strdup(c->ctx, tmp, buf);
 }
 
+/* Resolve the names of each interaction; a pair and key given twice is an
+** error. The new parameters go to c->pairs after the existing ones (room
+** for all of them is reserved). */
 void eqpi_commit_interactions(committer *c)
 {
   char hint[256];
@@ -56,14 +57,6 @@ void eqpi_commit_interactions(committer *c)
         const eqpi_pairparam *o = &c->pairs[q];
         eqpi_stage_error(st, in->file, in->line, "duplicate %s for %s and %s (first at %s:%d)",
                          o->key, in->a, in->b, o->file, o->line);
-      }
-      if (c->npairs == c->cappairs) {
-        int nc = c->cappairs * 2 + 16;
-        eqpi_pairparam *np = eqpi_realloc(c->ctx, c->pairs, sizeof *np * (size_t)c->cappairs,
-                                          sizeof *np * (size_t)nc);
-        if (!np) goto nomem;
-        c->pairs = np;
-        c->cappairs = nc;
       }
       eqpi_pairparam *d = &c->pairs[c->npairs++];
       d->a = a;
@@ -128,13 +121,6 @@ void eqpi_commit_buffers(committer *c)
     if (name_taken(c, &seen, b->name, c->nbuf, &q))
       eqpi_stage_error(st, b->file, b->line, "duplicate buffer '%s' (first at %s:%d)",
                        b->name, c->buf[q].file, c->buf[q].line);
-    if (c->nbuf == c->capbuf) {
-      int nc = c->capbuf * 2 + 8;
-      eqpi_buffer *p = eqpi_realloc(c->ctx, c->buf, sizeof *p * (size_t)c->capbuf, sizeof *p * (size_t)nc);
-      if (!p) { eqpi_stage_error(st, NULL, 0, "out of memory"); break; }
-      c->buf = p;
-      c->capbuf = nc;
-    }
     eqpi_buffer *d = &c->buf[c->nbuf++];
     d->name = b->name;
     d->acid = buffer_reagent(c, b, b->acid);
@@ -178,13 +164,6 @@ void eqpi_commit_gases(committer *c)
     if (name_taken(c, &seen, g->name, c->ngas, &q))
       eqpi_stage_error(st, g->file, g->line, "duplicate gas '%s' (first at %s:%d)", g->name,
                        c->gas[q].kh.file, c->gas[q].kh.line);
-    if (c->ngas == c->capgas) {
-      int nc = c->capgas * 2 + 4;
-      eqpi_gas *p = eqpi_realloc(c->ctx, c->gas, sizeof *p * (size_t)c->capgas, sizeof *p * (size_t)nc);
-      if (!p) { eqpi_stage_error(st, NULL, 0, "out of memory"); break; }
-      c->gas = p;
-      c->capgas = nc;
-    }
     eqpi_gas *d = &c->gas[c->ngas++];
     memset(d, 0, sizeof *d);
     d->name = g->name;
@@ -244,13 +223,6 @@ void eqpi_commit_solids(committer *c)
       eqpi_stage_error(st, g->file, g->line, "solid '%s' is unbalanced (%s minus what it "
                        "dissolves to: %s)", g->name, g->formula, diff);
       continue;
-    }
-    if (c->nsol == c->capsol) {
-      int nc = c->capsol * 2 + 4;
-      eqpi_solid *p = eqpi_realloc(c->ctx, c->sol, sizeof *p * (size_t)c->capsol, sizeof *p * (size_t)nc);
-      if (!p) { eqpi_stage_error(st, NULL, 0, "out of memory"); break; }
-      c->sol = p;
-      c->capsol = nc;
     }
     if (name_taken(c, &seen, g->name, c->nsol, &q)) break;   /* only out of memory */
     eqpi_solid *d = &c->sol[c->nsol++];

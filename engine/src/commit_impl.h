@@ -4,6 +4,7 @@
 #define EQP_COMMIT_IMPL_H
 
 #include "stage_impl.h"
+#include "snapshot_impl.h"
 
 /* A sparse sum over n slots: v holds the values, idx the slots touched
 ** since the last reset, so that building each species' resolved terms
@@ -17,25 +18,28 @@ typedef struct eqpi_sparse {
 
 typedef struct committer {
   eqp_ctx *ctx;
-  eqpi_db *db;
+  const eqpi_db *db;  /* the library the load goes onto */
+  eqpi_db *out;       /* the library being made: base's entries, then these */
   eqpi_stage *st;
-  eqpi_species *sp;   /* old + new */
+  /* the arrays of out, with room for everything the stage can add (counts
+  ** start at base's) */
+  eqpi_species *sp;
   int nsp;
   eqpi_reaction *rx;
   int nrx;
   eqpi_reagent *rg;
-  int nrg, caprg;
+  int nrg;
   int ncomp;
   int *comp_species;
   signed char *state; /* per species: 0 todo, 1 resolving, 2 done */
   eqpi_pairparam *pairs;
-  int npairs, cappairs;
+  int npairs;
   eqpi_buffer *buf;
-  int nbuf, capbuf;
+  int nbuf;
   eqpi_gas *gas;
-  int ngas, capgas;
+  int ngas;
   eqpi_solid *sol;
-  int nsol, capsol;
+  int nsol;
   eqpi_index spnew;   /* names of the species of this load */
   eqpi_index rgnew;   /* names and aliases of the reagents of this load */
   eqpi_sparse comp, rxn; /* scratch sums over components and reactions */

@@ -178,7 +178,7 @@ int eqp_compare_buffers(eqp_ctx *ctx, const eqp_compare_spec *spec, eqp_comparis
     eqp_recipe_spec one = base;
     one.buffer = c->pub.buffer = eqp_ctx_buffer_name(ctx, i);
     c->pub.nnotes = eqp_ctx_buffer_note_count(ctx, i);
-    c->pub.notes = (const char *const *)ctx->db.buffers[i].notes;
+    c->pub.notes = (const char *const *)ctx->db->buffers[i].notes;
     c->pub.warnings = c->warnp;
     c->pub.why = c->why;
     c->pub.beta = c->pub.shift = c->pub.pH = c->pub.ionic_strength = NAN;

@@ -1,11 +1,12 @@
-/* The context: allocator, error message, loading species files and
-** folders (the library and its path are in library.c), plugin path. */
+/* The context: allocator, error message, its species library (loading
+** species files and folders into it; the library path is in library.c, the
+** loads in stage.c), plugin path. */
 /* SPDX-License-Identifier: MIT */
 #include <errno.h>
 #include <fcntl.h>
 #include <sys/stat.h>
 #include <unistd.h>
-#include "stage_impl.h"
+#include "eqp_impl.h"
 #include <errno.h>
 #include <stdio.h>
 #include <stdlib.h>
@@ -28,9 +29,12 @@ eqp_ctx *eqp_ctx_new(eqp_alloc_fn alloc, void *ud)
   memset(ctx, 0, sizeof *ctx);
   ctx->alloc = alloc;
   ctx->ud = ud;
-  ctx->db.h_plus = ctx->db.water = -1;
   ctx->host = eqpi_host_template;
   ctx->host.ud = ctx;             /* the 1.1 host functions reach the context */
+  if (!(ctx->db = eqpi_db_new_empty(ctx))) {
+    alloc(ud, ctx, sizeof *ctx, 0);
+    return NULL;
+  }
   return ctx;
 }
 
@@ -45,7 +49,7 @@ void eqp_ctx_free(eqp_ctx *ctx)
   eqpi_library_free(ctx);
   eqpi_config_free(ctx);
   eqpi_cautions_free(ctx);
-  eqpi_db_free(ctx, &ctx->db);
+  eqpi_db_release(ctx->db);
   ctx->alloc(ctx->ud, ctx, sizeof *ctx, 0);
 }
 
@@ -84,10 +88,10 @@ int eqpi_read_file(eqp_ctx *ctx, const char *path, char **text, size_t *len, siz
       fclose(f);
       return eqpi_fail(ctx, EQP_E_DATA, "%s: larger than 64 MiB", path);
     }
-    char *nb = eqpi_realloc(ctx, buf, cap, cap * 2);
-    if (!nb) eqpi_free(ctx, buf, cap);
-    buf = nb;
-    cap *= 2;
+    if (eqpi_grow_size(ctx, &buf, &cap, cap + 1, 1) < 0) {
+      eqpi_free(ctx, buf, cap);
+      buf = NULL;
+    }
   }
   int err = ferror(f);
   fclose(f);
@@ -106,106 +110,33 @@ int eqpi_read_file(eqp_ctx *ctx, const char *path, char **text, size_t *len, siz
   return EQP_OK;
 }
 
-/* A file read for a load: its key and content hash, for the record of
-** what is loaded. */
-typedef struct src_id {
-  char key[4096];
-  unsigned long long hash;
-} src_id;
-
-/* Stage the file at path unless exactly this file is loaded already
-** (then *skipped is set). */
-static int stage_file(eqp_ctx *ctx, eqpi_stage *st, const char *path, src_id *id, int *skipped)
+/* A load onto the context's library: the library it made becomes the
+** context's. */
+static int into_ctx(eqp_ctx *ctx, int rc, eqpi_db **lib)
 {
-  char *text = NULL;
-  size_t len = 0, cap = 0;
-  *skipped = 0;
-  int rc = eqpi_read_file(ctx, path, &text, &len, &cap);
-  if (rc < 0) return rc;
-  eqpi_file_key(path, id->key, sizeof id->key);
-  id->hash = eqpi_hash_bytes(text, len, 0);
-  if (eqpi_loaded_has(ctx, id->key, id->hash)) {
-    *skipped = 1;
-    eqpi_free(ctx, text, cap);
-    return EQP_OK;
-  }
-  const char *p = eqpi_arena_strdup(ctx, &st->arena, path);
-  if (p) {
-    const char **slot = eqpi_stage_push(ctx, st, (void **)&st->files, &st->nfiles,
-                                        &st->capfiles, sizeof *st->files);
-    if (slot) *slot = p;
-  }
-  eqpi_load_text(ctx, st, text, len, path);
-  eqpi_free(ctx, text, cap);
-  return EQP_OK;
-}
-
-static int finish(eqp_ctx *ctx, eqpi_stage *st)
-{
-  int rc = eqpi_stage_commit(ctx, st);
-  eqpi_stage_free(ctx, st);
+  if (rc == EQP_OK) eqpi_ctx_set_library(ctx, *lib);
   return rc;
 }
 
 int eqp_ctx_load_species_file(eqp_ctx *ctx, const char *path)
 {
   if (!ctx || !path) return eqpi_fail(ctx, EQP_E_ARG, "NULL argument");
-  eqpi_stage *st = eqpi_stage_new(ctx);
-  if (!st) return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
-  src_id id;
-  int skipped, rc = stage_file(ctx, st, path, &id, &skipped);
-  if (rc < 0 || skipped) {
-    eqpi_stage_free(ctx, st);
-    return rc;
-  }
-  rc = finish(ctx, st);
-  if (rc == EQP_OK) eqpi_loaded_add(ctx, id.key, id.hash);
-  return rc;
+  eqpi_db *lib = NULL;
+  return into_ctx(ctx, eqpi_load_file(ctx, ctx->db, path, &lib), &lib);
 }
 
 int eqp_ctx_load_species_text(eqp_ctx *ctx, const char *text, size_t len, const char *source)
 {
   if (!ctx || !text || !source) return eqpi_fail(ctx, EQP_E_ARG, "NULL argument");
-  unsigned long long hash = eqpi_hash_bytes(text, len, 0);
-  if (eqpi_loaded_has(ctx, source, hash)) return EQP_OK;
-  eqpi_stage *st = eqpi_stage_new(ctx);
-  if (!st) return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
-  eqpi_load_text(ctx, st, text, len, source);
-  int rc = finish(ctx, st);
-  if (rc == EQP_OK) eqpi_loaded_add(ctx, source, hash);
-  return rc;
+  eqpi_db *lib = NULL;
+  return into_ctx(ctx, eqpi_load_text(ctx, ctx->db, text, len, source, &lib), &lib);
 }
 
 int eqp_ctx_load_species_dir(eqp_ctx *ctx, const char *dir)
 {
   if (!ctx || !dir) return eqpi_fail(ctx, EQP_E_ARG, "NULL argument");
-  char **names = NULL;
-  int n = 0;
-  int rc = eqpi_list_species_files(ctx, dir, &names, &n);
-  if (rc < 0) return rc;
-  eqpi_stage *st = eqpi_stage_new(ctx);
-  src_id *ids = n ? eqpi_malloc(ctx, sizeof *ids * (size_t)n) : NULL;
-  char *loaded = n ? eqpi_calloc(ctx, (size_t)n, 1) : NULL;
-  rc = st && (!n || (ids && loaded)) ? EQP_OK : eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
-  for (int i = 0; i < n && rc == EQP_OK; i++) {
-    char path[4096];
-    int skipped = 0;
-    if (snprintf(path, sizeof path, "%s/%s", dir, names[i]) >= (int)sizeof path)
-      rc = eqpi_fail(ctx, EQP_E_IO, "%s/%s: path too long", dir, names[i]);
-    else
-      rc = stage_file(ctx, st, path, &ids[i], &skipped);
-    loaded[i] = (char)(rc == EQP_OK && !skipped);
-  }
-  if (rc == EQP_OK) {
-    rc = eqpi_stage_commit(ctx, st);
-    for (int i = 0; i < n && rc == EQP_OK; i++)
-      if (loaded[i]) eqpi_loaded_add(ctx, ids[i].key, ids[i].hash);
-  }
-  eqpi_stage_free(ctx, st);
-  eqpi_free(ctx, ids, sizeof *ids * (size_t)n);
-  eqpi_free(ctx, loaded, (size_t)n);
-  eqpi_free_names(ctx, names, n);
-  return rc;
+  eqpi_db *lib = NULL;
+  return into_ctx(ctx, eqpi_load_dir(ctx, ctx->db, dir, &lib), &lib);
 }
 
 int eqp_ctx_add_plugin_dir(eqp_ctx *ctx, const char *dir)

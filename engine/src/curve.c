@@ -28,14 +28,9 @@ eqp_curve *eqpi_curve_new(eqp_ctx *ctx, int ncols, const char *const *names)
 
 int eqpi_curve_push(eqp_curve *c, const double *row)
 {
-  if (c->nrows == c->caprows) {
-    size_t nc = c->caprows ? c->caprows * 2 : 64;
-    double *v = eqpi_realloc(c->ctx, c->v, sizeof(double) * c->caprows * (size_t)c->ncols,
-                             sizeof(double) * nc * (size_t)c->ncols);
-    if (!v) return eqpi_fail(c->ctx, EQP_E_NOMEM, "out of memory");
-    c->v = v;
-    c->caprows = nc;
-  }
+  if (eqpi_grow_size(c->ctx, &c->v, &c->caprows, c->nrows + 1,
+                     sizeof(double) * (size_t)c->ncols) < 0)
+    return eqpi_fail(c->ctx, EQP_E_NOMEM, "out of memory");
   memcpy(c->v + c->nrows * (size_t)c->ncols, row, sizeof(double) * (size_t)c->ncols);
   c->nrows++;
   return EQP_OK;
@@ -43,13 +38,8 @@ int eqpi_curve_push(eqp_curve *c, const double *row)
 
 int eqpi_curve_push_eq(eqp_curve *c, const eqpi_eqpoint *e)
 {
-  if (c->neq == c->capeq) {
-    size_t n = c->capeq ? c->capeq * 2 : 4;
-    eqpi_eqpoint *q = eqpi_realloc(c->ctx, c->eq, sizeof *q * c->capeq, sizeof *q * n);
-    if (!q) return eqpi_fail(c->ctx, EQP_E_NOMEM, "out of memory");
-    c->eq = q;
-    c->capeq = n;
-  }
+  if (eqpi_grow_size(c->ctx, &c->eq, &c->capeq, c->neq + 1, sizeof *c->eq) < 0)
+    return eqpi_fail(c->ctx, EQP_E_NOMEM, "out of memory");
   c->eq[c->neq++] = *e;
   return EQP_OK;
 }

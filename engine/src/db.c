@@ -1,33 +1,10 @@
-/* The species database: name index, temperature dependence of log K, and
-** the public listing calls. */
+/* The species library: look-ups by name, temperature dependence of log K,
+** and the public listing calls (the libraries themselves: snapshot.c). */
 /* SPDX-License-Identifier: MIT */
-#include "eqp_impl.h"
+#include "snapshot_impl.h"
 #include <math.h>
 #include <stdio.h>
 #include <string.h>
-
-/* The name index of a database: every species, and every reagent under its
-** name and each alias (the first holder of a name keeps it). */
-int eqpi_db_rebuild_index(eqp_ctx *ctx, eqpi_db *db)
-{
-  eqpi_index sp = {0}, rg = {0};
-  for (int i = 0; i < db->nsp; i++)
-    if (eqpi_index_put(ctx, &sp, db->sp[i].name, i, NULL) < 0) goto nomem;
-  for (int i = 0; i < db->nrg; i++) {
-    if (eqpi_index_put(ctx, &rg, db->rg[i].name, i, NULL) < 0) goto nomem;
-    for (int a = 0; a < db->rg[i].naliases; a++)
-      if (eqpi_index_put(ctx, &rg, db->rg[i].aliases[a], i, NULL) < 0) goto nomem;
-  }
-  eqpi_index_free(ctx, &db->spidx);
-  eqpi_index_free(ctx, &db->rgidx);
-  db->spidx = sp;
-  db->rgidx = rg;
-  return 0;
-nomem:
-  eqpi_index_free(ctx, &sp);
-  eqpi_index_free(ctx, &rg);
-  return -1;
-}
 
 /* A miss may be a Unicode or variant spelling of a stored name. */
 static int needs_fold(const char *name)
@@ -37,24 +14,32 @@ static int needs_fold(const char *name)
   return 0;
 }
 
-static int find_folded(const eqpi_index *ix, const char *name)
+static int find_folded(const eqpi_db *db, const char *name,
+                       int (*get)(const eqpi_db *, const char *))
 {
-  if (!name) return -1;
-  int i = eqpi_index_get(ix, name);
+  if (!db || !name) return -1;
+  int i = get(db, name);
   char buf[256];
   if (i < 0 && needs_fold(name) && eqpi_name_normalize(name, buf, sizeof buf) == 1)
-    i = eqpi_index_get(ix, buf);
+    i = get(db, buf);
   return i;
 }
 
 int eqpi_db_find_species(const eqpi_db *db, const char *name)
 {
-  return find_folded(&db->spidx, name);
+  return find_folded(db, name, eqpi_db_index_species);
 }
 
 int eqpi_db_find_reagent(const eqpi_db *db, const char *name)
 {
-  return find_folded(&db->rgidx, name);
+  return find_folded(db, name, eqpi_db_index_reagent);
+}
+
+int eqpi_db_find_buffer(const eqpi_db *db, const char *name)
+{
+  for (int i = 0; name && i < db->nbuffers; i++)
+    if (strcmp(db->buffers[i].name, name) == 0) return i;
+  return -1;
 }
 
 int eqpi_db_species_param(const eqpi_db *db, int i, const char *key, double *v)
@@ -78,24 +63,6 @@ int eqpi_db_pair_param(const eqpi_db *db, int i, int j, const char *key, double 
     }
   }
   return -1;
-}
-
-void eqpi_db_free(eqp_ctx *ctx, eqpi_db *db)
-{
-  eqpi_free(ctx, db->sp, sizeof *db->sp * (size_t)db->capsp);
-  eqpi_free(ctx, db->rx, sizeof *db->rx * (size_t)db->caprx);
-  eqpi_free(ctx, db->rg, sizeof *db->rg * (size_t)db->caprg);
-  eqpi_free(ctx, db->comp_species, sizeof(int) * (size_t)db->capcomp);
-  eqpi_free(ctx, db->files, sizeof *db->files * (size_t)db->capfiles);
-  eqpi_free(ctx, db->pairs, sizeof *db->pairs * (size_t)db->cappairs);
-  eqpi_free(ctx, db->buffers, sizeof *db->buffers * (size_t)db->capbuffers);
-  eqpi_free(ctx, db->gases, sizeof *db->gases * (size_t)db->capgases);
-  eqpi_free(ctx, db->solids, sizeof *db->solids * (size_t)db->capsolids);
-  eqpi_index_free(ctx, &db->spidx);
-  eqpi_index_free(ctx, &db->rgidx);
-  eqpi_arena_free(ctx, &db->arena);
-  memset(db, 0, sizeof *db);
-  db->h_plus = db->water = -1;
 }
 
 /* Integrated van't Hoff equation with a constant heat capacity of reaction
@@ -133,63 +100,119 @@ double eqpi_species_logK(const eqpi_db *db, int i, double T, eqpi_tnotes *notes)
 
 /* ------------------------------------------------------------ public */
 
-size_t eqp_ctx_species_count(const eqp_ctx *ctx) { return ctx ? (size_t)ctx->db.nsp : 0; }
+const eqp_library *eqp_ctx_library(const eqp_ctx *ctx) { return ctx ? ctx->db : NULL; }
+
+const eqp_library *eqp_library_ref(const eqp_library *lib) { return eqpi_db_ref(lib); }
+
+void eqp_library_free(const eqp_library *lib) { eqpi_db_release(lib); }
+
+size_t eqp_library_species_count(const eqp_library *lib) { return lib ? (size_t)lib->nsp : 0; }
+
+const char *eqp_library_species_name(const eqp_library *lib, size_t i)
+{
+  return lib && i < (size_t)lib->nsp ? lib->sp[i].name : NULL;
+}
+
+size_t eqp_library_reagent_count(const eqp_library *lib) { return lib ? (size_t)lib->nrg : 0; }
+
+const char *eqp_library_reagent_name(const eqp_library *lib, size_t i)
+{
+  return lib && i < (size_t)lib->nrg ? lib->rg[i].name : NULL;
+}
+
+size_t eqp_library_source_count(const eqp_library *lib) { return lib ? (size_t)lib->nfiles : 0; }
+
+const char *eqp_library_source_path(const eqp_library *lib, size_t i)
+{
+  return lib && i < (size_t)lib->nfiles ? lib->files[i] : NULL;
+}
+
+size_t eqp_library_buffer_count(const eqp_library *lib)
+{
+  return lib ? (size_t)lib->nbuffers : 0;
+}
+
+const char *eqp_library_buffer_name(const eqp_library *lib, size_t i)
+{
+  return lib && i < (size_t)lib->nbuffers ? lib->buffers[i].name : NULL;
+}
+
+size_t eqp_library_solid_count(const eqp_library *lib) { return lib ? (size_t)lib->nsolids : 0; }
+
+const char *eqp_library_solid_name(const eqp_library *lib, size_t i)
+{
+  return lib && i < (size_t)lib->nsolids ? lib->solids[i].name : NULL;
+}
+
+size_t eqp_ctx_species_count(const eqp_ctx *ctx)
+{
+  return eqp_library_species_count(eqp_ctx_library(ctx));
+}
 
 const char *eqp_ctx_species_name(const eqp_ctx *ctx, size_t i)
 {
-  return ctx && i < (size_t)ctx->db.nsp ? ctx->db.sp[i].name : NULL;
+  return eqp_library_species_name(eqp_ctx_library(ctx), i);
 }
 
-size_t eqp_ctx_reagent_count(const eqp_ctx *ctx) { return ctx ? (size_t)ctx->db.nrg : 0; }
+size_t eqp_ctx_reagent_count(const eqp_ctx *ctx)
+{
+  return eqp_library_reagent_count(eqp_ctx_library(ctx));
+}
 
 const char *eqp_ctx_reagent_name(const eqp_ctx *ctx, size_t i)
 {
-  return ctx && i < (size_t)ctx->db.nrg ? ctx->db.rg[i].name : NULL;
+  return eqp_library_reagent_name(eqp_ctx_library(ctx), i);
 }
 
-size_t eqp_ctx_source_count(const eqp_ctx *ctx) { return ctx ? (size_t)ctx->db.nfiles : 0; }
+size_t eqp_ctx_source_count(const eqp_ctx *ctx)
+{
+  return eqp_library_source_count(eqp_ctx_library(ctx));
+}
 
 const char *eqp_ctx_source_path(const eqp_ctx *ctx, size_t i)
 {
-  return ctx && i < (size_t)ctx->db.nfiles ? ctx->db.files[i] : NULL;
+  return eqp_library_source_path(eqp_ctx_library(ctx), i);
 }
 
 size_t eqp_ctx_reagent_hazard_count(const eqp_ctx *ctx, const char *name)
 {
-  int g = ctx ? eqpi_db_find_reagent(&ctx->db, name) : -1;
-  return g < 0 ? 0 : (size_t)ctx->db.rg[g].nhazards;
+  int g = ctx ? eqpi_db_find_reagent(ctx->db, name) : -1;
+  return g < 0 ? 0 : (size_t)ctx->db->rg[g].nhazards;
 }
 
 const char *eqp_ctx_reagent_hazard(const eqp_ctx *ctx, const char *name, size_t i)
 {
-  int g = ctx ? eqpi_db_find_reagent(&ctx->db, name) : -1;
-  return g < 0 || i >= (size_t)ctx->db.rg[g].nhazards ? NULL : ctx->db.rg[g].hazards[i];
+  int g = ctx ? eqpi_db_find_reagent(ctx->db, name) : -1;
+  return g < 0 || i >= (size_t)ctx->db->rg[g].nhazards ? NULL : ctx->db->rg[g].hazards[i];
 }
 
 int eqp_ctx_reagent_molar_mass(eqp_ctx *ctx, const char *name, double *gmol)
 {
-  int g = ctx && name ? eqpi_db_find_reagent(&ctx->db, name) : -1;
+  int g = ctx && name ? eqpi_db_find_reagent(ctx->db, name) : -1;
   if (g < 0) return eqpi_fail(ctx, EQP_E_UNKNOWN, "unknown reagent '%s'", name ? name : "");
-  *gmol = ctx->db.rg[g].molar_mass;
+  *gmol = ctx->db->rg[g].molar_mass;
   return EQP_OK;
 }
 
-size_t eqp_ctx_buffer_count(const eqp_ctx *ctx) { return ctx ? (size_t)ctx->db.nbuffers : 0; }
+size_t eqp_ctx_buffer_count(const eqp_ctx *ctx)
+{
+  return eqp_library_buffer_count(eqp_ctx_library(ctx));
+}
 
 const char *eqp_ctx_buffer_name(const eqp_ctx *ctx, size_t i)
 {
-  return ctx && i < (size_t)ctx->db.nbuffers ? ctx->db.buffers[i].name : NULL;
+  return eqp_library_buffer_name(eqp_ctx_library(ctx), i);
 }
 
 size_t eqp_ctx_buffer_note_count(const eqp_ctx *ctx, size_t i)
 {
-  return ctx && i < (size_t)ctx->db.nbuffers ? (size_t)ctx->db.buffers[i].nnotes : 0;
+  return ctx && i < (size_t)ctx->db->nbuffers ? (size_t)ctx->db->buffers[i].nnotes : 0;
 }
 
 const char *eqp_ctx_buffer_note(const eqp_ctx *ctx, size_t i, size_t k)
 {
-  return ctx && i < (size_t)ctx->db.nbuffers && k < (size_t)ctx->db.buffers[i].nnotes
-           ? ctx->db.buffers[i].notes[k] : NULL;
+  return ctx && i < (size_t)ctx->db->nbuffers && k < (size_t)ctx->db->buffers[i].nnotes
+           ? ctx->db->buffers[i].notes[k] : NULL;
 }
 
 static const char *fold(const char *name, char *buf, size_t len)

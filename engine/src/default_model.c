@@ -78,7 +78,7 @@ static int molalities(eqp_solution *s, double *mol)
     if (!(fabs(mol[c]) <= EQPI_MAX_MOLALITY))
       return eqpi_fail(ctx, EQP_E_INPUT, "the total of %s is %g mol per kg of water, beyond "
                        "%g mol/kg: not an aqueous solution any activity model here describes",
-                       ctx->db.sp[ctx->db.comp_species[c]].name, mol[c], EQPI_MAX_MOLALITY);
+                       s->db->sp[s->db->comp_species[c]].name, mol[c], EQPI_MAX_MOLALITY);
   }
   return EQP_OK;
 }
@@ -86,7 +86,7 @@ static int molalities(eqp_solution *s, double *mol)
 int eqpi_solution_adjust(eqp_solution *s, eqpi_adjust *aj, int n, double *v, eqpi_solve_stats *st,
                          int *k, const char *what)
 {
-  int rc = eqpi_system_adjust(s->ctx, &s->sys, aj, n, v, st);
+  int rc = eqpi_system_adjust(s->ctx, s->db, &s->sys, aj, n, v, st);
   while (rc == EQP_OK && s->model_default) {
     double I = eqpi_system_ionic_strength(s->sys);
     int next = eqpi_chain_choice(s, I, *k);
@@ -98,7 +98,7 @@ int eqpi_solution_adjust(eqp_solution *s, eqpi_adjust *aj, int n, double *v, eqp
     }
     eqpi_model *m = eqpi_chain_model(s, *k = next);
     for (int j = 0; j < n; j++) aj[j].model = m;
-    rc = eqpi_system_adjust(s->ctx, &s->sys, aj, n, v, st);
+    rc = eqpi_system_adjust(s->ctx, s->db, &s->sys, aj, n, v, st);
   }
   return rc;
 }
@@ -116,7 +116,7 @@ int eqpi_solution_equilibrate_from(eqp_solution *s, int *kp, int follow, eqp_res
   if (rc == EQP_OK && !model)
     rc = eqpi_fail(ctx, EQP_E_PLUGIN, "activity model '%s' is not available",
                    eqpi_default_chain[k]);
-  if (rc == EQP_OK) rc = eqpi_system_solve(ctx, &s->sys, mol, s->T, model, &st);
+  if (rc == EQP_OK) rc = eqpi_system_solve(ctx, s->db, &s->sys, mol, s->T, model, &st);
   while (rc == EQP_OK && s->model_default && follow) {
     double I = eqpi_system_ionic_strength(s->sys);
     int next = eqpi_chain_choice(s, I, k);
@@ -127,14 +127,14 @@ int eqpi_solution_equilibrate_from(eqp_solution *s, int *kp, int follow, eqp_res
     }
     k = next;
     model = eqpi_chain_model(s, k);
-    rc = eqpi_system_solve(ctx, &s->sys, mol, s->T, model, &st);
+    rc = eqpi_system_solve(ctx, s->db, &s->sys, mol, s->T, model, &st);
   }
   /* solids allowed to form: the active set over the totals (the default
   ** is none, so nothing here runs) */
   double *amt = NULL;
-  size_t amt_bytes = sizeof(double) * (size_t)(ctx->db.nsolids > 0 ? ctx->db.nsolids : 1);
+  size_t amt_bytes = sizeof(double) * (size_t)(s->db->nsolids > 0 ? s->db->nsolids : 1);
   int any = 0;
-  for (int j = 0; j < ctx->db.nsolids; j++) any |= eqpi_solution_allowed(s, j);
+  for (int j = 0; j < s->db->nsolids; j++) any |= eqpi_solution_allowed(s, j);
   if (rc == EQP_OK && any) {
     if (!(amt = eqpi_malloc(ctx, amt_bytes))) rc = eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
     else rc = eqpi_precipitate(s, mol, model, &st, amt);
@@ -146,9 +146,9 @@ int eqpi_solution_equilibrate_from(eqp_solution *s, int *kp, int follow, eqp_res
     st.replaced = k > 0 && s->model_default ? s->model.desc : NULL;
     *kp = k;
     if (stout) *stout = st;
-    rc = eqpi_result_make(ctx, s->sys, model, s->T, s->water_kg, &st, out);
+    rc = eqpi_result_make(ctx, s->db, s->sys, model, s->T, s->water_kg, &st, out);
     if (rc == EQP_OK && amt &&
-        (rc = eqpi_result_set_solids(*out, amt, ctx->db.nsolids, s->water_kg)) < 0) {
+        (rc = eqpi_result_set_solids(*out, amt, s->db->nsolids, s->water_kg)) < 0) {
       eqp_result_free(*out);
       *out = NULL;
     }

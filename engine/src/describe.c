@@ -4,6 +4,7 @@
 ** listing of the library; and the constants a set of results used. */
 /* SPDX-License-Identifier: MIT */
 #include "describe_impl.h"
+#include "result_impl.h"
 #include <math.h>
 #include <stdarg.h>
 #include <stdio.h>
@@ -513,7 +514,7 @@ int eqp_ctx_describe(eqp_ctx *ctx, const char *name, double T, eqp_format fmt, c
   *out = NULL;
   if (!(T >= 273.15 && T <= 373.15))
     return eqpi_fail(ctx, EQP_E_INPUT, "temperature %g C is outside 0..100 C", T - 273.15);
-  const eqpi_db *db = &ctx->db;
+  const eqpi_db *db = ctx->db;
   double Ts[2] = {EQPI_T25, T};
   int nT = fabs(T - EQPI_T25) < 1e-9 ? 1 : 2;
   cJSON *doc = cJSON_CreateObject();
@@ -557,7 +558,7 @@ int eqp_ctx_describe(eqp_ctx *ctx, const char *name, double T, eqp_format fmt, c
 int eqp_ctx_list(eqp_ctx *ctx, eqp_format fmt, char **out)
 {
   if (!ctx || !out) return eqpi_fail(ctx, EQP_E_ARG, "NULL argument");
-  const eqpi_db *db = &ctx->db;
+  const eqpi_db *db = ctx->db;
   cJSON *doc = cJSON_CreateObject();
   cJSON *a = cJSON_AddArrayToObject(doc, "species");
   for (int i = 0; i < db->nsp; i++) {
@@ -619,16 +620,18 @@ static int result_temperatures(const eqp_result *const *res, size_t n, double *T
   return nT;
 }
 
-char *eqp_ctx_constants_to_json(eqp_ctx *ctx, const eqp_result *const *res, size_t n)
+/* Add to a the constants of db that the results made with db depend on:
+** each reaction of a species present and each solid with a saturation
+** index, once over every library (seen: by where it is written). */
+static int library_constants(eqp_ctx *ctx, const eqpi_db *db, const eqp_result *const *res,
+                             size_t n, const double *T, int nT, eqpi_index *seen,
+                             eqpi_arena **keys, cJSON *a)
 {
-  if (!ctx) return NULL;
-  const eqpi_db *db = &ctx->db;
-  double T[MAX_T];
-  int nT = result_temperatures(res, n, T);
   unsigned char *rx = eqpi_calloc(ctx, (size_t)db->nrx + 1, 1);
   unsigned char *so = eqpi_calloc(ctx, (size_t)db->nsolids + 1, 1);
-  cJSON *a = rx && so ? cJSON_CreateArray() : NULL;
-  for (size_t i = 0; a && i < n; i++) {
+  int rc = rx && so ? 0 : -1;
+  for (size_t i = 0; rc == 0 && i < n; i++) {
+    if (eqpi_result_library(res[i]) != db) continue;
     for (size_t k = 0; k < eqp_result_species_count(res[i]); k++) {
       int s = eqpi_db_find_species(db, eqp_result_species_name(res[i], k));
       for (int q = 0; s >= 0 && q < db->sp[s].nrx; q++) rx[db->sp[s].rx_idx[q]] = 1;
@@ -639,26 +642,131 @@ char *eqp_ctx_constants_to_json(eqp_ctx *ctx, const eqp_result *const *res, size
         so[k] = 1;
     }
   }
-  for (int k = 0; a && k < db->nrx; k++)
-    if (rx[k]) cJSON_AddItemToArray(a, reaction_json(db, k, T, nT));
-  for (int k = 0; a && k < db->nsolids; k++)
-    if (so[k]) cJSON_AddItemToArray(a, solid_constant(db, &db->solids[k], T, nT));
-  for (int k = 0; a && k < db->ngases; k++)
-    if (db->gases[k].used) cJSON_AddItemToArray(a, gas_constant(db, &db->gases[k], T, nT));
+  for (int k = 0; rc == 0 && k < db->nrx + db->nsolids; k++) {
+    const eqpi_reaction *r = k < db->nrx ? &db->rx[k] : &db->solids[k - db->nrx].ksp;
+    if (!(k < db->nrx ? rx[k] : so[k - db->nrx])) continue;
+    char key[4200];
+    snprintf(key, sizeof key, "%s:%d:%d", r->file ? r->file : "", r->line,
+             k < db->nrx ? db->rx[k].product : -1 - (k - db->nrx));
+    const char *kk = eqpi_arena_strdup(ctx, keys, key);
+    int put = kk ? eqpi_index_put(ctx, seen, kk, k, NULL) : -1;
+    if (put < 0) rc = -1;
+    else if (put == 0)
+      cJSON_AddItemToArray(a, k < db->nrx ? reaction_json(db, k, T, nT)
+                                          : solid_constant(db, &db->solids[k - db->nrx], T, nT));
+  }
   eqpi_free(ctx, rx, (size_t)db->nrx + 1);
   eqpi_free(ctx, so, (size_t)db->nsolids + 1);
+  return rc;
+}
+
+char *eqp_ctx_constants_to_json(eqp_ctx *ctx, const eqp_result *const *res, size_t n)
+{
+  if (!ctx) return NULL;
+  double T[MAX_T];
+  int nT = result_temperatures(res, n, T);
+  cJSON *a = cJSON_CreateArray();
+  eqpi_index seen = {0};
+  eqpi_arena *keys = NULL;
+  /* each library the results were made with, in the order first met */
+  for (size_t i = 0; a && i < n; i++) {
+    const eqpi_db *db = eqpi_result_library(res[i]);
+    int first = 1;
+    for (size_t j = 0; j < i && first; j++) first = eqpi_result_library(res[j]) != db;
+    if (first && library_constants(ctx, db, res, n, T, nT, &seen, &keys, a) < 0) {
+      cJSON_Delete(a);
+      a = NULL;
+    }
+  }
+  /* the gases solutions were opened to, as the first library that has them gives them */
+  for (int g = 0; a && g < ctx->ngases_used; g++) {
+    const eqpi_db *db = ctx->db;
+    int k = eqpi_db_find_gas(db, ctx->gases_used[g]);
+    for (size_t i = 0; k < 0 && i < n; i++)
+      k = eqpi_db_find_gas(db = eqpi_result_library(res[i]), ctx->gases_used[g]);
+    if (k >= 0) cJSON_AddItemToArray(a, gas_constant(db, &db->gases[k], T, nT));
+  }
+  eqpi_index_free(ctx, &seen);
+  eqpi_arena_free(ctx, &keys);
   char *text = a ? cJSON_PrintUnformatted(a) : NULL;
   cJSON_Delete(a);
   return text;
 }
 
+/* Whether the entry written at file:line under what is new to the document
+** (libraries share entries: each is listed once). */
+static int first_time(eqp_ctx *ctx, eqpi_index *seen, eqpi_arena **keys, const char *what,
+                      const char *file, int line)
+{
+  char key[4400];
+  snprintf(key, sizeof key, "%s|%s:%d", what, file ? file : "", line);
+  const char *k = eqpi_arena_strdup(ctx, keys, key);
+  return !k || eqpi_index_put(ctx, seen, k, 0, NULL) == 0;
+}
+
+static cJSON *parameter(const char *name, const char *species, double value, const char *source,
+                        const char *file, int line)
+{
+  cJSON *o = cJSON_CreateObject();
+  cJSON_AddStringToObject(o, "name", name);
+  cJSON_AddStringToObject(o, "species", species);
+  cJSON_AddNumberToObject(o, "value", value);
+  cJSON_AddStringToObject(o, "source", source ? source : "");
+  add_defined(o, file, line);
+  return o;
+}
+
+/* The constants and parameters of the species sp marks in db. */
+static int library_json(eqp_ctx *ctx, const eqpi_db *db, const unsigned char *sp,
+                        const double *T, int nT, cJSON *a, cJSON *par, eqpi_index *seen,
+                        eqpi_arena **keys)
+{
+  unsigned char *rx = eqpi_calloc(ctx, (size_t)db->nrx + 1, 1);
+  if (!rx) return -1;
+  for (int i = 0; i < db->nsp; i++)
+    for (int q = 0; sp[i] && q < db->sp[i].nrx; q++) rx[db->sp[i].rx_idx[q]] = 1;
+  for (int k = 0; k < db->nrx; k++)
+    if (rx[k] && first_time(ctx, seen, keys, db->sp[db->rx[k].product].name, db->rx[k].file,
+                            db->rx[k].line))
+      cJSON_AddItemToArray(a, reaction_json(db, k, T, nT));
+  for (int k = 0; k < db->nsolids; k++) {
+    int all = 1;
+    for (int j = 0; j < db->solids[k].n; j++) all &= sp[db->solids[k].sp[j]];
+    if (all && first_time(ctx, seen, keys, db->solids[k].name, db->solids[k].ksp.file,
+                          db->solids[k].ksp.line))
+      cJSON_AddItemToArray(a, solid_constant(db, &db->solids[k], T, nT));
+  }
+  for (int k = 0; k < db->ngases; k++)
+    if (sp[db->gases[k].species] && first_time(ctx, seen, keys, db->gases[k].name,
+                                               db->gases[k].kh.file, db->gases[k].kh.line))
+      cJSON_AddItemToArray(a, gas_constant(db, &db->gases[k], T, nT));
+  /* the activity models' parameters of the same species */
+  for (int i = 0; i < db->nsp; i++) {
+    const eqpi_species *s = &db->sp[i];
+    if (!sp[i] || !first_time(ctx, seen, keys, s->name, s->file, s->line)) continue;
+    if (!isnan(s->size))
+      cJSON_AddItemToArray(par, parameter("ion_size", s->name, s->size, s->size_source, s->file,
+                                          s->line));
+    for (int k = 0; k < s->nparam; k++)
+      cJSON_AddItemToArray(par, parameter(s->pkey[k], s->name, s->pval[k], s->params_source,
+                                          s->file, s->line));
+  }
+  for (int k = 0; k < db->npairs; k++) {
+    const eqpi_pairparam *p = &db->pairs[k];
+    if (!sp[p->a] || !sp[p->b] || !first_time(ctx, seen, keys, p->key, p->file, p->line))
+      continue;
+    cJSON *o = parameter(p->key, db->sp[p->a].name, p->value, p->source, p->file, p->line);
+    cJSON_AddStringToObject(o, "with", db->sp[p->b].name);
+    cJSON_AddItemToArray(par, o);
+  }
+  eqpi_free(ctx, rx, (size_t)db->nrx + 1);
+  return 0;
+}
+
 char *eqp_ctx_constants_of_json(eqp_ctx *ctx, const char *const *names, size_t n,
                                 const double *T_K, size_t nT_K)
 {
-  if (!ctx || (n && !names)) return NULL;
-  unsigned char *sp;
-  if (eqpi_constants_mark(ctx, names, n, &sp) < 0) return NULL;
-  const eqpi_db *db = &ctx->db;
+  if (!ctx || (n && !names) || eqp_ctx_load_default_library(ctx) < 0) return NULL;
   double T[MAX_T];
   int nT = 1;
   T[0] = EQPI_T25;
@@ -667,59 +775,28 @@ char *eqp_ctx_constants_of_json(eqp_ctx *ctx, const char *const *names, size_t n
     for (int k = 0; k < nT; k++) seen |= fabs(T[k] - T_K[i]) < 1e-6;
     if (!seen && nT < MAX_T && isfinite(T_K[i])) T[nT++] = T_K[i];
   }
-  unsigned char *rx = eqpi_calloc(ctx, (size_t)db->nrx + 1, 1);
-  cJSON *doc = rx ? cJSON_CreateObject() : NULL;
+  char *found = eqpi_calloc(ctx, n + 1, 1);
+  cJSON *doc = found ? cJSON_CreateObject() : NULL;
   cJSON *a = doc ? cJSON_AddArrayToObject(doc, "constants") : NULL;
   cJSON *par = doc ? cJSON_AddArrayToObject(doc, "parameters") : NULL;
-  for (int i = 0; a && i < db->nsp; i++)
-    for (int q = 0; sp[i] && q < db->sp[i].nrx; q++) rx[db->sp[i].rx_idx[q]] = 1;
-  for (int k = 0; a && k < db->nrx; k++)
-    if (rx[k]) cJSON_AddItemToArray(a, reaction_json(db, k, T, nT));
-  for (int k = 0; a && k < db->nsolids; k++) {
-    int all = 1;
-    for (int j = 0; j < db->solids[k].n; j++) all &= sp[db->solids[k].sp[j]];
-    if (all) cJSON_AddItemToArray(a, solid_constant(db, &db->solids[k], T, nT));
+  eqpi_index seen = {0};
+  eqpi_arena *keys = NULL;
+  int ok = a && par;
+  /* the context's library, then the libraries of solutions of their own
+  ** for the names only those define */
+  for (const eqpi_db *db = NULL; ok;) {
+    if (!(db = eqpi_constants_library(ctx, db, names, n, found))) break;
+    unsigned char *sp;
+    ok = eqpi_constants_mark(ctx, db, names, n, found, &sp) == EQP_OK &&
+         library_json(ctx, db, sp, T, nT, a, par, &seen, &keys) == 0;
+    eqpi_free(ctx, sp, (size_t)db->nsp + 1);
   }
-  for (int k = 0; a && k < db->ngases; k++)
-    if (sp[db->gases[k].species]) cJSON_AddItemToArray(a, gas_constant(db, &db->gases[k], T, nT));
-  /* the activity models' parameters of the same species */
-  for (int i = 0; par && i < db->nsp; i++) {
-    const eqpi_species *s = &db->sp[i];
-    if (!sp[i]) continue;
-    if (!isnan(s->size)) {
-      cJSON *o = cJSON_CreateObject();
-      cJSON_AddStringToObject(o, "name", "ion_size");
-      cJSON_AddStringToObject(o, "species", s->name);
-      cJSON_AddNumberToObject(o, "value", s->size);
-      cJSON_AddStringToObject(o, "source", s->size_source ? s->size_source : "");
-      add_defined(o, s->file, s->line);
-      cJSON_AddItemToArray(par, o);
-    }
-    for (int k = 0; k < s->nparam; k++) {
-      cJSON *o = cJSON_CreateObject();
-      cJSON_AddStringToObject(o, "name", s->pkey[k]);
-      cJSON_AddStringToObject(o, "species", s->name);
-      cJSON_AddNumberToObject(o, "value", s->pval[k]);
-      cJSON_AddStringToObject(o, "source", s->params_source ? s->params_source : "");
-      add_defined(o, s->file, s->line);
-      cJSON_AddItemToArray(par, o);
-    }
-  }
-  for (int k = 0; par && k < db->npairs; k++) {
-    const eqpi_pairparam *p = &db->pairs[k];
-    if (!sp[p->a] || !sp[p->b]) continue;
-    cJSON *o = cJSON_CreateObject();
-    cJSON_AddStringToObject(o, "name", p->key);
-    cJSON_AddStringToObject(o, "species", db->sp[p->a].name);
-    cJSON_AddStringToObject(o, "with", db->sp[p->b].name);
-    cJSON_AddNumberToObject(o, "value", p->value);
-    cJSON_AddStringToObject(o, "source", p->source ? p->source : "");
-    add_defined(o, p->file, p->line);
-    cJSON_AddItemToArray(par, o);
-  }
-  eqpi_free(ctx, rx, (size_t)db->nrx + 1);
-  eqpi_free(ctx, sp, (size_t)db->nsp + 1);
-  char *text = doc ? cJSON_PrintUnformatted(doc) : NULL;
+  for (size_t i = 0; ok && i < n; i++)
+    if (!found[i]) ok = eqpi_fail(ctx, EQP_E_UNKNOWN, "no species or reagent '%s'", names[i]) == 0;
+  eqpi_index_free(ctx, &seen);
+  eqpi_arena_free(ctx, &keys);
+  eqpi_free(ctx, found, n + 1);
+  char *text = ok ? cJSON_PrintUnformatted(doc) : NULL;
   cJSON_Delete(doc);
   return text;
 }

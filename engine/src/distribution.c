@@ -47,7 +47,7 @@ static int ligand_of(const eqpi_db *db, int i)
 /* The system named by a species, a reagent or a buffer system. */
 static int find_ligand(eqp_ctx *ctx, const char *name)
 {
-  const eqpi_db *db = &ctx->db;
+  const eqpi_db *db = ctx->db;
   char hint[256];
   int i = eqpi_db_find_species(db, name);
   if (i >= 0) {
@@ -91,7 +91,7 @@ static double protons_of(const eqpi_db *db, const eqpi_species *s, int lig, doub
 
 static int build_ladder(eqp_ctx *ctx, const eqp_distribution_spec *d, int lig, ladder *L)
 {
-  const eqpi_db *db = &ctx->db;
+  const eqpi_db *db = ctx->db;
   memset(L, 0, sizeof *L);
   for (int i = 0; i < db->nsp; i++) {
     if (ligand_of(db, i) != lig) continue;
@@ -154,7 +154,7 @@ static int log_gammas(eqp_ctx *ctx, const eqp_distribution_spec *d, const ladder
     for (int i = 0; i < n; i++) lg[i] = 0;
     return EQP_OK;
   }
-  const eqpi_db *db = &ctx->db;
+  const eqpi_db *db = ctx->db;
   eqpi_model m;
   const char *name = d->activity ? d->activity : "davies";
   int rc = eqpi_model_open(ctx, name, &m);
@@ -222,9 +222,9 @@ int eqp_distribution(eqp_ctx *ctx, const eqp_distribution_spec *user, eqp_curve 
   if ((rc = build_ladder(ctx, d, lig, &L)) < 0) return rc;
   if ((rc = log_gammas(ctx, d, &L, T, lg)) < 0) return rc;
   eqpi_tnotes notes = {0, 0};
-  for (int i = 0; i < L.n; i++) logK[i] = eqpi_species_logK(&ctx->db, L.sp[i], T, &notes);
+  for (int i = 0; i < L.n; i++) logK[i] = eqpi_species_logK(ctx->db, L.sp[i], T, &notes);
   const char *names[MAX_FORMS + 1] = {"pH"};
-  for (int i = 0; i < L.n; i++) names[i + 1] = ctx->db.sp[L.sp[i]].name;
+  for (int i = 0; i < L.n; i++) names[i + 1] = ctx->db->sp[L.sp[i]].name;
   eqp_curve *c = eqpi_curve_new(ctx, L.n + 1, names);
   if (!c) return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
   c->values = EQPI_VALUES_FRACTION;

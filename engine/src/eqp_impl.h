@@ -36,6 +36,13 @@ void *eqpi_realloc(eqp_ctx *ctx, void *p, size_t old, size_t n);
 void eqpi_free(eqp_ctx *ctx, void *p, size_t n);
 char *eqpi_strdup(eqp_ctx *ctx, const char *s);
 void eqpi_strfree(eqp_ctx *ctx, char *s);
+/* Room for at least need elements of elem bytes in the array whose address
+** is arrp (a T **) and whose capacity is *cap elements: grows to at least
+** twice the capacity (8 at first). 0, or -1 when out of memory or too large
+** (the array and *cap are then unchanged). The one doubling loop of the
+** engine. */
+int eqpi_grow(eqp_ctx *ctx, void *arrp, int *cap, int need, size_t elem);
+int eqpi_grow_size(eqp_ctx *ctx, void *arrp, size_t *cap, size_t need, size_t elem);
 
 /* Bump allocator for the species data: freed all at once. */
 typedef struct eqpi_arena eqpi_arena;
@@ -135,12 +142,12 @@ double eqpi_water_pKw_rho(double T, double rho);
 
 /* ---------------------------------------------------------- index */
 
-/* A map from borrowed strings to non-negative ints: open addressing,
-** grown at half full, so loading n names costs O(n) whatever n is. */
+/* A map from borrowed strings to non-negative ints (uthash, index.c): any
+** number of keys, each looked up in constant time. Zero-initialised is
+** empty. */
+typedef struct eqpi_index_item eqpi_index_item;
 typedef struct eqpi_index {
-  const char **key;
-  int *val;
-  int cap, n;
+  eqpi_index_item *head;
 } eqpi_index;
 
 /* Insert key -> val unless key is present (the first stays). Returns 0
@@ -149,6 +156,9 @@ typedef struct eqpi_index {
 int eqpi_index_put(eqp_ctx *ctx, eqpi_index *ix, const char *key, int val, int *old);
 /* The value of key, or -1. */
 int eqpi_index_get(const eqpi_index *ix, const char *key);
+/* Remove key if present. */
+void eqpi_index_del(eqp_ctx *ctx, eqpi_index *ix, const char *key);
+size_t eqpi_index_count(const eqpi_index *ix);
 void eqpi_index_free(eqp_ctx *ctx, eqpi_index *ix);
 
 /* ---------------------------------------------------------- database */
@@ -251,7 +261,6 @@ typedef struct eqpi_gas {
   const char *name;
   int species;
   eqpi_reaction kh;
-  int used;             /* a solution was opened to it (provenance) */
 } eqpi_gas;
 
 /* A solid phase: formula = sum nu species; log10 Ksp of that dissolution
@@ -269,39 +278,89 @@ typedef struct eqpi_solid {
 typedef struct eqpi_source {
   const char *path;
 } eqpi_source;
+/* A source already loaded: its key (real path, or source name) and a hash
+** of its content, so that loading it again is a no-op. */
+typedef struct eqpi_loaded {
+  const char *key;
+  unsigned long long hash;
+} eqpi_loaded;
 
-typedef struct eqpi_db {
-  eqpi_arena *arena;
+typedef struct eqpi_store eqpi_store;
+
+/* A species library (the public eqp_library): an immutable, reference-
+** counted snapshot (snapshot.c). Nothing below changes once it is made;
+** loading more species makes a new library. The arrays are views of a
+** store that it may share with the libraries it extends and that extend
+** it: their first n entries never change. Solutions and results hold the
+** library they were made with. */
+typedef struct eqp_library eqpi_db;
+struct eqp_library {
   eqpi_species *sp;
-  int nsp, capsp;
+  int nsp;
   eqpi_reaction *rx;
-  int nrx, caprx;
+  int nrx;
   eqpi_reagent *rg;
-  int nrg, caprg;
+  int nrg;
   int ncomp;
   int *comp_species;    /* component -> species */
-  int capcomp;
   eqpi_pairparam *pairs;
-  int npairs, cappairs;
+  int npairs;
   eqpi_buffer *buffers;
-  int nbuffers, capbuffers;
+  int nbuffers;
   eqpi_gas *gases;
-  int ngases, capgases;
+  int ngases;
   eqpi_solid *solids;
-  int nsolids, capsolids;
+  int nsolids;
   const char **files;
-  int nfiles, capfiles;
-  eqpi_index spidx;     /* species by name */
-  eqpi_index rgidx;     /* reagents by name and by alias */
+  int nfiles;
+  eqpi_loaded *loaded;  /* sources loaded, in order */
+  int nloaded;
   int h_plus, water;    /* species indexes, -1 until loaded */
-  unsigned generation;  /* bumps on every commit */
-} eqpi_db;
+  unsigned generation;  /* unique among the libraries of a context */
+  /* bookkeeping, snapshot.c only */
+  eqp_ctx *ctx;
+  int refs;             /* holders: the context, solutions, results, callers */
+  int kids;             /* libraries made from this one, which use its strings */
+  eqpi_store *store;    /* NULL once no holder is left */
+  eqpi_db *parent;      /* the library this one was made from (kept while this lives) */
+  eqpi_arena *arena;    /* strings and arrays of the entries this one added */
+  eqpi_db *derived;     /* libraries made from this one, by what made them (weak) */
+  eqpi_db *next_derived;
+  unsigned long long how;
+  eqpi_db *live_prev, *live_next; /* the context's list of libraries held (weak) */
+};
+
+/* A library with nothing in it (a new reference), NULL when out of memory. */
+eqpi_db *eqpi_db_new_empty(eqp_ctx *ctx);
+/* One more holder of db; returns db. Release each with eqpi_db_release
+** (NULL is a no-op); the last release frees it, and a library another
+** one was made from lives until that one goes. */
+eqpi_db *eqpi_db_ref(const eqpi_db *db);
+void eqpi_db_release(const eqpi_db *db);
+/* The library made from base by what `how` stands for, if one is alive:
+** a new reference; NULL otherwise. */
+eqpi_db *eqpi_db_derived(const eqpi_db *base, unsigned long long how);
+/* Remember that lib was made from its parent by `how` (eqpi_db_derived). */
+void eqpi_db_remember(eqpi_db *lib, unsigned long long how);
+/* Whether source key with content hash is loaded in db. */
+int eqpi_db_loaded(const eqpi_db *db, const char *key, unsigned long long hash);
+/* Make the context's library lib (taking over the reference). */
+void eqpi_ctx_set_library(eqp_ctx *ctx, eqpi_db *lib);
+/* The libraries of the context that something holds, newest first: for
+** finding what a name means in any library in use (provenance). */
+const eqpi_db *eqpi_ctx_libraries(const eqp_ctx *ctx);
 
 /* ---------------------------------------------------------- provenance */
 
 /* Species that the named species and reagents (with water) can form: a
 ** calloc'd flag per species of the context's library (nsp + 1 bytes). */
-int eqpi_constants_mark(eqp_ctx *ctx, const char *const *names, size_t n, unsigned char **sp);
+int eqpi_constants_mark(eqp_ctx *ctx, const eqpi_db *db, const char *const *names, size_t n,
+                        char *found, unsigned char **sp);
+/* The library to look in for the names not yet found: the context's first
+** (after NULL), then each other library in use that has one of them; NULL
+** when none has. */
+const eqpi_db *eqpi_constants_library(eqp_ctx *ctx, const eqpi_db *after,
+                                      const char *const *names, size_t n, const char *found);
 /* A reaction as `species show` writes it (describe.c): its equation, the
 ** name of its constant, and the signs that turn the stored log K and
 ** dH, dCp into the shown ones. */
@@ -319,40 +378,41 @@ int eqpi_db_find_solid(const eqpi_db *db, const char *name);
 int eqpi_db_find_gas(const eqpi_db *db, const char *name);
 /* "calcite, aragonite": the solids with formula f (for a message). */
 void eqpi_db_solids_with_formula(const eqpi_db *db, const char *f, char *buf, size_t len);
-/* Index every species and reagent name of db anew; -1 when out of memory
-** (db is then unchanged). */
-int eqpi_db_rebuild_index(eqp_ctx *ctx, eqpi_db *db);
 /* Parameter key of species i, or of the pair (i, j) in either order:
 ** 0 and *v set when present, -1 otherwise. */
 int eqpi_db_species_param(const eqpi_db *db, int i, const char *key, double *v);
 int eqpi_db_pair_param(const eqpi_db *db, int i, int j, const char *key, double *v);
-void eqpi_db_free(eqp_ctx *ctx, eqpi_db *db);
+/* The buffer system called name, or -1. */
+int eqpi_db_find_buffer(const eqpi_db *db, const char *name);
 /* log10 K of species i at T (K) by the integrated van't Hoff equation;
 ** *missing counts contributions lacking temperature data away from 25 C. */
 double eqpi_species_logK(const eqpi_db *db, int i, double T, eqpi_tnotes *notes);
 double eqpi_reaction_logK(const eqpi_reaction *r, double T, eqpi_tnotes *notes);
 
-/* The staging area a load fills before commit (loader.c, db.c). */
+/* Loading species onto a library (stage.c owns the staging area: nothing
+** else makes, fills or frees one). Each load reads its sources, checks them
+** as a whole, and on success sets *out to a new reference to the library
+** made of base and them: base itself again when every source is loaded in
+** base already. On failure *out is NULL, nothing is kept, and the message
+** reads "file:line: what is wrong". */
 typedef struct eqpi_stage eqpi_stage;
-int eqpi_load_text(eqp_ctx *ctx, eqpi_stage *st, const char *text, size_t len,
-                   const char *source);
+int eqpi_load_file(eqp_ctx *ctx, const eqpi_db *base, const char *path, eqpi_db **out);
+int eqpi_load_dir(eqp_ctx *ctx, const eqpi_db *base, const char *dir, eqpi_db **out);
+int eqpi_load_text(eqp_ctx *ctx, const eqpi_db *base, const char *text, size_t len,
+                   const char *source, eqpi_db **out);
 struct lua_State;
-/* Load the species table at idx of L (a script's inline species) under the
+/* The species table at idx of L (a script's inline species) under the
 ** source name where: read with raw access under lua_pcall, so neither a
-** metamethod nor a memory error can leave the staging area behind. The
-** same table (the same entries) loaded again is a no-op. */
-int eqpi_load_table(eqp_ctx *ctx, struct lua_State *L, int idx, const char *where);
-eqpi_stage *eqpi_stage_new(eqp_ctx *ctx);
-void eqpi_stage_free(eqp_ctx *ctx, eqpi_stage *st);
-int eqpi_stage_commit(eqp_ctx *ctx, eqpi_stage *st);
-
-/* Line map of a Lua table constructor source (linemap.c). */
-typedef struct eqpi_linemap eqpi_linemap;
-eqpi_linemap *eqpi_linemap_build(eqp_ctx *ctx, const char *text, size_t len);
-void eqpi_linemap_free(eqp_ctx *ctx, eqpi_linemap *lm);
-/* Line of the field at path, e.g. {"species", "3", "size"}: the deepest
-** prefix found; 0 if none. */
-int eqpi_linemap_line(const eqpi_linemap *lm, const char *const *path, int depth);
+** metamethod nor a memory error can leave anything behind. The same table
+** (the same entries) loaded again onto base is a no-op. */
+int eqpi_load_table(eqp_ctx *ctx, const eqpi_db *base, struct lua_State *L, int idx,
+                    const char *where, eqpi_db **out);
+/* The library of base restricted to the named species files and what they
+** build on (only), or without the named files (subset.c). */
+int eqpi_db_only(eqp_ctx *ctx, const eqpi_db *base, const char *const *files, size_t n,
+                 eqpi_db **out);
+int eqpi_db_without(eqp_ctx *ctx, const eqpi_db *base, const char *const *files, size_t n,
+                    eqpi_db **out);
 
 /* ---------------------------------------------------------- plugins */
 
@@ -403,16 +463,7 @@ void eqpi_cautions_hold(eqp_ctx *ctx, int delta);
 
 /* ---------------------------------------------------------- library */
 
-/* A source already loaded: its key (real path, or source name) and a hash
-** of its content, so that loading it again is a no-op (library.c). */
-typedef struct eqpi_loaded {
-  char *key;
-  unsigned long long hash;
-} eqpi_loaded;
-
 unsigned long long eqpi_hash_bytes(const void *p, size_t n, unsigned long long h);
-int eqpi_loaded_has(const eqp_ctx *ctx, const char *key, unsigned long long hash);
-int eqpi_loaded_add(eqp_ctx *ctx, const char *key, unsigned long long hash);
 /* The key of a file: its real path when it exists, else the path. */
 void eqpi_file_key(const char *path, char *buf, size_t len);
 /* Read a whole file through the context's allocator (ctx.c); free text with
@@ -449,7 +500,9 @@ struct eqp_ctx {
   void *ud;
   char errmsg[EQPI_ERRLEN];
   int errcode;
-  eqpi_db db;
+  eqpi_db *db;          /* the library as loaded so far (one reference) */
+  eqpi_db *live;        /* every library something holds, newest first (weak) */
+  unsigned next_generation;
   bool default_loaded;
   char **plugin_dirs;
   int nplugin_dirs;
@@ -461,18 +514,19 @@ struct eqp_ctx {
   /* species path and what loading left behind (library.c) */
   char **species_dirs;
   int nspecies_dirs;
-  eqpi_loaded *loaded;
-  int nloaded, caploaded;
   char **notices;       /* replaced systems, files left out */
   int nnotices, capnotices;
   char **broken;        /* per file left out: "path: what is wrong" */
   int nbroken, capbroken;
   eqpi_index broken_names; /* names staged by those files -> broken[] */
   eqpi_arena *broken_arena;
-  /* hazardous reagents used, in order of first use (caution.c) */
-  int *caution_rg;
+  /* hazardous reagents used, in order of first use (caution.c): names,
+  ** since solutions may use libraries of their own */
+  char **caution_rg;
   char **caution_text;
-  int ncautions, capcautions;
+  int ncautions, capcautions, capcaution_rg;
+  unsigned caution_seen_gen; /* the last reagent recorded: library generation, index */
+  int caution_seen_rg;
   int caution_hold;     /* > 0: record on solutions only (eqpi_cautions_hold) */
   eqp_warning_fn warn_fn;   /* warn.c: the host's observer of warnings */
   void *warn_ud;
@@ -489,7 +543,14 @@ struct eqp_ctx {
   struct eqpi_newton *newton_pool;   /* idle Newton workspaces (newton.c) */
   int newton_pooled;
   struct eqpi_tableau *tableaux[EQPI_TABLEAU_CACHE];  /* the last tableaux made (tableau.c) */
+  char **gases_used;    /* gases a solution was opened to, for the provenance */
+  int ngases_used, capgases_used;
 };
+
+/* Record that a solution was opened to gas name (its K_H joins the
+** provenance of the run). */
+void eqpi_gas_used(eqp_ctx *ctx, const char *name);
+int eqpi_gas_was_used(const eqp_ctx *ctx, const char *name);
 
 /* ---------------------------------------------------------- log */
 
@@ -573,8 +634,9 @@ extern const char *const eqpi_default_chain[EQPI_DEFAULT_CHAIN];
 
 /* Build (or reuse) the active system for totals (mol/kg) at T and solve.
 ** On success the system holds the molalities. */
-int eqpi_system_solve(eqp_ctx *ctx, eqpi_system **sysp, const double *totals,
-                      double T, eqpi_model *model, eqpi_solve_stats *stats);
+int eqpi_system_solve(eqp_ctx *ctx, const eqpi_db *db, eqpi_system **sysp,
+                      const double *totals, double T, eqpi_model *model,
+                      eqpi_solve_stats *stats);
 void eqpi_system_free(eqp_ctx *ctx, eqpi_system *sys);
 /* Whether the system holds the solution for these totals (mol over the
 ** database's components, in water_kg) at T (K). */
@@ -620,14 +682,15 @@ typedef struct eqpi_adjust {
 ** strength) row each (KINSOL), with Brent's method on ordinary solves as
 ** the fallback. On success the system holds the solution at v. EQP_E_INPUT
 ** when a target cannot be reached. */
-int eqpi_system_adjust(eqp_ctx *ctx, eqpi_system **sysp, const eqpi_adjust *aj, int n, double *v,
-                       eqpi_solve_stats *st);
+int eqpi_system_adjust(eqp_ctx *ctx, const eqpi_db *db, eqpi_system **sysp,
+                       const eqpi_adjust *aj, int n, double *v, eqpi_solve_stats *st);
 /* Hold the activity of component comp (database index) at exp(lna), the
 ** charge balanced by component counter: one solve with those two rows; the
 ** totals (mol/kg over the database's components, as solved before) of both
 ** become outputs in *tc and *tq. On success the system holds the solution. */
-int eqpi_system_fix(eqp_ctx *ctx, eqpi_system **sysp, const double *totals, double T,
-                    eqpi_model *model, int comp, double lna, int counter, double *tc, double *tq);
+int eqpi_system_fix(eqp_ctx *ctx, const eqpi_db *db, eqpi_system **sysp, const double *totals,
+                    double T, eqpi_model *model, int comp, double lna, int counter, double *tc,
+                    double *tq);
 /* dpH/dv of the solved system for a direction (global components). */
 int eqpi_system_dpH(eqp_ctx *ctx, eqpi_system *s, const double *a_global, double w, double W,
                     double *dpH);

@@ -8,7 +8,7 @@
 #include <stdio.h>
 #include <string.h>
 
-static eqpi_gas *find_gas(eqpi_db *db, const char *name)
+static const eqpi_gas *find_gas(const eqpi_db *db, const char *name)
 {
   int i = eqpi_db_find_gas(db, name);
   return i < 0 ? NULL : &db->gases[i];
@@ -18,13 +18,13 @@ int eqp_solution_expose(eqp_solution *s, const char *gas, double p_atm, double *
 {
   if (!s || !gas) return eqpi_fail(s ? s->ctx : NULL, EQP_E_ARG, "NULL argument");
   eqp_ctx *ctx = s->ctx;
-  eqpi_db *db = &ctx->db;
-  eqpi_gas *g = find_gas(db, gas);
+  const eqpi_db *db = s->db;
+  const eqpi_gas *g = find_gas(db, gas);
   if (!g) return eqpi_fail(ctx, EQP_E_UNKNOWN, "unknown gas '%s'", gas);
   if (!(p_atm > 0) || !isfinite(p_atm) || p_atm > 100)
     return eqpi_fail(ctx, EQP_E_INPUT, "partial pressure of %s must be above 0 and at most 100 "
                      "atm", gas);
-  g->used = 1;   /* its K_H joins the provenance of the run */
+  eqpi_gas_used(ctx, g->name);   /* its K_H joins the provenance of the run */
   eqpi_tnotes notes = {0, 0};
   double lnKH = EQPI_LN10 * eqpi_reaction_logK(&g->kh, s->T, &notes);
   int rc = EQP_OK;

@@ -1,73 +1,83 @@
 /* A string index: names of species, reagents and the other entries of the
-** library, looked up in constant time while loading and while running. */
+** library, looked up in constant time while loading and while running.
+** uthash (Debian uthash-dev) holds the table; its memory comes from the
+** context's allocator, and running out of it is an error, never an exit. */
 /* SPDX-License-Identifier: MIT */
 #include "eqp_impl.h"
 #include <string.h>
 
-static unsigned hash_str(const char *s)
-{
-  unsigned h = 2166136261u;           /* FNV-1a */
-  while (*s) h = (h ^ (unsigned char)*s++) * 16777619u;
-  return h;
-}
+/* uthash allocates through these, with ix_ctx and ix_oom in scope */
+#define uthash_malloc(sz) eqpi_malloc(ix_ctx, sz)
+#define uthash_free(ptr, sz) eqpi_free(ix_ctx, ptr, sz)
+#define HASH_NONFATAL_OOM 1
+#define uthash_nonfatal_oom(obj) (ix_oom = 1)
+#define HASH_FUNCTION(keyptr, keylen, hashv) HASH_FNV(keyptr, keylen, hashv)
+#include <uthash.h>
+/* Chains of a few entries, not ten: names are looked up far more often
+** than added (every s:add, every r:molality). */
+#undef HASH_BKT_CAPACITY_THRESH
+#define HASH_BKT_CAPACITY_THRESH 4U
 
-/* The slot of key: where it is, or the empty slot where it would go. */
-static int slot_of(const eqpi_index *ix, const char *key)
-{
-  unsigned mask = (unsigned)ix->cap - 1, i = hash_str(key) & mask;
-  while (ix->key[i] && strcmp(ix->key[i], key) != 0) i = (i + 1) & mask;
-  return (int)i;
-}
-
-static int grow(eqp_ctx *ctx, eqpi_index *ix)
-{
-  int cap = ix->cap ? ix->cap * 2 : 64;
-  const char **key = eqpi_calloc(ctx, (size_t)cap, sizeof *key);
-  int *val = eqpi_malloc(ctx, sizeof *val * (size_t)cap);
-  if (!key || !val) {
-    eqpi_free(ctx, key, sizeof *key * (size_t)cap);
-    eqpi_free(ctx, val, sizeof *val * (size_t)cap);
-    return -1;
-  }
-  eqpi_index next = {key, val, cap, ix->n};
-  for (int i = 0; i < ix->cap; i++)
-    if (ix->key[i]) {
-      int k = slot_of(&next, ix->key[i]);
-      key[k] = ix->key[i];
-      val[k] = ix->val[i];
-    }
-  eqpi_index_free(ctx, ix);
-  *ix = next;
-  return 0;
-}
+struct eqpi_index_item {
+  const char *key;      /* borrowed */
+  int val;
+  UT_hash_handle hh;
+};
 
 int eqpi_index_put(eqp_ctx *ctx, eqpi_index *ix, const char *key, int val, int *old)
 {
-  if (ix->cap) {
-    int k = slot_of(ix, key);
-    if (ix->key[k]) {
-      if (old) *old = ix->val[k];
-      return 1;
-    }
+  eqpi_index_item *it = NULL;
+  size_t len = strlen(key);
+  HASH_FIND(hh, ix->head, key, len, it);
+  if (it) {
+    if (old) *old = it->val;
+    return 1;
   }
-  if (2 * (ix->n + 1) > ix->cap && grow(ctx, ix) < 0) return -1;
-  int k = slot_of(ix, key);
-  ix->key[k] = key;
-  ix->val[k] = val;
-  ix->n++;
+  eqp_ctx *ix_ctx = ctx;
+  int ix_oom = 0;
+  if (!(it = eqpi_malloc(ctx, sizeof *it))) return -1;
+  it->key = key;
+  it->val = val;
+  HASH_ADD_KEYPTR(hh, ix->head, it->key, len, it);
+  if (ix_oom) {
+    eqpi_free(ctx, it, sizeof *it);
+    return -1;
+  }
   return 0;
 }
 
 int eqpi_index_get(const eqpi_index *ix, const char *key)
 {
-  if (!ix->cap || !key) return -1;
-  int k = slot_of(ix, key);
-  return ix->key[k] ? ix->val[k] : -1;
+  if (!key) return -1;
+  eqpi_index_item *it = NULL;
+  HASH_FIND(hh, ix->head, key, strlen(key), it);
+  return it ? it->val : -1;
+}
+
+void eqpi_index_del(eqp_ctx *ctx, eqpi_index *ix, const char *key)
+{
+  eqpi_index_item *it = NULL;
+  HASH_FIND(hh, ix->head, key, strlen(key), it);
+  if (!it) return;
+  eqp_ctx *ix_ctx = ctx;
+  HASH_DELETE(hh, ix->head, it);
+  eqpi_free(ctx, it, sizeof *it);
+  (void)ix_ctx;
+}
+
+size_t eqpi_index_count(const eqpi_index *ix)
+{
+  return HASH_COUNT(ix->head);
 }
 
 void eqpi_index_free(eqp_ctx *ctx, eqpi_index *ix)
 {
-  eqpi_free(ctx, ix->key, sizeof *ix->key * (size_t)ix->cap);
-  eqpi_free(ctx, ix->val, sizeof *ix->val * (size_t)ix->cap);
-  memset(ix, 0, sizeof *ix);
+  eqpi_index_item *it, *tmp;
+  eqp_ctx *ix_ctx = ctx;
+  HASH_ITER(hh, ix->head, it, tmp) {
+    HASH_DELETE(hh, ix->head, it);
+    eqpi_free(ctx, it, sizeof *it);
+  }
+  (void)ix_ctx;
+  ix->head = NULL;
 }

@@ -1,7 +1,8 @@
-/* The species library: the species path (a list of folders, the user's
-** first, overlaying the built-in library), the record of what is loaded
-** (loading the same file again is a no-op), and a load that leaves out a
-** broken file, and whatever needs it, instead of failing every run. */
+/* The species library as found on disk: the species path (a list of
+** folders, the user's first, overlaying the built-in library), and a load
+** that leaves out a broken file, and whatever needs it, instead of failing
+** every run. What a library has loaded is recorded in the library itself
+** (loading the same file again is a no-op). */
 /* SPDX-License-Identifier: MIT */
 #include "stage_impl.h"
 #include <dirent.h>
@@ -30,39 +31,9 @@ void eqpi_file_key(const char *path, char *buf, size_t len)
   snprintf(buf, len, "%s", realpath(path, real) ? real : path);
 }
 
-int eqpi_loaded_has(const eqp_ctx *ctx, const char *key, u64 hash)
-{
-  for (int i = 0; i < ctx->nloaded; i++)
-    if (ctx->loaded[i].hash == hash && strcmp(ctx->loaded[i].key, key) == 0) return 1;
-  return 0;
-}
-
-int eqpi_loaded_add(eqp_ctx *ctx, const char *key, u64 hash)
-{
-  if (ctx->nloaded == ctx->caploaded) {
-    int nc = ctx->caploaded ? ctx->caploaded * 2 : 16;
-    eqpi_loaded *p = eqpi_realloc(ctx, ctx->loaded, sizeof *p * (size_t)ctx->caploaded,
-                                  sizeof *p * (size_t)nc);
-    if (!p) return -1;
-    ctx->loaded = p;
-    ctx->caploaded = nc;
-  }
-  char *k = eqpi_strdup(ctx, key);
-  if (!k) return -1;
-  ctx->loaded[ctx->nloaded].key = k;
-  ctx->loaded[ctx->nloaded++].hash = hash;
-  return 0;
-}
-
 static int push_str(eqp_ctx *ctx, char ***arr, int *n, int *cap, const char *s)
 {
-  if (*n == *cap) {
-    int nc = *cap ? *cap * 2 : 8;
-    char **p = eqpi_realloc(ctx, *arr, sizeof *p * (size_t)*cap, sizeof *p * (size_t)nc);
-    if (!p) return -1;
-    *arr = p;
-    *cap = nc;
-  }
+  if (eqpi_grow(ctx, arr, cap, *n + 1, sizeof **arr) < 0) return -1;
   if (!((*arr)[*n] = eqpi_strdup(ctx, s))) return -1;
   (*n)++;
   return 0;
@@ -76,8 +47,6 @@ static void free_strs(eqp_ctx *ctx, char **arr, int n, int cap)
 
 void eqpi_library_free(eqp_ctx *ctx)
 {
-  for (int i = 0; i < ctx->nloaded; i++) eqpi_strfree(ctx, ctx->loaded[i].key);
-  eqpi_free(ctx, ctx->loaded, sizeof *ctx->loaded * (size_t)ctx->caploaded);
   free_strs(ctx, ctx->species_dirs, ctx->nspecies_dirs, ctx->nspecies_dirs);
   free_strs(ctx, ctx->notices, ctx->nnotices, ctx->capnotices);
   free_strs(ctx, ctx->broken, ctx->nbroken, ctx->capbroken);
@@ -219,8 +188,7 @@ typedef struct lib_file {
   char *path;           /* folder/name, or the file being checked */
   const char *name;     /* its file name: what a file earlier on the path replaces */
   int rank;             /* place of its folder on the path; -1: the file being checked */
-  char key[PATH_MAX];
-  u64 hash;
+  eqpi_source_id id;    /* key and content hash */
   eqpi_stage *st;       /* its entries, once staged */
   int state;            /* F_* */
   char *why;            /* why it was left out */
@@ -264,13 +232,7 @@ static int choose(lib_load *ld, const char *path, int rank, const folders *fo)
              rank == fo->builtin ? "the built-in " : "", path);
     return 0;
   }
-  if (ld->n == ld->cap) {
-    int nc = ld->cap ? ld->cap * 2 : 32;
-    lib_file *p = eqpi_realloc(ld->ctx, ld->f, sizeof *p * (size_t)ld->cap, sizeof *p * (size_t)nc);
-    if (!p) return -1;
-    ld->f = p;
-    ld->cap = nc;
-  }
+  if (eqpi_grow(ld->ctx, &ld->f, &ld->cap, ld->n + 1, sizeof *ld->f) < 0) return -1;
   lib_file *f = &ld->f[ld->n];
   memset(f, 0, sizeof *f);
   if (!(f->path = eqpi_strdup(ld->ctx, path))) return -1;
@@ -325,31 +287,13 @@ static int stage_each(lib_load *ld)
   eqp_ctx *ctx = ld->ctx;
   for (int i = 0; i < ld->n; i++) {
     lib_file *f = &ld->f[i];
-    char *text;
-    size_t len, cap;
-    int rc = eqpi_read_file(ctx, f->path, &text, &len, &cap);
+    int skipped = 0;
+    if (!(f->st = eqpi_stage_new(ctx))) return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
+    int rc = eqpi_stage_file(ctx, f->st, ctx->db, f->path, &f->id, &skipped);
     if (rc == EQP_E_NOMEM) return rc;
-    if (rc < 0) {
-      leave_out(ctx, f, eqp_ctx_errmsg(ctx));
-      continue;
-    }
-    eqpi_file_key(f->path, f->key, sizeof f->key);
-    f->hash = eqpi_hash_bytes(text, len, 0);
-    if (eqpi_loaded_has(ctx, f->key, f->hash)) {
-      f->state = F_SKIPPED;
-      eqpi_free(ctx, text, cap);
-      continue;
-    }
-    f->st = eqpi_stage_new(ctx);
-    const char **slot = NULL;
-    if (f->st)
-      slot = eqpi_stage_push(ctx, f->st, (void **)&f->st->files, &f->st->nfiles,
-                             &f->st->capfiles, sizeof *f->st->files);
-    if (slot) *slot = eqpi_arena_strdup(ctx, &f->st->arena, f->path);
-    rc = slot && *slot ? eqpi_load_text(ctx, f->st, text, len, f->path) : EQP_E_NOMEM;
-    eqpi_free(ctx, text, cap);
-    if (rc == EQP_E_NOMEM) return eqpi_fail(ctx, EQP_E_NOMEM, "%s: out of memory", f->path);
-    if (f->st->nerr) leave_out(ctx, f, f->st->err);
+    if (rc < 0) leave_out(ctx, f, eqp_ctx_errmsg(ctx));
+    else if (skipped) f->state = F_SKIPPED;
+    else if (f->st->nerr) leave_out(ctx, f, f->st->err);
     else f->state = F_GOOD;
   }
   return EQP_OK;
@@ -378,33 +322,36 @@ static void lines_of(const char *err, const char *path, char *buf, size_t len)
 static int commit_good(lib_load *ld)
 {
   eqp_ctx *ctx = ld->ctx;
+  eqpi_loaded *rec = eqpi_malloc(ctx, sizeof *rec * ((size_t)ld->n + 1));
+  if (!rec) return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
+  int rc = EQP_OK;
   for (;;) {
     eqpi_stage *all = eqpi_stage_new(ctx);
-    if (!all) return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
+    if (!all) {
+      rc = eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
+      break;
+    }
     int ngood = 0;
-    for (int i = 0; i < ld->n; i++) {
+    for (int i = 0; i < ld->n && rc == EQP_OK; i++) {
       lib_file *f = &ld->f[i];
       if (f->state != F_GOOD) continue;
-      ngood++;
-      if (eqpi_stage_append(ctx, all, f->st) < 0) {
-        eqpi_stage_free(ctx, all);
-        return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
-      }
+      rec[ngood].key = f->id.key;
+      rec[ngood++].hash = f->id.hash;
+      if (eqpi_stage_append(ctx, all, f->st) < 0) rc = eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
     }
-    if (!ngood) {
+    if (rc < 0 || !ngood) {
       eqpi_stage_free(ctx, all);
-      return EQP_OK;
+      break;
     }
-    int rc = eqpi_stage_commit(ctx, all);
+    eqpi_db *lib;
+    rc = eqpi_stage_commit(ctx, ctx->db, all, rec, ngood, &lib);
     if (rc == EQP_OK) {
-      for (int i = 0; i < ld->n; i++) {
-        lib_file *f = &ld->f[i];
-        if (f->state != F_GOOD) continue;
-        eqpi_arena_splice(&ctx->db.arena, &f->st->arena);   /* its strings are the library's now */
-        eqpi_loaded_add(ctx, f->key, f->hash);
-      }
+      for (int i = 0; i < ld->n; i++)
+        if (ld->f[i].state == F_GOOD)      /* its strings are the library's now */
+          eqpi_stage_give_strings(ld->f[i].st, &lib->arena);
+      eqpi_ctx_set_library(ctx, lib);
       eqpi_stage_free(ctx, all);
-      return EQP_OK;
+      break;
     }
     int left = 0;
     if (rc != EQP_E_NOMEM && !all->errnofile)
@@ -421,8 +368,11 @@ static int commit_good(lib_load *ld)
           }
       }
     eqpi_stage_free(ctx, all);
-    if (!left) return rc;     /* out of memory, or a problem no file can be blamed for */
+    if (!left) break;     /* out of memory, or a problem no file can be blamed for */
+    rc = EQP_OK;
   }
+  eqpi_free(ctx, rec, sizeof *rec * ((size_t)ld->n + 1));
+  return rc;
 }
 
 /* Remember what the files left out define, so that a run asking for one of
@@ -497,8 +447,13 @@ static int load_library(eqp_ctx *ctx, const char *check)
     remember(ctx, f);
   }
   ctx->default_loaded = true;
-  if (checked && checked->state == F_BROKEN && checked->st && checked->st->nerr)
-    rc = eqpi_stage_commit(ctx, checked->st);   /* fails: with its name checks, every problem */
+  if (checked && checked->state == F_BROKEN && checked->st && checked->st->nerr) {
+    eqpi_db *none;                  /* fails: with its name checks, every problem */
+    if ((rc = eqpi_stage_commit(ctx, ctx->db, checked->st, NULL, 0, &none)) == EQP_OK) {
+      eqpi_db_release(none);
+      rc = eqpi_fail(ctx, EQP_E_DATA, "%s", checked->st->err);
+    }
+  }
   else if (checked && checked->state == F_BROKEN)
     rc = eqpi_fail(ctx, EQP_E_DATA, "%s", checked->why ? checked->why : checked->path);
   else if (!nloaded && nbroken)
@@ -532,7 +487,7 @@ int eqp_ctx_check_species_file(eqp_ctx *ctx, const char *path, size_t *nspecies)
   int rc = ctx->default_loaded ? eqp_ctx_load_species_file(ctx, path) : load_library(ctx, path);
   if (rc < 0) return rc;
   if (nspecies)
-    for (int i = 0; i < ctx->db.nsp; i++) *nspecies += strcmp(ctx->db.sp[i].file, path) == 0;
+    for (int i = 0; i < ctx->db->nsp; i++) *nspecies += strcmp(ctx->db->sp[i].file, path) == 0;
   return EQP_OK;
 }
 

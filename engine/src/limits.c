@@ -53,6 +53,7 @@ static void trip_memory(eqpi_limits *lim)
 
 static void *limits_alloc(eqpi_limits *lim, void *ptr, size_t osize, size_t nsize, int engine)
 {
+  int type = ptr ? -1 : (int)osize;
   if (!ptr) osize = 0;   /* for a new block Lua passes the object type here */
   if (nsize == 0) {
     if (ptr) lim->base(lim->base_ud, ptr, osize, 0);
@@ -83,6 +84,7 @@ static void *limits_alloc(eqpi_limits *lim, void *ptr, size_t osize, size_t nsiz
   if (lim->used > lim->peak) lim->peak = lim->used;
   if (engine) lim->engine_live = lim->engine_live - osize + nsize;
   else if (nsize > osize) lim->steps += (long long)((nsize - osize) / BYTES_PER_STEP);
+  if (!engine && type > 0 && lim->on_object) lim->on_object(lim->on_object_ud, p, type);
   return p;
 }
 

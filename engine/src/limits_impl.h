@@ -41,6 +41,10 @@ typedef struct eqpi_limits {
   const char *steps_hint;     /* appended to the messages: how to raise the limit */
   const char *mem_hint;
   char where[256];            /* "file:line" where a limit was reached, if known */
+  /* told of each object Lua makes (type: LUA_TTABLE, ...), after it is
+  ** allocated; NULL: nobody asks (the species sandbox notes its tables) */
+  void (*on_object)(void *ud, void *block, int type);
+  void *on_object_ud;
 } eqpi_limits;
 
 /* base NULL: malloc. max_mem 0 and max_steps 0 mean no limit. */

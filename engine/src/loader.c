@@ -15,7 +15,8 @@ typedef struct conv {
   eqp_ctx *ctx;
   eqpi_stage *st;
   lua_State *L;
-  const eqpi_linemap *lm;
+  const eqpi_lines *lines;
+  int root;             /* stack index of the table the file returned */
   const char *file;
   const char *path[8];
   char keys[8][64];
@@ -52,7 +53,7 @@ static void cv_pop(conv *c) { c->depth--; }
 
 static int cv_line(const conv *c)
 {
-  return eqpi_linemap_line(c->lm, c->path, c->depth < 8 ? c->depth : 8);
+  return eqpi_lines_at(c->lines, c->L, c->root, c->path, c->depth < 8 ? c->depth : 8);
 }
 
 static const char *cv_where(conv *c, char *buf, size_t len)
@@ -774,20 +775,21 @@ static void cv_list(conv *c, const char *key, void (*f)(conv *))
 }
 
 int eqpi_stage_from_table(eqp_ctx *ctx, eqpi_stage *st, lua_State *L, int idx,
-                          const eqpi_linemap *lm, const char *file)
+                          const eqpi_lines *lines, const char *file)
 {
   static const char *const keys[] = {"system", "about", "sources", "size_source",
                                      "params_source", "species", "acids", "reactions",
                                      "reagents", "interactions", "buffers", "gases",
                                      "solids", NULL};
-  conv c = {ctx, st, L, lm, NULL, {0}, {{0}}, 0, 0, NULL, NULL};
+  idx = lua_absindex(L, idx);
+  conv c = {ctx, st, L, lines, idx, NULL, {0}, {{0}}, 0, 0, NULL, NULL};
   int before = st->nerr;
   int top = lua_gettop(L);
   c.file = eqpi_arena_strdup(ctx, &st->arena, file);
   if (!c.file) return EQP_E_NOMEM;
-  idx = lua_absindex(L, idx);
   if (!lua_istable(L, idx)) {
-    eqpi_stage_error(st, file, eqpi_linemap_line(lm, NULL, 0), "the file must return a table");
+    eqpi_stage_error(st, file, eqpi_lines_at(lines, L, idx, NULL, 0),
+                     "the file must return a table");
     return EQP_E_DATA;
   }
   lua_pushvalue(L, idx);
@@ -809,52 +811,4 @@ int eqpi_stage_from_table(eqp_ctx *ctx, eqpi_stage *st, lua_State *L, int idx,
   cv_list(&c, "solids", cv_solid);
   lua_settop(L, top);
   return st->nerr > before ? EQP_E_DATA : EQP_OK;
-}
-
-
-/* ------------------------------------------------------------ inline tables */
-
-typedef struct table_args {
-  eqp_ctx *ctx;
-  eqpi_stage *st;
-  const char *where;
-} table_args;
-
-static int table_run(lua_State *L)
-{
-  table_args *a = lua_touserdata(L, 1);
-  eqpi_stage_from_table(a->ctx, a->st, L, 2, NULL, a->where);
-  return 0;
-}
-
-int eqpi_load_table(eqp_ctx *ctx, lua_State *L, int idx, const char *where)
-{
-  idx = lua_absindex(L, idx);
-  if (!lua_checkstack(L, 4)) return eqpi_fail(ctx, EQP_E_NOMEM, "%s: out of memory", where);
-  eqpi_stage *st = eqpi_stage_new(ctx);
-  if (!st) return eqpi_fail(ctx, EQP_E_NOMEM, "%s: out of memory", where);
-  table_args a = {ctx, st, where};
-  lua_pushcfunction(L, table_run);
-  lua_pushlightuserdata(L, &a);
-  lua_pushvalue(L, idx);
-  int prc = lua_pcall(L, 2, 0, 0), rc;
-  if (prc != LUA_OK) {
-    /* the stage is ours whatever happened: report, then free it below */
-    const char *msg = lua_tostring(L, -1);
-    eqpi_stage_error(st, where, 0, "%s", msg ? msg : "error while reading the species table");
-    lua_pop(L, 1);
-    rc = eqpi_fail(ctx, prc == LUA_ERRMEM ? EQP_E_NOMEM : EQP_E_DATA, "%s", st->err);
-  } else {
-    /* an inline table has no file: it is known by what it defines, so the
-    ** same table loaded again, from anywhere in the script, is a no-op */
-    unsigned long long fp = eqpi_stage_fingerprint(st);
-    if (st->nerr == 0 && eqpi_loaded_has(ctx, "(inline species)", fp)) {
-      rc = EQP_OK;
-    } else {
-      rc = eqpi_stage_commit(ctx, st);
-      if (rc == EQP_OK) eqpi_loaded_add(ctx, "(inline species)", fp);
-    }
-  }
-  eqpi_stage_free(ctx, st);
-  return rc;
 }

@@ -1,6 +1,8 @@
 /* Allocation through the context's allocator, and the arena for species data. */
 /* SPDX-License-Identifier: MIT */
 #include "eqp_impl.h"
+#include <limits.h>
+#include <stdint.h>
 #include <stdlib.h>
 #include <string.h>
 
@@ -38,6 +40,44 @@ char *eqpi_strdup(eqp_ctx *ctx, const char *s)
 void eqpi_strfree(eqp_ctx *ctx, char *s)
 {
   if (s) eqpi_free(ctx, s, strlen(s) + 1);
+}
+
+/* The capacity after growing from cap to hold need: doubling, 8 at first. */
+static size_t next_cap(size_t cap, size_t need, size_t max)
+{
+  size_t nc = cap ? cap : 8;
+  while (nc < need) nc = nc > max / 2 ? max : nc * 2;
+  return nc;
+}
+
+static int regrow(eqp_ctx *ctx, void *arrp, size_t cap, size_t nc, size_t elem)
+{
+  if (elem && nc > SIZE_MAX / elem) return -1;
+  void *old;
+  memcpy(&old, arrp, sizeof old);      /* arrp is the address of some T * */
+  void *p = eqpi_realloc(ctx, old, elem * cap, elem * nc);
+  if (!p) return -1;
+  memcpy(arrp, &p, sizeof p);
+  return 0;
+}
+
+int eqpi_grow_size(eqp_ctx *ctx, void *arrp, size_t *cap, size_t need, size_t elem)
+{
+  if (need <= *cap) return 0;
+  size_t nc = next_cap(*cap, need, SIZE_MAX);
+  if (regrow(ctx, arrp, *cap, nc, elem) < 0) return -1;
+  *cap = nc;
+  return 0;
+}
+
+int eqpi_grow(eqp_ctx *ctx, void *arrp, int *cap, int need, size_t elem)
+{
+  if (need <= *cap) return 0;
+  if (need < 0 || *cap < 0) return -1;
+  size_t nc = next_cap((size_t)*cap, (size_t)need, INT_MAX);
+  if (regrow(ctx, arrp, (size_t)*cap, nc, elem) < 0) return -1;
+  *cap = (int)nc;
+  return 0;
 }
 
 /* Blocks chained newest first; payload follows the header. */

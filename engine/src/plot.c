@@ -227,6 +227,6 @@ void eqpi_plot_label(const eqp_ctx *ctx, const char *in, char *out, size_t len)
 {
   /* only names the library knows, or that carry a caret charge, are
   ** chemistry: "pH" or "added volume" stay as written */
-  int chem = strchr(in, '^') != NULL || eqpi_db_find_species(&ctx->db, in) >= 0;
+  int chem = strchr(in, '^') != NULL || eqpi_db_find_species(ctx->db, in) >= 0;
   if (!chem || eqpi_name_pretty(in, out, len) != 0) snprintf(out, len, "%s", in);
 }

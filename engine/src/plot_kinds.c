@@ -131,8 +131,8 @@ int eqp_plot_distribution(const eqp_curve *c, const eqp_distribution_spec *user,
   char cond[96], title[EQPI_PLOT_TEXT * 2], sys[64];
   conditions(cond, sizeof cond, d->T > 0 ? d->T : EQPI_T25, d->ionic_strength, d->activity);
   /* a formula (NaHCO3) with its subscripts; a name (phosphate) as it is */
-  if (eqpi_db_find_reagent(&c->ctx->db, d->system) < 0 &&
-      eqpi_db_find_species(&c->ctx->db, d->system) < 0)
+  if (eqpi_db_find_reagent(c->ctx->db, d->system) < 0 &&
+      eqpi_db_find_species(c->ctx->db, d->system) < 0)
     snprintf(sys, sizeof sys, "%s", d->system);
   else if (eqpi_name_pretty(d->system, sys, sizeof sys) != 0)
     snprintf(sys, sizeof sys, "%s", d->system);

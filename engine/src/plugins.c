@@ -231,16 +231,10 @@ static int registry_get(eqp_ctx *ctx, const char *name, eqpi_plugin_handle **out
     dlclose(dl);
     return rc;
   }
-  if (ctx->nplugins == ctx->capplugins) {
-    int nc = ctx->capplugins * 2 + 4;
-    eqpi_plugin_handle *p = eqpi_realloc(ctx, ctx->plugins, sizeof *p * (size_t)ctx->capplugins,
-                                         sizeof *p * (size_t)nc);
-    if (!p) {
-      dlclose(dl);
-      return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
-    }
-    ctx->plugins = p;
-    ctx->capplugins = nc;
+  if (eqpi_grow(ctx, &ctx->plugins, &ctx->capplugins, ctx->nplugins + 1,
+                sizeof *ctx->plugins) < 0) {
+    dlclose(dl);
+    return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
   }
   eqpi_plugin_handle *h = &ctx->plugins[ctx->nplugins];
   h->name = eqpi_strdup(ctx, name);

@@ -23,7 +23,7 @@
 int eqp_solution_allow_solids(eqp_solution *s, const char *const *names, size_t n)
 {
   if (!s || (n && !names)) return eqpi_fail(s ? s->ctx : NULL, EQP_E_ARG, "NULL argument");
-  const eqpi_db *db = &s->ctx->db;
+  const eqpi_db *db = s->db;
   int ns = db->nsolids;
   unsigned char *flags = eqpi_calloc(s->ctx, (size_t)(ns > 0 ? ns : 1), 1);
   if (!flags) return eqpi_fail(s->ctx, EQP_E_NOMEM, "out of memory");
@@ -67,7 +67,7 @@ int eqp_solution_allow_all_solids(eqp_solution *s, int on)
 
 int eqpi_solution_allowed(const eqp_solution *s, int k)
 {
-  return s->allow_all ? k < s->ctx->db.nsolids : k < s->nallow && s->allow[k];
+  return s->allow_all ? k < s->db->nsolids : k < s->nallow && s->allow[k];
 }
 
 /* ------------------------------------------------------------ measures */
@@ -89,9 +89,9 @@ static void phase_dir(const eqpi_db *db, int k, double *a)
 
 /* ln(IAP/Ksp) of phase k in the solved system; -HUGE_VAL when a species of
 ** it is absent. */
-static double ln_sat(const eqp_ctx *ctx, const eqpi_system *sys, double T, int k)
+static double ln_sat(const eqpi_system *sys, double T, int k)
 {
-  const eqpi_db *db = &ctx->db;
+  const eqpi_db *db = sys->tab->db;
   const eqpi_solid *p = &db->solids[k];
   const eqpi_tableau *t = sys->tab;
   double v = 0;
@@ -123,14 +123,14 @@ typedef struct pset {
 
 static int solve_set(pset *P)
 {
-  const eqpi_db *db = &P->s->ctx->db;
+  const eqpi_db *db = P->s->db;
   for (int c = 0; c < db->ncomp; c++) {
     double v = P->mol[c];
     for (int q = 0; q < P->np; q++) v -= P->n[q] * P->dir[q * db->ncomp + c];
     /* a component used up to rounding is gone, not negative */
     P->tot[c] = v < 0 && v > -1e-13 * fabs(P->mol[c]) - 1e-300 ? 0 : v;
   }
-  return eqpi_system_solve(P->s->ctx, &P->s->sys, P->tot, P->s->T, P->model, P->st);
+  return eqpi_system_solve(P->s->ctx, P->s->db, &P->s->sys, P->tot, P->s->T, P->model, P->st);
 }
 
 static int miss(void *ud, double x, double *f)
@@ -139,7 +139,7 @@ static int miss(void *ud, double x, double *f)
   P->n[P->k] = x;
   int rc = solve_set(P);
   if (rc < 0) return rc;
-  double v = ln_sat(P->s->ctx, P->s->sys, P->s->T, P->ph[P->k]);
+  double v = ln_sat(P->s->sys, P->s->T, P->ph[P->k]);
   *f = isfinite(v) ? v : -1e3;     /* a phase whose ion is gone: far undersaturated */
   return 0;
 }
@@ -148,7 +148,7 @@ static int miss(void *ud, double x, double *f)
 ** component it draws on to run out. */
 static double most(const pset *P, int q)
 {
-  const eqpi_db *db = &P->s->ctx->db;
+  const eqpi_db *db = P->s->db;
   double best = HUGE_VAL;
   int hc = db->sp[db->h_plus].component;
   for (int c = 0; c < db->ncomp; c++) {
@@ -172,7 +172,7 @@ static int amount_one(pset *P, int q)
   if (rc < 0 || f0 <= 0) return rc;
   if (!isfinite(hi) || hi <= 0)
     return eqpi_fail(P->s->ctx, EQP_E_INPUT, "solid %s: no component bounds its amount",
-                     P->s->ctx->db.solids[P->ph[q]].name);
+                     P->s->db->solids[P->ph[q]].name);
   double b = hi * (1 - 1e-12);
   if ((rc = miss(P, b, &fb)) < 0) return rc;
   if (fb > 0) { P->n[q] = b; return solve_set(P); }
@@ -208,7 +208,7 @@ int eqpi_precipitate(eqp_solution *s, const double *mol, eqpi_model *model,
                      eqpi_solve_stats *st, double *amounts)
 {
   eqp_ctx *ctx = s->ctx;
-  const eqpi_db *db = &ctx->db;
+  const eqpi_db *db = s->db;
   const int nc = db->ncomp, nsol = db->nsolids;
   for (int k = 0; k < nsol; k++) amounts[k] = 0;
   size_t bytes = sizeof(double) * (size_t)nc * (MAX_PHASES + 2);
@@ -225,7 +225,7 @@ int eqpi_precipitate(eqp_solution *s, const double *mol, eqpi_model *model,
       int present = 0;
       for (int q = 0; q < P.np; q++) present |= P.ph[q] == k;
       if (present || !eqpi_solution_allowed(s, k)) continue;
-      double v = ln_sat(ctx, s->sys, s->T, k);
+      double v = ln_sat(s->sys, s->T, k);
       if (v > top) { top = v; join = k; }
     }
     if (join < 0) break;
@@ -264,7 +264,7 @@ int eqpi_precipitate(eqp_solution *s, const double *mol, eqpi_model *model,
       double worst = 0;
       for (int q = 0; q < P.np; q++) {
         if (P.n[q] <= 0) continue;
-        double v = ln_sat(ctx, s->sys, s->T, P.ph[q]);
+        double v = ln_sat(s->sys, s->T, P.ph[q]);
         worst = fmax(worst, isfinite(v) ? fabs(v) : HUGE_VAL);
       }
       int w = 0;

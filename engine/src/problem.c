@@ -50,13 +50,13 @@ static void carve_problem(pcarver *k, eqpi_problem *P, int nc, int ns, int nmax)
 static int info_param(const void *ud, size_t i, const char *key, double *v)
 {
   const eqpi_problem *P = ud;
-  return eqpi_db_species_param(&P->ctx->db, P->tab->sp[i], key, v);
+  return eqpi_db_species_param(P->tab->db, P->tab->sp[i], key, v);
 }
 
 static int info_pair(const void *ud, size_t i, size_t j, const char *key, double *v)
 {
   const eqpi_problem *P = ud;
-  return eqpi_db_pair_param(&P->ctx->db, P->tab->sp[i], P->tab->sp[j], key, v);
+  return eqpi_db_pair_param(P->tab->db, P->tab->sp[i], P->tab->sp[j], key, v);
 }
 
 int eqpi_problem_set_model(eqpi_problem *P, eqpi_model *model)

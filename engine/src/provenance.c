@@ -10,6 +10,9 @@
 
 typedef struct walk {
   eqp_ctx *ctx;
+  const eqpi_db *db;        /* the library walked */
+  eqpi_index *seen;         /* constants reported, over every library */
+  eqpi_arena **keys;
   unsigned char *comp;      /* components involved */
   unsigned char *sp;        /* species that can form from them */
   unsigned char *rx;        /* reactions already reported */
@@ -28,6 +31,15 @@ static int formed(const walk *w, const eqpi_species *s)
   for (int t = 0; t < s->nterm; t++)
     if (s->term_nu[t] != 0 && !w->comp[s->term_comp[t]]) return 0;
   return 1;
+}
+
+/* Report k unless a library walked before reported it. */
+static void emit(walk *w, const eqp_constant *k)
+{
+  char key[4400];
+  snprintf(key, sizeof key, "%s:%d:%s", k->file, k->line, k->equation);
+  const char *kk = eqpi_arena_strdup(w->ctx, w->keys, key);
+  if (!kk || eqpi_index_put(w->ctx, w->seen, kk, 0, NULL) == 0) w->fn(w->ud, k);
 }
 
 static void temperature_words(const eqpi_reaction *r, char *buf, size_t len)
@@ -49,7 +61,7 @@ static void temperature_words(const eqpi_reaction *r, char *buf, size_t len)
 static void report_reaction(walk *w, const eqpi_reaction *r, const char *kind_hint,
                             const char *equation)
 {
-  const eqpi_db *db = &w->ctx->db;
+  const eqpi_db *db = w->db;
   char eq[512], tw[160];
   size_t used = 0;
   eqp_constant k = {0};
@@ -101,26 +113,27 @@ static void report_reaction(walk *w, const eqpi_reaction *r, const char *kind_hi
   k.source = r->source ? r->source : "";
   k.file = r->file ? r->file : "";
   k.line = r->line;
-  w->fn(w->ud, &k);
+  emit(w, &k);
 }
 
+/* Mark what name forms in the library walked; 0 if it has no such name. */
 static int add_name(walk *w, const char *name)
 {
-  const eqpi_db *db = &w->ctx->db;
+  const eqpi_db *db = w->db;
   int i = eqpi_db_find_species(db, name);
   if (i >= 0) {
     mark_terms(w, db->sp[i].nterm, db->sp[i].term_comp, db->sp[i].term_nu);
-    return EQP_OK;
+    return 1;
   }
   int g = eqpi_db_find_reagent(db, name);
-  if (g < 0) return eqpi_fail(w->ctx, EQP_E_UNKNOWN, "no species or reagent '%s'", name);
+  if (g < 0) return 0;
   mark_terms(w, db->rg[g].nterm, db->rg[g].term_comp, db->rg[g].term_nu);
-  return EQP_OK;
+  return 1;
 }
 
 static void report_all(walk *w)
 {
-  const eqpi_db *db = &w->ctx->db;
+  const eqpi_db *db = w->db;
   for (int i = 0; i < db->nsp; i++) w->sp[i] = formed(w, &db->sp[i]);
   for (int i = 0; i < db->nsp; i++) {
     if (!w->sp[i]) continue;
@@ -159,7 +172,7 @@ static void report_all(walk *w)
     if (!w->sp[i] || isnan(s->size)) continue;
     eqp_constant k = {"ion size", s->name, s->size, NAN, NAN, "none", s->size_source ?
                       s->size_source : "", s->file ? s->file : "", s->line};
-    w->fn(w->ud, &k);
+    emit(w, &k);
   }
   for (int p = 0; p < db->npairs; p++) {
     const eqpi_pairparam *pp = &db->pairs[p];
@@ -167,22 +180,40 @@ static void report_all(walk *w)
     snprintf(eq, sizeof eq, "%s / %s (%s)", db->sp[pp->a].name, db->sp[pp->b].name, pp->key);
     eqp_constant k = {"interaction", eq, pp->value, NAN, NAN, "none", pp->source ? pp->source : "",
                       pp->file ? pp->file : "", pp->line};
-    w->fn(w->ud, &k);
+    emit(w, &k);
   }
 }
 
-int eqpi_constants_mark(eqp_ctx *ctx, const char *const *names, size_t n, unsigned char **spp)
+/* The library that defines the names not yet found, first among the
+** context's and then the others in use (a solution's own library): the
+** next one with any of them, or NULL. */
+static const eqpi_db *next_library(eqp_ctx *ctx, const eqpi_db *after, const char *const *names,
+                                   size_t n, const char *found)
+{
+  if (!after) return ctx->db;
+  for (const eqpi_db *db = after == ctx->db ? eqpi_ctx_libraries(ctx) : after->live_next; db;
+       db = db->live_next) {
+    if (db == ctx->db) continue;
+    for (size_t i = 0; i < n; i++)
+      if (!found[i] && (eqpi_db_find_species(db, names[i]) >= 0 ||
+                        eqpi_db_find_reagent(db, names[i]) >= 0))
+        return db;
+  }
+  return NULL;
+}
+
+int eqpi_constants_mark(eqp_ctx *ctx, const eqpi_db *db, const char *const *names, size_t n,
+                        char *found, unsigned char **spp)
 {
   *spp = NULL;
-  int rc = eqp_ctx_load_default_library(ctx);
-  if (rc < 0) return rc;
-  const eqpi_db *db = &ctx->db;
   size_t nc = (size_t)db->ncomp + 1, ns = (size_t)db->nsp + 1;
-  walk w = {ctx, eqpi_calloc(ctx, nc, 1), eqpi_calloc(ctx, ns, 1), NULL, NULL, NULL};
-  if (!w.comp || !w.sp) rc = eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
+  walk w = {ctx, db, NULL, NULL, eqpi_calloc(ctx, nc, 1), eqpi_calloc(ctx, ns, 1), NULL, NULL,
+            NULL};
+  int rc = w.comp && w.sp ? EQP_OK : eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
   for (int c = 0; rc == EQP_OK && c < db->ncomp; c++)
     if (db->comp_species[c] == db->h_plus || db->comp_species[c] == db->water) w.comp[c] = 1;
-  for (size_t i = 0; rc == EQP_OK && i < n; i++) rc = add_name(&w, names[i]);
+  for (size_t i = 0; rc == EQP_OK && i < n; i++)
+    if (!found[i] && add_name(&w, names[i])) found[i] = 1;
   for (int i = 0; rc == EQP_OK && i < db->nsp; i++) w.sp[i] = formed(&w, &db->sp[i]);
   eqpi_free(ctx, w.comp, nc);
   if (rc < 0) {
@@ -193,24 +224,56 @@ int eqpi_constants_mark(eqp_ctx *ctx, const char *const *names, size_t n, unsign
   return EQP_OK;
 }
 
+const eqpi_db *eqpi_constants_library(eqp_ctx *ctx, const eqpi_db *after,
+                                      const char *const *names, size_t n, const char *found)
+{
+  return next_library(ctx, after, names, n, found);
+}
+
+/* The constants of w->db that the names it defines (not yet found) depend on. */
+static int walk_library(walk *w, const char *const *names, size_t n, char *found)
+{
+  eqp_ctx *ctx = w->ctx;
+  const eqpi_db *db = w->db;
+  size_t nc = (size_t)db->ncomp + 1, ns = (size_t)db->nsp + 1, nr = (size_t)db->nrx + 1;
+  w->comp = eqpi_calloc(ctx, nc, 1);
+  w->sp = eqpi_calloc(ctx, ns, 1);
+  w->rx = eqpi_calloc(ctx, nr, 1);
+  int rc = w->comp && w->sp && w->rx ? EQP_OK : eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
+  /* water and its ions are in every solution */
+  for (int c = 0; rc == EQP_OK && c < db->ncomp; c++)
+    if (db->comp_species[c] == db->h_plus || db->comp_species[c] == db->water) w->comp[c] = 1;
+  for (size_t i = 0; rc == EQP_OK && i < n; i++)
+    if (!found[i] && add_name(w, names[i])) found[i] = 1;
+  if (rc == EQP_OK) report_all(w);
+  eqpi_free(ctx, w->comp, nc);
+  eqpi_free(ctx, w->sp, ns);
+  eqpi_free(ctx, w->rx, nr);
+  return rc;
+}
+
 int eqp_ctx_constants(eqp_ctx *ctx, const char *const *names, size_t n, eqp_constant_fn fn,
                       void *ud)
 {
   if (!ctx || !fn || (n && !names)) return eqpi_fail(ctx, EQP_E_ARG, "NULL argument");
   int rc = eqp_ctx_load_default_library(ctx);
   if (rc < 0) return rc;
-  const eqpi_db *db = &ctx->db;
-  size_t nc = (size_t)db->ncomp + 1, ns = (size_t)db->nsp + 1, nr = (size_t)db->nrx + 1;
-  walk w = {ctx, eqpi_calloc(ctx, nc, 1), eqpi_calloc(ctx, ns, 1), eqpi_calloc(ctx, nr, 1), fn,
-            ud};
-  if (!w.comp || !w.sp || !w.rx) rc = eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
-  /* water and its ions are in every solution */
-  for (int c = 0; rc == EQP_OK && c < db->ncomp; c++)
-    if (db->comp_species[c] == db->h_plus || db->comp_species[c] == db->water) w.comp[c] = 1;
-  for (size_t i = 0; rc == EQP_OK && i < n; i++) rc = add_name(&w, names[i]);
-  if (rc == EQP_OK) report_all(&w);
-  eqpi_free(ctx, w.comp, nc);
-  eqpi_free(ctx, w.sp, ns);
-  eqpi_free(ctx, w.rx, nr);
+  char *found = eqpi_calloc(ctx, n + 1, 1);
+  eqpi_index seen = {0};
+  eqpi_arena *keys = NULL;
+  walk w = {ctx, NULL, &seen, &keys, NULL, NULL, NULL, fn, ud};
+  if (!found) rc = eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
+  /* the context's library; then, for a name a solution's own library
+  ** defines, every library in use, newest first */
+  for (const eqpi_db *db = NULL; rc == EQP_OK;) {
+    if (!(db = next_library(ctx, db, names, n, found))) break;
+    w.db = db;
+    rc = walk_library(&w, names, n, found);
+  }
+  for (size_t i = 0; rc == EQP_OK && i < n; i++)
+    if (!found[i]) rc = eqpi_fail(ctx, EQP_E_UNKNOWN, "no species or reagent '%s'", names[i]);
+  eqpi_free(ctx, found, n + 1);
+  eqpi_index_free(ctx, &seen);
+  eqpi_arena_free(ctx, &keys);
   return rc;
 }

@@ -29,8 +29,8 @@ struct eqp_recipe {
 
 static const eqpi_reagent *reagent_of(eqp_ctx *ctx, const char *name)
 {
-  int g = eqpi_db_find_reagent(&ctx->db, name);
-  return g < 0 ? NULL : &ctx->db.rg[g];
+  int g = eqpi_db_find_reagent(ctx->db, name);
+  return g < 0 ? NULL : &ctx->db->rg[g];
 }
 
 typedef struct plan {
@@ -81,24 +81,24 @@ static int choose(eqp_ctx *ctx, const eqp_recipe_spec *sp, plan *p)
   }
   if (sp->buffer) {
     const eqpi_buffer *b = NULL;
-    for (int i = 0; i < ctx->db.nbuffers; i++)
-      if (strcmp(ctx->db.buffers[i].name, sp->buffer) == 0) b = &ctx->db.buffers[i];
+    for (int i = 0; i < ctx->db->nbuffers; i++)
+      if (strcmp(ctx->db->buffers[i].name, sp->buffer) == 0) b = &ctx->db->buffers[i];
     if (!b) return eqpi_fail(ctx, EQP_E_UNKNOWN, "recipe: no buffer '%s' in the library",
                              sp->buffer);
     if (r1) {   /* the reagents on the shelf must make this buffer, not another */
-      const eqpi_reagent *form = &ctx->db.rg[b->acid >= 0 ? b->acid : b->free];
+      const eqpi_reagent *form = &ctx->db->rg[b->acid >= 0 ? b->acid : b->free];
       const eqpi_reagent *u1 = reagent_of(ctx, r1), *u2 = reagent_of(ctx, r2);
-      if (u1 && u2 && !same_system(&ctx->db, form, u1) && !same_system(&ctx->db, form, u2))
+      if (u1 && u2 && !same_system(ctx->db, form, u1) && !same_system(ctx->db, form, u2))
         return eqpi_fail(ctx, EQP_E_INPUT, "recipe: using = { %s, %s } does not make the buffer "
                          "'%s' (%s is one of its reagents); name the buffer of these reagents, "
                          "or leave out 'buffer'", r1, r2, b->name, form->name);
     } else {
       if (b->acid >= 0) {
-        r1 = ctx->db.rg[b->acid].name;
-        r2 = ctx->db.rg[b->base].name;
+        r1 = ctx->db->rg[b->acid].name;
+        r2 = ctx->db->rg[b->base].name;
       } else {
-        r1 = ctx->db.rg[b->free].name;
-        r2 = ctx->db.rg[b->titrant].name;
+        r1 = ctx->db->rg[b->free].name;
+        r2 = ctx->db->rg[b->titrant].name;
       }
     }
   }
@@ -186,7 +186,7 @@ static int make_at(eqp_ctx *ctx, const eqp_recipe_spec *sp, const plan *p, doubl
   }
   eqpi_solve_stats st;
   double vv[2] = {0, 0};
-  rc = eqpi_system_adjust(ctx, &s->sys, aj, with_salt ? 2 : 1, vv, &st);
+  rc = eqpi_system_adjust(ctx, s->db, &s->sys, aj, with_salt ? 2 : 1, vv, &st);
   if (rc == EQP_OK)
     for (int c = 0; c < s->ntotal; c++) s->total[c] += vv[0] * a[c] + vv[1] * as[c];
   eqpi_free(ctx, a, 2 * nb * sizeof(double));
@@ -254,7 +254,7 @@ static void write_procedure(eqp_recipe *out, const eqp_recipe_spec *sp, const pl
   for (int i = 0; i < out->nwarn; i++) APPEND("Warning: %s.\n", out->warn[i]);
   for (int i = 0; i < out->nitems; i++) {
     char caution[1024];
-    if (eqpi_caution_text(&out->ctx->db, eqpi_db_find_reagent(&out->ctx->db, out->item[i].reagent),
+    if (eqpi_caution_text(out->ctx->db, eqpi_db_find_reagent(out->ctx->db, out->item[i].reagent),
                           caution, sizeof caution))
       APPEND("Caution: %s\n", caution);
   }
@@ -474,7 +474,7 @@ int eqp_recipe_make(eqp_ctx *ctx, const eqp_recipe_spec *spec, eqp_recipe **out)
   int rc = eqpi_opts_read(ctx, "eqp_recipe_spec", spec, &sp, sizeof sp, EQPI_RECIPE_SPEC_0_1);
   if (rc < 0) return rc;
   if ((rc = normalize(ctx, &sp)) < 0) return rc;
-  if (ctx->db.nsp == 0) {
+  if (ctx->db->nsp == 0) {
     int rc0 = eqp_ctx_load_default_library(ctx);
     if (rc0 < 0) return rc0;
   }

@@ -10,6 +10,7 @@
 
 struct eqp_result {
   eqp_ctx *ctx;
+  const eqpi_db *db;      /* the library of its solution, held */
   size_t bytes;           /* whole block, for the allocator */
   int ns, ndb;
   int *sp;                /* global species */
@@ -51,7 +52,7 @@ static void gather(void *ud, const char *kind, const char *text)
 /* A solid the result is supersaturated in: said, not formed (docs/user-guide.md). */
 static void supersaturation_notes(const eqp_result *r)
 {
-  const eqpi_db *db = &r->ctx->db;
+  const eqpi_db *db = r->db;
   for (int k = 0; k < db->nsolids; k++) {
     double si;
     if (eqp_result_saturation(r, db->solids[k].name, &si) != EQP_OK || !(si > 1e-6)) continue;
@@ -64,10 +65,11 @@ static void supersaturation_notes(const eqp_result *r)
   }
 }
 
-int eqpi_result_make(eqp_ctx *ctx, const eqpi_system *sys, const eqpi_model *model, double T,
-                     double water_kg, const eqpi_solve_stats *st, eqp_result **out)
+int eqpi_result_make(eqp_ctx *ctx, const eqpi_db *db, const eqpi_system *sys,
+                     const eqpi_model *model, double T, double water_kg,
+                     const eqpi_solve_stats *st, eqp_result **out)
 {
-  int ns = eqpi_system_nspecies(sys), ndb = ctx->db.nsp;
+  int ns = eqpi_system_nspecies(sys), ndb = db->nsp;
   double I = eqpi_system_ionic_strength(sys);
   if (!(I <= EQPI_MAX_MOLALITY))
     return eqpi_fail(ctx, EQP_E_VERIFY, "refusing the result: ionic strength %g mol/kg (at "
@@ -80,6 +82,7 @@ int eqpi_result_make(eqp_ctx *ctx, const eqpi_system *sys, const eqpi_model *mod
   eqp_result *r = eqpi_malloc(ctx, bytes);
   if (!r) return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
   r->ctx = ctx;
+  r->db = eqpi_db_ref(db);
   r->bytes = bytes;
   r->ns = ns;
   r->ndb = ndb;
@@ -89,11 +92,12 @@ int eqpi_result_make(eqp_ctx *ctx, const eqpi_system *sys, const eqpi_model *mod
   int h = -1;
   for (int i = 0; i < ns; i++) {
     r->sp[i] = eqpi_system_species(sys, i, &r->m[i], &r->lg[i]);   /* ascending */
-    if (r->sp[i] == ctx->db.h_plus) h = i;
+    if (r->sp[i] == db->h_plus) h = i;
   }
   r->pH = h >= 0 ? -(log10(r->m[h]) + r->lg[h]) : NAN;
   r->I = I;
   if (!isfinite(r->pH)) {
+    eqpi_db_release(r->db);
     eqpi_free(ctx, r, bytes);
     return eqpi_fail(ctx, EQP_E_VERIFY, "refusing the result: the pH is not a finite number");
   }
@@ -116,7 +120,9 @@ int eqpi_result_make(eqp_ctx *ctx, const eqpi_system *sys, const eqpi_model *mod
 
 void eqp_result_free(eqp_result *r)
 {
-  if (r) eqpi_free(r->ctx, r, r->bytes);
+  if (!r) return;
+  eqpi_db_release(r->db);
+  eqpi_free(r->ctx, r, r->bytes);
 }
 
 /* One block: copied whole, its pointers moved to the copy. */
@@ -156,7 +162,7 @@ const char *eqp_result_warning(const eqp_result *r, size_t i)
 
 const char *eqp_result_species_name(const eqp_result *r, size_t i)
 {
-  return r && i < (size_t)r->ns ? r->ctx->db.sp[r->sp[i]].name : NULL;
+  return r && i < (size_t)r->ns ? r->db->sp[r->sp[i]].name : NULL;
 }
 
 double eqp_result_species_molality(const eqp_result *r, size_t i)
@@ -188,7 +194,7 @@ static int lookup(const eqp_result *r, const char *sp)
 {
   char hint[256];
   if (!r || !sp) return -2;
-  int g = eqpi_db_find_species(&r->ctx->db, sp);
+  int g = eqpi_db_find_species(r->db, sp);
   if (g < 0) {
     eqpi_fail(r->ctx, EQP_E_UNKNOWN, "unknown species '%s'%s", sp, eqpi_name_hint(sp, hint, sizeof hint));
     return -2;
@@ -224,7 +230,7 @@ int eqp_result_activity(const eqp_result *r, const char *sp, double *out)
 {
   int i = lookup(r, sp);
   if (i < -1) return EQP_E_UNKNOWN;
-  if (i >= 0 || eqpi_db_find_species(&r->ctx->db, sp) != r->ctx->db.water)
+  if (i >= 0 || eqpi_db_find_species(r->db, sp) != r->db->water)
     *out = i < 0 ? 0.0 : r->m[i] * pow(10.0, r->lg[i]);
   else
     *out = 1.0;   /* the solvent */
@@ -236,7 +242,7 @@ int eqp_result_activity(const eqp_result *r, const char *sp, double *out)
 int eqp_result_saturation(const eqp_result *r, const char *solid, double *si)
 {
   if (!r || !solid || !si) return EQP_E_ARG;
-  const eqpi_db *db = &r->ctx->db;
+  const eqpi_db *db = r->db;
   int k = eqpi_db_find_solid(db, solid);
   if (k == -2) {
     char which[256];
@@ -279,7 +285,7 @@ int eqpi_result_set_solids(eqp_result *r, const double *amounts, int n, double w
 int eqp_result_solid(const eqp_result *r, const char *solid, double *mol)
 {
   if (!r || !solid || !mol) return EQP_E_ARG;
-  const eqpi_db *db = &r->ctx->db;
+  const eqpi_db *db = r->db;
   int k = eqpi_db_find_solid(db, solid);
   if (k == -2) {
     char which[256];
@@ -300,21 +306,24 @@ const char *eqp_result_solid_name(const eqp_result *r, size_t i, double *mol)
 {
   if (!r || i >= (size_t)r->nsolid) return NULL;
   if (mol) *mol = r->solid_mol[i];
-  return r->ctx->db.solids[r->solid_k[i]].name;
+  return r->db->solids[r->solid_k[i]].name;
 }
 
-size_t eqp_ctx_solid_count(const eqp_ctx *ctx) { return ctx ? (size_t)ctx->db.nsolids : 0; }
+size_t eqp_ctx_solid_count(const eqp_ctx *ctx) { return ctx ? (size_t)ctx->db->nsolids : 0; }
 
 const char *eqp_ctx_solid_name(const eqp_ctx *ctx, size_t i)
 {
-  return ctx && i < (size_t)ctx->db.nsolids ? ctx->db.solids[i].name : NULL;
+  return ctx && i < (size_t)ctx->db->nsolids ? ctx->db->solids[i].name : NULL;
 }
 
 const char *eqp_ctx_formula(const eqp_ctx *ctx, const char *name)
 {
   if (!ctx || !name) return NULL;
-  int i = eqpi_db_find_species(&ctx->db, name);
-  if (i >= 0) return ctx->db.sp[i].formula;
-  i = eqpi_db_find_reagent(&ctx->db, name);
-  return i >= 0 ? ctx->db.rg[i].formula : NULL;
+  int i = eqpi_db_find_species(ctx->db, name);
+  if (i >= 0) return ctx->db->sp[i].formula;
+  i = eqpi_db_find_reagent(ctx->db, name);
+  return i >= 0 ? ctx->db->rg[i].formula : NULL;
 }
+
+/* The library the result was made with (borrowed, valid while r lives). */
+const eqpi_db *eqpi_result_library(const eqp_result *r) { return r ? r->db : NULL; }

@@ -5,8 +5,12 @@
 
 #include "eqp_impl.h"
 
-int eqpi_result_make(eqp_ctx *ctx, const eqpi_system *sys, const eqpi_model *model, double T,
-                     double water_kg, const eqpi_solve_stats *st, eqp_result **out);
+/* A result of the solved system sys, made with library db (which it holds). */
+int eqpi_result_make(eqp_ctx *ctx, const eqpi_db *db, const eqpi_system *sys,
+                     const eqpi_model *model, double T, double water_kg,
+                     const eqpi_solve_stats *st, eqp_result **out);
+
+const eqpi_db *eqpi_result_library(const eqp_result *r);
 
 /* The context a result belongs to. */
 eqp_ctx *eqpi_result_ctx(const eqp_result *r);

@@ -11,7 +11,7 @@
 
 int eqpi_solution_grow(eqp_solution *s)
 {
-  int need = s->ctx->db.ncomp;
+  int need = s->db->ncomp;
   if (s->ntotal >= need) return EQP_OK;
   double *t = eqpi_realloc(s->ctx, s->total, sizeof(double) * (size_t)s->ntotal,
                            sizeof(double) * (size_t)need);
@@ -38,7 +38,7 @@ static int check_total(eqp_solution *s, int c, double t, double W, const char *v
   if (isfinite(t) && (W == 0 || isfinite(t / W))) return EQP_OK;
   return eqpi_fail(s->ctx, EQP_E_INPUT, "%s%s%s: the total of %s overflows (not a finite "
                    "number of moles per kg of water)", verb, name ? " " : "", name ? name : "",
-                   s->ctx->db.sp[s->ctx->db.comp_species[c]].name);
+                   s->db->sp[s->db->comp_species[c]].name);
 }
 
 /* Add k times (delta over the components, dw kg of water) to s, or refuse
@@ -66,7 +66,8 @@ static int check_opts(eqp_ctx *ctx, const eqp_solution_opts *o)
   return EQP_OK;
 }
 
-int eqp_solution_new(eqp_ctx *ctx, const eqp_solution_opts *user, eqp_solution **out)
+int eqp_solution_new_in(eqp_ctx *ctx, const eqp_library *lib, const eqp_solution_opts *user,
+                        eqp_solution **out)
 {
   if (!ctx || !user || !out) return eqpi_fail(ctx, EQP_E_ARG, "NULL argument");
   *out = NULL;
@@ -74,10 +75,13 @@ int eqp_solution_new(eqp_ctx *ctx, const eqp_solution_opts *user, eqp_solution *
   int rc = eqpi_opts_read(ctx, "eqp_solution_opts", user, &o, sizeof o, EQPI_SOLUTION_OPTS_0_1);
   if (rc == EQP_OK) rc = check_opts(ctx, opts);
   if (rc < 0) return rc;
-  if (ctx->db.nsp == 0 && (rc = eqp_ctx_load_default_library(ctx)) < 0) return rc;
+  if (lib && lib->ctx != ctx)
+    return eqpi_fail(ctx, EQP_E_ARG, "the library belongs to another context");
+  if (!lib && ctx->db->nsp == 0 && (rc = eqp_ctx_load_default_library(ctx)) < 0) return rc;
   eqp_solution *s = eqpi_calloc(ctx, 1, sizeof *s);
   if (!s) return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
   s->ctx = ctx;
+  s->db = eqpi_db_ref(lib ? lib : ctx->db);
   s->water_kg = opts->water;
   s->T = opts->temperature_K;
   s->model_default = opts->activity == NULL;
@@ -91,6 +95,11 @@ int eqp_solution_new(eqp_ctx *ctx, const eqp_solution_opts *user, eqp_solution *
   return EQP_OK;
 }
 
+int eqp_solution_new(eqp_ctx *ctx, const eqp_solution_opts *opts, eqp_solution **out)
+{
+  return eqp_solution_new_in(ctx, NULL, opts, out);
+}
+
 void eqp_solution_free(eqp_solution *s)
 {
   if (!s) return;
@@ -101,6 +110,7 @@ void eqp_solution_free(eqp_solution *s)
   eqpi_free(ctx, s->total, sizeof(double) * (size_t)s->ntotal);
   eqpi_solution_hazards_free(s);
   eqpi_free(ctx, s->allow, (size_t)(s->nallow > 0 ? s->nallow : 1));
+  eqpi_db_release(s->db);
   eqpi_free(ctx, s, sizeof *s);
 }
 
@@ -111,7 +121,7 @@ int eqp_solution_copy(const eqp_solution *s, eqp_solution **out)
   o.water = s->water_kg;
   o.temperature_K = s->T;
   o.activity = s->model.desc->name;
-  int rc = eqp_solution_new(s->ctx, &o, out);
+  int rc = eqp_solution_new_in(s->ctx, s->db, &o, out);
   if (rc < 0) return rc;
   eqp_solution *c = *out;
   if ((rc = eqpi_solution_grow(c)) < 0) {
@@ -204,13 +214,17 @@ static const char *suggest(const eqpi_db *db, const char *name)
 
 static int unknown_reagent(eqp_solution *s, const char *name)
 {
-  const eqpi_db *db = &s->ctx->db;
+  const eqpi_db *db = s->db;
   const char *alt = suggest(db, name);
   if (alt)
     return eqpi_fail(s->ctx, EQP_E_UNKNOWN, "unknown reagent '%s' (did you mean '%s'?)",
                      name, alt);
   const char *left_out = eqpi_library_note(s->ctx, name);
   if (left_out) return eqpi_fail(s->ctx, EQP_E_UNKNOWN, "unknown reagent '%s': %s", name, left_out);
+  if (db != s->ctx->db && eqpi_db_find_reagent(s->ctx->db, name) >= 0)
+    return eqpi_fail(s->ctx, EQP_E_UNKNOWN, "unknown reagent '%s': the species library of this "
+                     "solution does not have it (the run's library does: the solution was made "
+                     "with a library of its own, or before '%s' was loaded)", name, name);
   int sp = eqpi_db_find_species(db, name);
   if (sp >= 0)
     return eqpi_fail(s->ctx, EQP_E_UNKNOWN, "'%s' is a charged species, not a reagent: add a "
@@ -238,7 +252,7 @@ static double reagent_water(const eqpi_db *db, const eqpi_reagent *r)
 void eqpi_reagent_dir(const eqp_solution *s, const eqpi_reagent *r, double *a, double *w,
                       double k)
 {
-  const eqpi_db *db = &s->ctx->db;
+  const eqpi_db *db = s->db;
   int water = db->water >= 0 ? db->sp[db->water].component : -1;
   for (int t = 0; t < r->nterm; t++)
     if (r->term_comp[t] != water) a[r->term_comp[t]] += k * r->term_nu[t];
@@ -248,7 +262,7 @@ void eqpi_reagent_dir(const eqp_solution *s, const eqpi_reagent *r, double *a, d
 
 static int is_water(const eqp_solution *s, const eqpi_reagent *r)
 {
-  return r->n == 1 && r->sp[0] == s->ctx->db.water;
+  return r->n == 1 && r->sp[0] == s->db->water;
 }
 
 int eqp_solution_add(eqp_solution *s, const char *reagent, double value, eqp_quantity kind)
@@ -258,9 +272,9 @@ int eqp_solution_add(eqp_solution *s, const char *reagent, double value, eqp_qua
   if (!isfinite(value) || value < 0)
     return eqpi_fail(ctx, EQP_E_INPUT, "amount of %s must be a non-negative number, got %g",
                      reagent, value);
-  int g = eqpi_db_find_reagent(&ctx->db, reagent);
+  int g = eqpi_db_find_reagent(s->db, reagent);
   if (g < 0) return unknown_reagent(s, reagent);
-  const eqpi_reagent *r = &ctx->db.rg[g];
+  const eqpi_reagent *r = &s->db->rg[g];
   double mol;
   switch (kind) {
   case EQP_Q_AMOUNT: mol = value; break;
@@ -287,9 +301,9 @@ int eqp_solution_add(eqp_solution *s, const char *reagent, double value, eqp_qua
   int rc = eqpi_solution_grow(s);
   if (rc < 0) return rc;
   /* check every total the reagent changes before changing any */
-  double W = s->water_kg + mol * reagent_water(&ctx->db, r), w;
+  double W = s->water_kg + mol * reagent_water(s->db, r), w;
   rc = check_water(s, W, "adding", reagent);
-  int water = ctx->db.water >= 0 ? ctx->db.sp[ctx->db.water].component : -1;
+  int water = s->db->water >= 0 ? s->db->sp[s->db->water].component : -1;
   for (int t = 0; rc == EQP_OK && t < r->nterm; t++) {
     int c = r->term_comp[t];
     if (c != water) rc = check_total(s, c, s->total[c] + mol * r->term_nu[t], W, "adding", reagent);
@@ -312,10 +326,10 @@ void eqpi_reagent_bulk(const eqpi_reagent *r, double k, double *L, double *g)
 ** again is common. */
 void eqpi_solution_bulk(eqp_solution *s, const eqpi_reagent *r, double k)
 {
-  if (r != s->vol_r || s->vol_gen != s->ctx->db.generation) {
+  if (r != s->vol_r || s->vol_gen != s->db->generation) {
     s->vol_known = eqpi_reagent_volume(r, &s->vol_L);
     s->vol_r = r;
-    s->vol_gen = s->ctx->db.generation;
+    s->vol_gen = s->db->generation;
   }
   if (s->vol_known) s->solute_L += k * s->vol_L;
   else s->unknown_g += k * r->molar_mass;
@@ -372,6 +386,31 @@ int eqp_solution_equilibrate(eqp_solution *s, eqp_result **out)
 
 /* ------------------------------------------------------------ volumes */
 
+const eqp_library *eqp_solution_library(const eqp_solution *s) { return s ? s->db : NULL; }
+
+int eqpi_add_stock(const eqp_solution *s, const eqp_solution *stock, double k, double *a)
+{
+  const eqpi_db *from = stock->db, *to = s->db;
+  for (int c = 0; c < stock->ntotal; c++) {
+    if (stock->total[c] == 0) continue;
+    int t = c;
+    if (from != to) {
+      /* the same component under its name: a library made from another
+      ** keeps its numbering, a restricted one has its own */
+      const char *name = from->sp[from->comp_species[c]].name;
+      if (!(c < to->ncomp && strcmp(to->sp[to->comp_species[c]].name, name) == 0)) {
+        int sp = eqpi_db_find_species(to, name);
+        t = sp >= 0 ? to->sp[sp].component : -1;
+      }
+      if (t < 0 || t >= s->ntotal)
+        return eqpi_fail(s->ctx, EQP_E_UNKNOWN, "the stock holds %s, which the species library "
+                         "of this solution does not define", name);
+    }
+    a[t] += k * stock->total[c];
+  }
+  return EQP_OK;
+}
+
 int eqp_solution_pour(eqp_solution *s, const eqp_solution *stock, double litres)
 {
   if (!s || !stock) return eqpi_fail(s ? s->ctx : NULL, EQP_E_ARG, "NULL argument");
@@ -383,7 +422,16 @@ int eqp_solution_pour(eqp_solution *s, const eqp_solution *stock, double litres)
   /* the stock is a reservoir: a portion of its composition, by volume of
   ** its water at its own temperature, is added; the stock is unchanged */
   double f = litres / eqp_solution_volume(stock);
-  rc = apply(s, stock->total, stock->ntotal, stock->water_kg, f, "pouring");
+  if (stock->db == s->db) {
+    rc = apply(s, stock->total, stock->ntotal, stock->water_kg, f, "pouring");
+  } else {
+    /* another library: its totals by component name (eqpi_add_stock) */
+    double *d = eqpi_calloc(s->ctx, (size_t)s->ntotal + 1, sizeof(double));
+    if (!d) return eqpi_fail(s->ctx, EQP_E_NOMEM, "out of memory");
+    rc = eqpi_add_stock(s, stock, 1, d);
+    if (rc == EQP_OK) rc = apply(s, d, s->ntotal, stock->water_kg, f, "pouring");
+    eqpi_free(s->ctx, d, sizeof(double) * ((size_t)s->ntotal + 1));
+  }
   if (rc == EQP_OK) {
     s->solute_L += f * stock->solute_L;
     s->unknown_g += f * stock->unknown_g;
@@ -414,7 +462,7 @@ int eqp_solution_dilute_to(eqp_solution *s, double litres)
 int eqp_solution_total(const eqp_solution *s, const char *component, double *mol)
 {
   if (!s || !component || !mol) return EQP_E_ARG;
-  const eqpi_db *db = &s->ctx->db;
+  const eqpi_db *db = s->db;
   int sp = eqpi_db_find_species(db, component);
   if (sp < 0 || db->sp[sp].component < 0)
   {
@@ -443,9 +491,9 @@ int eqpi_solution_solved(eqp_solution *s)
 
 int eqpi_find_reagent(eqp_solution *s, const char *name, const eqpi_reagent **r)
 {
-  int g = eqpi_db_find_reagent(&s->ctx->db, name);
+  int g = eqpi_db_find_reagent(s->db, name);
   if (g < 0) return unknown_reagent(s, name);
-  *r = &s->ctx->db.rg[g];
+  *r = &s->db->rg[g];
   return EQP_OK;
 }
 

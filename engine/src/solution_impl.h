@@ -7,6 +7,7 @@
 
 struct eqp_solution {
   eqp_ctx *ctx;
+  const eqpi_db *db;      /* its species library, held for its life */
   double water_kg;
   double T;               /* K */
   eqpi_model model;
@@ -37,6 +38,11 @@ struct eqp_solution {
 };
 
 int eqpi_find_reagent(eqp_solution *s, const char *name, const eqpi_reagent **r);
+/* Add k times the totals of stock (mol per component of its library) to a
+** (per component of s's library): by index when both have one library,
+** else by component name. EQP_E_UNKNOWN, naming it, when the stock holds a
+** component s's library does not define. */
+int eqpi_add_stock(const eqp_solution *s, const eqp_solution *stock, double k, double *a);
 /* What k mol of reagent r adds: components into a (added), kg of water into *w (per mol). */
 void eqpi_reagent_dir(const eqp_solution *s, const eqpi_reagent *r, double *a, double *w, double k);
 /* Record that reagent r, or everything hazardous in stock, went into s

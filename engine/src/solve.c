@@ -32,9 +32,9 @@ void eqpi_system_free(eqp_ctx *ctx, eqpi_system *sys)
 }
 
 /* Which components are present: H+ always, others with a positive total. */
-static int active_mask(eqp_ctx *ctx, const double *totals, unsigned char *mask)
+static int active_mask(eqp_ctx *ctx, const eqpi_db *db, const double *totals,
+                       unsigned char *mask)
 {
-  const eqpi_db *db = &ctx->db;
   for (int c = 0; c < db->ncomp; c++) {
     int sp = db->comp_species[c];
     mask[c] = 0;
@@ -81,10 +81,10 @@ static eqpi_system *system_on(eqp_ctx *ctx, eqpi_tableau *tab, eqpi_model *model
   return s;
 }
 
-static eqpi_system *system_new(eqp_ctx *ctx, const unsigned char *mask, double T,
-                               eqpi_model *model)
+static eqpi_system *system_new(eqp_ctx *ctx, const eqpi_db *db, const unsigned char *mask,
+                               double T, eqpi_model *model)
 {
-  eqpi_tableau *tab = eqpi_tableau_get(ctx, mask, T);
+  eqpi_tableau *tab = eqpi_tableau_get(ctx, db, mask, T);
   return tab ? system_on(ctx, tab, model) : NULL;
 }
 
@@ -110,27 +110,27 @@ eqpi_system *eqpi_system_clone(eqp_ctx *ctx, const eqpi_system *src, eqpi_model 
 
 /* Reuse the system (its KINSOL instance with it) while the same components
 ** are present; a new temperature is a new tableau under the same problem. */
-int eqpi_system_prepare(eqp_ctx *ctx, eqpi_system **sysp, const double *totals, double T,
-                        eqpi_model *model, const double *extra)
+int eqpi_system_prepare(eqp_ctx *ctx, const eqpi_db *db, eqpi_system **sysp,
+                        const double *totals, double T, eqpi_model *model, const double *extra)
 {
-  const eqpi_db *db = &ctx->db;
   if (db->h_plus < 0 || db->water < 0)
     return eqpi_fail(ctx, EQP_E_DATA, "the species library defines no 'H+' and 'H2O'");
   unsigned char stackmask[256];
   unsigned char *mask = db->ncomp <= 256 ? stackmask : eqpi_malloc(ctx, (size_t)db->ncomp);
   if (!mask) return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
-  int rc = active_mask(ctx, totals, mask);
+  int rc = active_mask(ctx, db, totals, mask);
   /* components a reagent about to be added brings must be in the system */
   for (int c = 0; extra && rc == EQP_OK && c < db->ncomp; c++)
     if (extra[c] > 0 && db->comp_species[c] != db->water) mask[c] = 1;
   eqpi_system *s = *sysp;
-  if (rc == EQP_OK && (!s || s->tab->generation != db->generation || s->tab->ncg != db->ncomp ||
+  if (rc == EQP_OK && (!s || s->tab->db != db || s->tab->generation != db->generation ||
+                       s->tab->ncg != db->ncomp ||
                        memcmp(s->tab->active, mask, (size_t)db->ncomp) != 0)) {
     eqpi_system_free(ctx, s);
-    *sysp = s = system_new(ctx, mask, T, model);
+    *sysp = s = system_new(ctx, db, mask, T, model);
     if (!s) rc = eqp_ctx_errcode(ctx) < 0 ? eqp_ctx_errcode(ctx) : EQP_E_NOMEM;
   } else if (rc == EQP_OK && s->tab->T != T) {
-    eqpi_tableau *tab = eqpi_tableau_get(ctx, mask, T);
+    eqpi_tableau *tab = eqpi_tableau_get(ctx, db, mask, T);
     if (!tab) {
       rc = EQP_E_NOMEM;
     } else {
@@ -404,10 +404,10 @@ out:
   return rc;
 }
 
-int eqpi_system_solve(eqp_ctx *ctx, eqpi_system **sysp, const double *totals, double T,
-                      eqpi_model *model, eqpi_solve_stats *stats)
+int eqpi_system_solve(eqp_ctx *ctx, const eqpi_db *db, eqpi_system **sysp, const double *totals,
+                      double T, eqpi_model *model, eqpi_solve_stats *stats)
 {
-  int rc = eqpi_system_prepare(ctx, sysp, totals, T, model, NULL);
+  int rc = eqpi_system_prepare(ctx, db, sysp, totals, T, model, NULL);
   if (rc < 0) return rc;
   return eqpi_system_solve_prepared(ctx, *sysp, stats);
 }

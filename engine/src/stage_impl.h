@@ -101,6 +101,11 @@ struct eqpi_stage {
   int nerrfile, errnofile, errfile_full;
 };
 
+/* The staging area is made, filled and freed here (stage.c) and by the
+** loader it calls (loader.c, sandbox.c); library.c holds stages between the
+** rounds of a library load, through these calls only. */
+eqpi_stage *eqpi_stage_new(eqp_ctx *ctx);
+void eqpi_stage_free(eqp_ctx *ctx, eqpi_stage *st);
 /* Append a "file:line: message" to the stage's error list. */
 void eqpi_stage_error(eqpi_stage *st, const char *file, int line, const char *fmt, ...)
   EQPI_PRINTF(4, 5);
@@ -111,6 +116,29 @@ int eqpi_stage_append(eqp_ctx *ctx, eqpi_stage *dst, const eqpi_stage *src);
 unsigned long long eqpi_stage_fingerprint(const eqpi_stage *st);
 /* Grow one of the stage's arrays by one element; returns it zeroed. */
 void *eqpi_stage_push(eqp_ctx *ctx, eqpi_stage *st, void **arr, int *n, int *cap, size_t elem);
+/* Move the strings of src's entries into *arena (src's entries, and every
+** stage they were appended to, keep pointing at them). */
+void eqpi_stage_give_strings(eqpi_stage *src, eqpi_arena **arena);
+
+/* A source read for a load: its key (real path, or source name) and a hash
+** of its content. */
+typedef struct eqpi_source_id {
+  char key[4096];
+  unsigned long long hash;
+} eqpi_source_id;
+
+/* Read the file at path and stage it, unless base has exactly this file
+** loaded already (then *skipped is set). id receives its key and hash.
+** Status of reading it; the problems of its content are in st. */
+int eqpi_stage_file(eqp_ctx *ctx, eqpi_stage *st, const eqpi_db *base, const char *path,
+                    eqpi_source_id *id, int *skipped);
+
+/* Commit st onto base (commit.c): on success *out is a new library of
+** base's entries and st's, with the nrec sources rec recorded as loaded,
+** and st's strings belong to it. On failure every problem is in the
+** context's message and nothing is kept. */
+int eqpi_stage_commit(eqp_ctx *ctx, const eqpi_db *base, eqpi_stage *st, const eqpi_loaded *rec,
+                      int nrec, eqpi_db **out);
 
 /* Copy a staged constant into d with its file and line, and check that a
 ** temperature function reproduces the 25 C value it stands beside (which
@@ -119,9 +147,29 @@ void *eqpi_stage_push(eqp_ctx *ctx, eqpi_stage *st, void **arr, int *n, int *cap
 int eqpi_commit_constant(eqpi_stage *st, const st_const *k, const char *file, int line,
                          const char *what, eqpi_reaction *d);
 
-/* Convert the species table at idx of L into stage entries. lm may be NULL
-** (inline tables), then every message carries file as given. */
+/* Where a species file's tables and fields were written, as Lua itself
+** recorded it while the file ran (sandbox.c): the line of each table, and
+** of each named field set on another line than its table's first field. */
+typedef struct eqpi_lines eqpi_lines;
+/* The line of the value at path (keys; digits stand for positions) under
+** the table at index root of L: the deepest part of the path written on a
+** line of its own; for none, the line of the file's returned table. 0 when
+** lines is NULL. Reads the tables raw. */
+int eqpi_lines_at(const eqpi_lines *ln, struct lua_State *L, int root, const char *const *path,
+                  int depth);
+
+/* The line of path in text run as a species file, as eqpi_lines_at gives
+** it (for the tests); -1 when the text does not run. */
+int eqpi_lines_of_text(eqp_ctx *ctx, const char *text, size_t len, const char *const *path,
+                       int depth);
+/* Run species text in the sandbox and stage the table it returns
+** (sandbox.c). EQP_OK, EQP_E_DATA (the problems are in st), EQP_E_NOMEM. */
+int eqpi_stage_text(eqp_ctx *ctx, eqpi_stage *st, const char *text, size_t len,
+                    const char *source);
+/* Convert the species table at idx of L into stage entries (loader.c).
+** lines may be NULL (inline tables), then every message carries file as
+** given. */
 int eqpi_stage_from_table(eqp_ctx *ctx, eqpi_stage *st, struct lua_State *L, int idx,
-                          const eqpi_linemap *lm, const char *file);
+                          const eqpi_lines *lines, const char *file);
 
 #endif

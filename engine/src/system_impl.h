@@ -27,8 +27,8 @@ struct eqpi_system {
 
 /* Build or reuse the system for totals (mol/kg over the database's
 ** components, with the components of extra forced present) at T. */
-int eqpi_system_prepare(eqp_ctx *ctx, eqpi_system **sysp, const double *totals, double T,
-                        eqpi_model *model, const double *extra);
+int eqpi_system_prepare(eqp_ctx *ctx, const eqpi_db *db, eqpi_system **sysp,
+                        const double *totals, double T, eqpi_model *model, const double *extra);
 /* Solve the system as prepared: warm start, cold start, continuation,
 ** verification. */
 int eqpi_system_solve_prepared(eqp_ctx *ctx, eqpi_system *s, eqpi_solve_stats *stats);

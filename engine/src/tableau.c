@@ -121,9 +121,9 @@ static void fill_terms(const eqpi_db *db, layout *l, const int *loc, int nc, int
     }
 }
 
-eqpi_tableau *eqpi_tableau_new(eqp_ctx *ctx, const unsigned char *mask, double T)
+eqpi_tableau *eqpi_tableau_new(eqp_ctx *ctx, const eqpi_db *db, const unsigned char *mask,
+                               double T)
 {
-  const eqpi_db *db = &ctx->db;
   int ncg = db->ncomp, nc = 0, ns = 0, nnz = 0;
   int stack[256], *loc = ncg <= 256 ? stack : eqpi_malloc(ctx, sizeof(int) * (size_t)ncg);
   if (!loc) return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory"), NULL;
@@ -168,6 +168,7 @@ eqpi_tableau *eqpi_tableau_new(eqp_ctx *ctx, const unsigned char *mask, double T
   int nlad;
   fill_ladders(&l, nc, h, &nlad);
   if (loc != stack) eqpi_free(ctx, loc, sizeof(int) * (size_t)ncg);
+  tb->db = db;
   tb->generation = db->generation;
   tb->ncg = ncg;
   tb->active = l.active;
@@ -212,21 +213,23 @@ double eqpi_tableau_nu(const eqpi_tableau *t, int i, int c)
 
 /* ------------------------------------------------------------ sharing */
 
-static int same(const eqpi_tableau *t, const eqp_ctx *ctx, const unsigned char *mask, double T)
+/* The same library (generations are never reused), components and T. */
+static int same(const eqpi_tableau *t, const eqpi_db *db, const unsigned char *mask, double T)
 {
-  return t->generation == ctx->db.generation && t->ncg == ctx->db.ncomp && t->T == T &&
+  return t->generation == db->generation && t->ncg == db->ncomp && t->T == T &&
          memcmp(t->active, mask, (size_t)t->ncg) == 0;
 }
 
-eqpi_tableau *eqpi_tableau_get(eqp_ctx *ctx, const unsigned char *mask, double T)
+eqpi_tableau *eqpi_tableau_get(eqp_ctx *ctx, const eqpi_db *db, const unsigned char *mask,
+                               double T)
 {
   eqpi_tableau **cache = ctx->tableaux;
   for (int k = 0; k < EQPI_TABLEAU_CACHE; k++)
-    if (cache[k] && same(cache[k], ctx, mask, T)) {
+    if (cache[k] && same(cache[k], db, mask, T)) {
       cache[k]->refs++;
       return cache[k];
     }
-  eqpi_tableau *t = eqpi_tableau_new(ctx, mask, T);
+  eqpi_tableau *t = eqpi_tableau_new(ctx, db, mask, T);
   if (!t) return NULL;
   t->refs = 1;
   /* a free slot, or one whose tableau no system uses (the oldest first) */

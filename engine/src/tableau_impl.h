@@ -11,7 +11,8 @@ typedef struct eqpi_tableau {
   size_t bytes;         /* the whole block (one allocation) */
   unsigned refs;        /* systems using it (ownership only: the tableau does not change) */
   int cached;           /* held by the context's cache */
-  unsigned generation;  /* database generation it was built from */
+  const eqpi_db *db;    /* the library it was built from (its users hold it) */
+  unsigned generation;  /* that library's generation */
   int ncg;              /* global component count at build time */
   const unsigned char *active;   /* ncg flags: the components present */
   double T;             /* K, of lnK */
@@ -43,12 +44,14 @@ typedef struct eqpi_tableau {
 
 /* Build the tableau of the components flagged in mask (ncomp flags over the
 ** database's components) at T (K). NULL with a message on failure. */
-eqpi_tableau *eqpi_tableau_new(eqp_ctx *ctx, const unsigned char *mask, double T);
+eqpi_tableau *eqpi_tableau_new(eqp_ctx *ctx, const eqpi_db *db, const unsigned char *mask,
+                               double T);
 void eqpi_tableau_free(eqp_ctx *ctx, eqpi_tableau *t);
 /* The tableau for mask at T, shared: from the context's cache of the last
 ** few (same library generation, components and temperature), or new. One
 ** reference for the caller; give it back with eqpi_tableau_release. */
-eqpi_tableau *eqpi_tableau_get(eqp_ctx *ctx, const unsigned char *mask, double T);
+eqpi_tableau *eqpi_tableau_get(eqp_ctx *ctx, const eqpi_db *db, const unsigned char *mask,
+                               double T);
 void eqpi_tableau_release(eqp_ctx *ctx, eqpi_tableau *t);
 /* Coefficient of local component c in species i (0 if absent). */
 double eqpi_tableau_nu(const eqpi_tableau *t, int i, int c);

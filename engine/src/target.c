@@ -37,11 +37,11 @@ static int check_target(eqp_solution *s, const eqp_target *t, int *species)
   case EQP_TARGET_ACTIVITY:
   case EQP_TARGET_FREE:
     if (!t->species) return eqpi_fail(ctx, EQP_E_ARG, "an activity target names its species");
-    *species = eqpi_db_find_species(&ctx->db, t->species);
+    *species = eqpi_db_find_species(s->db, t->species);
     if (*species < 0)
       return eqpi_fail(ctx, EQP_E_UNKNOWN, "unknown species '%s'%s", t->species,
                        eqpi_name_hint(t->species, hint, sizeof hint));
-    if (*species == ctx->db.water)
+    if (*species == s->db->water)
       return eqpi_fail(ctx, EQP_E_INPUT, "the activity of water is not a target");
     if (!(t->value > 0 && t->value <= EQPI_MAX_MOLALITY))
       return eqpi_fail(ctx, EQP_E_INPUT, "target %s of %s, %g, is outside (0, %g]",
@@ -188,7 +188,7 @@ int eqp_solution_adjust_pH(eqp_solution *s, double pH, const char *reagent,
 /* A component by the name of its species, or a message. */
 static int component(eqp_solution *s, const char *name, const char *role, int *c)
 {
-  const eqpi_db *db = &s->ctx->db;
+  const eqpi_db *db = s->db;
   char hint[256];
   int sp = name ? eqpi_db_find_species(db, name) : -1;
   if (sp < 0)
@@ -209,7 +209,7 @@ static int fix_by_amount(eqp_solution *s, const char *name, double activity, int
                          double *mol, double *mol_counter)
 {
   eqp_ctx *ctx = s->ctx;
-  const eqpi_db *db = &ctx->db;
+  const eqpi_db *db = s->db;
   int hplus = db->sp[db->h_plus].component;
   double *a = eqpi_calloc(ctx, (size_t)s->ntotal + 1, sizeof(double));
   if (!a) return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
@@ -255,7 +255,7 @@ int eqp_solution_fix_activity(eqp_solution *s, const char *comp, double activity
   if (rc < 0 || (rc = component(s, comp, "component", &c)) < 0 ||
       (rc = component(s, counter_ion, "counter-ion", &q)) < 0)
     return rc;
-  const eqpi_db *db = &ctx->db;
+  const eqpi_db *db = s->db;
   if (c == q) return eqpi_fail(ctx, EQP_E_INPUT, "the counter-ion must differ from '%s'", comp);
   if (db->sp[db->comp_species[q]].comp.charge == 0)
     return eqpi_fail(ctx, EQP_E_INPUT, "counter-ion '%s' has no charge", counter_ion);
@@ -265,7 +265,7 @@ int eqp_solution_fix_activity(eqp_solution *s, const char *comp, double activity
   double *tot = eqpi_malloc(ctx, sizeof(double) * ((size_t)s->ntotal + 1)), tc, tq;
   if (!tot) return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
   for (int k = 0; k < s->ntotal; k++) tot[k] = s->total[k] / s->water_kg;
-  rc = eqpi_system_fix(ctx, &s->sys, tot, s->T, &s->model, c, log(activity), q, &tc, &tq);
+  rc = eqpi_system_fix(ctx, s->db, &s->sys, tot, s->T, &s->model, c, log(activity), q, &tc, &tq);
   eqpi_free(ctx, tot, sizeof(double) * ((size_t)s->ntotal + 1));
   int hplus = db->sp[db->h_plus].component;
   if (rc == EQP_E_CONVERGE) return fix_by_amount(s, comp, activity, c, q, mol, mol_counter);

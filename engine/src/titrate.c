@@ -151,7 +151,8 @@ static int make_titrant(eqp_solution *s, const eqp_titration *spec, titrant *t)
   if (spec->stock) {
     const eqp_solution *k = spec->stock;
     double V = eqp_solution_volume(k);
-    for (int c = 0; c < k->ntotal && c < s->ntotal; c++) t->a[c] = k->total[c] / V;
+    int rc = eqpi_add_stock(s, k, 1 / V, t->a);
+    if (rc < 0) return rc;
     t->w = k->water_kg / V;
     t->litres = 1;
     t->stock = 1;
@@ -190,13 +191,13 @@ int eqp_solution_titrate(eqp_solution *s, const eqp_titration *user, eqp_curve *
   if (rc == EQP_OK) rc = check_spec(ctx, spec);
   if (rc < 0) return rc;
   for (size_t k = 0; k < spec->nspecies; k++)
-    if (eqpi_db_find_species(&ctx->db, spec->species[k]) < 0)
+    if (eqpi_db_find_species(s->db, spec->species[k]) < 0)
       return eqpi_fail(ctx, EQP_E_UNKNOWN, "unknown species '%s'%s", spec->species[k],
                        eqpi_name_hint(spec->species[k], hint, sizeof hint));
   const char *names[MAX_COLS] = {"amount", "volume", "total_volume", "pH", "slope"};
   /* columns named in the ASCII form, however the species was asked for */
   for (size_t k = 0; k < spec->nspecies; k++)
-    names[COL_SPECIES + k] = ctx->db.sp[eqpi_db_find_species(&ctx->db, spec->species[k])].name;
+    names[COL_SPECIES + k] = s->db->sp[eqpi_db_find_species(s->db, spec->species[k])].name;
   eqp_solution *base = NULL, *w = NULL;
   titrant t = {0};
   eqp_curve *c = NULL;

@@ -180,6 +180,10 @@ done
 # metamethods raise, a broken file in the user's folder, a replaced system
 check load_twice 0 "loaded twice ok" -- "$EQP" run "$CASES/load_twice.lua" --param species="$SRC/species"
 check inline_metatable 0 "inline metatable ok" -- "$EQP" run "$CASES/inline_metatable.lua"
+# a library for one solution; the IUPAC phosphate standard with only the phosphate
+# system loaded, pH(S) 6.865 at 25 C (Buck et al., Pure Appl. Chem. 74, 2169 (2002))
+check library_option 0 "library ok" -- "$EQP" run "$CASES/library_option.lua"
+check_near library_only 6.865 0.02 "phosphate pH" -- "$EQP" run "$CASES/library_option.lua"
 U=$TMP/xdg/equipoise/species
 mkdir -p "$U" "$TMP/edit" "$TMP/xdg2/equipoise/species"
 cat >"$U/mine.lua" <<'LUA'

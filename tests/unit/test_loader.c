@@ -246,6 +246,15 @@ static const char inline_table[] =
   "  reagents = strict{ strict{ 'NaM', formula = 'C2H3O2Na', gives = { ['Na+'] = 1, ['M-'] = 1 },\n"
   "                             hydrates = { 3 } } } }\n";
 
+/* Load the inline table at idx into the context's library. */
+static int load_table(eqp_ctx *ctx, lua_State *L, int idx, const char *where)
+{
+  eqpi_db *lib = NULL;
+  int rc = eqpi_load_table(ctx, ctx->db, L, idx, where, &lib);
+  if (rc == EQP_OK) eqpi_ctx_set_library(ctx, lib);
+  return rc;
+}
+
 /* A script's inline table is read raw under lua_pcall: its metamethods
 ** never run, and a memory error at any point leaves nothing behind (the
 ** staging area once leaked when a metamethod raised). */
@@ -257,12 +266,12 @@ static void test_inline_table(void **state)
   luaL_openlibs(L);
   assert_int_equal(luaL_dostring(L, inline_table), LUA_OK);
   eqp_ctx *ctx = base();
-  assert_int_equal(eqpi_load_table(ctx, L, -1, "t.lua:5 (inline species)"), EQP_OK);
+  assert_int_equal(load_table(ctx, L, -1, "t.lua:5 (inline species)"), EQP_OK);
   char *text;
   assert_int_equal(describe(ctx, "HM", &text), EQP_OK);
   assert_contains(text, "pKa 4.5");
   size_t n = eqp_ctx_species_count(ctx);
-  assert_int_equal(eqpi_load_table(ctx, L, -1, "t.lua:9 (inline species)"), EQP_OK);  /* no-op */
+  assert_int_equal(load_table(ctx, L, -1, "t.lua:9 (inline species)"), EQP_OK);  /* no-op */
   assert_int_equal(eqp_ctx_species_count(ctx), n);
   eqp_ctx_free(ctx);
   /* memory runs out at each allocation in turn; the first budget that
@@ -272,7 +281,7 @@ static void test_inline_table(void **state)
     ctx = base();
     int top = lua_gettop(L);
     b.left = k;
-    int rc = eqpi_load_table(ctx, L, -1, "t.lua:5 (inline species)");
+    int rc = load_table(ctx, L, -1, "t.lua:5 (inline species)");
     b.left = 1L << 40;
     assert_int_equal(lua_gettop(L), top);
     if (rc == EQP_OK) ok = 1;

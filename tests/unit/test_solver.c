@@ -189,7 +189,7 @@ static void test_extremes(void **state)
         double m = eqp_result_species_molality(r, k), z;
         char err[64];
         eqpi_comp c;
-        eqpi_formula_parse(ctx->db.sp[eqpi_db_find_species(&ctx->db,
+        eqpi_formula_parse(ctx->db->sp[eqpi_db_find_species(ctx->db,
                            eqp_result_species_name(r, k))].formula, &c, NULL, err, sizeof err);
         z = c.charge;
         q += z * m;

@@ -15,7 +15,7 @@ static double term(const eqpi_db *db, const char *sp, const char *comp)
 static void test_resolution(void **state)
 {
   eqp_ctx *ctx = test_ctx();
-  const eqpi_db *db = &ctx->db;
+  const eqpi_db *db = ctx->db;
   assert_close(term(db, "H3PO4", "PO4^3-"), 1, 0);
   assert_close(term(db, "H3PO4", "H+"), 3, 0);
   assert_close(term(db, "OH-", "H+"), -1, 0);
@@ -43,7 +43,7 @@ static void test_resolution(void **state)
 static void test_vant_hoff(void **state)
 {
   eqp_ctx *ctx = test_ctx();
-  const eqpi_db *db = &ctx->db;
+  const eqpi_db *db = ctx->db;
   eqpi_tnotes miss = {0, 0};
   assert_close(eqpi_species_logK(db, eqpi_db_find_species(db, "TrisH+"), 310.15, &miss), 7.753,
                0.0015);
@@ -66,7 +66,7 @@ static void test_vant_hoff(void **state)
 static void test_active_system(void **state)
 {
   eqp_ctx *ctx = test_ctx();
-  eqpi_db *db = &ctx->db;
+  const eqpi_db *db = ctx->db;
   double *tot = calloc((size_t)db->ncomp, sizeof *tot);
   int na = db->sp[eqpi_db_find_species(db, "Na+")].component;
   int po4 = db->sp[eqpi_db_find_species(db, "PO4^3-")].component;
@@ -78,7 +78,7 @@ static void test_active_system(void **state)
   assert_int_equal(eqpi_model_open(ctx, "ideal", &model), EQP_OK);
   eqpi_system *sys = NULL;
   eqpi_solve_stats st;
-  assert_int_equal(eqpi_system_solve(ctx, &sys, tot, 298.15, &model, &st), EQP_OK);
+  assert_int_equal(eqpi_system_solve(ctx, db, &sys, tot, 298.15, &model, &st), EQP_OK);
   assert_int_equal(sys->tab->nc, 3);                   /* H+, PO4^3-, Na+ */
   assert_int_equal(sys->tab->ns, 7);                   /* water itself is not a solute */
   assert_int_equal(sys->prob->nx, 2);                   /* Na+ is a spectator */
@@ -87,16 +87,16 @@ static void test_active_system(void **state)
   void *kmem = sys->ws->kmem;
   tot[na] = 0.021;          /* + 1 mmol NaOH: Na+ up, H+ down */
   tot[h] = 0.009;
-  assert_int_equal(eqpi_system_solve(ctx, &sys, tot, 298.15, &model, &st), EQP_OK);
+  assert_int_equal(eqpi_system_solve(ctx, db, &sys, tot, 298.15, &model, &st), EQP_OK);
   assert_ptr_equal(sys->ws->kmem, kmem);
   /* a new component rebuilds it */
   tot[db->sp[eqpi_db_find_species(db, "Cl-")].component] = 0.001;   /* + 1 mmol HCl */
   tot[h] += 0.001;
-  assert_int_equal(eqpi_system_solve(ctx, &sys, tot, 298.15, &model, &st), EQP_OK);
+  assert_int_equal(eqpi_system_solve(ctx, db, &sys, tot, 298.15, &model, &st), EQP_OK);
   assert_int_equal(sys->tab->nc, 4);
   /* a negative total is refused */
   tot[na] = -0.5;
-  assert_int_equal(eqpi_system_solve(ctx, &sys, tot, 298.15, &model, &st), EQP_E_INPUT);
+  assert_int_equal(eqpi_system_solve(ctx, db, &sys, tot, 298.15, &model, &st), EQP_E_INPUT);
   assert_contains(eqp_ctx_errmsg(ctx), "total of Na+ is negative");
   eqpi_system_free(ctx, sys);
   eqpi_model_close(ctx, &model);

@@ -70,6 +70,7 @@ typedef struct eqp_ctx eqp_ctx;           /* allocator, species, plugins, errors
 typedef struct eqp_solution eqp_solution; /* a composition being equilibrated */
 typedef struct eqp_result eqp_result;     /* an immutable snapshot of one solve */
 typedef struct eqp_curve eqp_curve;       /* the rows of a titration */
+typedef struct eqp_library eqp_library;   /* an immutable species library */
 
 /* ------------------------------------------------------------------ ctx */
 
@@ -163,8 +164,60 @@ EQP_API const char *eqp_ctx_notice(const eqp_ctx *ctx, size_t i);
 ** <libdir>/equipoise/plugins beside the library file. */
 EQP_API int eqp_ctx_add_plugin_dir(eqp_ctx *ctx, const char *dir);
 
-/* Library contents, for listing. Indexes run from 0 to count-1. The strings
-** are borrowed from the context. */
+/* ------------------------------------------------------------ library */
+
+/* A species library is immutable: loading species into the context makes
+** a new library, and whatever was made with the old one (a solution, a
+** result) keeps it. A library stays valid while anything holds it.
+**
+** The context's library as loaded so far. Borrowed: valid until the next
+** load into the context (eqp_ctx_load_*), or for longer with
+** eqp_library_ref. NULL only for a NULL ctx. */
+EQP_API const eqp_library *eqp_ctx_library(const eqp_ctx *ctx);
+/* The library a solution was made with; borrowed, valid while s lives. */
+EQP_API const eqp_library *eqp_solution_library(const eqp_solution *s);
+/* One more holder of lib: returns lib, to be released with
+** eqp_library_free. */
+EQP_API const eqp_library *eqp_library_ref(const eqp_library *lib);
+/* Release a library returned by eqp_library_ref, _extend_* or _only /
+** _without. NULL is a no-op. Every library must be released before its
+** context is freed. */
+EQP_API void eqp_library_free(const eqp_library *lib);
+/* A new library: base and a species file, or species text under a source
+** name, checked as a whole as by eqp_ctx_load_species_file; the context's
+** library and every other library are unchanged. *out is released with
+** eqp_library_free. Making the same from the same base again gives the
+** same library while it lives. EQP_E_IO, EQP_E_DATA, EQP_E_NOMEM. */
+EQP_API int eqp_library_extend_file(eqp_ctx *ctx, const eqp_library *base, const char *path,
+                                    const eqp_library **out);
+EQP_API int eqp_library_extend_text(eqp_ctx *ctx, const eqp_library *base, const char *text,
+                                    size_t len, const char *source, const eqp_library **out);
+/* A new library restricted by species files, each named as a file name
+** without its folder and ".lua" ("phosphate" for species/phosphate.lua):
+** _only keeps the named files and the files they build on, _without
+** leaves the named files out and refuses (EQP_E_INPUT, naming what needs
+** them) when a file kept builds on one of them. The file that defines the
+** solvent (H2O, H+) is always kept. A species file's entries come or go
+** together. EQP_E_UNKNOWN for a name that is no file of base. */
+EQP_API int eqp_library_only(eqp_ctx *ctx, const eqp_library *base, const char *const *files,
+                             size_t n, const eqp_library **out);
+EQP_API int eqp_library_without(eqp_ctx *ctx, const eqp_library *base, const char *const *files,
+                                size_t n, const eqp_library **out);
+/* What a library holds, for listing. Indexes run from 0 to count-1; the
+** strings are borrowed from the library. */
+EQP_API size_t eqp_library_species_count(const eqp_library *lib);
+EQP_API const char *eqp_library_species_name(const eqp_library *lib, size_t i);
+EQP_API size_t eqp_library_reagent_count(const eqp_library *lib);
+EQP_API const char *eqp_library_reagent_name(const eqp_library *lib, size_t i);
+EQP_API size_t eqp_library_source_count(const eqp_library *lib);
+EQP_API const char *eqp_library_source_path(const eqp_library *lib, size_t i);
+EQP_API size_t eqp_library_buffer_count(const eqp_library *lib);
+EQP_API const char *eqp_library_buffer_name(const eqp_library *lib, size_t i);
+EQP_API size_t eqp_library_solid_count(const eqp_library *lib);
+EQP_API const char *eqp_library_solid_name(const eqp_library *lib, size_t i);
+
+/* The contents of the context's library, as eqp_library_* on
+** eqp_ctx_library(ctx). Borrowed from that library. */
 EQP_API size_t eqp_ctx_species_count(const eqp_ctx *ctx);
 EQP_API const char *eqp_ctx_species_name(const eqp_ctx *ctx, size_t i);
 EQP_API size_t eqp_ctx_reagent_count(const eqp_ctx *ctx);
@@ -331,9 +384,15 @@ typedef struct eqp_solution_opts {
   { .size = sizeof(eqp_solution_opts), .water = 1.0, .temperature_K = 298.15, .activity = NULL }
 
 /* New solution of pure water. Loads the default library if nothing is
-** loaded yet and the activity plugin named in opts. */
+** loaded yet and the activity plugin named in opts. The solution holds the
+** context's library as it is now for its life: a later load into the
+** context does not change it. */
 EQP_API int eqp_solution_new(eqp_ctx *ctx, const eqp_solution_opts *opts,
                              eqp_solution **out);
+/* The same with the species of lib (which the solution holds) instead:
+** a library extended or restricted for this solution only. */
+EQP_API int eqp_solution_new_in(eqp_ctx *ctx, const eqp_library *lib,
+                                const eqp_solution_opts *opts, eqp_solution **out);
 EQP_API void eqp_solution_free(eqp_solution *s);
 /* A deep copy (composition, temperature, model, last solution as warm start). */
 EQP_API int eqp_solution_copy(const eqp_solution *s, eqp_solution **out);

@@ -1,7 +1,7 @@
 /* The "equipoise" Lua module: luaopen_equipoise and module-level functions. */
 /* SPDX-License-Identifier: MIT */
 #include "lua_impl.h"
-#include "../stage_impl.h"
+#include "../eqp_impl.h"
 #include <stdarg.h>
 #include <stdio.h>
 #include <string.h>
@@ -120,20 +120,36 @@ static int ctx_gc(lua_State *L)
   return 0;
 }
 
+static int library_gc(lua_State *L)
+{
+  eqpl_library *h = luaL_checkudata(L, 1, EQPL_LIBHOLD);
+  eqp_library_free(h->lib);
+  h->lib = NULL;
+  return 0;
+}
+
+eqpl_library *eqpl_push_library(lua_State *L, const eqp_library *lib)
+{
+  eqpl_library *h = eqpl_new_handle(L, sizeof *h, EQPL_LIBHOLD);
+  h->lib = eqp_library_ref(lib);
+  return h;
+}
+
 /* A table loaded inline goes through the same checks as a file. */
-void eqpl_load_species(lua_State *L, eqp_ctx *ctx, int idx)
+void eqpl_extend_library(lua_State *L, eqp_ctx *ctx, eqpl_library *h, int idx)
 {
   idx = lua_absindex(L, idx);
   int rc;
+  eqpi_db *out = NULL;
   if (lua_type(L, idx) == LUA_TSTRING) {
     eqpl_check_name(L, idx, "species file");
-    rc = eqp_ctx_load_species_file(ctx, eqpl_host_path(L, idx, 'r'));
+    rc = eqpi_load_file(ctx, h->lib, eqpl_host_path(L, idx, 'r'), &out);
   } else if (lua_type(L, idx) == LUA_TTABLE) {
     lua_Debug ar;
     char where[512] = "inline species";
     if (lua_getstack(L, 1, &ar) && lua_getinfo(L, "Sl", &ar) && ar.currentline > 0)
       snprintf(where, sizeof where, "%s:%d (inline species)", ar.short_src, ar.currentline);
-    rc = eqpi_load_table(ctx, L, idx, where);
+    rc = eqpi_load_table(ctx, h->lib, L, idx, where, &out);
   } else {
     char buf[64];
     snprintf(buf, sizeof buf, "%s", luaL_typename(L, idx));
@@ -141,14 +157,19 @@ void eqpl_load_species(lua_State *L, eqp_ctx *ctx, int idx)
     return;
   }
   if (rc < 0) eqpl_fail(L, ctx, rc);
+  eqp_library_free(h->lib);
+  h->lib = out;
 }
 
-/* eq.load_species(path_or_table): add species to the library of this run. */
+/* eq.load_species(path_or_table): add species to the library of this run
+** (solutions made from now on see them). */
 static int eq_load_species(lua_State *L)
 {
   eqp_ctx *ctx = eqpl_ctx_of(L);
   if (eqp_ctx_load_default_library(ctx) < 0) return eqpl_fail(L, ctx, eqp_ctx_errcode(ctx));
-  eqpl_load_species(L, ctx, 1);
+  eqpl_library *h = eqpl_push_library(L, eqp_ctx_library(ctx));
+  eqpl_extend_library(L, ctx, h, 1);
+  eqpi_ctx_set_library(ctx, eqpi_db_ref(h->lib));
   return 0;
 }
 
@@ -250,7 +271,13 @@ int eqp_lua_open(lua_State *L)
     lua_setfield(L, -2, "__gc");
   }
   lua_setmetatable(L, -2);
+  if (luaL_newmetatable(L, EQPL_LIBHOLD)) {
+    lua_pushcfunction(L, library_gc);
+    lua_setfield(L, -2, "__gc");
+  }
+  lua_pop(L, 1);
   c->ctx = eqpl_host_ctx_new(L, c);
+
   /* a script's module reads the documented environment, as the command does */
   if (!c->ctx || eqp_ctx_default_config(c->ctx) < 0)
     return luaL_error(L, "equipoise: out of memory");

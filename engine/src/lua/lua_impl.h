@@ -15,6 +15,7 @@
 #define EQPL_HOOKS "equipoise.hooks"        /* registry: host callbacks (CLI) */
 #define EQPL_PLOT "equipoise.plot"
 #define EQPL_CURVEKIND "equipoise.curvekind" /* registry: curve -> how it was made (weak) */
+#define EQPL_LIBHOLD "equipoise.library"    /* a library being made, released by __gc */
 
 /* The module's context: a full userdata, so its address is stable for the
 ** allocator that counts the engine's memory through it (lua_host.c). */
@@ -85,8 +86,14 @@ eqpl_solution *eqpl_check_solution(lua_State *L, int idx);
 ** the module opened, else the present global one. */
 void eqpl_push_print(lua_State *L);
 
-/* Load species given as a file name or an inline table at idx. */
-void eqpl_load_species(lua_State *L, eqp_ctx *ctx, int idx);
+/* A species library held while a binding makes it: its __gc releases it,
+** so that an error raised meanwhile loses nothing. */
+typedef struct eqpl_library { const eqp_library *lib; } eqpl_library;
+/* Push a holder of a new reference to lib. */
+eqpl_library *eqpl_push_library(lua_State *L, const eqp_library *lib);
+/* Replace the library in h with it plus the species file name or inline
+** table at idx; raises on a problem. */
+void eqpl_extend_library(lua_State *L, eqp_ctx *ctx, eqpl_library *h, int idx);
 
 /* ---- checks of arguments and options (lua_options.c) ----
 ** Each raises an input error naming `what` (the user's word for the value,

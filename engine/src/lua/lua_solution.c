@@ -37,9 +37,16 @@ static const eqpl_opt solution_opts[] = {
   {"activity", EQPL_ANY, 0, 0, 0, 0, NULL},
   {"species", EQPL_ANY, 0, 0, 0, 0, NULL},
   {"precipitate", EQPL_ANY, 0, 0, 0, 0, NULL},
+  {"library", EQPL_ANY, 0, 0, 0, 0, NULL},
   {NULL, 0, 0, 0, 0, 0, NULL},
 };
-enum { O_VOLUME, O_WATER, O_TEMPERATURE, O_ACTIVITY, O_SPECIES, O_PRECIPITATE, O_N };
+enum { O_VOLUME, O_WATER, O_TEMPERATURE, O_ACTIVITY, O_SPECIES, O_PRECIPITATE, O_LIBRARY, O_N };
+
+static const eqpl_opt library_opts[] = {
+  {"only", EQPL_NAMES, 0, 0, 1000, 0, NULL},
+  {"without", EQPL_NAMES, 0, 0, 1000, 0, NULL},
+  {NULL, 0, 0, 0, 0, 0, NULL},
+};
 
 /* precipitate = true (every solid of the library), false, or a list of
 ** solid names; an unknown name is refused with the nearest one. */
@@ -51,10 +58,11 @@ static void read_precipitate(lua_State *L, eqp_ctx *ctx, eqp_solution *s, const 
   if (lua_type(L, v->idx) == LUA_TBOOLEAN) {
     rc = eqp_solution_allow_all_solids(s, lua_toboolean(L, v->idx));
   } else if (lua_type(L, v->idx) == LUA_TTABLE) {
-    size_t n = lua_rawlen(L, v->idx), ns = eqp_ctx_solid_count(ctx);
+    const eqp_library *lib = eqp_solution_library(s);      /* its own solids */
+    size_t n = lua_rawlen(L, v->idx), ns = eqp_library_solid_count(lib);
     const char **names = lua_newuserdatauv(L, sizeof(char *) * (n + 1), 0);  /* anchored */
     const char **all = lua_newuserdatauv(L, sizeof(char *) * (ns + 1), 0);
-    for (size_t j = 0; j < ns; j++) all[j] = eqp_ctx_solid_name(ctx, j);
+    for (size_t j = 0; j < ns; j++) all[j] = eqp_library_solid_name(lib, j);
     for (size_t i = 0; i < n; i++) {
       lua_rawgeti(L, v->idx, (lua_Integer)i + 1);   /* stays on the stack: anchors the name */
       names[i] = eqpl_check_name(L, -1, "eq.solution: precipitate, a solid's name,");
@@ -133,28 +141,54 @@ static const char *read_activity(lua_State *L, const eqpl_val *v, int *params)
   return name;
 }
 
-/* species = a species table, or a list of file names and species tables */
-static void load_species(lua_State *L, eqp_ctx *ctx, const eqpl_val *v)
+/* library = { only = { "phosphate", ... } } or { without = { ... } }: the
+** context's library restricted for this solution */
+static void restrict_library(lua_State *L, eqp_ctx *ctx, const eqpl_val *v, eqpl_library *h)
+{
+  if (!v->given) return;
+  if (!lua_istable(L, v->idx)) {
+    char buf[96];
+    eqpl_input_error(L, "eq.solution: library must be a table such as { only = { 'phosphate' "
+                     "} } or { without = { 'metals' } }; got %s",
+                     eqpl_describe(L, v->idx, buf, sizeof buf));
+  }
+  eqpl_val o[2];
+  eqpl_options(L, v->idx, "eq.solution: library", library_opts, o, 0);
+  if (o[0].given == o[1].given)
+    eqpl_input_error(L, "eq.solution: library takes either 'only' or 'without', a list of "
+                     "species file names");
+  const eqp_library *out;
+  int rc = o[0].given ? eqp_library_only(ctx, h->lib, o[0].names, o[0].count, &out)
+                      : eqp_library_without(ctx, h->lib, o[1].names, o[1].count, &out);
+  if (rc < 0) eqpl_fail(L, ctx, rc);
+  eqp_library_free(h->lib);
+  h->lib = out;
+}
+
+/* species = a species table, or a list of file names and species tables:
+** for this solution only (read raw: a metamethod never runs) */
+static void load_species(lua_State *L, eqp_ctx *ctx, const eqpl_val *v, eqpl_library *h)
 {
   if (!v->given) return;
   int sp = v->idx;
   if (!lua_istable(L, sp))
     eqpl_input_error(L, "eq.solution: species must be a species table, or a list of file "
                      "names and species tables");
-  lua_getfield(L, sp, "species");
-  lua_getfield(L, sp, "acids");
-  lua_getfield(L, sp, "reactions");
-  lua_getfield(L, sp, "reagents");
-  int single = !lua_isnil(L, -1) || !lua_isnil(L, -2) || !lua_isnil(L, -3) || !lua_isnil(L, -4);
-  lua_pop(L, 4);
+  static const char *const keys[] = {"species", "acids", "reactions", "reagents"};
+  int single = 0;
+  for (int k = 0; k < 4; k++) {
+    lua_pushstring(L, keys[k]);
+    single |= lua_rawget(L, sp) != LUA_TNIL;
+    lua_pop(L, 1);
+  }
   if (single) {
-    eqpl_load_species(L, ctx, sp);
+    eqpl_extend_library(L, ctx, h, sp);
     return;
   }
   lua_Integer n = (lua_Integer)lua_rawlen(L, sp);
   for (lua_Integer i = 1; i <= n; i++) {
     lua_rawgeti(L, sp, i);
-    eqpl_load_species(L, ctx, -1);
+    eqpl_extend_library(L, ctx, h, -1);
     lua_pop(L, 1);
   }
 }
@@ -176,11 +210,13 @@ int eqpl_solution_new(lua_State *L)
   o.activity = read_activity(L, &v[O_ACTIVITY], &params);
   /* every option is checked before anything is loaded or made */
   if (eqp_ctx_load_default_library(ctx) < 0) return eqpl_fail(L, ctx, eqp_ctx_errcode(ctx));
-  load_species(L, ctx, &v[O_SPECIES]);
+  eqpl_library *h = eqpl_push_library(L, eqp_ctx_library(ctx));
+  restrict_library(L, ctx, &v[O_LIBRARY], h);
+  load_species(L, ctx, &v[O_SPECIES], h);
   eqp_solution *s;
   eqpl_solution *u = eqpl_new_handle(L, sizeof *u, EQPL_SOLUTION);
   int hidx = lua_gettop(L);
-  int rc = eqp_solution_new(ctx, &o, &s);
+  int rc = eqp_solution_new_in(ctx, h->lib, &o, &s);
   if (rc < 0) return eqpl_fail(L, ctx, rc);
   u->s = s;
   if (params) {
