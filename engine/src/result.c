@@ -133,6 +133,7 @@ int eqp_result_copy(const eqp_result *r, eqp_result **out)
   eqp_result *c = eqpi_malloc(r->ctx, r->bytes);
   if (!c) return eqpi_fail(r->ctx, EQP_E_NOMEM, "out of memory");
   memcpy(c, r, r->bytes);
+  c->db = eqpi_db_ref(r->db);       /* the copy holds the library too */
   ptrdiff_t d = (char *)c - (const char *)r;
   c->m = (double *)((char *)r->m + d);
   c->lg = (double *)((char *)r->lg + d);

@@ -184,6 +184,8 @@ check inline_metatable 0 "inline metatable ok" -- "$EQP" run "$CASES/inline_meta
 # system loaded, pH(S) 6.865 at 25 C (Buck et al., Pure Appl. Chem. 74, 2169 (2002))
 check library_option 0 "library ok" -- "$EQP" run "$CASES/library_option.lua"
 check_near library_only 6.865 0.02 "phosphate pH" -- "$EQP" run "$CASES/library_option.lua"
+# the constants of a solution's own library reach the run's provenance
+check inline_species_json 0 "HZ ⇌ H+ + Z-" -- "$EQP" run "$CASES/inline_species.lua" --json
 U=$TMP/xdg/equipoise/species
 mkdir -p "$U" "$TMP/edit" "$TMP/xdg2/equipoise/species"
 cat >"$U/mine.lua" <<'LUA'
