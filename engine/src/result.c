@@ -238,20 +238,28 @@ int eqp_result_activity(const eqp_result *r, const char *sp, double *out)
   return EQP_OK;
 }
 
+/* A solid of the result's library by name or formula(s); a status if none. */
+static int find_solid(const eqp_result *r, const char *solid)
+{
+  int k = eqpi_db_find_solid(r->db, solid);
+  if (k == -2) {
+    char which[256];
+    eqpi_db_solids_with_formula(r->db, solid, which, sizeof which);
+    return eqpi_fail(r->ctx, EQP_E_UNKNOWN, "'%s' names several solids (%s): name the one "
+                     "you mean", solid, which);
+  }
+  if (k < 0) return eqpi_fail(r->ctx, EQP_E_UNKNOWN, "unknown solid '%s'", solid);
+  return k;
+}
+
 /* Saturation index log10(IAP/Ksp) at the result's temperature; -inf when a
 ** species of the solid is absent. */
 int eqp_result_saturation(const eqp_result *r, const char *solid, double *si)
 {
   if (!r || !solid || !si) return EQP_E_ARG;
   const eqpi_db *db = r->db;
-  int k = eqpi_db_find_solid(db, solid);
-  if (k == -2) {
-    char which[256];
-    eqpi_db_solids_with_formula(db, solid, which, sizeof which);
-    return eqpi_fail(r->ctx, EQP_E_UNKNOWN, "'%s' names several solids (%s): name the one "
-                     "you mean", solid, which);
-  }
-  if (k < 0) return eqpi_fail(r->ctx, EQP_E_UNKNOWN, "unknown solid '%s'", solid);
+  int k = find_solid(r, solid);
+  if (k < 0) return k;
   const eqpi_solid *s = &db->solids[k];
   double iap = 0;
   for (int j = 0; j < s->n; j++) {
@@ -286,15 +294,8 @@ int eqpi_result_set_solids(eqp_result *r, const double *amounts, int n, double w
 int eqp_result_solid(const eqp_result *r, const char *solid, double *mol)
 {
   if (!r || !solid || !mol) return EQP_E_ARG;
-  const eqpi_db *db = r->db;
-  int k = eqpi_db_find_solid(db, solid);
-  if (k == -2) {
-    char which[256];
-    eqpi_db_solids_with_formula(db, solid, which, sizeof which);
-    return eqpi_fail(r->ctx, EQP_E_UNKNOWN, "'%s' names several solids (%s): name the one "
-                     "you mean", solid, which);
-  }
-  if (k < 0) return eqpi_fail(r->ctx, EQP_E_UNKNOWN, "unknown solid '%s'", solid);
+  int k = find_solid(r, solid);
+  if (k < 0) return k;
   *mol = 0;
   for (int q = 0; q < r->nsolid; q++)
     if (r->solid_k[q] == k) *mol = r->solid_mol[q];
