@@ -56,11 +56,18 @@ static void supersaturation_notes(const eqp_result *r)
   for (int k = 0; k < db->nsolids; k++) {
     double si;
     if (eqp_result_saturation(r, db->solids[k].name, &si) != EQP_OK || !(si > 1e-6)) continue;
-    char w[320];
+    /* an index from a 25 C constant, or from a function beyond its range, says so */
+    eqpi_tnotes notes = {0, 0};
+    (void)eqpi_reaction_logK(&db->solids[k].ksp, r->T, &notes);
+    const char *how = notes.missing ? "; its log Ksp has no temperature data, the 25 C value "
+                                      "was used"
+                    : notes.outside ? "; its log Ksp function was used outside its stated "
+                                      "temperature range" : "";
+    char w[420];
     snprintf(w, sizeof w, "%s (%s) is supersaturated, saturation index %.2f: it may "
              "precipitate; a solid forms only where precipitate = {...} allows it (many "
-             "supersaturated media stay metastable for days)", db->solids[k].name,
-             db->solids[k].formula, si);
+             "supersaturated media stay metastable for days)%s", db->solids[k].name,
+             db->solids[k].formula, si, how);
     eqpi_warn(r->ctx, "supersaturated", w);
   }
 }
