@@ -56,6 +56,16 @@ check iupac_standards 0 "all within 0.02 pH" -- "$EQP" run "$SRC/tests/published
 # the buffer catalogue, metal complexes, chelators and gases against published
 # values (sources named beside each check in the script)
 check catalogue 0 "all catalogue checks passed" -- "$EQP" run "$SRC/tests/published/catalogue.lua"
+# the solids: gypsum, calcite in air, saturated Ca(OH)2 and a calcium
+# phosphate mixture against published values (sources beside each check)
+check solids 0 "all solids checks passed" -- "$EQP" run "$SRC/tests/published/solids.lua"
+check solids_library 0 "ok solids library" -- "$EQP" run "$CASES/solids_library.lua"
+check calcium_phosphate_brushite 0 "calcium_phosphate.lua:6: brushite (CaHPO4.2H2O) is supersaturated" -- "$EQP" run "$CASES/calcium_phosphate.lua"
+check calcium_phosphate_apatite 0 "calcium_phosphate.lua:6: hydroxyapatite (Ca5(PO4)3OH) is supersaturated" -- "$EQP" run "$CASES/calcium_phosphate.lua"
+"$EQP" run "$CASES/calcium_phosphate.lua" --json >"$TMP/caphos.json" 2>/dev/null
+for solid in "brushite (CaHPO4.2H2O)" "hydroxyapatite (Ca5(PO4)3OH)"; do
+  check "calcium_phosphate_json $solid" 0 "$solid is supersaturated" -- sh -c "for i in 0 1 2 3 4 5 6 7 8 9; do '$JSON' warnings.\$i < '$TMP/caphos.json' 2>/dev/null; done; true"
+done
 check result_fields 0 "^ok" -- "$EQP" run "$CASES/result_fields.lua"
 check inline_species 0 "pH 5.500" -- "$EQP" run "$CASES/inline_species.lua"
 # 0.025 m KH2PO4 + 0.025 m Na2HPO4 and 0.008695 m + 0.03043 m are the IUPAC
