@@ -11,8 +11,9 @@
 -- Hazard classes (GHS keys, docs/species-format.md): suppliers' safety data
 -- sheets [from memory; the safety data sheet of the product in hand decides].
 local R, L10 = 8.314462e-3, math.log(10)          -- kJ/(K mol)
-local function dH2(logK25, logK37)
-  return -R * L10 * (logK37 - logK25) / (1 / 310.15 - 1 / 298.15)
+local function dH2(logK25, logK37)                -- kJ/mol, to 0.1
+  local dH = -R * L10 * (logK37 - logK25) / (1 / 310.15 - 1 / 298.15)
+  return math.floor(dH * 10 + 0.5) / 10
 end
 
 return {
