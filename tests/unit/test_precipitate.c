@@ -3,6 +3,7 @@
 /* SPDX-License-Identifier: MIT */
 #include "eqp_test.h"
 #include "eqp_impl.h"
+#include <time.h>
 
 static eqp_ctx *ctx;
 
@@ -353,6 +354,201 @@ static void test_stress_grid(void **state)
   eqp_ctx_free(c);
 }
 
+/* ------------------------------------------------------------ independent */
+
+/* The same equations solved here on their own, ideal activities: Ca,
+** CO3 and H free (logs), and the amounts of calcite and portlandite when
+** present; the calcium and carbon balances, the charge balance (Na - Cl =
+** q spectator charge), and a saturation row per phase. Damped Newton with
+** a central-difference Jacobian and Gaussian elimination. Constants: at()
+** above, portlandite's from the fixture's source. */
+typedef struct indep { consts k; double CaT, CT, q, lkp; int cal, port; } indep;
+
+static int indep_rows(const indep *d, const double *y, double *F)
+{
+  const consts *k = &d->k;
+  double ca = exp(y[0]), co3 = exp(y[1]), h = exp(y[2]), oh = k->Kw / h;
+  double hco3 = h * co3 / k->K2, co2 = h * hco3 / k->K1;
+  double caoh = k->Kco * ca * oh, cahco3 = k->Kch * ca * hco3, cacc = k->Kcc * ca * co3;
+  int j = 3;
+  double ncal = d->cal ? y[j++] : 0, nport = d->port ? y[j++] : 0;
+  F[0] = (ca + caoh + cahco3 + cacc + ncal + nport - d->CaT) / d->CaT;
+  F[1] = (co3 + hco3 + co2 + cahco3 + cacc + ncal - d->CT) / d->CT;
+  double pos = h + 2 * ca + caoh + cahco3 + (d->q > 0 ? d->q : 0);
+  double neg = oh + hco3 + 2 * co3 + (d->q < 0 ? -d->q : 0);
+  F[2] = (pos - neg) / (pos + neg);
+  j = 3;
+  if (d->cal) F[j++] = y[0] + y[1] - log(k->Ksp);
+  if (d->port) F[j++] = y[0] + 2 * log(oh) - d->lkp * M_LN10;
+  return j;
+}
+
+static void indep_solve(const indep *d, double *y)
+{
+  double F[5], G[5], J[5][6], yt[5];
+  int n = indep_rows(d, y, F);
+  for (int it = 0; it < 200; it++) {
+    double f0 = 0;
+    for (int i = 0; i < n; i++) f0 = fmax(f0, fabs(F[i]));
+    if (f0 < 1e-15) break;
+    for (int c = 0; c < n; c++) {
+      double h = 1e-6 * fmax(fabs(y[c]), 1e-3 * (c >= 3)), keep = y[c];
+      if (c < 3) h = 1e-6;
+      y[c] = keep + h;
+      indep_rows(d, y, G);
+      for (int i = 0; i < n; i++) J[i][c] = G[i];
+      y[c] = keep - h;
+      indep_rows(d, y, G);
+      for (int i = 0; i < n; i++) J[i][c] = (J[i][c] - G[i]) / (2 * h);
+      y[c] = keep;
+    }
+    for (int i = 0; i < n; i++) J[i][n] = -F[i];
+    for (int c = 0; c < n; c++) {     /* elimination with partial pivoting */
+      int p = c;
+      for (int i = c + 1; i < n; i++) if (fabs(J[i][c]) > fabs(J[p][c])) p = i;
+      for (int j = 0; j <= n; j++) { double x = J[c][j]; J[c][j] = J[p][j]; J[p][j] = x; }
+      for (int i = c + 1; i < n; i++) {
+        double f = J[i][c] / J[c][c];
+        for (int j = c; j <= n; j++) J[i][j] -= f * J[c][j];
+      }
+    }
+    for (int c = n - 1; c >= 0; c--) {
+      double v = J[c][n];
+      for (int j = c + 1; j < n; j++) v -= J[c][j] * J[j][n];
+      J[c][n] = v / J[c][c];
+    }
+    for (double t = 1; t > 1e-6; t *= 0.5) {   /* halve the step until |F| falls */
+      for (int c = 0; c < n; c++) yt[c] = y[c] + t * J[c][n];
+      indep_rows(d, yt, G);
+      double f1 = 0;
+      for (int i = 0; i < n; i++) f1 = fmax(f1, fabs(G[i]));
+      if (f1 < f0 || t < 1e-5) {
+        memcpy(y, yt, sizeof(double) * (size_t)n);
+        memcpy(F, G, sizeof F);
+        break;
+      }
+    }
+  }
+}
+
+/* Calcite in a closed CaCO3 / Na2CO3 / HCl system (10, 3 and 12 mmol in 1
+** kg, ideal, 25 C): the engine against the solve above, to 1e-8 in [H+],
+** the calcite and free Ca2+; dissolved plus solid calcium equal to what
+** was added to 1e-10 (r:solid is the total less the dissolved). */
+static void test_independent_closed(void **state)
+{
+  (void)state;
+  indep d = {at(298.15), 0.010, 0.013, 0.006 - 0.012, -5.19, 1, 0};
+  double y[5] = {log(3e-3), log(3e-6), log(1e-7), 5e-3, 0};
+  indep_solve(&d, y);
+  eqp_solution *s = make("ideal", "calcite");
+  assert_int_equal(eqp_solution_add_str(s, "CaCO3", "10 mmol"), EQP_OK);
+  assert_int_equal(eqp_solution_add_str(s, "Na2CO3", "3 mmol"), EQP_OK);
+  assert_int_equal(eqp_solution_add_str(s, "HCl", "12 mmol"), EQP_OK);
+  eqp_result *r;
+  assert_int_equal(eqp_solution_equilibrate(s, &r), EQP_OK);
+  double mol, ca;
+  assert_int_equal(eqp_result_solid(r, "calcite", &mol), EQP_OK);
+  eqp_result_molality(r, "Ca^2+", &ca);
+  printf("  CaCO3 + Na2CO3 + HCl: calcite %.9g mol (independent %.9g), pH %.6f (%.6f)\n", mol,
+         y[3], eqp_result_pH(r), -y[2] / M_LN10);
+  assert_true(y[3] > 0);
+  assert_rel(mol, y[3], 1e-8);
+  assert_rel(pow(10, -eqp_result_pH(r)), exp(y[2]), 1e-8);
+  assert_rel(ca, exp(y[0]), 1e-8);
+  assert_rel(element_in(ctx, r, 20), 0.010, 1e-10);
+  assert_rel(element_in(ctx, r, 6), 0.013, 1e-10);
+  eqp_result_free(r);
+  eqp_solution_free(s);
+}
+
+/* Two phases at once: 30 mmol Ca(OH)2 and 5 mmol Na2CO3 in 1 kg (ideal):
+** calcite and portlandite both form; against the solve above to 1e-8. And
+** a solid reagent beyond its solubility stays solid: what is not
+** dissolved is reported as portlandite, and the balances close to 1e-10. */
+static void test_independent_two_phases(void **state)
+{
+  (void)state;
+  eqp_ctx *c = fixture_ctx();
+  indep d = {at(298.15), 0.030, 0.005, 0.010, -5.19, 1, 1};
+  double y[5] = {log(0.015), log(1e-7), log(3e-13), 0.005, 0.01};
+  indep_solve(&d, y);
+  eqp_solution_opts o = EQP_SOLUTION_OPTS_INIT;
+  o.activity = "ideal";
+  eqp_solution *s;
+  const char *both[] = {"calcite", "fixture-portlandite"};
+  assert_int_equal(eqp_solution_new(c, &o, &s), EQP_OK);
+  assert_int_equal(eqp_solution_allow_solids(s, both, 2), EQP_OK);
+  assert_int_equal(eqp_solution_add_str(s, "Ca(OH)2", "30 mmol"), EQP_OK);
+  assert_int_equal(eqp_solution_add_str(s, "Na2CO3", "5 mmol"), EQP_OK);
+  eqp_result *r;
+  assert_int_equal(eqp_solution_equilibrate(s, &r), EQP_OK);
+  double cal, port;
+  eqp_result_solid(r, "calcite", &cal);
+  eqp_result_solid(r, "fixture-portlandite", &port);
+  printf("  Ca(OH)2 + Na2CO3: calcite %.9g (independent %.9g), portlandite %.9g (%.9g), "
+         "pH %.5f (%.5f)\n", cal, y[3], port, y[4], eqp_result_pH(r), -y[2] / M_LN10);
+  assert_true(y[3] > 0 && y[4] > 0);
+  assert_rel(cal, y[3], 1e-8);
+  assert_rel(port, y[4], 1e-8);
+  assert_rel(pow(10, -eqp_result_pH(r)), exp(y[2]), 1e-8);
+  assert_rel(element_in(c, r, 20), 0.030, 1e-10);
+  assert_rel(element_in(c, r, 6), 0.005, 1e-10);
+  eqp_result_free(r);
+  eqp_solution_free(s);
+  /* portlandite alone, 100 mmol Ca(OH)2 in 1 kg: most stays solid */
+  consts k1 = at(298.15);
+  assert_int_equal(eqp_solution_new(c, &o, &s), EQP_OK);
+  assert_int_equal(eqp_solution_allow_solids(s, both + 1, 1), EQP_OK);
+  assert_int_equal(eqp_solution_add_str(s, "Ca(OH)2", "100 mmol"), EQP_OK);
+  assert_int_equal(eqp_solution_equilibrate(s, &r), EQP_OK);
+  eqp_result_solid(r, "fixture-portlandite", &port);
+  /* closed form with ideal activities: c (2c + ...)^2 = Ksp with CaOH+
+  ** taking part of the calcium: bisection on the charge balance */
+  double lo = 1e-4, hi = 0.1, ca = 0;
+  for (int it = 0; it < 200; it++) {
+    ca = 0.5 * (lo + hi);
+    double oh = sqrt(pow(10, -5.19) / ca), caoh = k1.Kco * ca * oh, h = k1.Kw / oh;
+    if (2 * ca + caoh + h > oh) hi = ca; else lo = ca;
+  }
+  double oh = sqrt(pow(10, -5.19) / ca), solid = 0.100 - ca - k1.Kco * ca * oh;
+  printf("  100 mmol Ca(OH)2: portlandite %.9g mol (closed form %.9g), dissolved Ca %.6g\n",
+         port, solid, 0.100 - port);
+  assert_rel(port, solid, 1e-8);
+  assert_rel(element_in(c, r, 20), 0.100, 1e-10);
+  eqp_result_free(r);
+  eqp_solution_free(s);
+  eqp_ctx_free(c);
+}
+
+/* The phase rule: the construction of the fixture (two calcite units, ten
+** times more soluble than two calcite) joins first from 10 mmol CaCO3,
+** being the most supersaturated; calcite then fixes the same ion activity
+** product, so the set is refused at once with a message naming both. */
+static void test_phase_rule(void **state)
+{
+  (void)state;
+  eqp_ctx *c = fixture_ctx();
+  eqp_solution_opts o = EQP_SOLUTION_OPTS_INIT;
+  o.activity = "ideal";
+  eqp_solution *s;
+  const char *set[] = {"calcite", "fixture-dimer"};
+  assert_int_equal(eqp_solution_new(c, &o, &s), EQP_OK);
+  assert_int_equal(eqp_solution_allow_solids(s, set, 2), EQP_OK);
+  assert_int_equal(eqp_solution_add_str(s, "CaCO3", "10 mmol"), EQP_OK);
+  eqp_result *r = NULL;
+  clock_t t0 = clock();
+  assert_int_equal(eqp_solution_equilibrate(s, &r), EQP_E_INPUT);
+  double secs = (double)(clock() - t0) / CLOCKS_PER_SEC;
+  printf("  refused in %.4f s: %s\n", secs, eqp_ctx_errmsg(c));
+  assert_contains(eqp_ctx_errmsg(c), "phase rule");
+  assert_contains(eqp_ctx_errmsg(c), "fixture-dimer");
+  assert_true(secs < 1.0);
+  assert_null(r);
+  eqp_solution_free(s);
+  eqp_ctx_free(c);
+}
+
 int main(void)
 {
   ctx = test_ctx();
@@ -362,6 +558,9 @@ int main(void)
     cmocka_unit_test(test_undersaturated),
     cmocka_unit_test(test_choice),
     cmocka_unit_test(test_stress_grid),
+    cmocka_unit_test(test_independent_closed),
+    cmocka_unit_test(test_independent_two_phases),
+    cmocka_unit_test(test_phase_rule),
   };
   int rc = cmocka_run_group_tests(tests, NULL, NULL);
   eqp_ctx_free(ctx);
