@@ -1,16 +1,13 @@
 /* Solids that form or dissolve: an active set of phases. A phase present
 ** is an unknown amount of the problem with its solid-phase row (log IAP =
 ** log Ksp), its composition leaving the solution's totals, so that each
-** set is one Newton solve; the most supersaturated allowed phase joins, a
-** phase whose amount comes out negative leaves. Should the solve of a set
-** fail, its amounts are found by Brent's method on ordinary solves
-** instead (the saturation index is monotone in the amount of its own
-** phase), the phases swept in turn until all hold together; a debug line
-** says so. Design: docs/methods.md. */
+** set is one Newton solve (with continuation in the target of a phase
+** that joins far supersaturated); the most supersaturated allowed phase
+** joins, a phase whose amount comes out negative leaves. Design and
+** measurements: docs/methods.md. */
 /* SPDX-License-Identifier: MIT */
 #include "solution_impl.h"
 #include "system_impl.h"
-#include "brent_impl.h"
 #include <math.h>
 #include <stdio.h>
 #include <string.h>
@@ -20,9 +17,7 @@
 #define SET_ITERS 40       /* Newton iterations for the solve of one set at once */
 #define STEP_ITERS 40      /* and for each step of the continuation */
 #define TINY 1e-300
-#define CANCEL_TOL 1e-7    /* a set's own balances, before the check at the dissolved totals */
 #define SAT_TOL 1e-12      /* its saturation rows, ln units */
-#define MAX_SWEEPS 60      /* of the amounts of a set together */
 #define SI_ON 1e-10        /* a phase joins above this saturation index */
 
 /* ------------------------------------------------------------ choice */
@@ -126,9 +121,8 @@ typedef struct pset {
   double *a, *b, *lnfree, *u;   /* scratch: ncomp + EQPI_MAX_AMOUNTS + 1 each */
   int ph[MAX_PHASES];    /* the phases present */
   double n[MAX_PHASES];  /* their amounts, mol/kg */
-  int np, k;             /* present; the one a 1-D search moves */
+  int np;                /* present */
   long iters;            /* Newton iterations of every solve */
-  int fallbacks;         /* sets solved by Brent's method instead */
 } pset;
 
 static void dissolved(pset *P)
@@ -149,17 +143,6 @@ static int solve_set(pset *P)
   int rc = eqpi_system_solve(P->s->ctx, P->s->db, &P->s->sys, P->tot, P->s->T, P->model, P->st);
   if (rc == EQP_OK && P->st) P->iters += P->st->iterations;
   return rc;
-}
-
-static int miss(void *ud, double x, double *f)
-{
-  pset *P = ud;
-  P->n[P->k] = x;
-  int rc = solve_set(P);
-  if (rc < 0) return rc;
-  double v = ln_sat(P->s->sys, P->s->T, P->ph[P->k]);
-  *f = isfinite(v) ? v : -1e3;     /* a phase whose ion is gone: far undersaturated */
-  return 0;
 }
 
 /* ------------------------------------------------------------ one solve */
@@ -189,7 +172,23 @@ static int solid_row(const eqpi_system *sys, double T, int k, double *b, double 
   return 0;
 }
 
-static double most(const pset *P, int q);
+/* The most of phase q that can leave with the others held: the first
+** component it draws on to run out (the scale of its amount). */
+static double most(const pset *P, int q)
+{
+  const eqpi_db *db = P->s->db;
+  double best = HUGE_VAL;
+  int hc = db->sp[db->h_plus].component;
+  for (int c = 0; c < db->ncomp; c++) {
+    double a = P->dir[q * db->ncomp + c];
+    if (a <= 0 || c == hc) continue;
+    double v = P->mol[c];
+    for (int r = 0; r < P->np; r++)
+      if (r != q) v -= P->n[r] * P->dir[r * db->ncomp + c];
+    best = fmin(best, fmax(v, 0) / a);
+  }
+  return best;
+}
 
 /* The solved state of the system with its amounts as unknowns back in the
 ** normal form: the totals are the dissolved ones, each unknown ln m again. */
@@ -217,20 +216,38 @@ static int normal_form(pset *Q, double lnI)
   return 0;
 }
 
+/* The largest residual of a mass balance at the last evaluation relative
+** to all that enters it, dissolved and solid (u: the amounts). */
+static double closure(const eqpi_problem *P, const double *u)
+{
+  double w = 0;
+  for (int k = 0; k < P->nx; k++) {
+    int c = P->xcomp[k];
+    if (P->kind[c] != EQPI_ROW_MASS) continue;
+    double solid = 0;
+    for (int q = 0; q < P->na; q++)
+      solid += fabs(u[P->nx + q] * P->amt[q].scale * P->amt[q].a[c]);
+    double r = fabs(P->F[k]) * P->S[k] / (P->S[k] + solid / P->W);
+    if (!(r <= w)) w = isfinite(r) ? r : INFINITY;
+  }
+  return w;
+}
+
 /* KINSOL on the problem with its amounts from u: 0 and u at the solution,
 ** or -1. A component that the solids take nearly all of has a dissolved
 ** total N0 - n a that cancels: the rounding of n alone can leave its
 ** balance at 1e-9 of the little left (and KINSOL's line search stall
-** there). Such a point is taken when the saturation rows hold to SAT_TOL,
-** because the result is verified afterwards at the dissolved totals
-** themselves (normal_form), to the usual 1e-10. */
+** there). Such a point is taken when the saturation rows hold to SAT_TOL
+** and every balance to 1e-10 of all that enters it, dissolved and solid;
+** the state is verified afterwards at the dissolved totals themselves
+** (normal_form), the charge balance with it, to the usual 1e-10. */
 static int run_set(pset *Q, eqpi_newton *ws, double *u, int iters)
 {
   eqpi_problem *P = Q->s->sys->prob;
   int worst = -1, flag = eqpi_newton_run(ws, P, u, iters, &Q->iters);
   double *uf = eqpi_newton_u(ws), r = eqpi_problem_verify(P, uf, &worst), sat = 0;
   for (int k = 0; k < P->na; k++) sat = fmax(sat, fabs(P->F[P->nx + k]));
-  if (r <= EQPI_VERIFY_TOL || (r <= CANCEL_TOL && sat <= SAT_TOL)) {
+  if (r <= EQPI_VERIFY_TOL || (sat <= SAT_TOL && closure(P, uf) <= EQPI_VERIFY_TOL)) {
     memcpy(u, uf, sizeof(double) * (size_t)P->n);
     return 0;
   }
@@ -315,9 +332,9 @@ static int newton_set(pset *Q, int join)
     memcpy(u0, u, sizeof(double) * (size_t)P->n);
     ok = run_set(Q, ws, u, SET_ITERS);
     if (ok < 0 && join >= 0) ok = continue_set(Q, ws, u, u0, join);
+    if (ok == 0 && eqpi_problem_at(P, u) < 0) ok = -1;
     if (ok == 0) {
       for (int q = 0; q < P->na; q++) Q->n[q] = u[P->nx + q] * P->amt[q].scale;
-      if (eqpi_problem_at(P, u) < 0) ok = -1;
       memcpy(Q->lnfree, P->lnfree, sizeof(double) * (size_t)nc);
       lnI = u[P->n - 1];
     }
@@ -353,89 +370,20 @@ static int newton_set(pset *Q, int join)
   return normal_form(Q, lnI) == 0 ? 0 : solve_set(Q) == EQP_OK ? 0 : -1;
 }
 
-/* The most of phase q that can leave with the others held: the first
-** component it draws on to run out. */
-static double most(const pset *P, int q)
-{
-  const eqpi_db *db = P->s->db;
-  double best = HUGE_VAL;
-  int hc = db->sp[db->h_plus].component;
-  for (int c = 0; c < db->ncomp; c++) {
-    double a = P->dir[q * db->ncomp + c];
-    if (a <= 0 || c == hc) continue;
-    double v = P->mol[c];
-    for (int r = 0; r < P->np; r++)
-      if (r != q) v -= P->n[r] * P->dir[r * db->ncomp + c];
-    best = fmin(best, fmax(v, 0) / a);
-  }
-  return best;
-}
-
-/* The amount of phase q alone, the others held; 0 when even none of it
-** leaves the solution undersaturated. */
-static int amount_one(pset *P, int q)
-{
-  double f0, fb, hi = most(P, q), root;
-  P->k = q;
-  int rc = miss(P, 0, &f0);
-  if (rc < 0 || f0 <= 0) return rc;
-  if (!isfinite(hi) || hi <= 0)
-    return eqpi_fail(P->s->ctx, EQP_E_INPUT, "solid %s: no component bounds its amount",
-                     P->s->db->solids[P->ph[q]].name);
-  double b = hi * (1 - 1e-12);
-  if ((rc = miss(P, b, &fb)) < 0) return rc;
-  if (fb > 0) { P->n[q] = b; return solve_set(P); }
-  rc = eqpi_brent_root(miss, P, 0, b, f0, fb, 0.0, 200, &root);
-  if (rc < 0 && rc != EQPI_BRENT_MAXIT) return rc > -1000 ? rc : EQP_E_CONVERGE;
-  return miss(P, root, &f0);
-}
-
-/* The amounts of a set by Brent's method, each phase in turn with the
-** others held, until all hold together; a phase that would be negative
-** leaves. The fallback when the Newton solve of a set fails. */
-static int sweep_set(pset *P)
-{
-  eqp_solution *s = P->s;
-  const int nc = s->db->ncomp;
-  int rc = EQP_OK;
-  for (int q = 0; q < P->np; q++) P->n[q] = fmax(P->n[q], 0);
-  for (int sweep = 0; rc == EQP_OK; sweep++) {
-    for (int q = 0; q < P->np && rc == EQP_OK; q++) rc = amount_one(P, q);
-    if (rc < 0) break;
-    double worst = 0;
-    for (int q = 0; q < P->np; q++) {
-      if (P->n[q] <= 0) continue;
-      double v = ln_sat(s->sys, s->T, P->ph[q]);
-      worst = fmax(worst, isfinite(v) ? fabs(v) : HUGE_VAL);
-    }
-    int w = 0;
-    for (int q = 0; q < P->np; q++)
-      if (P->n[q] > 0) {
-        P->ph[w] = P->ph[q];
-        P->n[w] = P->n[q];
-        memmove(P->dir + w * nc, P->dir + q * nc, sizeof(double) * (size_t)nc);
-        w++;
-      }
-    int dropped = w < P->np;
-    P->np = w;
-    if (dropped) rc = solve_set(P);
-    else if (worst < 1e-11) break;
-    if (rc == EQP_OK && sweep >= MAX_SWEEPS)
-      rc = eqpi_fail(s->ctx, EQP_E_CONVERGE, "the amounts of the solids present did not "
-                     "settle in %d sweeps", MAX_SWEEPS);
-  }
-  return rc;
-}
-
-/* Solve the set as it stands: one Newton solve, Brent's method should it fail. */
+/* Solve the set as it stands: one Newton solve (an ordinary one when no
+** phase is left). */
 static int solve_phases(pset *P, int join)
 {
   if (P->np == 0) return solve_set(P);
   if (newton_set(P, join) == 0) return EQP_OK;
-  P->fallbacks++;
-  eqpi_log(P->s->ctx, EQP_LOG_DEBUG, "solids: Brent's method on ordinary solves for a set of "
-           "%d (fallback)", P->np);
-  return sweep_set(P);
+  const eqpi_db *db = P->s->db;
+  char names[256] = "";
+  size_t m = 0;
+  for (int q = 0; q < P->np && m < sizeof names; q++)
+    m += (size_t)snprintf(names + m, sizeof names - m, "%s%s", q ? ", " : "",
+                          db->solids[P->ph[q]].name);
+  return eqpi_fail(P->s->ctx, EQP_E_CONVERGE, "the solids %s could not be brought to "
+                   "saturation together: the equilibrium with them did not converge", names);
 }
 
 /* Phase q leaves the set. */
@@ -484,7 +432,7 @@ int eqpi_precipitate(eqp_solution *s, const double *mol, eqpi_model *model,
   double *blk = eqpi_calloc(ctx, 1, bytes), *sc = blk + (size_t)nc * (MAX_PHASES + 1);
   if (!blk) return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
   pset P = {s, model, st, mol, blk, blk + nc, sc, sc + w, sc + 2 * w, sc + 3 * w,
-            {0}, {0}, 0, 0, st ? st->iterations : 0, 0};
+            {0}, {0}, 0, st ? st->iterations : 0};
   int rc = EQP_OK;
   int hc = db->sp[db->h_plus].component;
   for (int round = 0; rc == EQP_OK; round++) {
@@ -542,9 +490,6 @@ int eqpi_precipitate(eqp_solution *s, const double *mol, eqpi_model *model,
   if (rc == EQP_OK)
     for (int q = 0; q < P.np; q++) amounts[P.ph[q]] = P.n[q];
   if (st) st->iterations = P.iters;
-  if (P.fallbacks)
-    eqpi_log(ctx, EQP_LOG_DEBUG, "solids: %d set%s by the fallback", P.fallbacks,
-             P.fallbacks > 1 ? "s" : "");
   eqpi_free(ctx, blk, bytes);
   return rc;
 }
