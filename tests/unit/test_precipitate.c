@@ -3,6 +3,8 @@
 /* SPDX-License-Identifier: MIT */
 #include "eqp_test.h"
 #include "eqp_impl.h"
+#include "solution_impl.h"
+#include "system_impl.h"
 #include <time.h>
 
 static eqp_ctx *ctx;
@@ -547,6 +549,83 @@ static void test_phase_rule(void **state)
   eqp_ctx_free(c);
 }
 
+/* ------------------------------------------------------------ the row */
+
+/* The Jacobian of a problem with a solid phase among its amounts against
+** central differences of its residual, under models of the three kinds
+** of derivatives (none, of I alone, directional): the solid-phase row and
+** the amount's column exact to 1e-6 where the model gives derivatives. */
+static void test_solid_row_jacobian(void **state)
+{
+  (void)state;
+  static const char *const models[] = {"ideal", "davies", "sit"};
+  for (int m = 0; m < 3; m++) {
+    eqp_solution *s = make(models[m], NULL);
+    assert_int_equal(eqp_solution_add_str(s, "CaCl2", "10 mmol"), EQP_OK);
+    assert_int_equal(eqp_solution_add_str(s, "Na2CO3", "5 mmol"), EQP_OK);
+    eqp_result *r;
+    assert_int_equal(eqp_solution_equilibrate(s, &r), EQP_OK);
+    eqp_result_free(r);
+    eqpi_system *sys = s->sys;
+    eqpi_problem *P = sys->prob;
+    const eqpi_tableau *t = sys->tab;
+    const eqpi_db *db = s->db;
+    int k = eqpi_db_find_solid(db, "calcite"), water = db->sp[db->water].component;
+    const eqpi_solid *ph = &db->solids[k];
+    double N0[64] = {0}, a[64] = {0}, b[64] = {0}, lnt = 0;
+    eqpi_tnotes notes = {0, 0};
+    lnt = EQPI_LN10 * eqpi_reaction_logK(&ph->ksp, s->T, &notes);
+    for (int c = 0; c < db->ncomp; c++) N0[c] = s->total[c] / s->water_kg;
+    for (int j = 0; j < ph->n; j++) {
+      const eqpi_species *sp = &db->sp[ph->sp[j]];
+      for (int q = 0; q < sp->nterm; q++)
+        if (sp->term_comp[q] != water) a[sp->term_comp[q]] -= ph->nu[j] * sp->term_nu[q];
+      for (int i = 0; i < t->ns; i++)
+        if (t->sp[i] == ph->sp[j]) {
+          lnt -= ph->nu[j] * t->lnK[i];
+          for (int q = t->row[i]; q < t->row[i + 1]; q++) b[t->cmp[q]] += ph->nu[j] * t->nu[q];
+        }
+    }
+    double u[64], J[64 * 64], Fp[64], Fm[64];
+    assert_int_equal(eqpi_problem_at(P, sys->u_last), 0);
+    double lnfree[64], lnI = sys->u_last[P->n - 1];
+    memcpy(lnfree, P->lnfree, sizeof(double) * (size_t)t->nc);
+    assert_int_equal(eqpi_problem_add_solid(P, N0, 1.0, a, 1e-3, b, lnt, "calcite"), 0);
+    eqpi_problem_layout(P);
+    const int n = P->n;
+    for (int c = 0; c < t->nc; c++)
+      if (P->xidx[c] >= 0) u[P->xidx[c]] = lnfree[c];
+    u[P->nx] = 2.0;              /* 2 mmol/kg of calcite out */
+    u[n - 1] = lnI;
+    int exact;
+    assert_int_equal(eqpi_problem_at(P, u), 0);
+    assert_int_equal(eqpi_problem_jacobian(P, J, &exact), 0);
+    double worst = 0, worst_solid = 0;
+    for (int l = 0; l < n; l++) {
+      double keep = u[l], h = 1e-6;
+      u[l] = keep + h;
+      assert_int_equal(eqpi_problem_eval(P, u, Fp), 0);
+      u[l] = keep - h;
+      assert_int_equal(eqpi_problem_eval(P, u, Fm), 0);
+      u[l] = keep;
+      for (int i = 0; i < n; i++) {
+        double fd = (Fp[i] - Fm[i]) / (2 * h), an = J[(size_t)l * n + i];
+        double e = fabs(fd - an) / fmax(1, fabs(fd));
+        worst = fmax(worst, e);
+        if (i == P->nx || l == P->nx) worst_solid = fmax(worst_solid, e);
+      }
+    }
+    printf("  %s: Jacobian against differences, worst %.2e (solid row and column %.2e)%s\n",
+           models[m], worst, worst_solid, exact ? "" : ", the model gives no derivatives");
+    if (exact) assert_true(worst < 1e-6);
+    assert_true(worst_solid < 1e-6);
+    eqpi_problem_clear_amounts(P);
+    eqpi_problem_layout(P);
+    eqpi_system_forget(sys);
+    eqp_solution_free(s);
+  }
+}
+
 int main(void)
 {
   ctx = test_ctx();
@@ -559,6 +638,7 @@ int main(void)
     cmocka_unit_test(test_independent_closed),
     cmocka_unit_test(test_independent_two_phases),
     cmocka_unit_test(test_phase_rule),
+    cmocka_unit_test(test_solid_row_jacobian),
   };
   int rc = cmocka_run_group_tests(tests, NULL, NULL);
   eqp_ctx_free(ctx);
