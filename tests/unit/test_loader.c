@@ -302,10 +302,13 @@ static void test_inline_table(void **state)
 #define LOAD_BOUND 5.0
 #endif
 
+/* Processor time of this process: the work done, which other programs on a
+** busy machine do not inflate as they do the wall clock (9 s of wall clock
+** for 1 s of work was seen with two cores shared by several builds). */
 static double seconds(void)
 {
   struct timespec t;
-  clock_gettime(CLOCK_MONOTONIC, &t);
+  clock_gettime(CLOCK_PROCESS_CPUTIME_ID, &t);
   return (double)t.tv_sec + 1e-9 * (double)t.tv_nsec;
 }
 
@@ -325,14 +328,15 @@ static void test_many_species_timed(void **state)
   int rc = eqp_ctx_load_species_text(ctx, t, strlen(t), "many.lua");
   double dt = seconds() - t0;
   if (rc != EQP_OK) fail_msg("%s", eqp_ctx_errmsg(ctx));
-  print_message("100,000 species loaded in %.3f s\n", dt);
+  print_message("100,000 species loaded in %.3f s of processor time\n", dt);
   assert_int_equal(eqp_ctx_species_count(ctx), n0 + 100000);
   assert_int_equal(eqp_ctx_reagent_count(ctx), r0 + 100000);
   char *text;
   assert_int_equal(describe(ctx, "Y49999", &text), EQP_OK);
   assert_contains(text, "X49999");
   eqp_ctx_free(ctx);
-  if (dt > LOAD_BOUND) fail_msg("100,000 species took %.2f s (bound %g s)", dt, LOAD_BOUND);
+  if (dt > LOAD_BOUND)
+    fail_msg("100,000 species took %.2f s of processor time (bound %g s)", dt, LOAD_BOUND);
   free_text();
 }
 

@@ -367,6 +367,99 @@ static void test_file_and_line(void **state)
           "}", 2, "max_dpH");
 }
 
+/* Extra arguments were ignored: s:add("NaCl", "1 mmol", {}) added NaCl and
+** eq.solution({...}, 5) made a solution. Every call refuses them, naming
+** its signature; the optional trailing arguments stay optional. */
+static void test_extra_arguments(void **state)
+{
+  static const char setup[] =
+    "local s = eq.solution{}\n"
+    "local stock = eq.solution{}\n"
+    "local r = s:equilibrate()\n"
+    "local c = s:titrate{ with = 'NaOH', step = '1 mmol', to = '2 mmol' }\n"
+    "local p = eq.plot{ lines = { { x = { 1, 2 }, y = { 1, 2 } } } }\n";
+  static const struct { const char *call, *needle; } calls[] = {
+    {"eq.solution({ volume = '1 L' }, 5)", "eq.solution{ options } takes 1 argument; got 2 "
+                                           "(the 2nd is the number 5)"},
+    {"s:add('NaCl', '1 mmol', {})", "s:add(reagent, amount) takes 2 arguments; got 3 (the 3rd "
+                                    "is a table)"},
+    {"s:add('NaCl', '1 mmol', nil)", "the 3rd is nil"},
+    {"s:equilibrate(1)", "s:equilibrate() takes no arguments; got 1"},
+    {"s:copy(s)", "s:copy() takes no arguments"},
+    {"s:set_temperature(25, 'C')", "s:set_temperature(t) takes 1 argument"},
+    {"s:water(1)", "s:water()"}, {"s:volume(1)", "s:volume()"},
+    {"s:temperature(1)", "s:temperature()"},
+    {"s:pour(stock, '1 mL', '2 mL')", "s:pour(stock, volume) takes 2 arguments"},
+    {"s:dilute(2, 3)", "s:dilute("}, {"s:buffer_capacity('HCl')", "s:buffer_capacity()"},
+    {"s:adjust_pH(7, 'NaOH', '1 M')", "s:adjust_pH(pH, reagent | stock) takes 2 arguments"},
+    {"s:adjust({ { pH = 7, with = 'NaOH' } }, 1)", "s:adjust{ target, ... }"},
+    {"s:fix_activity('Ca^2+', 1e-6, 'Cl-', 1)", "takes 3 arguments"},
+    {"s:load_budget({}, 0.1)", "s:load_budget([options]) takes 1 argument"},
+    {"s:expose('CO2(g)', '1 atm', 1)", "s:expose(gas, pressure)"},
+    {"s:total('Na+', 'mol')", "s:total(component)"},
+    {"s:titrate({ with = 'NaOH', step = '1 mmol', to = '2 mmol' }, 1)", "s:titrate{ options }"},
+    {"s:temperature_sweep({ from = 20, to = 30 }, 1)", "s:temperature_sweep{"},
+    {"r:molality('Na+', 3)", "r:molality(species) takes 1 argument; got 2"},
+    {"r:molarity('Na+', 3)", "r:molarity(species)"}, {"r:activity('Na+', 3)", "r:activity("},
+    {"r:gamma('Na+', 3)", "r:gamma(species)"}, {"r:saturation('calcite', 3)", "r:saturation("},
+    {"r:solid('calcite', 3)", "r:solid(name)"}, {"r:species(1)", "r:species()"},
+    {"c:csv(1)", "curve:csv()"}, {"c:json(1)", "curve:json()"},
+    {"c:write_csv('a.csv', 1)", "curve:write_csv(path)"},
+    {"c:write_json('a.json', 1)", "curve:write_json(path)"},
+    {"c:plot('a.svg', {}, 1)", "curve:plot(file [, options]) takes 2 arguments"},
+    {"p:svg(1)", "plot:svg()"}, {"p:write('a.svg', 1)", "plot:write(file)"},
+    {"eq.mix({ s }, 1)", "eq.mix{ parts }"},
+    {"eq.recipe({ buffer = 'phosphate', pH = 7, total = '50 mM' }, 1)", "eq.recipe{ options }"},
+    {"eq.compare_buffers({ pH = 7, total = '50 mM', load = '2 mM' }, 1)",
+     "eq.compare_buffers{ options }"},
+    {"eq.load_species({}, 1)", "eq.load_species(path_or_table)"},
+    {"eq.molar_mass('NaCl', 1)", "eq.molar_mass(formula)"},
+    {"eq.quantity('1 mM', 1)", "eq.quantity(text)"},
+    {"eq.describe('NaCl', {}, 1)", "eq.describe(name [, options]) takes 2 arguments"},
+    {"eq.plot({ lines = {} }, 1)", "eq.plot{ options }"},
+    {"eq.distribution({ system = 'phosphate' }, 1)", "eq.distribution{ options }"},
+    {"eq.capacity({ total = '50 mM' }, 1)", "eq.capacity{ options }"},
+    {"eq.pretty('Na+', 1)", "eq.pretty(name)"},
+  };
+  for (size_t i = 0; i < sizeof calls / sizeof calls[0]; i++) {
+    char code[2048];
+    snprintf(code, sizeof code, "%s%s", setup, calls[i].call);
+    refused(code, 6, calls[i].needle);
+  }
+  /* optional trailing arguments may be left out, or given */
+  ok("assert(eq.describe('NaCl'))\nassert(eq.describe('NaCl', { temperature = 37 }))\n"
+     "local s = eq.solution{}\ns:add('Tris', '50 mM')\nassert(s:load_budget().pH)\n"
+     "assert(s:load_budget{ window = 0.2 }.pH)");
+}
+
+/* eq.plot drew a NaN or an infinity as a gap, and cut a label at a NUL. */
+static void test_plot_points_and_labels(void **state)
+{
+  refused("eq.plot{ lines = { { x = { 1, 2, 3 }, y = { 1, 0/0, 3 } } } }", 1,
+          "eq.plot line y: item 2 is nan, not a finite number (leave a gap with nil or false)");
+  refused("eq.plot{ lines = { { x = { 1, -math.huge }, y = { 1, 2 } } } }", 1,
+          "eq.plot line x: item 2 is -inf");
+  refused("eq.plot{ bands = { { 0/0, 1 } } , lines = {} }", 1,
+          "a band's from must be a finite number; got nan");
+  refused("eq.plot{ lines = { { x = { 1 }, y = { 1 }, label = 'a\\0b' } } }", 1,
+          "is followed by a NUL character");
+  refused("eq.plot{ title = 'a\\0b', lines = {} }", 1, "is followed by a NUL character");
+  refused("eq.plot{ x = 'pH\\0', lines = {} }", 1, "is followed by a NUL character");
+  refused("eq.plot{ y = { label = 'pH', unit = 'mM\\0x' }, lines = {} }", 1,
+          "is followed by a NUL character");
+  refused("eq.plot{ hlines = { { y = 1, label = 'x\\0y' } }, lines = {} }", 1,
+          "is followed by a NUL character");
+  refused("eq.plot{ width = 1e300, lines = {} }", 1, "200 to 4000");
+  refused("eq.pretty('HPO4^2-\\0x')", 1, "is followed by a NUL character");
+  /* a gap is asked for with nil or false */
+  ok("eq.plot{ lines = { { x = { 1, 2, 3, 4 }, y = { 1, nil, false, 4 } } } }");
+  /* a title an __index makes lives until the figure is made */
+  tortured("local o = setmetatable({ lines = { { x = { 1, 2 }, y = { 1, 2 } } } },\n"
+           "  { __index = function(t, k) if k == 'title' then return table.concat{ 'ti', 'tle' }"
+           " end end })\n"
+           "assert(#eq.plot(o):svg() > 0)", NULL);
+}
+
 /* Every documented option of every call is accepted. */
 static void test_every_option_accepted(void **state)
 {
@@ -426,6 +519,8 @@ int main(void)
     cmocka_unit_test(test_first_message_is_the_problem),
     cmocka_unit_test(test_file_and_line),
     cmocka_unit_test(test_every_option_accepted),
+    cmocka_unit_test(test_extra_arguments),
+    cmocka_unit_test(test_plot_points_and_labels),
   };
   return cmocka_run_group_tests(tests, setup, teardown);
 }

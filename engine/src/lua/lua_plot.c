@@ -49,13 +49,21 @@ static double opt_number(lua_State *L, int t, const char *key, double dflt, cons
   return v;
 }
 
+/* The string at key, or NULL. The value stays on the stack: it anchors the
+** string (an __index may have made it) until the binding returns. */
 static const char *opt_string(lua_State *L, int t, const char *key, const char *what)
 {
   int ty = lua_getfield(L, t, key);
   const char *s = NULL;
-  if (ty == LUA_TSTRING) s = lua_tostring(L, -1);   /* kept alive by the table */
-  else if (ty != LUA_TNIL) eqpl_input_error(L, "%s: '%s' is a string", what, key);
-  lua_pop(L, 1);
+  if (ty == LUA_TSTRING) {
+    size_t len;
+    s = lua_tolstring(L, -1, &len);
+    if (strlen(s) != len)
+      eqpl_input_error(L, "%s: '%s' = '%s' is followed by a NUL character (\\0) and more text",
+                       what, key, s);
+  } else if (ty != LUA_TNIL) {
+    eqpl_input_error(L, "%s: '%s' is a string", what, key);
+  }
   return s;
 }
 
@@ -148,6 +156,7 @@ static int finish_plot(lua_State *L, eqp_plot *p, int rc, const char *file)
 
 static int plot_write(lua_State *L)
 {
+  eqpl_check_nargs(L, 2, "plot:write(file)");
   eqp_plot *p = check_plot(L, 1);
   luaL_checkstring(L, 2);
   int rc = eqp_plot_write(p, eqpl_host_path(L, 2, 'w'));
@@ -158,6 +167,7 @@ static int plot_write(lua_State *L)
 
 static int plot_svg(lua_State *L)
 {
+  eqpl_check_nargs(L, 1, "plot:svg()");
   char *data;
   size_t len;
   int rc = eqp_plot_render(check_plot(L, 1), EQP_PLOT_SVG, &data, &len);
@@ -197,9 +207,20 @@ static double *number_list(lua_State *L, int idx, size_t *n, const char *what)
   double *v = lua_newuserdatauv(L, sizeof(double) * (*n ? *n : 1), 0);
   for (size_t i = 0; i < *n; i++) {
     int ty = lua_rawgeti(L, idx, (lua_Integer)i + 1);
-    if (ty == LUA_TNUMBER) v[i] = lua_tonumber(L, -1);
-    else if (ty == LUA_TNIL || (ty == LUA_TBOOLEAN && !lua_toboolean(L, -1))) v[i] = NAN;
-    else eqpl_input_error(L, "%s: item %d is not a number", what, (int)i + 1);
+    if (ty == LUA_TNUMBER) {
+      v[i] = lua_tonumber(L, -1);
+      /* a NaN or an infinity is a computation gone wrong, not a gap: a
+      ** gap is asked for with nil or false */
+      if (!isfinite(v[i])) {
+        char num[32];
+        eqpl_input_error(L, "%s: item %d is %s, not a finite number (leave a gap with nil or "
+                         "false)", what, (int)i + 1, eqpl_fmt(v[i], num, sizeof num));
+      }
+    } else if (ty == LUA_TNIL || (ty == LUA_TBOOLEAN && !lua_toboolean(L, -1))) {
+      v[i] = NAN;
+    } else {
+      eqpl_input_error(L, "%s: item %d is not a number", what, (int)i + 1);
+    }
     lua_pop(L, 1);
   }
   return v;
@@ -208,10 +229,12 @@ static double *number_list(lua_State *L, int idx, size_t *n, const char *what)
 static int set_axis(lua_State *L, eqp_plot *p, int t, const char *key, int axis)
 {
   static const char *const keys[] = {"label", "unit", "range", NULL};
+  int top = lua_gettop(L);
   int ty = lua_getfield(L, t, key);
   int rc = EQP_OK;
   if (ty == LUA_TSTRING) {
-    rc = eqp_plot_set_axis(p, axis, lua_tostring(L, -1), NULL, NAN, NAN);
+    rc = eqp_plot_set_axis(p, axis, eqpl_check_name(L, -1, "eq.plot: axis label"), NULL, NAN,
+                           NAN);
   } else if (ty == LUA_TTABLE) {
     int a = lua_gettop(L);
     check_keys(L, a, keys, axis ? "eq.plot y" : "eq.plot x");
@@ -222,7 +245,7 @@ static int set_axis(lua_State *L, eqp_plot *p, int t, const char *key, int axis)
   } else if (ty != LUA_TNIL) {
     eqpl_input_error(L, "eq.plot: '%s' is a label or { label =, unit =, range = }", key);
   }
-  lua_pop(L, 1);
+  lua_settop(L, top);
   return rc;
 }
 
@@ -288,9 +311,11 @@ static int add_marks(lua_State *L, eqp_plot *p, int t)
       } else {
         lua_rawgeti(L, m, 1);
         lua_rawgeti(L, m, 2);
-        if (!lua_isnumber(L, -2) || !lua_isnumber(L, -1))
+        if (lua_type(L, -2) != LUA_TNUMBER || lua_type(L, -1) != LUA_TNUMBER)
           return eqpl_input_error(L, "eq.plot: a band is { from, to, label = }");
-        rc = eqp_plot_add_band(p, lua_tonumber(L, -2), lua_tonumber(L, -1), label);
+        double from = eqpl_check_number(L, -2, "eq.plot: a band's from", -HUGE_VAL, HUGE_VAL, 0);
+        double to = eqpl_check_number(L, -1, "eq.plot: a band's to", -HUGE_VAL, HUGE_VAL, 0);
+        rc = eqp_plot_add_band(p, from, to, label);
       }
       lua_settop(L, list);
     }
@@ -303,6 +328,7 @@ static int add_marks(lua_State *L, eqp_plot *p, int t)
 **          hlines =, width =, height = } -> plot */
 static int eq_plot(lua_State *L)
 {
+  eqpl_check_nargs(L, 1, "eq.plot{ options }");
   static const char *const keys[] = {"file", "title", "x", "y", "lines", "markers", "bands",
                                      "hlines", "width", "height", NULL};
   eqp_ctx *ctx = eqpl_ctx_of(L);
@@ -323,6 +349,9 @@ static int eq_plot(lua_State *L)
   if (rc == EQP_OK) rc = add_marks(L, p, 1);
   double w = opt_number(L, 1, "width", 720, "eq.plot"), h = opt_number(L, 1, "height", 480,
                                                                        "eq.plot");
+  if (!(w >= 200 && w <= 4000 && h >= 150 && h <= 4000))   /* before the cast to int */
+    return eqpl_input_error(L, "eq.plot: width %g and height %g: 200 to 4000 by 150 to 4000 "
+                            "points", w, h);
   if (rc == EQP_OK) rc = eqp_plot_set_size(p, (int)w, (int)h);
   hold->p = NULL;
   return finish_plot(L, p, rc, file);
@@ -344,6 +373,7 @@ static void set_kind(lua_State *L, int curve)
 **                  medium =, pH = { lo, hi }, points = } -> curve */
 static int eq_distribution(lua_State *L)
 {
+  eqpl_check_nargs(L, 1, "eq.distribution{ options }");
   static const char *const keys[] = {"system", "ionic_strength", "temperature", "activity",
                                      "medium", "pH", "points", NULL};
   eqp_ctx *ctx = eqpl_ctx_of(L);
@@ -391,6 +421,7 @@ static int eq_distribution(lua_State *L)
 **              pH = { lo, hi }, points =, window = { lo, hi } } -> curve */
 static int eq_capacity(lua_State *L)
 {
+  eqpl_check_nargs(L, 1, "eq.capacity{ options }");
   static const char *const keys[] = {"buffers", "total", "volume", "temperature", "activity",
                                      "pH", "points", "window", NULL};
   eqp_ctx *ctx = eqpl_ctx_of(L);
@@ -407,14 +438,13 @@ static int eq_capacity(lua_State *L)
       lua_rawgeti(L, -1, (lua_Integer)i + 1);
       if (lua_type(L, -1) != LUA_TSTRING)
         return eqpl_input_error(L, "eq.capacity: buffer %d is a name", (int)i + 1);
-      names[i] = lua_tostring(L, -1);   /* kept alive by the options table */
-      lua_pop(L, 1);
+      names[i] = eqpl_check_name(L, -1, "eq.capacity: a buffer's name");
+      lua_pop(L, 1);              /* kept alive by the list, which stays on the stack */
     }
     s.buffers = names;
   } else if (ty != LUA_TNIL) {
     return eqpl_input_error(L, "eq.capacity: 'buffers' is a list of buffer-system names");
   }
-  lua_pop(L, 1);
   const char *total = opt_string(L, 1, "total", "eq.capacity");
   eqp_quantity k;
   if (!total) return eqpl_input_error(L, "eq.capacity: 'total' is the buffer concentration "
@@ -452,6 +482,7 @@ static int eq_capacity(lua_State *L)
 /* s:temperature_sweep{ from = 4, to = 40, points = 37 } -> curve */
 static int sol_temperature_sweep(lua_State *L)
 {
+  eqpl_check_nargs(L, 2, "s:temperature_sweep{ from =, to =, points = }");
   static const char *const keys[] = {"from", "to", "points", NULL};
   eqpl_solution *u = eqpl_check_solution(L, 1);
   eqp_ctx *ctx = eqpl_ctx_of(L);
@@ -537,12 +568,12 @@ static int curve_figure(lua_State *L, int curve, eqp_curve *c, int opts, eqp_plo
   if (has_y) {
     lua_getfield(L, opts, "y");
     if (lua_type(L, -1) == LUA_TSTRING) {
-      ys[ny++] = lua_tostring(L, -1);
+      ys[ny++] = eqpl_check_name(L, -1, "curve:plot: y");
     } else if (lua_type(L, -1) == LUA_TTABLE) {
       for (lua_Integer i = 1; i <= (lua_Integer)lua_rawlen(L, -1) && ny < EQP_PLOT_MAX_Y; i++) {
         lua_rawgeti(L, -1, i);
         if (lua_type(L, -1) != LUA_TSTRING) eqpl_input_error(L, "curve:plot: 'y' lists columns");
-        ys[ny++] = lua_tostring(L, -1);
+        ys[ny++] = eqpl_check_name(L, -1, "curve:plot: y");
         lua_pop(L, 1);
       }
     } else {
@@ -555,13 +586,14 @@ static int curve_figure(lua_State *L, int curve, eqp_curve *c, int opts, eqp_plo
 /* curve:plot("file.svg" [, { title =, x =, y = }]) or curve:plot{ file =, ... } */
 static int curve_plot(lua_State *L)
 {
+  eqpl_check_nargs(L, 3, "curve:plot(file [, options])");
   static const char *const keys[] = {"file", "title", "x", "y", NULL};
   eqpl_curve *u = luaL_checkudata(L, 1, EQPL_CURVE);
   if (!u->c) return luaL_argerror(L, 1, "curve is closed");
   const char *file = NULL;
   int opts = 0;
   if (lua_type(L, 2) == LUA_TSTRING) {
-    file = lua_tostring(L, 2);
+    file = eqpl_check_name(L, 2, "curve:plot: file");
     if (lua_istable(L, 3)) opts = 3;
     else if (!lua_isnoneornil(L, 3)) return eqpl_input_error(L, "curve:plot: options are a table");
   } else if (lua_istable(L, 2)) {
@@ -585,8 +617,9 @@ int eqpl_curve_plot(lua_State *L) { return curve_plot(L); }
 /* eq.pretty("HPO4^2-") -> "HPO₄²⁻" */
 static int eq_pretty(lua_State *L)
 {
+  eqpl_check_nargs(L, 1, "eq.pretty(name)");
   char buf[512];
-  const char *name = luaL_checkstring(L, 1);
+  const char *name = eqpl_check_name(L, 1, "eq.pretty: name");
   if (eqp_name_display(name, buf, sizeof buf) < 0)
     return eqpl_input_error(L, "eq.pretty: name too long");
   lua_pushstring(L, buf);
