@@ -68,6 +68,51 @@ static int same_system(const eqpi_db *db, const eqpi_reagent *form, const eqpi_r
   return 0;
 }
 
+int eqpi_reagent_kind(const eqpi_db *db, const eqpi_reagent *r, int *comp)
+{
+  double h = 0;
+  int ladder = -1;
+  for (int t = 0; t < r->nterm; t++) {
+    int cs = db->comp_species[r->term_comp[t]];
+    if (cs == db->h_plus) h += r->term_nu[t];
+    else if (cs != db->water && r->term_nu[t] != 0 && ladder < 0 && has_ladder(db, r->term_comp[t]))
+      ladder = r->term_comp[t];
+  }
+  if (comp) *comp = ladder;
+  if (ladder >= 0) return EQPI_RG_WEAK;
+  return h > 0 ? EQPI_RG_ACID : h < 0 ? EQPI_RG_BASE : EQPI_RG_NEUTRAL;
+}
+
+/* The salt that sets the ionic strength must leave the pH and the buffer
+** alone: an acid or base, or a salt of the buffer's own system, would be
+** compensated by the buffer's ratio (or make the targets unreachable), so
+** the recipe would not be the buffer asked for. */
+static int check_salt(eqp_ctx *ctx, const plan *p)
+{
+  const eqpi_db *db = ctx->db;
+  const eqpi_reagent *s = p->salt;
+  static const char fix[] = "the ionic strength is set with a neutral salt that leaves the pH "
+                            "alone, such as NaCl or KCl";
+  for (int t = 0; t < s->nterm; t++) {
+    int c = s->term_comp[t], cs = db->comp_species[c];
+    if (cs == db->h_plus || cs == db->water || s->term_nu[t] == 0 || !has_ladder(db, c)) continue;
+    for (int k = 0; k < 2; k++) {
+      const eqpi_reagent *f = k ? p->b : p->a;
+      for (int u = 0; u < f->nterm; u++)
+        if (f->term_comp[u] == c && f->term_nu[u] != 0)
+          return eqpi_fail(ctx, EQP_E_INPUT, "recipe: salt = '%s' holds %s, of the buffer's own "
+                           "system (as %s does): it would change the buffer's total and ratio; "
+                           "%s", s->name, db->sp[cs].name, f->name, fix);
+    }
+  }
+  int kind = eqpi_reagent_kind(db, s, NULL);
+  if (kind == EQPI_RG_ACID || kind == EQPI_RG_BASE)
+    return eqpi_fail(ctx, EQP_E_INPUT, "recipe: salt = '%s' is %s (it %s H+), not a neutral salt; "
+                     "%s", s->name, kind == EQPI_RG_ACID ? "an acid" : "a base",
+                     kind == EQPI_RG_ACID ? "releases" : "takes up", fix);
+  return EQP_OK;
+}
+
 static int choose(eqp_ctx *ctx, const eqp_recipe_spec *sp, plan *p)
 {
   memset(p, 0, sizeof *p);
@@ -107,6 +152,16 @@ static int choose(eqp_ctx *ctx, const eqp_recipe_spec *sp, plan *p)
   p->b = reagent_of(ctx, r2);
   if (!p->a || !p->b)
     return eqpi_fail(ctx, EQP_E_UNKNOWN, "recipe: unknown reagent '%s'", p->a ? r2 : r1);
+  if (p->a == p->b)
+    return eqpi_fail(ctx, EQP_E_INPUT, "recipe: using names %s twice; name two reagents: the "
+                     "acid and base forms (such as { 'NaH2PO4', 'Na2HPO4' }), or the buffer "
+                     "substance and a strong acid or base (such as { 'Tris', 'HCl' })", p->a->name);
+  if (eqpi_reagent_kind(ctx->db, p->a, NULL) != EQPI_RG_WEAK &&
+      eqpi_reagent_kind(ctx->db, p->b, NULL) != EQPI_RG_WEAK)
+    return eqpi_fail(ctx, EQP_E_INPUT, "recipe: using = { %s, %s } makes no buffer: neither is "
+                     "a weak acid or base (a form of a buffer system such as phosphate or Tris); "
+                     "name one, with its other form or a strong acid or base", p->a->name,
+                     p->b->name);
   /* a strong acid or base as the second is a titrant stock; two forms of
   ** the same system are a pair */
   static const char *const strong[] = {"HCl", "HNO3", "NaOH", "KOH"};
@@ -115,6 +170,7 @@ static int choose(eqp_ctx *ctx, const eqp_recipe_spec *sp, plan *p)
   if (!isnan(sp->ionic_strength)) {
     p->salt = reagent_of(ctx, sp->salt ? sp->salt : "NaCl");
     if (!p->salt) return eqpi_fail(ctx, EQP_E_UNKNOWN, "recipe: unknown salt '%s'", sp->salt);
+    return check_salt(ctx, p);
   }
   return EQP_OK;
 }
@@ -278,7 +334,17 @@ static int design(eqp_ctx *ctx, const eqp_recipe_spec *sp, const plan *p, double
       return isnan(I0) ? eqp_ctx_errcode(ctx)
                        : eqpi_fail(ctx, EQP_E_INPUT, "recipe: the buffer alone has ionic "
                                    "strength %.4f mol/kg, above the target %.4f", I0, target);
-    if ((rc = make_at(ctx, sp, p, W, k, 1, &s, v, salt)) < 0) return rc;
+    if ((rc = make_at(ctx, sp, p, W, k, 1, &s, v, salt)) < 0) {
+      if (rc == EQP_E_NOMEM) return rc;
+      char why[EQPI_ERRLEN];
+      snprintf(why, sizeof why, "%s", eqp_ctx_errmsg(ctx));
+      return eqpi_fail(ctx, EQP_E_INPUT, "recipe: the buffer reaches pH %.2f alone, but not "
+                       "with salt "
+                       "'%s' bringing the ionic strength to %.4g mol/kg (%s): %s takes up or "
+                       "gives off H+ itself; the ionic strength is set with a neutral salt that "
+                       "leaves the pH alone, such as NaCl or KCl", sp->pH, p->salt->name, target,
+                       why, p->salt->name);
+    }
   }
   *sout = s;
   return EQP_OK;

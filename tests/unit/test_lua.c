@@ -347,6 +347,39 @@ static void test_first_message_is_the_problem(void **state)
   refused("eq.solution{ water = '1 kg', volume = '1 L' }", 1, "either 'water'");
   refused("eq.solution{}:set_temperature(120)", 1,
           "set_temperature: temperature 120 C is outside 0..100 C");
+  /* an acid as the salt said "the targets could not be met together"; a
+  ** salt of the buffer's own system (KH2PO4 for phosphate) was taken,
+  ** making more than the 50 mM of buffer asked for */
+  static const char rec[] = "eq.recipe{ buffer = 'phosphate', pH = 7.4, total = '50 mM', "
+                            "ionic_strength = '0.15 M', quiet = true, salt = ";
+  char code[512];
+  snprintf(code, sizeof code, "%s'HCl' }", rec);
+  refused(code, 1, "salt = 'HCl' is an acid (it releases H+), not a neutral salt; the ionic "
+          "strength is set with a neutral salt that leaves the pH alone, such as NaCl or KCl");
+  snprintf(code, sizeof code, "%s'NaOH' }", rec);
+  refused(code, 1, "salt = 'NaOH' is a base (it takes up H+)");
+  snprintf(code, sizeof code, "%s'KH2PO4' }", rec);
+  refused(code, 1, "salt = 'KH2PO4' holds PO4^3-, of the buffer's own system");
+  snprintf(code, sizeof code, "%s'Tris' }", rec);
+  refused(code, 1, "Tris takes up or gives off H+ itself; the ionic strength is set with a "
+          "neutral salt");
+  snprintf(code, sizeof code, "%s'KCl' }", rec);
+  ok(code);
+  /* two reagents that make no buffer gave a "recipe" of HCl weighed in grams */
+  refused("eq.recipe{ using = { 'HCl', 'NaOH' }, pH = 7, total = '50 mM', quiet = true }", 1,
+          "using = { HCl, NaOH } makes no buffer: neither is a weak acid or base");
+  refused("eq.recipe{ using = { 'NaCl', 'KCl' }, pH = 7, total = '50 mM', quiet = true }", 1,
+          "makes no buffer");
+  refused("eq.recipe{ using = { 'Tris', 'Tris' }, pH = 8, total = '50 mM', quiet = true }", 1,
+          "using names Tris twice");
+  /* a load of NaCl ranked every buffer by a shift of 0 */
+  refused("eq.compare_buffers{ pH = 7.2, total = '50 mM', load = '2 mM', load_with = 'NaCl',\n"
+          "  quiet = true }", 1, "load_with = 'NaCl' is neither an acid nor a base");
+  /* an acid that is no acid said "pH 10.282 is out of reach with NaCl" */
+  refused("local s = eq.solution{}\ns:add('Tris', '50 mM')\ns:load_budget{ acid = 'NaCl' }", 3,
+          "load budget: acid = 'NaCl' is neither an acid nor a base; name an acid, such as HCl");
+  refused("local s = eq.solution{}\ns:add('Tris', '50 mM')\n"
+          "s:load_budget{ acid = 'NaOH', base = 'HCl' }", 3, "acid = 'NaOH' is a base");
 }
 
 /* Every message starts with the script's file and line, also through
