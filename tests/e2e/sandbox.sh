@@ -248,6 +248,35 @@ check warning_where 0 "warning: .*high_ionic.lua:3: " -- "$EQP" run "$CASES/high
 snippet e_table 'error({})'
 check error_object_where 1 "e_table.lua:1: (error object is a table value)" -- "$EQP" run e_table.lua
 
+# --json under --max-memory: the document is written from temporary files,
+# not built in memory (20,000 results under a 32 MiB limit took 147 MB of
+# resident memory before, about 6 MB now; the limit counts the script's and
+# the engine's memory, and the document may not add five times that)
+snippet j_many 'local s = eq.solution{ volume = "1 L" }
+s:add("KH2PO4", "10 mmol")
+for i = 1, tonumber(params.n) do
+  s:add("NaOH", "0.0001 mmol")
+  local r = s:equilibrate()
+  if i % 1000 == 0 then print("step " .. i) end
+end'
+if ldd "$EQP" 2>/dev/null | grep -q libasan; then
+  n_many=2000     # the sanitizer's own memory is no measure of ours: validity only
+else
+  n_many=20000
+fi
+rss=$(python3 -c 'import resource, subprocess, sys
+with open(sys.argv[1], "wb") as out:
+    rc = subprocess.run(sys.argv[2:], stdout=out, stderr=subprocess.DEVNULL).returncode
+print(resource.getrusage(resource.RUSAGE_CHILDREN).ru_maxrss if rc == 0 else -rc)' \
+  "$TMP/many.json" "$EQP" run j_many.lua --param n=$n_many --max-memory 32M --json)
+check json_many_valid 0 "^ok$" -- "$JSON" status < "$TMP/many.json"
+check json_many_results 0 "^$n_many$" -- "$JSON" results < "$TMP/many.json"
+check json_many_output 0 "^step $n_many$" -- "$JSON" output.$((n_many / 1000 - 1)) < "$TMP/many.json"
+if [ "$n_many" -eq 20000 ]; then
+  [ "${rss:-0}" -gt 0 ] && [ "$rss" -le 32768 ] && ok "json_many_memory (peak $rss KiB, limit 32768 KiB)" ||
+    bad "json_many_memory: peak resident memory ${rss:-?} KiB under --max-memory 32M"
+fi
+
 # --- --jsonl: records as they are made; a kill loses nothing flushed --------
 "$EQP" run w_curve.lua --jsonl > "$TMP/l1"; code=$?
 [ "$code" -eq 0 ] || bad "jsonl exit $code"
