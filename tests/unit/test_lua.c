@@ -493,6 +493,35 @@ static void test_plot_points_and_labels(void **state)
            "assert(#eq.plot(o):svg() > 0)", NULL);
 }
 
+/* The sweeps read their options with checks of their own: a NaN
+** temperature made a distribution at 25 C, -40 C a capacity sweep, a volume
+** of 0 L was taken, 2.5 points made 2. */
+static void test_sweep_options(void **state)
+{
+  refused("eq.distribution{ system = 'phosphate', temperature = 0/0 }", 1,
+          "eq.distribution: temperature must be a finite number; got nan");
+  refused("eq.distribution{ system = 'phosphate', temperature = 500 }", 1,
+          "eq.distribution: temperature 500 C is outside 0..100 C");
+  refused("eq.distribution{ system = 'phosphate', ionic_strength = 0/0 }", 1,
+          "ionic_strength (mol/kg) must be a finite number; got nan");
+  refused("eq.distribution{ system = 'phosphate', points = 2.5 }", 1,
+          "points must be a whole number; got 2.5");
+  refused("eq.capacity{ total = '50 mM', temperature = -40 }", 1,
+          "eq.capacity: temperature -40 C is outside 0..100 C");
+  refused("eq.capacity{ total = '50 mM', volume = '0 L' }", 1,
+          "eq.capacity: volume = '0 L' is out of range");
+  refused("eq.capacity{ total = '6 M' }", 1, "eq.capacity: total = '6 M' is out of range");
+  refused("local s = eq.solution{}\ns:temperature_sweep{ from = 20, to = 30, points = 2.7 }", 2,
+          "temperature_sweep: points must be a whole number");
+  refused("local s = eq.solution{}\ns:temperature_sweep{ from = 30, to = 20 }", 2,
+          "from = 30 C must be below to = 20 C");
+  refused("local s = eq.solution{}\ns:temperature_sweep{ from = 0/0, to = 20 }", 2,
+          "must be a finite number");
+  ok("assert(#eq.distribution{ system = 'phosphate', ionic_strength = '0.1 mol/kg',\n"
+     "  temperature = '37 C', points = 11 } == 11)\n"
+     "assert(#eq.solution{}:temperature_sweep{ from = 20, to = 30 } == 11)");
+}
+
 /* Every documented option of every call is accepted. */
 static void test_every_option_accepted(void **state)
 {
@@ -554,6 +583,7 @@ int main(void)
     cmocka_unit_test(test_every_option_accepted),
     cmocka_unit_test(test_extra_arguments),
     cmocka_unit_test(test_plot_points_and_labels),
+    cmocka_unit_test(test_sweep_options),
   };
   return cmocka_run_group_tests(tests, setup, teardown);
 }

@@ -67,22 +67,35 @@ static const char *opt_string(lua_State *L, int t, const char *key, const char *
   return s;
 }
 
-/* A temperature as a number in C or a string with its unit, in K. */
-static double opt_temperature(lua_State *L, int t, const char *key, double dflt)
+/* A temperature as a number in C or a string with its unit, in K: finite
+** and within 0..100 C, checked as every other call checks it (a NaN was
+** taken as 25 C, -40 C was used as given). */
+static double opt_temperature(lua_State *L, int t, const char *key, double dflt,
+                              const char *what)
 {
-  eqp_ctx *ctx = eqpl_ctx_of(L);
   double T = dflt;
-  int ty = lua_getfield(L, t, key);
-  eqp_quantity k;
-  if (ty == LUA_TNUMBER) T = lua_tonumber(L, -1) + 273.15;
-  else if (ty == LUA_TSTRING) {
-    if (eqp_parse_quantity(ctx, lua_tostring(L, -1), EQP_Q_TEMPERATURE, &T, &k) < 0)
-      eqpl_fail(L, ctx, eqp_ctx_errcode(ctx));
-  } else if (ty != LUA_TNIL) {
-    eqpl_input_error(L, "%s: a number in C or a string such as '310.15 K'", key);
+  if (lua_getfield(L, t, key) != LUA_TNIL) {
+    char w[96];
+    snprintf(w, sizeof w, "%s: %s", what, key);
+    T = eqpl_check_temperature(L, -1, w);
   }
   lua_pop(L, 1);
   return T;
+}
+
+/* A count of points: a whole number from lo to hi (2.5 points was 2). */
+static size_t opt_points(lua_State *L, int t, double dflt, double lo, double hi,
+                         const char *what)
+{
+  double v = dflt;
+  if (lua_getfield(L, t, "points") != LUA_TNIL) {
+    char w[96];
+    snprintf(w, sizeof w, "%s: points", what);
+    v = eqpl_check_number(L, -1, w, lo, hi, 0);
+    if (v != floor(v)) eqpl_input_error(L, "%s must be a whole number; got %g", w, v);
+  }
+  lua_pop(L, 1);
+  return (size_t)v;
 }
 
 /* A pair {lo, hi} of numbers at key; returns 0 if absent. */
@@ -385,23 +398,21 @@ static int eq_distribution(lua_State *L)
                                          "or buffer system ('phosphate', 'HPO4^2-')");
   int ty = lua_getfield(L, 1, "ionic_strength");
   if (ty == LUA_TNUMBER) {
-    d.ionic_strength = lua_tonumber(L, -1);
+    d.ionic_strength = eqpl_check_number(L, -1, "eq.distribution: ionic_strength (mol/kg)", 0,
+                                         10, 0);
   } else if (ty == LUA_TSTRING) {
-    eqp_quantity k;
-    if (eqp_parse_quantity(ctx, lua_tostring(L, -1), EQP_Q_MOLALITY, &d.ionic_strength, &k) < 0)
-      return eqpl_fail(L, ctx, eqp_ctx_errcode(ctx));
+    d.ionic_strength = eqpl_check_quantity(L, -1, "eq.distribution: ionic_strength",
+                                           EQP_Q_MOLALITY, 0, 10, 0, NULL);
   } else if (ty != LUA_TNIL) {
     return eqpl_input_error(L, "eq.distribution: 'ionic_strength' in mol/kg, a number or "
                             "'0.1 mol/kg'");
   }
   lua_pop(L, 1);
-  d.T = opt_temperature(L, 1, "temperature", 298.15);
+  d.T = opt_temperature(L, 1, "temperature", 298.15, "eq.distribution");
   d.activity = opt_string(L, 1, "activity", "eq.distribution");
   d.medium = opt_string(L, 1, "medium", "eq.distribution");
   opt_range(L, 1, "pH", &d.pH_lo, &d.pH_hi, "eq.distribution");
-  double np = opt_number(L, 1, "points", 281, "eq.distribution");
-  if (!(np >= 2 && np <= 100000)) return eqpl_input_error(L, "eq.distribution: 2 to 100000 points");
-  d.points = (size_t)np;
+  d.points = opt_points(L, 1, 281, 2, 100000, "eq.distribution");
   eqp_curve *c;
   int rc = eqp_distribution(ctx, &d, &c);
   if (rc < 0) return eqpl_fail(L, ctx, rc);
@@ -445,24 +456,20 @@ static int eq_capacity(lua_State *L)
   } else if (ty != LUA_TNIL) {
     return eqpl_input_error(L, "eq.capacity: 'buffers' is a list of buffer-system names");
   }
-  const char *total = opt_string(L, 1, "total", "eq.capacity");
-  eqp_quantity k;
-  if (!total) return eqpl_input_error(L, "eq.capacity: 'total' is the buffer concentration "
-                                      "('50 mM')");
-  if (eqp_parse_quantity(ctx, total, EQP_Q_MOLARITY, &s.total, &k) < 0)
-    return eqpl_fail(L, ctx, eqp_ctx_errcode(ctx));
-  const char *vol = opt_string(L, 1, "volume", "eq.capacity");
-  if (vol && eqp_parse_quantity(ctx, vol, EQP_Q_VOLUME, &s.volume, &k) < 0)
-    return eqpl_fail(L, ctx, eqp_ctx_errcode(ctx));
-  s.T = opt_temperature(L, 1, "temperature", 298.15);
+  if (lua_getfield(L, 1, "total") == LUA_TNIL)
+    return eqpl_input_error(L, "eq.capacity: 'total' is the buffer concentration ('50 mM')");
+  s.total = eqpl_check_quantity(L, -1, "eq.capacity: total", EQP_Q_MOLARITY, 0, 5, EQPL_ABOVE,
+                                NULL);                     /* as eq.recipe's total */
+  if (lua_getfield(L, 1, "volume") != LUA_TNIL)
+    s.volume = eqpl_check_quantity(L, -1, "eq.capacity: volume", EQP_Q_VOLUME, 0,
+                                   EQPL_MAX_WATER, EQPL_ABOVE, NULL);
+  s.T = opt_temperature(L, 1, "temperature", 298.15, "eq.capacity");
   s.activity = opt_string(L, 1, "activity", "eq.capacity");
   s.pH_lo = 3;
   s.pH_hi = 11;
   opt_range(L, 1, "pH", &s.pH_lo, &s.pH_hi, "eq.capacity");
   opt_range(L, 1, "window", &s.window_lo, &s.window_hi, "eq.capacity");
-  double np = opt_number(L, 1, "points", 61, "eq.capacity");
-  if (!(np >= 2 && np <= 2001)) return eqpl_input_error(L, "eq.capacity: 2 to 2001 points");
-  s.points = (size_t)np;
+  s.points = opt_points(L, 1, 61, 2, 2001, "eq.capacity");
   eqp_curve *c;
   int rc = eqp_capacity_sweep(ctx, &s, &c);
   if (rc < 0) return eqpl_fail(L, ctx, rc);
@@ -488,12 +495,18 @@ static int sol_temperature_sweep(lua_State *L)
   eqp_ctx *ctx = eqpl_ctx_of(L);
   luaL_checktype(L, 2, LUA_TTABLE);
   check_keys(L, 2, keys, "temperature_sweep");
-  double T0 = opt_temperature(L, 2, "from", NAN), T1 = opt_temperature(L, 2, "to", NAN);
+  double T0 = opt_temperature(L, 2, "from", NAN, "temperature_sweep"),
+         T1 = opt_temperature(L, 2, "to", NAN, "temperature_sweep");
   if (isnan(T0) || isnan(T1))
     return eqpl_input_error(L, "temperature_sweep: 'from' and 'to' are temperatures in C");
-  double np = opt_number(L, 2, "points", 0, "temperature_sweep");   /* 0: one per degree */
-  if (!(np == 0 || (np >= 2 && np <= 10001)))
-    return eqpl_input_error(L, "temperature_sweep: 2 to 10001 points");
+  if (!(T0 < T1))
+    return eqpl_input_error(L, "temperature_sweep: from = %.6g C must be below to = %.6g C",
+                            T0 - 273.15, T1 - 273.15);
+  double np = 0;                                        /* 0: one per degree */
+  lua_getfield(L, 2, "points");
+  int given = !lua_isnil(L, -1);
+  lua_pop(L, 1);
+  if (given) np = (double)opt_points(L, 2, 0, 2, 10001, "temperature_sweep");
   eqp_curve *c;
   int rc = eqp_solution_temperature_sweep(u->s, T0, T1, (size_t)np, &c);
   if (rc < 0) return eqpl_fail(L, ctx, rc);
