@@ -122,6 +122,9 @@ int eqp_solution_adjust(eqp_solution *s, eqp_target *user, size_t n)
     rc = eqpi_opts_read(ctx, "eqp_target", (const char *)user + k * stride, &targets[k],
                         sizeof targets[k], EQPI_TARGET_FIRST);
   }
+  for (size_t k = 0; k < n && rc == EQP_OK; k++)
+    if (targets[k].stock == s)   /* as pour refuses it: no amount of itself changes it */
+      rc = eqpi_fail(ctx, EQP_E_INPUT, "a solution cannot be adjusted with itself as the stock");
   for (size_t k = 0; k < n && rc == EQP_OK; k++) rc = check_target(s, &targets[k], &species[k]);
   if (rc < 0) return rc;
   size_t nb = (size_t)s->ntotal + 1;

@@ -190,6 +190,8 @@ int eqp_solution_titrate(eqp_solution *s, const eqp_titration *user, eqp_curve *
   int rc = eqpi_opts_read(ctx, "eqp_titration", user, &opts, sizeof opts, EQPI_TITRATION_0_1);
   if (rc == EQP_OK) rc = check_spec(ctx, spec);
   if (rc < 0) return rc;
+  if (spec->stock == s)         /* as pour refuses it: the pH would never move */
+    return eqpi_fail(ctx, EQP_E_INPUT, "a solution cannot be titrated with itself");
   for (size_t k = 0; k < spec->nspecies; k++)
     if (eqpi_db_find_species(s->db, spec->species[k]) < 0)
       return eqpi_fail(ctx, EQP_E_UNKNOWN, "unknown species '%s'%s", spec->species[k],

@@ -175,6 +175,15 @@ check memory_limit_rep 9 "memory limit reached" -- "$EQP" run l_rep.lua --max-me
 snippet l_mem_pcall 'local t = {}
 while true do pcall(function() while true do t[#t + 1] = {} end end) end'
 check memory_limit_pcall 9 "memory limit reached" -- "$EQP" run l_mem_pcall.lua --max-memory 32M
+# a limit below the hook's interval of 1000 instructions: a loop of about
+# 400 instructions ran to its end under a limit of 10
+snippet l_short 'local n = 0
+for i = 1, 100 do n = n + i end
+print(n)'
+check instruction_limit_small 8 "instruction limit reached (10 instructions" -- "$EQP" run l_short.lua --max-instructions 10
+check instruction_limit_enough 0 "^5050$" -- "$EQP" run l_short.lua --max-instructions 2000
+# the same --param twice: which value the script sees is refused, not guessed
+check param_twice 2 "param a is given twice ('b' and 'c')" -- "$EQP" run l_short.lua --param a=b --param a=c
 check limits_unlimited 0 "rows" -- "$EQP" run w_curve.lua --max-instructions 0 --max-memory 0
 check bad_limit 2 "needs a size" -- "$EQP" run l_loop.lua --max-memory lots
 

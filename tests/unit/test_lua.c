@@ -522,6 +522,24 @@ static void test_sweep_options(void **state)
      "assert(#eq.solution{}:temperature_sweep{ from = 20, to = 30 } == 11)");
 }
 
+/* Found by trying the calls as a hostile user would. */
+static void test_probed(void **state)
+{
+  /* the solvent's molality was 0, a wrong number rather than a missing one */
+  refused("local r = eq.solution{}:equilibrate()\nprint(r:molality('H2O'))", 2,
+          "H2O is the solvent: it has no molality or molarity");
+  refused("local r = eq.solution{}:equilibrate()\nprint(r:molarity('H2O'))", 2,
+          "H2O is the solvent");
+  ok("local r = eq.solution{}:equilibrate()\nassert(r:activity('H2O') == 1)");
+  /* pour refused a solution as its own stock; adjust_pH said "adding it
+  ** lowers the pH" and titrate made a flat curve */
+  refused("local s = eq.solution{}\ns:add('Tris', '50 mM')\ns:adjust_pH(7, s)", 3,
+          "a solution cannot be adjusted with itself as the stock");
+  refused("local s = eq.solution{}\ns:add('Tris', '50 mM')\n"
+          "s:titrate{ with = s, step = '1 mL', to = '10 mL' }", 3,
+          "a solution cannot be titrated with itself");
+}
+
 /* Every documented option of every call is accepted. */
 static void test_every_option_accepted(void **state)
 {
@@ -584,6 +602,7 @@ int main(void)
     cmocka_unit_test(test_extra_arguments),
     cmocka_unit_test(test_plot_points_and_labels),
     cmocka_unit_test(test_sweep_options),
+    cmocka_unit_test(test_probed),
   };
   return cmocka_run_group_tests(tests, setup, teardown);
 }

@@ -26,8 +26,8 @@ static int per_species(lua_State *L, per_species_fn f, const char *signature)
   eqpl_check_nargs(L, 2, signature);
   eqp_result *r = check_result(L, 1);
   double v;
-  if (f(r, eqpl_check_name(L, 2, "species"), &v) < 0)
-    return eqpl_fail(L, eqpl_ctx_of(L), EQP_E_UNKNOWN);
+  int rc = f(r, eqpl_check_name(L, 2, "species"), &v);
+  if (rc < 0) return eqpl_fail(L, eqpl_ctx_of(L), rc);
   lua_pushnumber(L, v);
   return 1;
 }
