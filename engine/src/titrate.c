@@ -253,11 +253,16 @@ int eqp_solution_titrate(eqp_solution *s, const eqp_titration *user, eqp_curve *
     pH = pH1;
     dpH = dpH1;
   }
+  /* say what to change: the step, in the units it was given in */
+  const char *unit = spec->stock ? "mL" : "mmol";
   if (rc == EQP_OK && until && c->nrows >= MAX_ROWS)
-    rc = eqpi_fail(ctx, EQP_E_INPUT, "pH %.3f not reached within %d points", spec->until_pH,
-                   MAX_ROWS);
+    rc = eqpi_fail(ctx, EQP_E_INPUT, "titration: pH %.3f not reached within %d rows (pH %.3f "
+                   "after %.4g %s): give a larger step than %.4g %s", spec->until_pH, MAX_ROWS,
+                   pH, v * 1e3, unit, spec->step * 1e3, unit);
   if (rc == EQP_OK && !until && v < end * (1 - 1e-12))
-    rc = eqpi_fail(ctx, EQP_E_INPUT, "titration stopped at %d points before its end", MAX_ROWS);
+    rc = eqpi_fail(ctx, EQP_E_INPUT, "titration: %d rows reach only %.4g of the %.4g %s to add: "
+                   "give a step of at least %.4g %s (it was %.4g %s)", MAX_ROWS, v * 1e3,
+                   end * 1e3, unit, end * 1e3 / MAX_ROWS, unit, spec->step * 1e3, unit);
   if (rc == EQP_OK) rc = find_equivalence(c, w, base, &t);
 out:
   if (t.a) eqpi_free(ctx, t.a, sizeof(double) * ((size_t)(base ? base->ntotal : 0) + 1));

@@ -151,6 +151,11 @@ static int finish_plot(lua_State *L, eqp_plot *p, int rc, const char *file)
     eqp_plot_free(p);
     return eqpl_fail(L, ctx, rc);
   }
+  if (file && !eqp_plot_format_of(file)) {   /* before the sandbox speaks of output files */
+    eqp_plot_free(p);
+    return eqpl_input_error(L, "plot file '%s': a figure is written as .svg, .png or .pdf (the "
+                            "name's ending chooses the format)", file);
+  }
   if (file) {
     lua_pushcfunction(L, host_path);
     lua_pushstring(L, file);
@@ -171,7 +176,10 @@ static int plot_write(lua_State *L)
 {
   eqpl_check_nargs(L, 2, "plot:write(file)");
   eqp_plot *p = check_plot(L, 1);
-  luaL_checkstring(L, 2);
+  const char *file = eqpl_check_name(L, 2, "plot:write: file");
+  if (!eqp_plot_format_of(file))
+    return eqpl_input_error(L, "plot file '%s': a figure is written as .svg, .png or .pdf (the "
+                            "name's ending chooses the format)", file);
   int rc = eqp_plot_write(p, eqpl_host_path(L, 2, 'w'));
   if (rc < 0) return eqpl_fail(L, eqpl_ctx_of(L), rc);
   lua_settop(L, 1);
