@@ -281,6 +281,18 @@ static void add_item(eqp_recipe *rc, const eqpi_reagent *r, double mol, double m
 #define APPEND(...) do { if (used < sizeof out->procedure) used += (size_t)snprintf( \
     out->procedure + used, sizeof out->procedure - used, __VA_ARGS__); } while (0)
 
+/* A mass (g) or a volume (mL) as the procedure prints it: grams to 0.1 mg
+** and millilitres to 0.01 mL as a balance and a burette read, and smaller
+** quantities in mg or uL with 4 significant digits (a 1 uL recipe printed
+** "0.0000 g"). */
+static void quantity_text(char *buf, size_t len, double v, int volume, int decimals)
+{
+  if (!volume && !(v < 0.01)) snprintf(buf, len, "%.4f g", v);
+  else if (!volume) snprintf(buf, len, "%.4g mg", v * 1e3);
+  else if (!(v < 0.1)) snprintf(buf, len, "%.*f mL", decimals, v);
+  else snprintf(buf, len, "%.4g uL", v * 1e3);
+}
+
 static void write_procedure(eqp_recipe *out, const eqp_recipe_spec *sp, const plan *p)
 {
   size_t used = 0;
@@ -293,18 +305,20 @@ static void write_procedure(eqp_recipe *out, const eqp_recipe_spec *sp, const pl
   for (int i = 0; i < out->nitems; i++) {
     const eqp_recipe_item *it = &out->item[i];
     if (it->role == EQP_ROLE_SOLID || it->role == EQP_ROLE_SALT)
-      APPEND("%2d. Weigh %.4f g of %s (%.4g mmol).\n", step++, it->grams, it->reagent,
+      APPEND("%2d. Weigh %s of %s (%.4g mmol).\n", step++, it->printed, it->reagent,
              it->mol * 1e3);
   }
-  APPEND("%2d. Dissolve in about %.0f mL of water.\n", step++, 0.8 * water_mL);
+  char q[48];
+  quantity_text(q, sizeof q, 0.8 * water_mL, 1, 0);
+  APPEND("%2d. Dissolve in about %s of water.\n", step++, q);
   for (int i = 0; i < out->nitems; i++) {
     const eqp_recipe_item *it = &out->item[i];
     if (it->role == EQP_ROLE_TITRANT)
-      APPEND("%2d. While stirring, add %.2f mL of %.4g M %s (%.4g mmol), slowly.\n", step++,
-             it->mL, sp->titrant_molar, it->reagent, it->mol * 1e3);
+      APPEND("%2d. While stirring, add %s of %.4g M %s (%.4g mmol), slowly.\n", step++,
+             it->printed, sp->titrant_molar, it->reagent, it->mol * 1e3);
   }
-  APPEND("%2d. Bring to %.1f C and make up to %.4g mL with water (about %.1f mL of water in "
-         "all); mix well.\n", step++, tC, sp->volume * 1e3, water_mL);
+  APPEND("%2d. Bring to %.1f C and make up to %.4g mL with water (about %s of water in "
+         "all); mix well.\n", step++, tC, sp->volume * 1e3, out->item[out->nitems - 1].printed);
   APPEND("%2d. Check with a pH meter calibrated at %.1f C: it should read %.2f; the model "
          "gives an estimate, the meter decides.\n", step++, tC, sp->pH);
   for (int i = 0; i < out->nwarn; i++) APPEND("Warning: %s.\n", out->warn[i]);
@@ -513,9 +527,9 @@ static void print_items(eqp_recipe *r)
 {
   for (int i = 0; i < r->nitems; i++) {
     eqp_recipe_item *it = &r->item[i];
-    if (!isnan(it->grams)) snprintf(r->printed[i], sizeof r->printed[i], "%.4f g", it->grams);
-    else snprintf(r->printed[i], sizeof r->printed[i],
-                  it->role == EQP_ROLE_WATER ? "%.1f mL" : "%.2f mL", it->mL);
+    if (!isnan(it->grams)) quantity_text(r->printed[i], sizeof r->printed[i], it->grams, 0, 4);
+    else quantity_text(r->printed[i], sizeof r->printed[i], it->mL, 1,
+                       it->role == EQP_ROLE_WATER ? 1 : 2);
     it->printed = r->printed[i];
   }
 }
@@ -526,7 +540,8 @@ static int normalize(eqp_ctx *ctx, eqp_recipe_spec *sp)
   if (sp->volume == 0) sp->volume = 1;
   if (!(sp->total > 0) || !(sp->volume > 0) || !isfinite(sp->total) || !isfinite(sp->volume))
     return eqpi_fail(ctx, EQP_E_INPUT, "recipe: 'total' and 'volume' must be positive");
-  if (!(sp->pH > -1 && sp->pH < 15)) return eqpi_fail(ctx, EQP_E_INPUT, "recipe: pH %g", sp->pH);
+  if (!(sp->pH >= -1 && sp->pH <= 15))
+    return eqpi_fail(ctx, EQP_E_INPUT, "recipe: the target pH %g is outside -1..15", sp->pH);
   if (!(sp->titrant_molar > 0)) sp->titrant_molar = 1.0;
   if (sp->T == 0) sp->T = 298.15;
   return EQP_OK;
@@ -559,8 +574,8 @@ int eqp_recipe_make(eqp_ctx *ctx, const eqp_recipe_spec *spec, eqp_recipe **out)
     eqp_recipe_free(r);
     return rc;
   }
+  print_items(r);                /* the procedure prints the items as printed */
   write_procedure(r, &sp, &p);
-  print_items(r);
   char prefix[200];
   snprintf(prefix, sizeof prefix, "recipe for %s and %s, pH %.2f, %.4g mM", p.a->name,
            p.b->name, sp.pH, sp.total * 1e3);

@@ -543,6 +543,29 @@ static void test_probed(void **state)
           "s:titrate{ with = 'NaOH', step = '1e-12 mmol', to = '2 mmol' }", 3,
           "titration: 100000 rows reach only 1e-07 of the 2 mmol to add: give a step of at "
           "least 2e-05 mmol (it was 1e-12 mmol)");
+  /* two targets on one quantity, or one reagent for two targets, said "the
+  ** targets could not be met together" (exit 5) */
+  refused("local s = eq.solution{}\ns:add('Tris', '50 mM')\n"
+          "s:adjust{ { pH = 7, with = 'HCl' }, { pH = 7.5, with = 'NaOH' } }", 3,
+          "targets 1 and 2 both set the pH (the activity of H+)");
+  refused("local s = eq.solution{}\ns:add('Tris', '50 mM')\n"
+          "s:adjust{ { pH = 7, with = 'HCl' }, { species = 'H+', activity = 1e-7, with = 'NaOH' } }",
+          3, "both set the pH");
+  refused("local s = eq.solution{}\ns:add('Tris', '50 mM')\n"
+          "s:adjust{ { pH = 7, with = 'HCl' }, { ionic_strength = '0.15 mol/kg', with = 'HCl' } }",
+          3, "targets 1 and 2 both add HCl: one amount cannot meet two targets");
+  ok("local s = eq.solution{}\ns:add('Tris', '50 mM')\n"
+     "assert(#s:adjust{ { pH = 7, with = 'HCl' }, { ionic_strength = '0.15 mol/kg', "
+     "with = 'NaCl' } } == 2)");
+  /* a recipe of 1 uL printed "Weigh 0.0000 g": now mg, and the printed
+  ** quantity is the amount (re-weighed from the text, the same mmol) */
+  ok("local r = eq.recipe{ buffer = 'phosphate', pH = 7.4, total = '50 mM', volume = '1 uL',\n"
+     "  quiet = true }\n"
+     "local it = r.items[1]\n"
+     "assert(it.printed:find(' mg$'), it.printed)\n"
+     "local v = eq.quantity(it.printed)\n"
+     "assert(math.abs(v * 1e3 / eq.molar_mass(it.reagent) * 1e3 - it.mmol) < 1e-3 * it.mmol)\n"
+     "assert(not r.procedure:find('0.0000 g', 1, true) and r.procedure:find(' uL of water', 1, true))");
   /* a figure named .bmp was refused as "not an output file" by the sandbox */
   refused("local c = eq.solution{}:titrate{ with = 'HCl', step = '1 mmol', to = '2 mmol' }\n"
           "c:plot('x.bmp')", 2, "plot file 'x.bmp': a figure is written as .svg, .png or .pdf");
