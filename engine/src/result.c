@@ -214,6 +214,12 @@ int eqp_result_molality(const eqp_result *r, const char *sp, double *out)
 {
   int i = lookup(r, sp);
   if (i < -1) return EQP_E_UNKNOWN;
+  /* the solvent has no molality: 0 (what an absent species gets) would be
+  ** a wrong number, not a missing one */
+  if (i < 0 && eqpi_db_find_species(r->db, sp) == r->db->water)
+    return eqpi_fail(r->ctx, EQP_E_INPUT, "%s is the solvent: it has no molality or molarity "
+                     "(its amount is r.water kg; its activity, r:activity('%s'), is 1 unless "
+                     "the model says otherwise)", sp, sp);
   *out = i < 0 ? 0.0 : r->m[i];
   return EQP_OK;
 }

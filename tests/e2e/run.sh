@@ -170,7 +170,7 @@ check notation_show_old_style_ion 3 "(did you mean 'Ca^2+'?" -- "$EQP" species s
 check notation_file_old 4 "old.lua:7: .*write 'X^2-'" -- "$EQP" species check "$CASES/old_notation/old.lua"
 check notation_file_formula 4 "write 'SeO4^2-'" -- "$EQP" species check "$CASES/old_notation/old.lua"
 # a FIFO is refused at once, not waited on; a UTF-8 byte-order mark is read past
-mkfifo "$TMP/fifo.lua" && check species_check_fifo 4 "not a regular file" -- timeout 10 "$EQP" species check "$TMP/fifo.lua"
+mkfifo "$TMP/fifo.lua" && check species_check_fifo 4 "not a regular file" -- timeout 120 "$EQP" species check "$TMP/fifo.lua"
 printf '\357\273\277' > "$TMP/bom.lua" && cat "$CASES/good_species.lua" >> "$TMP/bom.lua"
 check species_check_bom 0 "ok, 2 species added" -- "$EQP" species check "$TMP/bom.lua"
 check species_check_bad 4 "bad_species.lua:6:" -- "$EQP" species check "$CASES/bad_species.lua"
