@@ -33,7 +33,7 @@ static int state_at(eqp_solution *w, const eqp_solution *base, const titrant *t,
   int rc = eqpi_solution_equilibrate(w, &r);
   if (rc < 0) return rc;
   *pH = eqp_result_pH(r);
-  rc = eqpi_system_dpH(w->ctx, w->sys, t->a, t->w, w->water_kg, dpH);
+  rc = eqpi_solution_dpH_dir(w, t->a, t->w, dpH);
   if (keep) *keep = r;
   else eqp_result_free(r);
   return rc;
