@@ -15,7 +15,9 @@
 #include <stdio.h>
 #include <string.h>
 
-#define R_ATM 0.0820573661    /* L atm K-1 mol-1: R = 8.314462618 J/(mol K) (CODATA 2018) / 101.325 J/(L atm) */
+/* L atm K-1 mol-1: R = 8.314462618 J/(mol K) (exact since the SI of 2019; CODATA 2018)
+** over 101.325 J/(L atm) */
+#define R_ATM (8.314462618 / 101.325)
 #define EDGE 1e-14            /* an open bound, relative to the gas's scale */
 #define MAX_SWEEPS 60
 #define F_TOL 1e-10           /* |f_g|: Henry's law met to 1e-10 relative in p */
