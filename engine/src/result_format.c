@@ -48,13 +48,15 @@ char *eqp_result_to_json(const eqp_result *r)
     cJSON_AddNumberToObject(hs, "volume", V);
     cJSON_AddNumberToObject(hs, "pressure", pt);
     cJSON_AddNumberToObject(hs, "water_vapour", pw);
-    cJSON *gs = cJSON_AddObjectToObject(hs, "gases");
+    cJSON *gs = cJSON_AddArrayToObject(hs, "gases");
     for (size_t i = 0; gs && i < eqp_result_gas_count(r); i++) {
       double p, mol;
       const char *name = eqp_result_gas_name(r, i, &p, &mol);
-      cJSON *e = cJSON_AddObjectToObject(gs, name);
+      cJSON *e = cJSON_CreateObject();
+      cJSON_AddStringToObject(e, "name", name);
       cJSON_AddNumberToObject(e, "pressure", p);
       cJSON_AddNumberToObject(e, "mol", mol);
+      cJSON_AddItemToArray(gs, e);
     }
   }
   cJSON *w = cJSON_AddArrayToObject(o, "warnings");
