@@ -32,6 +32,7 @@ struct eqpi_head {
   double *p, *mol;      /* ng: partial pressure (atm) and mol in gas, last equilibrium */
   unsigned char *on;    /* ng: held any of it at the last equilibrium */
   double V, pw;         /* headspace L and water vapour atm, last equilibrium */
+  char note[256];       /* K_H used beyond its stated temperature range, or "" */
 };
 
 /* ------------------------------------------------------------ water vapour */
@@ -320,6 +321,8 @@ int eqpi_headspace_solve(eqp_solution *s, const double *mol, eqpi_model *model,
   /* the gases the vessel holds: in the headspace, or all of whose dissolved
   ** species' components the solution holds */
   int hc = db->sp[db->h_plus].component, nact = 0;
+  size_t used = 0;
+  h->note[0] = '\0';
   for (int g = 0; g < ng; g++) {
     double *d = P.dir + (size_t)g * nt;
     gas_dir(db, g, d, nt);
@@ -333,6 +336,9 @@ int eqpi_headspace_solve(eqp_solution *s, const double *mol, eqpi_model *model,
     if (h->on[g]) eqpi_gas_used(ctx, db->gases[g].name);   /* its K_H: the provenance */
     eqpi_tnotes notes = {0, 0};
     P.lnKH[g] = EQPI_LN10 * eqpi_reaction_logK(&db->gases[g].kh, s->T, &notes);
+    if (h->on[g] && (notes.outside || notes.missing) && used < sizeof h->note)
+      used += (size_t)snprintf(h->note + used, sizeof h->note - used, "%s%s", used ? ", " : "",
+                               db->gases[g].name);
   }
   int rc = solve_now(&P);
   double worst = HUGE_VAL;
@@ -373,7 +379,11 @@ int eqpi_headspace_solve(eqp_solution *s, const double *mol, eqpi_model *model,
 int eqpi_headspace_result(const eqp_solution *s, eqp_result *r)
 {
   const struct eqpi_head *h = s->head;
-  return eqpi_result_set_gases(r, h->V, h->pw, h->ng, h->on, h->p, h->mol);
+  char w[400] = "";
+  if (h->note[0])
+    snprintf(w, sizeof w, "Henry's law constant of %s used outside the temperature range its "
+             "source states (or without temperature data), at %.2f C", h->note, s->T - 273.15);
+  return eqpi_result_set_gases(r, h->V, h->pw, h->ng, h->on, h->p, h->mol, w[0] ? w : NULL);
 }
 
 /* ------------------------------------------------------------ derivatives */

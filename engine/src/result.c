@@ -319,8 +319,10 @@ const char *eqp_result_solid_name(const eqp_result *r, size_t i, double *mol)
 }
 
 int eqpi_result_set_gases(eqp_result *r, double litres, double p_water, int n,
-                          const unsigned char *on, const double *p, const double *mol)
+                          const unsigned char *on, const double *p, const double *mol,
+                          const char *note)
 {
+  if (note) eqpi_warn(r->ctx, "temperature", note);
   r->sealed = 1;
   r->head_L = litres;
   r->head_pw = p_water;

@@ -331,11 +331,12 @@ static void test_rules(void **state)
   assert_true(found);
 }
 
-static int warned;
+static int warned, kh_range;
 static void on_warning(void *ud, const char *kind, const char *text)
 {
   (void)ud;
   if (strcmp(kind, "pressure") == 0 && strstr(text, "atm")) warned++;
+  if (strcmp(kind, "temperature") == 0 && strstr(text, "Henry's law constant of CO2(g)")) kh_range++;
 }
 
 static void test_pressure_warning(void **state)
@@ -354,6 +355,12 @@ static void test_pressure_warning(void **state)
   r = solve(s);
   eqp_result_free(r);
   assert_int_equal(warned, 1);
+  assert_int_equal(kh_range, 0);
+  /* Plummer & Busenberg's K_H is stated for 0-90 C: at 95 C, said */
+  assert_int_equal(eqp_solution_set_temperature(s, 368.15), EQP_OK);
+  r = solve(s);
+  eqp_result_free(r);
+  assert_int_equal(kh_range, 1);
   eqp_solution_free(s);
   eqp_ctx_set_observer(ctx, NULL, NULL);
 }

@@ -410,6 +410,10 @@ static void test_every_option_accepted(void **state)
      "local k = eq.compare_buffers{ pH = 7, total = '50 mM', volume = '1 L', temperature = 25,\n"
      "  load = '1 mM', load_with = 'NaOH', window = 0.2, activity = 'davies', quiet = true }\n"
      "assert(#c > 0 and #d > 0 and lb.acid_mmol > 0 and #r.items > 0 and #u.items > 0 and #k > 0)");
+  ok("local v = eq.solution{ volume = '10 mL' } v:add('NaHCO3', '0.1 mmol')\n"
+     "v:seal{ headspace = '5 mL', gases = { ['CO2(g)'] = '426.9 uatm', ['O2(g)'] = '0.21 atm' } }\n"
+     "local h = v:equilibrate().headspace\n"
+     "assert(h.volume > 0 and h.pressure > 0.2 and h.gases['CO2(g)'].mol > 0)");
   /* options inherited through a metatable are read */
   ok("local defaults = { temperature = 37 }\n"
      "local s = eq.solution(setmetatable({}, { __index = defaults }))\n"
