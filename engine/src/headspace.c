@@ -265,6 +265,7 @@ static void bounds(const part *P, int g, double *lo, double *hi)
     if (a > 0) *lo = fmax(*lo, -base / a);
     else *hi = fmin(*hi, base / -a);
   }
+  if (!isfinite(*lo)) *lo = 0;     /* no component bounds it: the liquid gives none */
 }
 
 /* delta_g with the other gases held: a bracket grown from the last value,
@@ -402,7 +403,10 @@ int eqpi_solution_dpH_dir(eqp_solution *s, const double *a, double w, double *dp
   struct eqpi_head *h = s->head;
   int act[16], n = 0;
   for (int g = 0; g < h->ng; g++)
-    if (h->on[g] && h->mol[g] > 0 && n < 16) act[n++] = g;
+    if (h->on[g] && h->mol[g] > 0) {
+      if (n >= 16) return eqpi_fail(ctx, EQP_E_INPUT, "more than 16 gases in a headspace");
+      act[n++] = g;
+    }
   if (!n) return EQP_OK;
   const int nt = s->ntotal;
   size_t bytes = sizeof(double) * ((size_t)nt * (size_t)n + (size_t)(n * n + 2 * n));

@@ -259,6 +259,33 @@ static void test_derivative(void **state)
   eqp_solution_free(s);
 }
 
+/* A titration of a sealed vial that ends at a pH: the last row is at that
+** pH, and the vial with that much acid added gives it again (each point
+** partitions the CO2) */
+static void test_titration_end(void **state)
+{
+  eqp_solution *s = make("davies", 0.010, 298.15);
+  eqp_solution_add_str(s, "NaHCO3", "0.2 mmol");
+  seal(s, 0.005, "CO2(g)", P_AIR);
+  eqp_titration t = EQP_TITRATION_INIT;
+  t.reagent = "HCl";
+  t.step = 0.02e-3;
+  t.until_pH = 6.0;
+  eqp_curve *c;
+  if (eqp_solution_titrate(s, &t, &c) != EQP_OK) fail_msg("%s", eqp_ctx_errmsg(ctx));
+  size_t n = eqp_curve_rows(c);
+  double v = eqp_curve_value(c, n - 1, 0), pH = eqp_curve_value(c, n - 1, 3);
+  assert_string_equal(eqp_curve_col_name(c, 3), "pH");
+  assert_close(pH, 6.0, 1e-9);
+  assert_int_equal(eqp_solution_add(s, "HCl", v, EQP_Q_AMOUNT), EQP_OK);
+  eqp_result *r = solve(s);
+  printf("  sealed vial to pH 6: %.6g mol HCl in %zu rows; again %.10f\n", v, n, eqp_result_pH(r));
+  assert_close(eqp_result_pH(r), 6.0, 1e-9);
+  eqp_result_free(r);
+  eqp_curve_free(c);
+  eqp_solution_free(s);
+}
+
 /* Sealed operations: refusals, copies, venting, a full vessel, the warning */
 static void test_rules(void **state)
 {
@@ -374,6 +401,7 @@ int main(void)
     cmocka_unit_test(test_tiny_headspace),
     cmocka_unit_test(test_conservation),
     cmocka_unit_test(test_derivative),
+    cmocka_unit_test(test_titration_end),
     cmocka_unit_test(test_rules),
     cmocka_unit_test(test_pressure_warning),
   };

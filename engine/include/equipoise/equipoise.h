@@ -549,7 +549,8 @@ typedef struct eqp_headspace {
 /* Seal s under a headspace; gases not named start at zero partial pressure.
 ** The initial gas (p V / R T at the solution's temperature) joins the
 ** vessel's totals. Sealed, a solution takes additions, stocks poured into
-** it, temperature changes and titrations (each point partitions); it
+** it, temperature changes, titrations (each point partitions) and the
+** derivatives (dpH, buffer capacity: the headspace follows); it
 ** refuses eqp_solution_expose, the adjustments (adjust, adjust_pH,
 ** fix_activity, load budgets), and being poured or mixed from, with
 ** EQP_E_INPUT: open it first (eqp_solution_unseal). EQP_E_INPUT also for a
