@@ -195,6 +195,7 @@ typedef struct part {
   int nt;
   double V, RT;
   int g;                   /* the gas a 1-D search moves */
+  int fresh;               /* the solved state is at the present deltas */
 } part;
 
 static int solve_now(part *P)
@@ -211,6 +212,7 @@ static int solve_now(part *P)
   }
   int rc = eqpi_system_solve(s->ctx, s->db, &s->sys, P->tot, s->T, P->model, P->st);
   if (rc == EQP_OK && P->amt) rc = eqpi_precipitate(s, P->tot, P->model, P->st, P->amt);
+  P->fresh = rc == EQP_OK;
   return rc;
 }
 
@@ -239,6 +241,10 @@ static double miss_of(const part *P, int g)
 static int miss(void *ud, double x, double *f)
 {
   part *P = ud;
+  if (P->fresh && P->s->head->delta[P->g] == x) {   /* solved there already */
+    *f = miss_of(P, P->g);
+    return 0;
+  }
   P->s->head->delta[P->g] = x;
   int rc = solve_now(P);
   if (rc < 0) return rc;
@@ -268,8 +274,9 @@ static void bounds(const part *P, int g, double *lo, double *hi)
   if (!isfinite(*lo)) *lo = 0;     /* no component bounds it: the liquid gives none */
 }
 
-/* delta_g with the other gases held: a bracket grown from the last value,
-** then Brent's method. */
+/* delta_g with the other gases held: a bracket from a Newton step (the
+** slope from the solved state's Jacobian, taken 20 % long so that it
+** usually passes the root), grown if it does not, then Brent's method. */
 static int one_gas(part *P, int g)
 {
   struct eqpi_head *h = P->s->head;
@@ -277,18 +284,21 @@ static int one_gas(part *P, int g)
   bounds(P, g, &lo, &hi);
   double scale = fmax(fmax(fabs(lo), fabs(hi)), 1e-300);
   double a = lo + EDGE * scale, b = hi - EDGE * scale;
-  if (!(a < b)) {                          /* nothing to move */
-    h->delta[g] = fmin(fmax(h->delta[g], lo), hi);
-    return solve_now(P);
-  }
-  double x0 = fmin(fmax(h->delta[g], a), b), last = h->delta[g];
   P->g = g;
+  if (!(a < b)) {                          /* nothing to move */
+    double x = fmin(fmax(h->delta[g], lo), hi);
+    return x == h->delta[g] && P->fresh ? EQP_OK : (h->delta[g] = x, solve_now(P));
+  }
+  double x0 = fmin(fmax(h->delta[g], a), b);
   int rc = miss(P, x0, &f0);
   if (rc < 0 || fabs(f0) <= F_TOL * 1e-2) return rc;
-  /* from the last equilibrium (a titration's next point) small steps first */
-  double step = (last != 0 ? 1e-6 : 1e-3) * scale, x1 = x0, f1 = f0;
+  double edge = f0 > 0 ? a : b, step = 1e-6 * scale, x1, f1;
+  double d, n = h->n0[g] - x0;
+  const eqp_solution *s = P->s;
+  if (eqpi_system_dlna(s->ctx, s->sys, P->dir + (size_t)g * P->nt, 0, s->water_kg,
+                       s->db->gases[g].species, &d) == EQP_OK && n > 0 && d + 1 / n > 0)
+    step = fmax(1.2 * fabs(f0) / (d + 1 / n), 1e-15 * scale);
   for (;;) {
-    double edge = f0 > 0 ? a : b;
     x1 = f0 > 0 ? fmax(x0 - step, a) : fmin(x0 + step, b);
     if ((rc = miss(P, x1, &f1)) < 0) return rc;
     if ((f1 > 0) != (f0 > 0) || f1 == 0) break;
@@ -297,6 +307,7 @@ static int one_gas(part *P, int g)
     f0 = f1;
     step *= 16;
   }
+  if (f1 == 0) return EQP_OK;
   rc = eqpi_brent_root(miss, P, fmin(x0, x1), fmax(x0, x1), x0 < x1 ? f0 : f1, x0 < x1 ? f1 : f0,
                        0.0, 200, &root);
   if (rc < 0 && rc != EQPI_BRENT_MAXIT) return rc > -1000 ? rc : EQP_E_CONVERGE;
@@ -318,7 +329,7 @@ int eqpi_headspace_solve(eqp_solution *s, const double *mol, eqpi_model *model,
   double *blk = eqpi_calloc(ctx, 1, bytes);
   if (!blk) return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
   part P = {s, model, st, amt, mol, blk, blk + nt, blk + nt + (size_t)nt * ng, nt, V,
-            R_ATM * s->T, 0};
+            R_ATM * s->T, 0, 0};
   /* the gases the vessel holds: in the headspace, or all of whose dissolved
   ** species' components the solution holds */
   int hc = db->sp[db->h_plus].component, nact = 0;
