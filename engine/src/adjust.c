@@ -129,6 +129,17 @@ int eqpi_system_dpH(eqp_ctx *ctx, eqpi_system *s, const double *a_global, double
   return rc;
 }
 
+/* d(ln a of a library species)/dv at the solved state (a closed
+** headspace couples its gases through these: headspace.c). */
+int eqpi_system_dlna(eqp_ctx *ctx, eqpi_system *s, const double *a_global, double w, double W,
+                     int species, double *d)
+{
+  if (!s || !s->solved) return eqpi_fail(ctx, EQP_E_ARG, "solve the solution first");
+  int X = local_species(s->tab, species);
+  if (X == ABSENT) return eqpi_fail(ctx, EQP_E_ARG, "the species is absent from the solution");
+  return measure_slope(ctx, s, a_global, w, W, X, 0, d);
+}
+
 /* ------------------------------------------------------------ measures */
 
 /* The target in ln units: ln a, or ln I. */

@@ -340,6 +340,28 @@ const char *eqp_solution_hazard_reagent(const eqp_solution *s, size_t i)
   return s && i < (size_t)s->nhazard ? s->db->rg[s->hazard[i]].name : NULL;
 }
 
+int eqpi_caution_note(eqp_ctx *ctx, const char *label, const char *text)
+{
+  if (ctx->caution_hold) return EQP_OK;
+  for (int i = 0; i < ctx->ncautions; i++)
+    if (strcmp(ctx->caution_rg[i], label) == 0) return EQP_OK;
+  if (eqpi_grow(ctx, &ctx->caution_rg, &ctx->capcaution_rg, ctx->ncautions + 1,
+                sizeof(char *)) < 0 ||
+      eqpi_grow(ctx, &ctx->caution_text, &ctx->capcautions, ctx->ncautions + 1,
+                sizeof(char *)) < 0)
+    return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
+  char *t = eqpi_strdup(ctx, text), *nm = eqpi_strdup(ctx, label);
+  if (!t || !nm) {
+    eqpi_strfree(ctx, t);
+    eqpi_strfree(ctx, nm);
+    return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
+  }
+  ctx->caution_rg[ctx->ncautions] = nm;
+  ctx->caution_text[ctx->ncautions++] = t;
+  eqpi_observe_caution(ctx, nm, t);
+  return EQP_OK;
+}
+
 /* ------------------------------------------------------------ gases */
 
 void eqpi_gas_used(eqp_ctx *ctx, const char *name)

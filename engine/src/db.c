@@ -144,6 +144,13 @@ const char *eqp_library_solid_name(const eqp_library *lib, size_t i)
   return lib && i < (size_t)lib->nsolids ? lib->solids[i].name : NULL;
 }
 
+size_t eqp_library_gas_count(const eqp_library *lib) { return lib ? (size_t)lib->ngases : 0; }
+
+const char *eqp_library_gas_name(const eqp_library *lib, size_t i)
+{
+  return lib && i < (size_t)lib->ngases ? lib->gases[i].name : NULL;
+}
+
 size_t eqp_ctx_species_count(const eqp_ctx *ctx)
 {
   return eqp_library_species_count(eqp_ctx_library(ctx));

@@ -86,6 +86,7 @@ static int molalities(eqp_solution *s, double *mol)
 int eqpi_solution_adjust(eqp_solution *s, eqpi_adjust *aj, int n, double *v, eqpi_solve_stats *st,
                          int *k, const char *what)
 {
+  if (s->head) return eqpi_head_refuse(s, what);
   int rc = eqpi_system_adjust(s->ctx, s->db, &s->sys, aj, n, v, st);
   while (rc == EQP_OK && s->model_default) {
     double I = eqpi_system_ionic_strength(s->sys);
@@ -116,7 +117,18 @@ int eqpi_solution_equilibrate_from(eqp_solution *s, int *kp, int follow, eqp_res
   if (rc == EQP_OK && !model)
     rc = eqpi_fail(ctx, EQP_E_PLUGIN, "activity model '%s' is not available",
                    eqpi_default_chain[k]);
-  if (rc == EQP_OK) rc = eqpi_system_solve(ctx, s->db, &s->sys, mol, s->T, model, &st);
+  /* solids allowed to form: the active set over the totals (the default
+  ** is none, so nothing of it runs); a sealed vessel's gases partition
+  ** around it (headspace.c) */
+  double *amt = NULL;
+  size_t amt_bytes = sizeof(double) * (size_t)(s->db->nsolids > 0 ? s->db->nsolids : 1);
+  int any = 0;
+  for (int j = 0; j < s->db->nsolids; j++) any |= eqpi_solution_allowed(s, j);
+  if (rc == EQP_OK && any && !(amt = eqpi_malloc(ctx, amt_bytes)))
+    rc = eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
+  if (rc == EQP_OK)
+    rc = s->head ? eqpi_headspace_solve(s, mol, model, &st, amt)
+                 : eqpi_system_solve(ctx, s->db, &s->sys, mol, s->T, model, &st);
   while (rc == EQP_OK && s->model_default && follow) {
     double I = eqpi_system_ionic_strength(s->sys);
     int next = eqpi_chain_choice(s, I, k);
@@ -127,18 +139,10 @@ int eqpi_solution_equilibrate_from(eqp_solution *s, int *kp, int follow, eqp_res
     }
     k = next;
     model = eqpi_chain_model(s, k);
-    rc = eqpi_system_solve(ctx, s->db, &s->sys, mol, s->T, model, &st);
+    rc = s->head ? eqpi_headspace_solve(s, mol, model, &st, amt)
+                 : eqpi_system_solve(ctx, s->db, &s->sys, mol, s->T, model, &st);
   }
-  /* solids allowed to form: the active set over the totals (the default
-  ** is none, so nothing here runs) */
-  double *amt = NULL;
-  size_t amt_bytes = sizeof(double) * (size_t)(s->db->nsolids > 0 ? s->db->nsolids : 1);
-  int any = 0;
-  for (int j = 0; j < s->db->nsolids; j++) any |= eqpi_solution_allowed(s, j);
-  if (rc == EQP_OK && any) {
-    if (!(amt = eqpi_malloc(ctx, amt_bytes))) rc = eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
-    else rc = eqpi_precipitate(s, mol, model, &st, amt);
-  }
+  if (rc == EQP_OK && any && !s->head) rc = eqpi_precipitate(s, mol, model, &st, amt);
   if (mol != stack) eqpi_free(ctx, mol, sizeof(double) * (size_t)s->ntotal);
   if (rc == EQP_OK) {
     st.solute_L = s->solute_L;
@@ -149,6 +153,10 @@ int eqpi_solution_equilibrate_from(eqp_solution *s, int *kp, int follow, eqp_res
     rc = eqpi_result_make(ctx, s->db, s->sys, model, s->T, s->water_kg, &st, out);
     if (rc == EQP_OK && amt &&
         (rc = eqpi_result_set_solids(*out, amt, s->db->nsolids, s->water_kg)) < 0) {
+      eqp_result_free(*out);
+      *out = NULL;
+    }
+    if (rc == EQP_OK && s->head && (rc = eqpi_headspace_result(s, *out)) < 0) {
       eqp_result_free(*out);
       *out = NULL;
     }

@@ -79,6 +79,7 @@ int eqpi_opts_read(eqp_ctx *ctx, const char *type, const void *user, void *local
 #define EQPI_COMPARE_SPEC_0_1 EQPI_SIZE_UPTO(eqp_compare_spec, window)
 /* Structs first published after 0.1.0: their first sizes. */
 #define EQPI_TARGET_FIRST EQPI_SIZE_UPTO(eqp_target, litres)
+#define EQPI_HEADSPACE_FIRST EQPI_SIZE_UPTO(eqp_headspace, p_atm)
 
 /* ---------------------------------------------------------- formulas */
 
@@ -551,6 +552,9 @@ struct eqp_ctx {
 ** provenance of the run). */
 void eqpi_gas_used(eqp_ctx *ctx, const char *name);
 int eqpi_gas_was_used(const eqp_ctx *ctx, const char *name);
+/* A caution of the run not tied to a reagent (a sealed vessel), recorded
+** once under its label, as a reagent's is (caution.c). */
+int eqpi_caution_note(eqp_ctx *ctx, const char *label, const char *text);
 
 /* ---------------------------------------------------------- log */
 
@@ -694,6 +698,9 @@ int eqpi_system_fix(eqp_ctx *ctx, const eqpi_db *db, eqpi_system **sysp, const d
 /* dpH/dv of the solved system for a direction (global components). */
 int eqpi_system_dpH(eqp_ctx *ctx, eqpi_system *s, const double *a_global, double w, double W,
                     double *dpH);
+/* d(ln a of library species `species`)/dv along a direction, as eqpi_system_dpH. */
+int eqpi_system_dlna(eqp_ctx *ctx, eqpi_system *s, const double *a_global, double w, double W,
+                     int species, double *d);
 /* After a successful solve: species count, global index, molality, log10 g,
 ** and the ionic strength. */
 int eqpi_system_nspecies(const eqpi_system *sys);

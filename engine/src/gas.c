@@ -18,6 +18,7 @@ int eqp_solution_expose(eqp_solution *s, const char *gas, double p_atm, double *
 {
   if (!s || !gas) return eqpi_fail(s ? s->ctx : NULL, EQP_E_ARG, "NULL argument");
   eqp_ctx *ctx = s->ctx;
+  if (s->head) return eqpi_head_refuse(s, "exposure to a gas");
   const eqpi_db *db = s->db;
   const eqpi_gas *g = find_gas(db, gas);
   if (!g) return eqpi_fail(ctx, EQP_E_UNKNOWN, "unknown gas '%s'", gas);

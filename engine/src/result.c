@@ -7,6 +7,8 @@
 #include <string.h>
 
 #define MAX_WARN 8
+#define MAX_GASES 16      /* gases of a headspace reported */
+#define P_WARN 2.0        /* atm: a headspace beyond it is warned of */
 
 struct eqp_result {
   eqp_ctx *ctx;
@@ -23,6 +25,10 @@ struct eqp_result {
   int nsolid;                   /* solids present (precipitate.c) */
   int solid_k[EQPI_MAX_SOLIDS_PRESENT];
   double solid_mol[EQPI_MAX_SOLIDS_PRESENT];
+  int sealed, ngas;             /* a closed headspace (headspace.c) */
+  double head_L, head_pw;
+  int gas_k[MAX_GASES];
+  double gas_p[MAX_GASES], gas_mol[MAX_GASES];
 };
 
 /* The warnings of a state are written twice: once to size the result's
@@ -114,6 +120,7 @@ int eqpi_result_make(eqp_ctx *ctx, const eqpi_db *db, const eqpi_system *sys,
   r->residual = st->residual;
   r->iters = st->iterations;
   r->nsolid = 0;
+  r->sealed = r->ngas = 0;
   r->model = model->desc->name;
   r->nwarn = w.n;
   if (w.n) {
@@ -322,6 +329,80 @@ const char *eqp_result_solid_name(const eqp_result *r, size_t i, double *mol)
   if (!r || i >= (size_t)r->nsolid) return NULL;
   if (mol) *mol = r->solid_mol[i];
   return r->db->solids[r->solid_k[i]].name;
+}
+
+int eqpi_result_set_gases(eqp_result *r, double litres, double p_water, int n,
+                          const unsigned char *on, const double *p, const double *mol,
+                          const char *note)
+{
+  if (note) eqpi_warn(r->ctx, "temperature", note);
+  r->sealed = 1;
+  r->head_L = litres;
+  r->head_pw = p_water;
+  r->ngas = 0;
+  double total = p_water;
+  for (int g = 0; g < n; g++) {
+    if (!on[g]) continue;
+    if (r->ngas >= MAX_GASES)
+      return eqpi_fail(r->ctx, EQP_E_INPUT, "more than %d gases in a headspace", MAX_GASES);
+    r->gas_k[r->ngas] = g;
+    r->gas_p[r->ngas] = p[g];
+    r->gas_mol[r->ngas++] = mol[g];
+    total += p[g];
+  }
+  if (total > P_WARN) {
+    /* Henry's law and the ideal gas are low-pressure laws; a vessel has a rating */
+    char w[512];
+    snprintf(w, sizeof w, "the sealed headspace is at %.3g atm (its gases and %.3g atm of water "
+             "vapour) at %.1f C: beyond %g atm Henry's law and the ideal gas lose accuracy, and "
+             "the vessel may not hold the pressure; check its rating, vent slowly, and follow "
+             "the safety data sheets and local practice", total, p_water, r->T - 273.15, P_WARN);
+    eqpi_warn(r->ctx, "pressure", w);
+  }
+  return EQP_OK;
+}
+
+int eqp_result_headspace(const eqp_result *r, double *litres, double *p_total_atm,
+                         double *p_water_atm)
+{
+  if (!r) return EQP_E_ARG;
+  if (!r->sealed) return 0;
+  double total = r->head_pw;
+  for (int q = 0; q < r->ngas; q++) total += r->gas_p[q];
+  if (litres) *litres = r->head_L;
+  if (p_total_atm) *p_total_atm = total;
+  if (p_water_atm) *p_water_atm = r->head_pw;
+  return 1;
+}
+
+int eqp_result_gas(const eqp_result *r, const char *gas, double *p_atm, double *mol)
+{
+  if (!r || !gas) return EQP_E_ARG;
+  int g = eqpi_db_find_gas(r->db, gas);
+  if (g < 0) {
+    char list[256] = "";
+    size_t m = 0;
+    for (int j = 0; j < r->db->ngases && m < sizeof list; j++)
+      m += (size_t)snprintf(list + m, sizeof list - m, "%s%s", j ? ", " : "", r->db->gases[j].name);
+    return eqpi_fail(r->ctx, EQP_E_UNKNOWN, "unknown gas '%s' (the library's gases: %s)", gas,
+                     r->db->ngases ? list : "none");
+  }
+  double pv = 0, nv = 0;
+  for (int q = 0; q < r->ngas; q++)
+    if (r->gas_k[q] == g) { pv = r->gas_p[q]; nv = r->gas_mol[q]; }
+  if (p_atm) *p_atm = pv;
+  if (mol) *mol = nv;
+  return EQP_OK;
+}
+
+size_t eqp_result_gas_count(const eqp_result *r) { return r ? (size_t)r->ngas : 0; }
+
+const char *eqp_result_gas_name(const eqp_result *r, size_t i, double *p_atm, double *mol)
+{
+  if (!r || i >= (size_t)r->ngas) return NULL;
+  if (p_atm) *p_atm = r->gas_p[i];
+  if (mol) *mol = r->gas_mol[i];
+  return r->db->gases[r->gas_k[i]].name;
 }
 
 size_t eqp_ctx_solid_count(const eqp_ctx *ctx) { return ctx ? (size_t)ctx->db->nsolids : 0; }

@@ -42,6 +42,23 @@ char *eqp_result_to_json(const eqp_result *r)
       cJSON_AddNumberToObject(so, name, mol);
     }
   }
+  double V, pt, pw;
+  if (eqp_result_headspace(r, &V, &pt, &pw) == 1) {   /* only for a sealed solution */
+    cJSON *hs = cJSON_AddObjectToObject(o, "headspace");
+    cJSON_AddNumberToObject(hs, "volume", V);
+    cJSON_AddNumberToObject(hs, "pressure", pt);
+    cJSON_AddNumberToObject(hs, "water_vapour", pw);
+    cJSON *gs = cJSON_AddArrayToObject(hs, "gases");
+    for (size_t i = 0; gs && i < eqp_result_gas_count(r); i++) {
+      double p, mol;
+      const char *name = eqp_result_gas_name(r, i, &p, &mol);
+      cJSON *e = cJSON_CreateObject();
+      cJSON_AddStringToObject(e, "name", name);
+      cJSON_AddNumberToObject(e, "pressure", p);
+      cJSON_AddNumberToObject(e, "mol", mol);
+      cJSON_AddItemToArray(gs, e);
+    }
+  }
   cJSON *w = cJSON_AddArrayToObject(o, "warnings");
   for (size_t i = 0; w && i < eqp_result_warning_count(r); i++)
     cJSON_AddItemToArray(w, cJSON_CreateString(eqp_result_warning(r, i)));
@@ -86,6 +103,16 @@ char *eqp_result_to_text(const eqp_result *r)
   for (size_t i = 0; i < n; i++)
     fprintf(f, "  %-16s %12.5g %14.6e %8.4f\n", rows[i].name, rows[i].m * rho * 1e3, rows[i].m,
             pow(10.0, rows[i].lg));
+  double V, pt, pw;
+  if (eqp_result_headspace(r, &V, &pt, &pw) == 1) {
+    fprintf(f, "  headspace %.4g mL at %.4g atm (water vapour %.3g atm)\n", V * 1e3, pt, pw);
+    fprintf(f, "  %-16s %12s %14s\n", "gas", "atm", "mol");
+    for (size_t i = 0; i < eqp_result_gas_count(r); i++) {
+      double p, mol;
+      const char *name = eqp_result_gas_name(r, i, &p, &mol);
+      fprintf(f, "  %-16s %12.5g %14.6e\n", name, p, mol);
+    }
+  }
   for (size_t i = 0; i < eqp_result_warning_count(r); i++)
     fprintf(f, "  warning: %s\n", eqp_result_warning(r, i));
   int bad = ferror(f);

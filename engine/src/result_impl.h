@@ -19,4 +19,12 @@ eqp_ctx *eqpi_result_ctx(const eqp_result *r);
 ** over the library's n solids). */
 int eqpi_result_set_solids(eqp_result *r, const double *amounts, int n, double water_kg);
 
+/* Give result r a headspace: volume (L), water vapour (atm) and, over the
+** library's n gases, those on with their pressure (atm) and mol; warns of
+** a total pressure above 2 atm, and passes note (if not NULL) on as a
+** temperature warning. */
+int eqpi_result_set_gases(eqp_result *r, double litres, double p_water, int n,
+                          const unsigned char *on, const double *p, const double *mol,
+                          const char *note);
+
 #endif

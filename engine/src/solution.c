@@ -110,6 +110,7 @@ void eqp_solution_free(eqp_solution *s)
   eqpi_free(ctx, s->total, sizeof(double) * (size_t)s->ntotal);
   eqpi_solution_hazards_free(s);
   eqpi_free(ctx, s->allow, (size_t)(s->nallow > 0 ? s->nallow : 1));
+  eqpi_head_free(s);
   eqpi_db_release(s->db);
   eqpi_free(ctx, s, sizeof *s);
 }
@@ -148,6 +149,11 @@ int eqp_solution_copy(const eqp_solution *s, eqp_solution **out)
   }
   c->solute_L = s->solute_L;
   c->unknown_g = s->unknown_g;
+  if ((rc = eqpi_head_copy(c, s)) < 0) {
+    eqp_solution_free(c);
+    *out = NULL;
+    return rc;
+  }
   for (int i = 0; i < s->nparams; i++)
     if ((rc = eqp_solution_set_activity_param(c, s->pname[i], s->pvalue[i])) < 0) {
       eqp_solution_free(c);
@@ -417,6 +423,7 @@ int eqp_solution_pour(eqp_solution *s, const eqp_solution *stock, double litres)
   if (!isfinite(litres) || litres < 0)
     return eqpi_fail(s->ctx, EQP_E_INPUT, "volume to pour must be a non-negative number");
   if (stock == s) return eqpi_fail(s->ctx, EQP_E_INPUT, "a solution cannot be poured into itself");
+  if (stock->head) return eqpi_head_refuse((eqp_solution *)stock, "pouring from it");
   int rc = eqpi_solution_grow(s);
   if (rc < 0 || (litres > 0 && (rc = eqpi_use_stock(s, stock)) < 0)) return rc;
   /* the stock is a reservoir: a portion of its composition, by volume of
@@ -506,7 +513,7 @@ int eqp_solution_dpH(eqp_solution *s, const char *reagent, double *dpH_dmol)
   double *a = eqpi_calloc(s->ctx, (size_t)s->ntotal + 1, sizeof(double)), w;
   if (!a) return eqpi_fail(s->ctx, EQP_E_NOMEM, "out of memory");
   eqpi_reagent_dir(s, r, a, &w, 1.0);
-  rc = eqpi_system_dpH(s->ctx, s->sys, a, w, s->water_kg, dpH_dmol);
+  rc = eqpi_solution_dpH_dir(s, a, w, dpH_dmol);
   eqpi_free(s->ctx, a, sizeof(double) * ((size_t)s->ntotal + 1));
   return rc;
 }

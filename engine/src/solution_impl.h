@@ -35,6 +35,8 @@ struct eqp_solution {
   int allow_all;
   unsigned char *allow;
   int nallow;
+  /* a closed headspace (headspace.c); NULL when open */
+  struct eqpi_head *head;
 };
 
 int eqpi_find_reagent(eqp_solution *s, const char *name, const eqpi_reagent **r);
@@ -100,5 +102,23 @@ int eqpi_solution_allowed(const eqp_solution *s, int k);
 ** amounts (one per solid of the library) holds mol/kg of each phase. */
 int eqpi_precipitate(eqp_solution *s, const double *mol, eqpi_model *model,
                      eqpi_solve_stats *st, double *amounts);
+
+/* headspace.c. The gases of a sealed solution partitioned over the liquid's
+** totals mol (mol/kg, before any exchange) with model: s->sys ends solved
+** for the dissolved totals (and amt, if not NULL, holds the solids' amounts,
+** as eqpi_precipitate); the record keeps each gas's pressure and amount. */
+int eqpi_headspace_solve(eqp_solution *s, const double *mol, eqpi_model *model,
+                         eqpi_solve_stats *st, double *amt);
+/* Give r the headspace of the last eqpi_headspace_solve. */
+int eqpi_headspace_result(const eqp_solution *s, eqp_result *r);
+/* dpH/dv along a direction (a over the library's components, w kg of water
+** per unit) at the solved state, the headspace's gases following. */
+int eqpi_solution_dpH_dir(eqp_solution *s, const double *a, double w, double *dpH);
+/* Refuse an operation a sealed solution cannot do (EQP_E_INPUT). */
+int eqpi_head_refuse(eqp_solution *s, const char *what);
+int eqpi_head_copy(eqp_solution *dst, const eqp_solution *src);
+void eqpi_head_free(eqp_solution *s);
+/* Saturation vapour pressure of water at T (K), atm. */
+double eqpi_water_vapour_atm(double T);
 
 #endif

@@ -33,7 +33,7 @@ static int state_at(eqp_solution *w, const eqp_solution *base, const titrant *t,
   int rc = eqpi_solution_equilibrate(w, &r);
   if (rc < 0) return rc;
   *pH = eqp_result_pH(r);
-  rc = eqpi_system_dpH(w->ctx, w->sys, t->a, t->w, w->water_kg, dpH);
+  rc = eqpi_solution_dpH_dir(w, t->a, t->w, dpH);
   if (keep) *keep = r;
   else eqp_result_free(r);
   return rc;
@@ -78,11 +78,44 @@ static int refine(eqp_solution *w, const eqp_solution *base, const titrant *t, d
   return rc;
 }
 
+typedef struct until_ud {
+  eqp_solution *w;
+  const eqp_solution *base;
+  const titrant *t;
+  double target;
+} until_ud;
+
+/* pH - target at v units of titrant, the sealed headspace following. */
+static int sealed_miss(void *ud, double v, double *f)
+{
+  until_ud *u = ud;
+  for (int c = 0; c < u->w->ntotal; c++) u->w->total[c] = u->base->total[c] + v * u->t->a[c];
+  u->w->water_kg = u->base->water_kg + v * u->t->w;
+  eqp_result *r;
+  int rc = eqpi_solution_equilibrate(u->w, &r);
+  if (rc < 0) return rc;
+  *f = eqp_result_pH(r) - u->target;
+  eqp_result_free(r);
+  return 0;
+}
+
 /* The amount of titrant in [v, v + h] that brings the pH to the target:
-** one solve with the H+ activity fixed and the amount unknown. */
+** one solve with the H+ activity fixed and the amount unknown; for a sealed
+** solution (whose gases partition around each solve), Brent's method on
+** its equilibria, the pH monotone in the titrant over the step. */
 static int until_at(eqp_solution *w, const eqp_solution *base, const titrant *t, double v,
                     double h, double pH_target, double *vend)
 {
+  if (w->head) {
+    until_ud u = {w, base, t, pH_target};
+    double fa, fb;
+    int rc = sealed_miss(&u, v, &fa);
+    if (rc == EQP_OK) rc = sealed_miss(&u, v + h, &fb);
+    if (rc == EQP_OK) rc = eqpi_brent_root(sealed_miss, &u, v, v + h, fa, fb, 0.0, 200, vend);
+    if (rc == EQPI_BRENT_MAXIT) rc = EQP_OK;
+    return rc > -1000 ? rc : eqpi_fail(w->ctx, EQP_E_CONVERGE, "titration: the end at pH %g "
+                                       "was not found in the last step", pH_target);
+  }
   eqpi_adjust aj = {.N0 = base->total, .a = t->a, .W0 = base->water_kg, .w = t->w, .T = base->T,
                     .model = &w->model, .pH = pH_target, .v0 = v, .vmin = v, .vmax = v + h,
                     .what = "the titrant", .vmax_text = "the last step", .kind = EQPI_ADJ_PH};

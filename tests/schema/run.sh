@@ -33,6 +33,8 @@ for ex in "$SRC"/scripts/examples/*.lua; do
     fail=1
   fi
 done
+# a sealed vessel: the headspace of its results
+(cd "$TMP" && "$EQP" run "$SRC/tests/e2e/cases/sealed_vial.lua" --json >"$TMP/run_sealed.json" 2>/dev/null)
 # a run that fails half-way is one valid document too
 "$EQP" run "$SRC/tests/e2e/cases/negative.lua" --json >"$TMP/run_error.json"
 "$PY" "$SRC/tests/schema/validate.py" "$SCHEMA" run "$DOC" "$TMP"/run*.json || fail=1

@@ -76,6 +76,10 @@ static void test_numbers_as_names(void **state)
            "eq.recipe: using[1] must be a string; got the number 1234567.5");
   tortured("eq.solution{}:add(1234567.5, '1 mmol')", "add: the reagent must be a string");
   tortured("eq.solution{}:equilibrate():molality(1.5)", "species must be a string");
+  /* the gases' names are the keys of the script's table, used while it lives */
+  tortured("local s = eq.solution{} s:add('NaHCO3', '1 mmol')\n"
+           "s:seal{ headspace = '5 mL', gases = { ['CO2' .. '(g)'] = '1e-3 atm', "
+           "['O2' .. '(g)'] = '0.2 atm' } } s:equilibrate()", NULL);
 }
 
 /* Options read through __index are fresh strings that only the binding
@@ -245,6 +249,21 @@ static void test_types_and_ranges(void **state)
   refused("eq.solution{}:expose('CO2(g)', '1e9 atm')", 1,
           "is out of range (between 0 and 100 atm)");
   refused("eq.solution{}:set_temperature({ 37 })", 1, "set_temperature: temperature must be");
+  refused("eq.solution{}:seal{ headspce = '5 mL' }", 1,
+          "seal: unknown option 'headspce' (did you mean 'headspace'?)");
+  refused("eq.solution{}:seal{ gases = {} }", 1, "headspace is required");
+  refused("eq.solution{}:seal{ headspace = '5 g' }", 1, "seal: headspace");
+  refused("eq.solution{}:seal{ headspace = '5 mL', gases = { ['co2(g)'] = '1 atm' } }", 1,
+          "unknown gas 'co2(g)' (did you mean 'CO2(g)'?)");
+  refused("eq.solution{}:seal{ headspace = '5 mL', gases = { 'CO2(g)' } }", 1,
+          "gases is keyed by the gases' names");
+  refused("eq.solution{}:seal{ headspace = '5 mL', gases = { ['CO2(g)'] = '1 mL' } }", 1,
+          "seal: the partial pressure of CO2(g)");
+  refused("local s = eq.solution{} s:seal{ headspace = '5 mL' } s:expose('CO2(g)', '1 atm')", 1,
+          "sealed under a headspace");
+  ok("local s = eq.solution{} s:add('NaHCO3', '1 mmol') s:seal{ headspace = '5 mL' } "
+     "local p, n = s:equilibrate():gas('CO2(g)') assert(p > 0 and n > 0 and s:sealed()) "
+     "assert(eq.solution{}:equilibrate().headspace == nil)");
 }
 
 /* nan and inf anywhere in options or amounts */
@@ -595,6 +614,10 @@ static void test_every_option_accepted(void **state)
      "local k = eq.compare_buffers{ pH = 7, total = '50 mM', volume = '1 L', temperature = 25,\n"
      "  load = '1 mM', load_with = 'NaOH', window = 0.2, activity = 'davies', quiet = true }\n"
      "assert(#c > 0 and #d > 0 and lb.acid_mmol > 0 and #r.items > 0 and #u.items > 0 and #k > 0)");
+  ok("local v = eq.solution{ volume = '10 mL' } v:add('NaHCO3', '0.1 mmol')\n"
+     "v:seal{ headspace = '5 mL', gases = { ['CO2(g)'] = '426.9 uatm', ['O2(g)'] = '0.21 atm' } }\n"
+     "local h = v:equilibrate().headspace\n"
+     "assert(h.volume > 0 and h.pressure > 0.2 and h.gases['CO2(g)'].mol > 0)");
   /* options inherited through a metatable are read */
   ok("local defaults = { temperature = 37 }\n"
      "local s = eq.solution(setmetatable({}, { __index = defaults }))\n"

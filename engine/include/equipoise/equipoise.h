@@ -215,6 +215,8 @@ EQP_API size_t eqp_library_buffer_count(const eqp_library *lib);
 EQP_API const char *eqp_library_buffer_name(const eqp_library *lib, size_t i);
 EQP_API size_t eqp_library_solid_count(const eqp_library *lib);
 EQP_API const char *eqp_library_solid_name(const eqp_library *lib, size_t i);
+EQP_API size_t eqp_library_gas_count(const eqp_library *lib);
+EQP_API const char *eqp_library_gas_name(const eqp_library *lib, size_t i);
 
 /* The contents of the context's library, as eqp_library_* on
 ** eqp_ctx_library(ctx). Borrowed from that library. */
@@ -525,6 +527,44 @@ EQP_API int eqp_solution_fix_activity(eqp_solution *s, const char *component, do
 ** activity Henry's law gives (a = K_H p at the solution's temperature).
 ** *mol receives the amount taken up (negative: released). */
 EQP_API int eqp_solution_expose(eqp_solution *s, const char *gas, double p_atm, double *mol);
+
+/* A closed headspace over the solution: a sealed vial, bottle or flask.
+** Every gas of the library (CO2(g), NH3(g), O2(g), N2(g), ...) then
+** partitions between the solution and the headspace at each equilibrium:
+** the headspace is an ideal gas (n = pV/RT at the solution's temperature)
+** and the dissolved species has the activity Henry's law gives, a = K_H p,
+** while the total of each component (solution + headspace) is conserved.
+** The vessel's volume is fixed at sealing (headspace + liquid): what is
+** added later (through a septum) takes headspace away. Design, equations
+** and their limits: docs/methods.md. */
+typedef struct eqp_headspace {
+  size_t size;                  /* sizeof(eqp_headspace): set by the INIT macro */
+  double litres;                /* the headspace's volume at sealing, L; > 0 */
+  size_t ngases;                /* gases in the headspace when it is sealed */
+  const char *const *gases;     /* their names, such as "CO2(g)" (ngases) */
+  const double *p_atm;          /* their partial pressures at sealing, atm, >= 0 (ngases) */
+} eqp_headspace;
+#define EQP_HEADSPACE_INIT \
+  { .size = sizeof(eqp_headspace), .litres = 0, .ngases = 0, .gases = NULL, .p_atm = NULL }
+/* Seal s under a headspace; gases not named start at zero partial pressure.
+** The initial gas (p V / R T at the solution's temperature) joins the
+** vessel's totals. Sealed, a solution takes additions, stocks poured into
+** it, temperature changes, titrations (each point partitions) and the
+** derivatives (dpH, buffer capacity: the headspace follows); it
+** refuses eqp_solution_expose, the adjustments (adjust, adjust_pH,
+** fix_activity, load budgets), and being poured or mixed from, with
+** EQP_E_INPUT: open it first (eqp_solution_unseal). EQP_E_INPUT also for a
+** solution already sealed, a volume <= 0 or a pressure out of range;
+** EQP_E_UNKNOWN for a gas the library does not define. A result of a sealed
+** solution warns when the headspace's total pressure (its gases and water
+** vapour) exceeds 2 atm, and a run that seals a vessel carries the caution
+** that gas evolution pressurizes closed vessels. */
+EQP_API int eqp_solution_seal(eqp_solution *s, const eqp_headspace *opts);
+/* Open a sealed solution: the gas in the headspace at equilibrium is let go
+** (vented), the solution keeps what is dissolved. A no-op when open. */
+EQP_API int eqp_solution_unseal(eqp_solution *s);
+/* 1 when s is sealed under a headspace, 0 when open (or s NULL). */
+EQP_API int eqp_solution_sealed(const eqp_solution *s);
 
 EQP_API double eqp_solution_water(const eqp_solution *s);         /* kg */
 EQP_API double eqp_solution_temperature_K(const eqp_solution *s);
@@ -885,6 +925,21 @@ EQP_API int eqp_result_solid(const eqp_result *r, const char *solid, double *mol
 /* The solids present, by index 0 .. count-1: name (borrowed) and *mol. */
 EQP_API size_t eqp_result_solid_count(const eqp_result *r);
 EQP_API const char *eqp_result_solid_name(const eqp_result *r, size_t i, double *mol);
+/* The headspace of a result of a sealed solution: its volume (L), its
+** total pressure (atm: the gases that partition plus water vapour) and the
+** water vapour's partial pressure (atm); any pointer may be NULL. Returns
+** 1 for a sealed solution, 0 (the outputs untouched) for an open one. */
+EQP_API int eqp_result_headspace(const eqp_result *r, double *litres, double *p_total_atm,
+                                 double *p_water_atm);
+/* A gas of the headspace: partial pressure (atm) and mol in the gas phase
+** (both 0 when the headspace holds none of it, or for an open solution).
+** EQP_E_UNKNOWN for a gas the library does not define. */
+EQP_API int eqp_result_gas(const eqp_result *r, const char *gas, double *p_atm, double *mol);
+/* The gases of the headspace, by index 0 .. count-1 (those the vessel
+** holds any of): name (borrowed), *p_atm and *mol, either may be NULL. */
+EQP_API size_t eqp_result_gas_count(const eqp_result *r);
+EQP_API const char *eqp_result_gas_name(const eqp_result *r, size_t i, double *p_atm,
+                                        double *mol);
 EQP_API size_t eqp_ctx_solid_count(const eqp_ctx *ctx);
 EQP_API const char *eqp_ctx_solid_name(const eqp_ctx *ctx, size_t i);
 

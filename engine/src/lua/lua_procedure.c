@@ -271,6 +271,89 @@ static int sol_total(lua_State *L)
   return 1;
 }
 
+static const eqpl_opt seal_opts[] = {
+  {"headspace", EQPL_QUANTITY, EQP_Q_VOLUME, 0, EQPL_MAX_WATER, EQPL_ABOVE | EQPL_REQUIRED,
+   "the volume of gas above the liquid, such as '5 mL'"},
+  {"gases", EQPL_ANY, 0, 0, 0, 0, NULL},
+  {NULL, 0, 0, 0, 0, 0, NULL},
+};
+
+/* s:seal{ headspace = "5 mL", gases = { ["CO2(g)"] = "426.9 uatm", ... } } */
+static int sol_seal(lua_State *L)
+{
+  eqpl_solution *u = eqpl_check_solution(L, 1);
+  eqp_ctx *ctx = eqpl_ctx_of(L);
+  char buf[96];
+  if (!lua_istable(L, 2))
+    return eqpl_input_error(L, "seal: a table of options, such as { headspace = '5 mL', gases = "
+                            "{ ['CO2(g)'] = '426.9 uatm' } }; got %s",
+                            eqpl_describe(L, 2, buf, sizeof buf));
+  eqpl_val v[2];
+  eqpl_options(L, 2, "seal", seal_opts, v, 0);
+  eqp_headspace h = EQP_HEADSPACE_INIT;
+  h.litres = v[0].num;
+  const eqp_library *lib = eqp_solution_library(u->s);
+  size_t nlib = eqp_library_gas_count(lib), n = 0;
+  const char **all = lua_newuserdatauv(L, sizeof(char *) * (nlib + 1), 0);   /* anchored */
+  for (size_t j = 0; j < nlib; j++) all[j] = eqp_library_gas_name(lib, j);
+  const char **names = NULL;
+  double *p = NULL;
+  if (v[1].given) {
+    if (!lua_istable(L, v[1].idx))
+      return eqpl_input_error(L, "seal: gases must be a table of partial pressures, such as "
+                              "{ ['CO2(g)'] = '426.9 uatm' }; got %s",
+                              eqpl_describe(L, v[1].idx, buf, sizeof buf));
+    size_t cap = 0;
+    lua_pushnil(L);
+    while (lua_next(L, v[1].idx)) { cap++; lua_pop(L, 1); }
+    names = lua_newuserdatauv(L, sizeof(char *) * (cap + 1), 0);
+    p = lua_newuserdatauv(L, sizeof(double) * (cap + 1), 0);
+    lua_pushnil(L);
+    while (lua_next(L, v[1].idx)) {
+      if (lua_type(L, -2) != LUA_TSTRING || n >= cap)
+        return eqpl_input_error(L, "seal: gases is keyed by the gases' names, such as "
+                                "{ ['CO2(g)'] = '426.9 uatm' }; it has the key %s",
+                                eqpl_describe(L, -2, buf, sizeof buf));
+      size_t len;
+      const char *g = lua_tolstring(L, -2, &len);   /* a string key: no conversion */
+      int known = 0;
+      for (size_t j = 0; j < nlib && !known; j++) known = strcmp(all[j], g) == 0;
+      if (!known) {
+        const char *near = eqpl_nearest(g, len, all, nlib);
+        if (near) return eqpl_input_error(L, "seal: unknown gas '%s' (did you mean '%s'?)", g, near);
+      }
+      char what[160];
+      snprintf(what, sizeof what, "seal: the partial pressure of %s", g);
+      p[n] = eqpl_check_quantity(L, -1, what, EQP_Q_PRESSURE, 0, EQPL_MAX_PRESSURE, 0, NULL);
+      names[n++] = g;          /* the key stays in the table, which the stack anchors */
+      lua_pop(L, 1);
+    }
+  }
+  h.ngases = n;
+  h.gases = names;
+  h.p_atm = p;
+  int rc = eqp_solution_seal(u->s, &h);
+  if (rc < 0) return eqpl_fail(L, ctx, rc);
+  return 0;
+}
+
+/* s:unseal(): the headspace's gas let go */
+static int sol_unseal(lua_State *L)
+{
+  eqpl_solution *u = eqpl_check_solution(L, 1);
+  int rc = eqp_solution_unseal(u->s);
+  if (rc < 0) return eqpl_fail(L, eqpl_ctx_of(L), rc);
+  return 0;
+}
+
+/* s:sealed() -> true under a headspace */
+static int sol_sealed(lua_State *L)
+{
+  eqpl_solution *u = eqpl_check_solution(L, 1);
+  lua_pushboolean(L, eqp_solution_sealed(u->s));
+  return 1;
+}
+
 static const eqpl_opt titrate_opts[] = {
   {"with", EQPL_ANY, 0, 0, 0, EQPL_REQUIRED, "a reagent name or a stock solution"},
   {"step", EQPL_ANY, 0, 0, 0, EQPL_REQUIRED, "the largest step, such as '0.1 mL' or '0.05 mmol'"},
@@ -330,6 +413,9 @@ static const luaL_Reg procedure_methods[] = {
   {"load_budget", sol_load_budget},
   {"total", sol_total},
   {"expose", sol_expose},
+  {"seal", sol_seal},
+  {"unseal", sol_unseal},
+  {"sealed", sol_sealed},
   {"titrate", sol_titrate},
   {NULL, NULL},
 };

@@ -57,6 +57,49 @@ static int result_solid(lua_State *L)
   return per_species(L, eqp_result_solid, "r:solid(name)");
 }
 
+/* r:gas("CO2(g)") -> partial pressure in the headspace (atm), mol in the gas phase */
+static int result_gas(lua_State *L)
+{
+  eqp_result *r = check_result(L, 1);
+  double p, mol;
+  if (eqp_result_gas(r, eqpl_check_name(L, 2, "gas"), &p, &mol) < 0)
+    return eqpl_fail(L, eqpl_ctx_of(L), EQP_E_UNKNOWN);
+  lua_pushnumber(L, p);
+  lua_pushnumber(L, mol);
+  return 2;
+}
+
+/* r.headspace: { volume = L, pressure = atm, water_vapour = atm, gases = { [name] = { pressure
+** = atm, mol = mol } } }, or nil for an open solution */
+static void push_headspace(lua_State *L, const eqp_result *r)
+{
+  double V, pt, pw;
+  if (eqp_result_headspace(r, &V, &pt, &pw) != 1) {
+    lua_pushnil(L);
+    return;
+  }
+  lua_createtable(L, 0, 4);
+  lua_pushnumber(L, V);
+  lua_setfield(L, -2, "volume");
+  lua_pushnumber(L, pt);
+  lua_setfield(L, -2, "pressure");
+  lua_pushnumber(L, pw);
+  lua_setfield(L, -2, "water_vapour");
+  size_t n = eqp_result_gas_count(r);
+  lua_createtable(L, 0, (int)n);
+  for (size_t i = 0; i < n; i++) {
+    double p, mol;
+    const char *name = eqp_result_gas_name(r, i, &p, &mol);
+    lua_createtable(L, 0, 2);
+    lua_pushnumber(L, p);
+    lua_setfield(L, -2, "pressure");
+    lua_pushnumber(L, mol);
+    lua_setfield(L, -2, "mol");
+    lua_setfield(L, -2, name);
+  }
+  lua_setfield(L, -2, "gases");
+}
+
 /* r:species() -> { {name=, molality=, gamma=}, ... } by decreasing molality */
 typedef struct row { const char *name; double m, lg; } row;
 
@@ -115,6 +158,7 @@ static const luaL_Reg result_methods[] = {
   {"gamma", result_gamma},
   {"saturation", result_saturation},
   {"solid", result_solid},
+  {"gas", result_gas},
   {"species", result_species},
   {NULL, NULL},
 };
@@ -133,6 +177,7 @@ static int result_index(lua_State *L)
   else if (strcmp(k, "activity_model") == 0) lua_pushstring(L, eqp_result_activity_model(r));
   else if (strcmp(k, "residual") == 0) lua_pushnumber(L, eqp_result_residual(r));
   else if (strcmp(k, "iterations") == 0) lua_pushinteger(L, eqp_result_iterations(r));
+  else if (strcmp(k, "headspace") == 0) push_headspace(L, r);
   else if (strcmp(k, "warnings") == 0) {
     size_t n = eqp_result_warning_count(r);
     lua_createtable(L, (int)n, 0);

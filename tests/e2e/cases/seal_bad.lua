@@ -1,0 +1,2 @@
+local s = eq.solution{}
+s:seal{ headspce = "5 mL" }
