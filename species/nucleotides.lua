@@ -55,7 +55,7 @@ return {
     -- (the label gives the water content of the lot)
     { "Na2ATP", formula = "C10H14N5Na2O13P3", gives = { ["Na+"] = 2, ["H2ATP^2-"] = 1 },
       names = { "Na2H2ATP", "ATP disodium salt", "disodium ATP", "adenosine 5'-triphosphate disodium salt" },
-      hydrates = { 3 }, note = "dissolves to an acid solution (pH near 3.5); neutralize with NaOH or Tris" },
+      hydrates = { 3 }, note = "dissolves to an acid solution (pH near 3.5); neutralize with NaOH or Tris. Below about pH 3 results are not valid: the further protonations of ATP are not in the library" },
     { "Na2HADP", formula = "C10H12N5Na2O10P2", gives = { ["Na+"] = 2, ["HADP^2-"] = 1 },
       names = { "ADP disodium salt", "disodium ADP" } },
     { "KH2ADP", formula = "C10H13KN5O10P2", gives = { ["K+"] = 1, ["H2ADP-"] = 1 },
