@@ -22,7 +22,7 @@ local function I0(logK, dz2) return logK + A * f * dz2 end
 return {
   system = "pyrophosphate",
   sources = {
-    ms_p2o7 = "R. M. Smith, A. E. Martell, NIST Critically Selected Stability Constants of Metal Complexes (NIST SRD 46) / Critical Stability Constants vol. 4: Inorganic Complexes, Plenum, New York (1976), diphosphate at 25 C, I = 0: pK 0.83, 2.26, 6.72, 9.46 [values from memory, medium confidence; no enthalpies recorded here; handbooks also quote 0.85, 1.96, 6.60, 9.41, which are not for I = 0]",
+    ms_p2o7 = "R. M. Smith, A. E. Martell, NIST Critically Selected Stability Constants of Metal Complexes (NIST SRD 46) / Critical Stability Constants vol. 4: Inorganic Complexes, Plenum, New York (1976), diphosphate at 25 C, I = 0: pK 0.83, 2.26, 6.72, 9.46 [values from memory, medium confidence; no enthalpies recorded here; handbooks also quote 0.85, 1.96, 6.60, 9.41, medium not checked]",
     ms_p2o7_mg = "R. M. Smith, A. E. Martell, Critical Stability Constants vol. 4 (1976) / NIST SRD 46, Mg^2+ with diphosphate at 25 C, I = 0.1 mol/L (tetramethylammonium salt): log K MgL 5.70, MgHL 3.06 [values from memory, low-medium confidence]",
   },
   species = {
