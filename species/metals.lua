@@ -13,6 +13,9 @@
 -- Every log K here is for I = 0 and 25 C. A value published for I = 0.1
 -- mol/L is converted with the Davies equation (docs/methods.md, "Constants
 -- at I = 0"); the published value and its medium stay in the entry's note.
+-- The hydroxide and oxide solids are written as they dissolve to OH-:
+-- log Ksp = log *K - n pKw with the *K (M(OH)n + n H+ = M^n+ + n H2O, or
+-- MO + 2 H+ = M^2+ + H2O) of the source, at I = 0 and 25 C.
 -- Weak alkali-metal ion pairs (NaHPO4-, KSO4-, ...) are left out on purpose:
 -- the pKa values of this library were extrapolated to I = 0 without them,
 -- so adding them would count the same interaction twice.
@@ -33,7 +36,7 @@ return {
     ms1976 = "A. E. Martell, R. M. Smith, Critical Stability Constants, vols. 1-4, Plenum, New York (1974-1976), 25 C, I = 0, as tabulated in 'E4a: Stepwise association constants', LibreTexts Chemistry reference tables [seen]: acetate log K1 Mg 1.27, Ca 1.18, Mn 1.40, Zn 1.57, Cu 2.22 (K2 1.41); ammonia Cu 4.04, 3.43, 2.80, 1.48, Zn 2.21, 2.29, 2.36, 2.03; chloride Cu 0.40, Fe(III) 1.48, 0.65, Zn 0.43, 0.18, -0.11, -0.3",
     ms1974ca = "A. E. Martell, R. M. Smith, Critical Stability Constants (1974-1989), 25 C, I = 0.1 mol/L, as quoted in Table 9 of a 2016 paper in J. Appl. Phycol. 28, 2561 [seen]: log K of Ca^2+ with citrate 3.45, succinate 1.25 (and hydroxide 1.0, acetate 0.57, which corroborate the I = 0 values used here)",
     gimblett1954 = "F. G. R. Gimblett, C. B. Monk, 'E.m.f. studies of electrolytic dissociation, part 7: some alkali and alkaline earth metal hydroxides in water', Trans. Faraday Soc. 50, 965 (1954): Ca^2+ + OH- = CaOH+, log K 1.30 at 25 C, I = 0, the value selected by Martell & Smith [value from memory, medium-high confidence]",
-    baes1976 = "C. F. Baes, R. E. Mesmer, The Hydrolysis of Cations, Wiley, New York (1976), 25 C, I = 0: log *K of M^z+ + n H2O = M(OH)n + n H+: Mg -11.44; Mn -10.59; Zn -8.96, -16.9, -28.4, -40.5 (n = 1-4); Cu -8.0 and Cu2(OH)2^2+ -10.36; Fe(III) -2.19, -5.67, -21.6 (n = 4), Fe2(OH)2^4+ -2.95 [values from memory: Mg, Mn, Zn and Fe medium-high, Cu medium]; log beta = log *K + n pKw with pKw = 13.995 (IAPWS R11-07) [D]",
+    baes1976 = "C. F. Baes, R. E. Mesmer, The Hydrolysis of Cations, Wiley, New York (1976), 25 C, I = 0: log *K of M^z+ + n H2O = M(OH)n + n H+: Mg -11.44; Mn -10.59; Zn -8.96, -16.9, -28.4, -40.5 (n = 1-4); Cu -8.0 and Cu2(OH)2^2+ -10.36; Fe(III) -2.19, -5.67, -21.6 (n = 4), Fe2(OH)2^4+ -2.95 [values from memory: Mg, Mn, Zn and Fe medium-high, Cu medium]; log beta = log *K + n pKw with pKw = 13.995 (IAPWS R11-07) [D]; solid Mn(OH)2 (pyrochroite), Mn(OH)2(s) + 2 H+ = Mn^2+ + 2 H2O, log *K 15.2 [from memory, medium confidence]",
     cmn1968 = "A. Chughtai, R. Marshall, G. H. Nancollas, 'Complexes in calcium phosphate solutions', J. Phys. Chem. 72, 208-211 (1968): 25 C, I = 0: CaHPO4 2.739, CaH2PO4+ 1.408, CaPO4- 6.459 [values from memory, medium-high confidence]",
     mgphos = "MgHPO4 log K 2.87 at 25 C, I = 0, as selected in A. E. Martell, R. M. Smith, Critical Stability Constants [value from memory, medium confidence]",
     pb1982 = "L. N. Plummer, E. Busenberg, Geochim. Cosmochim. Acta 46, 1011-1040 (1982): log K(CaHCO3+) = 1209.120 + 0.31294 T - 34765.05/T - 478.782 log10 T; log K(CaCO3 aq) = -1228.732 - 0.299444 T + 35512.75/T + 485.818 log10 T, 0-90 C [equations from memory, medium-high confidence: they give the accepted 1.106 and 3.224 at 25 C]",
@@ -42,6 +45,9 @@ return {
     ms_cit_mg = "A. E. Martell, R. M. Smith, Critical Stability Constants vol. 3 (1977) / NIST SRD 46, citrate at 25 C, I = 0.1 mol/L: MgCit- 3.37, MgHCit 1.92, CaHCit 2.10 [values from memory, low-medium confidence]",
     ms_gly = "A. E. Martell, R. M. Smith, Critical Stability Constants vol. 1: Amino Acids (1974) / NIST SRD 46, glycinate at 25 C, I = 0.1 mol/L: Cu^2+ log beta1 8.15, beta2 15.03; Zn^2+ log beta1 4.96, beta2 9.19 [values from memory: Cu medium, Zn low-medium confidence]",
     sulfpairs = "CaSO4 log K 2.30 (R. P. Bell, J. H. B. George, Trans. Faraday Soc. 49, 619 (1953)) and MgSO4 2.23 at 25 C, I = 0, as selected in Martell & Smith [values from memory, medium confidence]",
+    powell2007 = "K. J. Powell, P. L. Brown, R. H. Byrne, T. Gajda, G. Hefter, S. Sjoberg, H. Wanner, 'Chemical speciation of environmentally significant metals with inorganic ligands. Part 2: The Cu2+-OH-, Cl-, CO32-, SO42-, and PO43- systems (IUPAC Technical Report)', Pure Appl. Chem. 79, 895-950 (2007) [title seen]: 25 C, I = 0: log *K of CuO(s) (tenorite) 7.64, Cu(OH)2(s) 8.67 [values from memory, medium confidence]",
+    powell2013 = "K. J. Powell et al., 'Chemical speciation of environmentally significant metals with inorganic ligands. Part 5: The Zn2+ + OH-, Cl-, CO32-, SO42-, and PO43- systems (IUPAC Technical Report)', Pure Appl. Chem. 85, 2249-2311 (2013): 25 C, I = 0: log *K of ZnO(s) (zincite) 11.12 (C. F. Baes, R. E. Mesmer 1976: 11.14), epsilon-Zn(OH)2(s) 11.38 [values from memory: ZnO medium, Zn(OH)2 low-medium confidence]",
+    nordstrom1990 = "D. K. Nordstrom et al., 'Revised chemical equilibrium data for major water-mineral reactions and their limitations', ACS Symp. Ser. 416, 398-413 (1990): Fe(OH)3 (amorphous, ferrihydrite) log *K 4.891 at 25 C, I = 0 [value from memory, medium confidence]; published values for ferrihydrite span about 3 to 5, with the age and crystallinity of the solid",
   },
   size_source = "kielland1937",
   species = {
@@ -187,5 +193,23 @@ return {
       "ferric chloride" }, hydrates = { 6 }, hazards = { "toxic-oral", "skin-irritation", "eye-damage", "metal-corrosive" } },
     { "Fe(NO3)3", gives = { ["Fe^3+"] = 1, ["NO3-"] = 3 }, names = { "iron(III) nitrate",
       "ferric nitrate" }, hydrates = { 9 }, hazards = { "oxidizing-solid", "skin-irritation", "eye-irritation" } },
+  },
+  solids = {
+    { "pyrochroite", formula = "Mn(OH)2", dissolves = { ["Mn^2+"] = 1, ["OH-"] = 2 },
+      logKsp = 15.2 - 2 * 13.995, source = "baes1976",
+      note = "log *K 15.2 [from memory, medium confidence]; 25 C only" },
+    { "zincite", formula = "ZnO", dissolves = { ["Zn^2+"] = 1, ["OH-"] = 2, H2O = -1 },
+      logKsp = 11.12 - 2 * 13.995, source = "powell2013", note = "25 C only" },
+    { "zinc hydroxide", formula = "Zn(OH)2", dissolves = { ["Zn^2+"] = 1, ["OH-"] = 2 },
+      logKsp = 11.38 - 2 * 13.995, source = "powell2013",
+      note = "epsilon-Zn(OH)2, the crystalline hydroxide; fresh precipitates are more soluble; 25 C only" },
+    { "tenorite", formula = "CuO", dissolves = { ["Cu^2+"] = 1, ["OH-"] = 2, H2O = -1 },
+      logKsp = 7.64 - 2 * 13.995, source = "powell2007", note = "25 C only" },
+    { "copper(II) hydroxide", formula = "Cu(OH)2", dissolves = { ["Cu^2+"] = 1, ["OH-"] = 2 },
+      logKsp = 8.67 - 2 * 13.995, source = "powell2007",
+      note = "metastable with respect to tenorite; 25 C only" },
+    { "ferrihydrite", formula = "Fe(OH)3", dissolves = { ["Fe^3+"] = 1, ["OH-"] = 3 },
+      logKsp = 4.891 - 3 * 13.995, source = "nordstrom1990",
+      note = "the amorphous iron(III) hydroxide that forms first; 25 C only" },
   },
 }

@@ -337,13 +337,13 @@ static int brent_one(adj *A, int k, double slope)
 int eqpi_system_adjust(eqp_ctx *ctx, const eqpi_db *db, eqpi_system **sysp,
                        const eqpi_adjust *aj, int n, double *v_out, eqpi_solve_stats *st)
 {
-  if (n < 1 || n > EQPI_MAX_AMOUNTS) return eqpi_fail(ctx, EQP_E_ARG, "1 to %d targets",
-                                                      EQPI_MAX_AMOUNTS);
+  if (n < 1 || n > EQPI_MAX_TARGETS) return eqpi_fail(ctx, EQP_E_ARG, "1 to %d targets",
+                                                      EQPI_MAX_TARGETS);
   size_t nb = (size_t)db->ncomp + 1;
   double *tot = eqpi_calloc(ctx, 2 * nb, sizeof(double));
   if (!tot) return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
-  double v[EQPI_MAX_AMOUNTS], now[EQPI_MAX_AMOUNTS], want[EQPI_MAX_AMOUNTS];
-  double D[EQPI_MAX_AMOUNTS * EQPI_MAX_AMOUNTS], vlin[EQPI_MAX_AMOUNTS];
+  double v[EQPI_MAX_TARGETS], now[EQPI_MAX_TARGETS], want[EQPI_MAX_TARGETS];
+  double D[EQPI_MAX_TARGETS * EQPI_MAX_TARGETS], vlin[EQPI_MAX_TARGETS];
   adj A = {ctx, db, sysp, aj, n, v, tot, tot + nb, st, 0};
   for (int k = 0; k < n; k++) {
     v[k] = aj[k].v0;
@@ -375,8 +375,8 @@ int eqpi_system_adjust(eqp_ctx *ctx, const eqpi_db *db, eqpi_system **sysp,
   }
   /* the linear estimate: D (v - v0) = want - now */
   {
-    double M[EQPI_MAX_AMOUNTS * EQPI_MAX_AMOUNTS];
-    int piv[EQPI_MAX_AMOUNTS];
+    double M[EQPI_MAX_TARGETS * EQPI_MAX_TARGETS];
+    int piv[EQPI_MAX_TARGETS];
     memcpy(M, D, sizeof(double) * (size_t)(n * n));
     for (int k = 0; k < n; k++) vlin[k] = want[k] - now[k];
     if (eqpi_lu_factor(M, piv, n) == 0) eqpi_lu_solve(M, piv, n, vlin);

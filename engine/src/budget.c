@@ -32,6 +32,17 @@ int eqp_solution_load_budget(eqp_solution *s, const eqp_budget_spec *spec, eqp_b
   double pH = eqp_result_pH(r), amount[2], litres;
   eqp_result_free(r);
   const char *reagent[2] = {sp.acid, sp.base};
+  /* the first message is about the reagent, not a pH out of its reach */
+  for (int k = 0; k < 2; k++) {
+    int g = eqpi_db_find_reagent(s->db, reagent[k]), kind;
+    if (g < 0) continue;                       /* unknown: said when it is added */
+    kind = eqpi_reagent_kind(s->db, &s->db->rg[g], NULL);
+    if (kind == EQPI_RG_NEUTRAL || kind == (k ? EQPI_RG_ACID : EQPI_RG_BASE))
+      return eqpi_fail(ctx, EQP_E_INPUT, "load budget: %s = '%s' is %s; name %s, such as %s",
+                       k ? "base" : "acid", reagent[k],
+                       kind == EQPI_RG_NEUTRAL ? "neither an acid nor a base"
+                       : k ? "an acid" : "a base", k ? "a base" : "an acid", k ? "NaOH" : "HCl");
+  }
   for (int k = 0; k < 2; k++) {
     eqp_solution *c;
     if ((rc = eqp_solution_copy(s, &c)) < 0) return rc;

@@ -141,6 +141,11 @@ static int check_spec(eqp_ctx *ctx, const eqp_compare_spec *user, eqp_compare_sp
   if (!(sp->window > 0 && sp->window <= 7))
     return eqpi_fail(ctx, EQP_E_INPUT, "compare buffers: the window %g must be above 0 and at "
                      "most 7 pH units", sp->window);
+  int g = eqpi_db_find_reagent(ctx->db, sp->load_with);   /* unknown: said when it is added */
+  if (g >= 0 && eqpi_reagent_kind(ctx->db, &ctx->db->rg[g], NULL) == EQPI_RG_NEUTRAL)
+    return eqpi_fail(ctx, EQP_E_INPUT, "compare buffers: load_with = '%s' is neither an acid nor "
+                     "a base (it releases and takes up no H+), so it loads no buffer; name an "
+                     "acid or a base, such as HCl or NaOH", sp->load_with);
   *rs = (eqp_recipe_spec)EQP_RECIPE_SPEC_INIT;
   if ((rc = eqpi_opts_read(ctx, "eqp_recipe_spec", sp->recipe, rs, sizeof *rs,
                            EQPI_RECIPE_SPEC_0_1)) < 0)

@@ -207,7 +207,12 @@ void eqpi_list_text(eqpi_text *t, const cJSON *doc)
   }
   a = arr(doc, "solids");
   eqpi_text_printf(t, "solids (%d)\n", cJSON_GetArraySize(a));
-  cJSON_ArrayForEach(e, a) eqpi_text_printf(t, "  %-20s %s\n", str(e, "name"), str(e, "formula"));
+  int w = 20;   /* names such as "octacalcium phosphate" widen the column */
+  cJSON_ArrayForEach(e, a) {
+    const char *n = str(e, "name");
+    if (n && (int)strlen(n) > w) w = (int)strlen(n);
+  }
+  cJSON_ArrayForEach(e, a) eqpi_text_printf(t, "  %-*s %s\n", w, str(e, "name"), str(e, "formula"));
   a = arr(doc, "gases");
   eqpi_text_printf(t, "gases (%d)\n", cJSON_GetArraySize(a));
   cJSON_ArrayForEach(e, a)

@@ -126,6 +126,9 @@ static int direction(eqpi_problem *P, const double *dl, double dlnI, const doubl
   for (int k = 0; k < P->na; k++) {
     int X = P->amt[k].target;
     double s = X == EQPI_TARGET_IONIC ? dlnI : 0;
+    if (X == EQPI_TARGET_SOLID)     /* a solid's row: sum_c b_c (x_c + ln g_c) */
+      for (int c = 0; c < nc; c++)
+        if (P->amt[k].b[c] != 0) s += P->amt[k].b[c] * ((dl ? dl[c] : 0) + dlngc[c]);
     for (int j = X < 0 ? 0 : t->row[X]; X >= 0 && j < t->row[X + 1]; j++)
       s += t->nu[j] * ((dl ? dl[t->cmp[j]] : 0) + dlngc[t->cmp[j]]);
     if (P->amt[k].molal && X >= 0) s -= dlng[X];
@@ -174,6 +177,8 @@ static void ideal_columns(eqpi_problem *P, double *J)
       int l = P->xidx[t->cmp[j]];
       if (l >= 0) J[(size_t)l * n + P->nx + k] = t->nu[j];
     }
+    for (int c = 0; X == EQPI_TARGET_SOLID && c < t->nc; c++)
+      if (P->xidx[c] >= 0) J[(size_t)P->xidx[c] * n + P->nx + k] = P->amt[k].b[c];
   }
 }
 

@@ -192,6 +192,8 @@ typedef struct lib_file {
   eqpi_stage *st;       /* its entries, once staged */
   int state;            /* F_* */
   char *why;            /* why it was left out */
+  int note;             /* its entry in ctx->broken, once remembered; -1: none */
+  int cause;            /* the file left out before it whose names it needs; -1: none */
 } lib_file;
 
 enum { F_PENDING, F_GOOD, F_BROKEN, F_SKIPPED };
@@ -235,6 +237,7 @@ static int choose(lib_load *ld, const char *path, int rank, const folders *fo)
   if (eqpi_grow(ld->ctx, &ld->f, &ld->cap, ld->n + 1, sizeof *ld->f) < 0) return -1;
   lib_file *f = &ld->f[ld->n];
   memset(f, 0, sizeof *f);
+  f->note = f->cause = -1;
   if (!(f->path = eqpi_strdup(ld->ctx, path))) return -1;
   f->name = base_name(f->path);
   f->rank = rank;
@@ -377,7 +380,7 @@ static int commit_good(lib_load *ld)
 
 /* Remember what the files left out define, so that a run asking for one of
 ** those names hears why it is missing. */
-static void remember(eqp_ctx *ctx, const lib_file *f)
+static void remember(eqp_ctx *ctx, lib_file *f)
 {
   char first[512];
   const char *nl = strchr(f->why ? f->why : "", '\n');
@@ -386,7 +389,9 @@ static void remember(eqp_ctx *ctx, const lib_file *f)
   snprintf(msg, sizeof msg, "it is defined in %s, which was left out of the library: %s",
            f->path, first);
   int idx = ctx->nbroken;
-  if (push_str(ctx, &ctx->broken, &ctx->nbroken, &ctx->capbroken, msg) < 0 || !f->st) return;
+  if (push_str(ctx, &ctx->broken, &ctx->nbroken, &ctx->capbroken, msg) < 0) return;
+  f->note = idx;
+  if (!f->st) return;
   const eqpi_stage *st = f->st;
 #define KEEP(s) do { const char *k_ = (s) ? eqpi_arena_strdup(ctx, &ctx->broken_arena, (s)) : NULL; \
     if (k_) eqpi_index_put(ctx, &ctx->broken_names, k_, idx, NULL); } while (0)
@@ -405,6 +410,63 @@ const char *eqpi_library_note(const eqp_ctx *ctx, const char *name)
 {
   int i = ctx && name ? eqpi_index_get(&ctx->broken_names, name) : -1;
   return i < 0 || i >= ctx->nbroken ? NULL : ctx->broken[i];
+}
+
+/* The file left out whose names f's problems quote ('Zq+' in "unknown
+** species 'Zq+'"), if any: f was left out because that one was. */
+static int cause_of(const eqp_ctx *ctx, const lib_load *ld, const lib_file *f)
+{
+  const char *p = f->why ? f->why : "";
+  while ((p = strchr(p, '\'')) != NULL) {
+    const char *e = strchr(p + 1, '\'');
+    if (!e) break;
+    char name[256];
+    if ((size_t)(e - p - 1) < sizeof name) {
+      snprintf(name, sizeof name, "%.*s", (int)(e - p - 1), p + 1);
+      int note = eqpi_index_get(&ctx->broken_names, name);
+      for (int i = 0; note >= 0 && i < ld->n; i++)
+        if (ld->f[i].note == note && &ld->f[i] != f) return i;
+    }
+    p = e + 1;
+  }
+  return -1;
+}
+
+/* One notice per file left out for its own problems, naming the files left
+** out with it because they need what it defines (and, in turn, those that
+** need them), instead of one notice for each of those. */
+static void notices(eqp_ctx *ctx, lib_load *ld)
+{
+  for (int i = 0; i < ld->n; i++)
+    if (ld->f[i].state == F_BROKEN && ld->f[i].rank >= 0) remember(ctx, &ld->f[i]);
+  for (int i = 0; i < ld->n; i++) {
+    lib_file *f = &ld->f[i];
+    if (f->state == F_BROKEN && f->rank >= 0) f->cause = cause_of(ctx, ld, f);
+  }
+  for (int i = 0; i < ld->n; i++) {
+    const lib_file *f = &ld->f[i];
+    if (f->state != F_BROKEN || f->rank < 0 || f->cause >= 0) continue;
+    char deps[EQPI_ERRLEN] = "";
+    size_t used = 0;
+    for (int j = 0; j < ld->n; j++) {
+      const lib_file *g = &ld->f[j];
+      int root = j, hops = 0;
+      while (ld->f[root].cause >= 0 && hops++ < ld->n) root = ld->f[root].cause;
+      if (j == i || root != i || g->state != F_BROKEN || g->rank < 0) continue;
+      const char *nl = strchr(g->why ? g->why : "", '\n');
+      int wl = g->why ? (nl ? (int)(nl - g->why) : (int)strlen(g->why)) : 0;
+      if (used < sizeof deps)
+        used += (size_t)snprintf(deps + used, sizeof deps - used, "%s%.*s", used ? "; " : "",
+                                 wl, g->why ? g->why : g->path);
+    }
+    if (used)
+      notice(ctx, "species file %s was left out of the library; runs that need what it "
+             "defines fail: %s. Left out with it, as they need what it defines: %s", f->path,
+             f->why ? f->why : "", deps);
+    else
+      notice(ctx, "species file %s was left out of the library; runs that need what it "
+             "defines fail: %s", f->path, f->why ? f->why : "");
+  }
 }
 
 static void lib_free(lib_load *ld)
@@ -441,11 +503,8 @@ static int load_library(eqp_ctx *ctx, const char *check)
     if (f->rank < 0) checked = f;
     if (f->state != F_BROKEN) continue;
     if (!nbroken++) first_broken = f;
-    if (f->rank < 0) continue;        /* the file being checked reports its own problems */
-    notice(ctx, "species file %s was left out of the library; runs that need what it "
-           "defines fail: %s", f->path, f->why ? f->why : "");
-    remember(ctx, f);
   }
+  notices(ctx, &ld);    /* the file being checked reports its own problems */
   ctx->default_loaded = true;
   if (checked && checked->state == F_BROKEN && checked->st && checked->st->nerr) {
     eqpi_db *none;                  /* fails: with its name checks, every problem */

@@ -207,7 +207,12 @@ void eqpi_limits_hookfn(lua_State *L, lua_Debug *ar)
 
 void eqpi_limits_hook(lua_State *L, lua_Hook hook, int extra_mask)
 {
-  lua_sethook(L, hook, LUA_MASKCOUNT | extra_mask, HOOK_EVERY);
+  /* a limit below the hook's interval is checked at the limit itself (a
+  ** script of 400 instructions ran to its end under a limit of 10) */
+  const eqpi_limits *lim = eqpi_limits_of(L);
+  int every = lim && lim->max_steps > 0 && lim->max_steps < HOOK_EVERY ? (int)lim->max_steps
+                                                                        : HOOK_EVERY;
+  lua_sethook(L, hook, LUA_MASKCOUNT | extra_mask, every);
 }
 
 /* ------------------------------------------------------------ bulk calls */

@@ -1,21 +1,23 @@
-/* Solids that form or dissolve: an active set of phases around ordinary
-** solves. A phase present holds its saturation (log IAP = log Ksp) and its
-** amount leaves the solution's totals; the most supersaturated allowed
-** phase joins, a phase whose amount would be negative leaves. Each amount
-** is found by Brent's method on ordinary solves (the saturation index is
-** monotone in the amount of its own phase), the phases of a set swept in
-** turn until all hold together. Design: docs/methods.md. */
+/* Solids that form or dissolve: an active set of phases. A phase present
+** is an unknown amount of the problem with its solid-phase row (log IAP =
+** log Ksp), its composition leaving the solution's totals, so that each
+** set is one Newton solve (with continuation in the target of a phase
+** that joins far supersaturated); the most supersaturated allowed phase
+** joins, a phase whose amount comes out negative leaves. Design and
+** measurements: docs/methods.md. */
 /* SPDX-License-Identifier: MIT */
 #include "solution_impl.h"
 #include "system_impl.h"
-#include "brent_impl.h"
 #include <math.h>
 #include <stdio.h>
 #include <string.h>
 
 #define MAX_PHASES EQPI_MAX_SOLIDS_PRESENT   /* the phase rule caps it lower */
 #define MAX_ROUNDS 24      /* additions and removals of the active set */
-#define MAX_SWEEPS 60      /* of the amounts of a set together */
+#define SET_ITERS 40       /* Newton iterations for the solve of one set at once */
+#define STEP_ITERS 40      /* and for each step of the continuation */
+#define TINY 1e-300
+#define SAT_TOL 1e-12      /* its saturation rows, ln units */
 #define SI_ON 1e-10        /* a phase joins above this saturation index */
 
 /* ------------------------------------------------------------ choice */
@@ -116,12 +118,14 @@ typedef struct pset {
   const double *mol;     /* totals with nothing precipitated, mol/kg */
   double *tot;           /* dissolved totals now */
   double *dir;           /* MAX_PHASES x ncomp */
+  double *a, *b, *lnfree, *u;   /* scratch: ncomp + EQPI_MAX_AMOUNTS + 1 each */
   int ph[MAX_PHASES];    /* the phases present */
   double n[MAX_PHASES];  /* their amounts, mol/kg */
-  int np, k;             /* present; the one a 1-D search moves */
+  int np;                /* present */
+  long iters;            /* Newton iterations of every solve */
 } pset;
 
-static int solve_set(pset *P)
+static void dissolved(pset *P)
 {
   const eqpi_db *db = P->s->db;
   for (int c = 0; c < db->ncomp; c++) {
@@ -130,22 +134,46 @@ static int solve_set(pset *P)
     /* a component used up to rounding is gone, not negative */
     P->tot[c] = v < 0 && v > -1e-13 * fabs(P->mol[c]) - 1e-300 ? 0 : v;
   }
-  return eqpi_system_solve(P->s->ctx, P->s->db, &P->s->sys, P->tot, P->s->T, P->model, P->st);
 }
 
-static int miss(void *ud, double x, double *f)
+/* An ordinary solve at the dissolved totals of the amounts P->n. */
+static int solve_set(pset *P)
 {
-  pset *P = ud;
-  P->n[P->k] = x;
-  int rc = solve_set(P);
-  if (rc < 0) return rc;
-  double v = ln_sat(P->s->sys, P->s->T, P->ph[P->k]);
-  *f = isfinite(v) ? v : -1e3;     /* a phase whose ion is gone: far undersaturated */
+  dissolved(P);
+  int rc = eqpi_system_solve(P->s->ctx, P->s->db, &P->s->sys, P->tot, P->s->T, P->model, P->st);
+  if (rc == EQP_OK && P->st) P->iters += P->st->iterations;
+  return rc;
+}
+
+/* ------------------------------------------------------------ one solve */
+
+/* The solid-phase row of phase k over the local components of sys: b its
+** composition (the tableau rows of the species it dissolves to, water at
+** unit activity left out, as in ln_sat), *lnt its ln Ksp less their ln K.
+** -1 when one of those species is not in the system. */
+static int solid_row(const eqpi_system *sys, double T, int k, double *b, double *lnt)
+{
+  const eqpi_tableau *t = sys->tab;
+  const eqpi_db *db = t->db;
+  const eqpi_solid *p = &db->solids[k];
+  eqpi_tnotes notes = {0, 0};
+  double v = EQPI_LN10 * eqpi_reaction_logK(&p->ksp, T, &notes);
+  memset(b, 0, sizeof(double) * (size_t)t->nc);
+  for (int j = 0; j < p->n; j++) {
+    if (p->sp[j] == db->water) continue;
+    int i = -1;
+    for (int q = 0; q < t->ns && i < 0; q++)
+      if (t->sp[q] == p->sp[j]) i = q;
+    if (i < 0) return -1;
+    v -= p->nu[j] * t->lnK[i];
+    for (int r = t->row[i]; r < t->row[i + 1]; r++) b[t->cmp[r]] += p->nu[j] * t->nu[r];
+  }
+  *lnt = v;
   return 0;
 }
 
 /* The most of phase q that can leave with the others held: the first
-** component it draws on to run out. */
+** component it draws on to run out (the scale of its amount). */
 static double most(const pset *P, int q)
 {
   const eqpi_db *db = P->s->db;
@@ -162,23 +190,211 @@ static double most(const pset *P, int q)
   return best;
 }
 
-/* The amount of phase q alone, the others held; 0 when even none of it
-** leaves the solution undersaturated. */
-static int amount_one(pset *P, int q)
+/* The solved state of the system with its amounts as unknowns back in the
+** normal form: the totals are the dissolved ones, each unknown ln m again. */
+static int normal_form(pset *Q, double lnI)
 {
-  double f0, fb, hi = most(P, q), root;
-  P->k = q;
-  int rc = miss(P, 0, &f0);
-  if (rc < 0 || f0 <= 0) return rc;
-  if (!isfinite(hi) || hi <= 0)
-    return eqpi_fail(P->s->ctx, EQP_E_INPUT, "solid %s: no component bounds its amount",
-                     P->s->db->solids[P->ph[q]].name);
-  double b = hi * (1 - 1e-12);
-  if ((rc = miss(P, b, &fb)) < 0) return rc;
-  if (fb > 0) { P->n[q] = b; return solve_set(P); }
-  rc = eqpi_brent_root(miss, P, 0, b, f0, fb, 0.0, 200, &root);
-  if (rc < 0 && rc != EQPI_BRENT_MAXIT) return rc > -1000 ? rc : EQP_E_CONVERGE;
-  return miss(P, root, &f0);
+  eqpi_system *s = Q->s->sys;
+  eqpi_problem *P = s->prob;
+  const int nc = s->tab->nc;
+  int worst;
+  for (int c = 0; c < nc; c++) {
+    if (P->xidx[c] >= 0) s->u_last[P->xidx[c]] = Q->lnfree[c];
+    P->lnfix[c] = log(P->tot[c] > TINY ? P->tot[c] : TINY);
+  }
+  s->u_last[P->n - 1] = lnI;
+  memcpy(s->tot_last, P->tot, sizeof(double) * (size_t)nc);
+  double r = eqpi_problem_verify(P, s->u_last, &worst);
+  if (!(r <= EQPI_VERIFY_TOL)) {
+    s->solved = false;
+    return -1;
+  }
+  memcpy(s->S_last, P->S, sizeof(double) * (size_t)P->n);
+  s->S_last[P->n - 1] = P->Ic;
+  s->solved = true;
+  if (Q->st) Q->st->residual = r;
+  return 0;
+}
+
+/* The largest residual of a mass balance at the last evaluation relative
+** to all that enters it, dissolved and solid (u: the amounts). */
+static double closure(const eqpi_problem *P, const double *u)
+{
+  double w = 0;
+  for (int k = 0; k < P->nx; k++) {
+    int c = P->xcomp[k];
+    if (P->kind[c] != EQPI_ROW_MASS) continue;
+    double solid = 0;
+    for (int q = 0; q < P->na; q++)
+      solid += fabs(u[P->nx + q] * P->amt[q].scale * P->amt[q].a[c]);
+    double r = fabs(P->F[k]) * P->S[k] / (P->S[k] + solid / P->W);
+    if (!(r <= w)) w = isfinite(r) ? r : INFINITY;
+  }
+  return w;
+}
+
+/* KINSOL on the problem with its amounts from u: 0 and u at the solution,
+** or -1. A component that the solids take nearly all of has a dissolved
+** total N0 - n a that cancels: the rounding of n alone can leave its
+** balance at 1e-9 of the little left (and KINSOL's line search stall
+** there). Such a point is taken when the saturation rows hold to SAT_TOL
+** and every balance to 1e-10 of all that enters it, dissolved and solid;
+** the state is verified afterwards at the dissolved totals themselves
+** (normal_form), the charge balance with it, to the usual 1e-10. */
+static int run_set(pset *Q, eqpi_newton *ws, double *u, int iters)
+{
+  eqpi_problem *P = Q->s->sys->prob;
+  int worst = -1, flag = eqpi_newton_run(ws, P, u, iters, &Q->iters);
+  double *uf = eqpi_newton_u(ws), r = eqpi_problem_verify(P, uf, &worst), sat = 0;
+  for (int k = 0; k < P->na; k++) sat = fmax(sat, fabs(P->F[P->nx + k]));
+  if (r <= EQPI_VERIFY_TOL || (sat <= SAT_TOL && closure(P, uf) <= EQPI_VERIFY_TOL)) {
+    memcpy(u, uf, sizeof(double) * (size_t)P->n);
+    return 0;
+  }
+  if (eqpi_log_on(Q->s->ctx, EQP_LOG_DEBUG)) {
+    char fname[64];
+    eqpi_log(Q->s->ctx, EQP_LOG_DEBUG, "solids: a solve of a set of %d stopped (%s, worst row "
+             "%s)", Q->np, eqpi_newton_flag_name(flag, fname, sizeof fname),
+             eqpi_problem_row_name(P, worst));
+  }
+  return -1;
+}
+
+/* The set from u when the phase that joined (amount k, at 0 in u) is far
+** supersaturated: continuation in its target, from its ln IAP now (where
+** u solves the problem) to ln Ksp, each stage from the last; a failed
+** stage is retried with half the increment, down to 1/256. */
+static int continue_set(pset *Q, eqpi_newton *ws, double *u, const double *u0, int k)
+{
+  eqpi_problem *P = Q->s->sys->prob;
+  const double lnt = P->amt[k].ln_target;
+  memcpy(u, u0, sizeof(double) * (size_t)P->n);
+  if (eqpi_problem_eval(P, u, P->F) < 0) return -1;
+  const double gap = P->F[P->nx + k];     /* ln IAP/Ksp at the start */
+  double th = 0, step = 0.25;
+  int ok = -1;
+  while (th < 1 && step >= 1.0 / 256) {
+    double next = th + step < 1 ? th + step : 1;
+    P->amt[k].ln_target = lnt + gap * (1 - next);
+    P->at_ok = 0;
+    double *keep = Q->b;    /* the last stage's solution */
+    memcpy(keep, u, sizeof(double) * (size_t)P->n);
+    ok = run_set(Q, ws, u, STEP_ITERS);
+    if (ok == 0) {
+      th = next;
+      step *= 1.5;
+    } else {
+      memcpy(u, keep, sizeof(double) * (size_t)P->n);
+      step *= 0.5;
+    }
+  }
+  P->amt[k].ln_target = lnt;
+  P->at_ok = 0;
+  return th >= 1 && ok == 0 ? 0 : -1;
+}
+
+/* The set as one Newton solve from the solved state at the amounts Q->n:
+** the phases present are amounts of the problem (a = minus the phase's
+** composition, per mol/kg of it) with their solid-phase rows; for a phase
+** that has just joined (join: its place, or -1) continuation in its
+** target should that solve fail. 0 with Q->n and the system solved at the
+** dissolved totals; -1 otherwise, the system left at the state it started
+** from. */
+static int newton_set(pset *Q, int join)
+{
+  eqp_ctx *ctx = Q->s->ctx;
+  const eqpi_db *db = Q->s->db;
+  eqpi_system *s = Q->s->sys;
+  eqpi_problem *P = s->prob;
+  const int nc = s->tab->nc;
+  if (!s->solved || eqpi_problem_at(P, s->u_last) < 0) return -1;
+  double lnI = s->u_last[P->n - 1];
+  memcpy(Q->lnfree, P->lnfree, sizeof(double) * (size_t)nc);
+  int ok = 0;
+  for (int q = 0; q < Q->np && ok == 0; q++) {
+    double lnt, sc = Q->n[q] > 0 ? Q->n[q] : most(Q, q);   /* u near 1, or below it */
+    if (!(sc > 0) || !isfinite(sc)) sc = 1e-3;
+    for (int c = 0; c < db->ncomp; c++) Q->a[c] = -Q->dir[q * db->ncomp + c];
+    if (solid_row(s, Q->s->T, Q->ph[q], Q->b, &lnt) < 0 ||
+        eqpi_problem_add_solid(P, Q->mol, 1.0, Q->a, sc, Q->b, lnt,
+                               db->solids[Q->ph[q]].name) < 0)
+      ok = -1;
+  }
+  eqpi_problem_layout(P);
+  eqpi_newton *ws = ok == 0 ? eqpi_newton_get(ctx, P->n) : NULL;
+  ok = -1;
+  if (ws) {
+    double *u = Q->u, *u0 = Q->a;   /* a: free again once the rows are set */
+    for (int c = 0; c < nc; c++)
+      if (P->xidx[c] >= 0) u[P->xidx[c]] = Q->lnfree[c];
+    for (int q = 0; q < P->na; q++) u[P->nx + q] = Q->n[q] / P->amt[q].scale;
+    u[P->n - 1] = lnI;
+    memcpy(u0, u, sizeof(double) * (size_t)P->n);
+    ok = run_set(Q, ws, u, SET_ITERS);
+    if (ok < 0 && join >= 0) ok = continue_set(Q, ws, u, u0, join);
+    if (ok == 0 && eqpi_problem_at(P, u) < 0) ok = -1;
+    if (ok == 0) {
+      for (int q = 0; q < P->na; q++) Q->n[q] = u[P->nx + q] * P->amt[q].scale;
+      memcpy(Q->lnfree, P->lnfree, sizeof(double) * (size_t)nc);
+      lnI = u[P->n - 1];
+    }
+    eqpi_newton_put(ctx, ws);
+  }
+  eqpi_problem_clear_amounts(P);
+  eqpi_problem_layout(P);
+  s->lu_near_last = false;
+  if (ok < 0) {
+    /* the totals of the mass-balance rows back to the last solved state */
+    for (int c = 0; c < nc; c++)
+      if (P->kind[c] == EQPI_ROW_MASS) {
+        P->tot[c] = s->tot_last[c];
+        P->lnfix[c] = log(P->tot[c] > TINY ? P->tot[c] : TINY);
+      }
+    P->at_ok = 0;
+    return -1;
+  }
+  /* the dissolved totals are those of the species at the solution: the
+  ** state is then an equilibrium with each phase saturated, and dissolved
+  ** plus solid closes each balance to its row's residual (run_set) */
+  dissolved(Q);
+  const eqpi_tableau *t = s->tab;
+  for (int c = 0; c < nc; c++) {
+    if (P->kind[c] != EQPI_ROW_MASS) continue;
+    double T = 0;
+    for (int k = t->col[c]; k < t->col[c + 1]; k++) T += t->cnu[k] * P->m[t->csp[k]];
+    P->tot[c] = T;
+    Q->tot[t->comp[c]] = T;
+  }
+  /* should the normal form miss the tolerance, an ordinary (warm) solve at
+  ** the totals of the amounts finishes it */
+  return normal_form(Q, lnI) == 0 ? 0 : solve_set(Q) == EQP_OK ? 0 : -1;
+}
+
+/* Solve the set as it stands: one Newton solve (an ordinary one when no
+** phase is left). */
+static int solve_phases(pset *P, int join)
+{
+  if (P->np == 0) return solve_set(P);
+  if (newton_set(P, join) == 0) return EQP_OK;
+  const eqpi_db *db = P->s->db;
+  char names[256] = "";
+  size_t m = 0;
+  for (int q = 0; q < P->np && m < sizeof names; q++)
+    m += (size_t)snprintf(names + m, sizeof names - m, "%s%s", q ? ", " : "",
+                          db->solids[P->ph[q]].name);
+  return eqpi_fail(P->s->ctx, EQP_E_CONVERGE, "the solids %s could not be brought to "
+                   "saturation together: the equilibrium with them did not converge", names);
+}
+
+/* Phase q leaves the set. */
+static void drop(pset *P, int q, int nc)
+{
+  for (int r = q; r + 1 < P->np; r++) {
+    P->ph[r] = P->ph[r + 1];
+    P->n[r] = P->n[r + 1];
+    memmove(P->dir + r * nc, P->dir + (r + 1) * nc, sizeof(double) * (size_t)nc);
+  }
+  P->np--;
 }
 
 /* Rank of the directions of the present phases with one more (Gaussian
@@ -211,28 +427,40 @@ int eqpi_precipitate(eqp_solution *s, const double *mol, eqpi_model *model,
   const eqpi_db *db = s->db;
   const int nc = db->ncomp, nsol = db->nsolids;
   for (int k = 0; k < nsol; k++) amounts[k] = 0;
-  size_t bytes = sizeof(double) * (size_t)nc * (MAX_PHASES + 2);
-  double *blk = eqpi_calloc(ctx, 1, bytes);
+  const size_t w = (size_t)nc + EQPI_MAX_AMOUNTS + 1;
+  size_t bytes = sizeof(double) * ((size_t)nc * (MAX_PHASES + 1) + 4 * w);
+  double *blk = eqpi_calloc(ctx, 1, bytes), *sc = blk + (size_t)nc * (MAX_PHASES + 1);
   if (!blk) return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
-  pset P = {s, model, st, mol, blk, blk + nc, {0}, {0}, 0, 0};
+  pset P = {s, model, st, mol, blk, blk + nc, sc, sc + w, sc + 2 * w, sc + 3 * w,
+            {0}, {0}, 0, st ? st->iterations : 0};
   int rc = EQP_OK;
   int hc = db->sp[db->h_plus].component;
   for (int round = 0; rc == EQP_OK; round++) {
-    /* the most supersaturated allowed phase not present */
+    /* a phase whose amount came out negative leaves, the most negative first */
+    int out = -1;
+    for (int q = 0; q < P.np; q++)
+      if (P.n[q] <= 0 && (out < 0 || P.n[q] < P.n[out])) out = q;
+    /* else the most supersaturated allowed phase not present joins */
     int join = -1;
     double top = SI_ON * EQPI_LN10;
-    for (int k = 0; k < nsol; k++) {
+    for (int k = 0; k < nsol && out < 0; k++) {
       int present = 0;
       for (int q = 0; q < P.np; q++) present |= P.ph[q] == k;
       if (present || !eqpi_solution_allowed(s, k)) continue;
       double v = ln_sat(s->sys, s->T, k);
       if (v > top) { top = v; join = k; }
     }
-    if (join < 0) break;
+    if (out < 0 && join < 0) break;
     if (round >= MAX_ROUNDS) {
       rc = eqpi_fail(ctx, EQP_E_CONVERGE, "the set of solids did not settle in %d changes "
-                     "(%s keeps joining)", MAX_ROUNDS, db->solids[join].name);
+                     "(%s keeps %s)", MAX_ROUNDS, db->solids[out >= 0 ? P.ph[out] : join].name,
+                     out >= 0 ? "leaving" : "joining");
       break;
+    }
+    if (out >= 0) {
+      drop(&P, out, nc);
+      rc = solve_phases(&P, -1);
+      continue;
     }
     if (P.np >= MAX_PHASES || nc > 64) {
       rc = eqpi_fail(ctx, EQP_E_INPUT, "more than %d solids at once", MAX_PHASES);
@@ -257,35 +485,11 @@ int eqpi_precipitate(eqp_solution *s, const double *mol, eqpi_model *model,
     }
     P.ph[P.np] = join;
     P.n[P.np++] = 0;
-    /* the amounts of the set together; a phase that would be negative leaves */
-    for (int sweep = 0; rc == EQP_OK; sweep++) {
-      for (int q = 0; q < P.np && rc == EQP_OK; q++) rc = amount_one(&P, q);
-      if (rc < 0) break;
-      double worst = 0;
-      for (int q = 0; q < P.np; q++) {
-        if (P.n[q] <= 0) continue;
-        double v = ln_sat(s->sys, s->T, P.ph[q]);
-        worst = fmax(worst, isfinite(v) ? fabs(v) : HUGE_VAL);
-      }
-      int w = 0;
-      for (int q = 0; q < P.np; q++)
-        if (P.n[q] > 0) {
-          P.ph[w] = P.ph[q];
-          P.n[w] = P.n[q];
-          memmove(P.dir + w * nc, P.dir + q * nc, sizeof(double) * (size_t)nc);
-          w++;
-        }
-      int dropped = w < P.np;
-      P.np = w;
-      if (dropped) rc = solve_set(&P);
-      else if (worst < 1e-11) break;
-      if (rc == EQP_OK && sweep >= MAX_SWEEPS)
-        rc = eqpi_fail(ctx, EQP_E_CONVERGE, "the amounts of the solids present did not "
-                       "settle in %d sweeps", MAX_SWEEPS);
-    }
+    rc = solve_phases(&P, P.np - 1);
   }
   if (rc == EQP_OK)
     for (int q = 0; q < P.np; q++) amounts[P.ph[q]] = P.n[q];
+  if (st) st->iterations = P.iters;
   eqpi_free(ctx, blk, bytes);
   return rc;
 }

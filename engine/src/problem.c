@@ -41,6 +41,7 @@ static void carve_problem(pcarver *k, eqpi_problem *P, int nc, int ns, int nmax)
   for (int j = 0; j < 3; j++) D(P->w_nc[j], nc);
   D(P->w_n, nmax);
   for (int j = 0; j < EQPI_MAX_AMOUNTS; j++) D(P->amt[j].a, nc);
+  for (int j = 0; j < EQPI_MAX_AMOUNTS; j++) D(P->amt[j].b, nc);
 #undef D
   P->xidx = pcarve(k, sizeof(int) * (size_t)nc);
   P->xcomp = pcarve(k, sizeof(int) * (size_t)nmax);
@@ -142,7 +143,19 @@ int eqpi_problem_add_amount(eqpi_problem *P, const double *N0, double W0, const 
   A->target = target;
   A->molal = molal;
   A->ln_target = ln_target;
+  A->name = NULL;
   P->at_ok = 0;
+  return 0;
+}
+
+int eqpi_problem_add_solid(eqpi_problem *P, const double *N0, double W0, const double *a,
+                           double scale, const double *b, double ln_target, const char *name)
+{
+  if (eqpi_problem_add_amount(P, N0, W0, a, 0, scale, EQPI_TARGET_SOLID, 0, ln_target) < 0)
+    return -1;
+  eqpi_amount *A = &P->amt[P->na - 1];
+  memcpy(A->b, b, sizeof(double) * (size_t)P->tab->nc);
+  A->name = name;
   return 0;
 }
 
@@ -270,6 +283,15 @@ static double ln_activity(const eqpi_problem *P, int X)
   return s;
 }
 
+/* sum_c b_c ln a_c of a solid's row: the ln IAP less the log K of its species. */
+static double solid_sum(const eqpi_problem *P, const eqpi_amount *A)
+{
+  double s = 0;
+  for (int c = 0; c < P->tab->nc; c++)
+    if (A->b[c] != 0) s += A->b[c] * (P->lnfree[c] + P->lngc[c]);
+  return s;
+}
+
 /* The rows at the state of the last evaluation (molalities, free
 ** components, totals), from the balances themselves. */
 static void rows(eqpi_problem *P, const double *u, double *F)
@@ -292,7 +314,8 @@ static void rows(eqpi_problem *P, const double *u, double *F)
   }
   for (int k = 0; k < P->na; k++) {
     const eqpi_amount *A = &P->amt[k];
-    double v = A->target == EQPI_TARGET_IONIC ? lnI : ln_activity(P, A->target);
+    double v = A->target == EQPI_TARGET_IONIC ? lnI
+               : A->target == EQPI_TARGET_SOLID ? solid_sum(P, A) : ln_activity(P, A->target);
     if (A->molal && A->target >= 0) v -= P->lng[A->target];
     F[nx + k] = v - A->ln_target;
     P->S[nx + k] = 1;
@@ -463,6 +486,7 @@ const char *eqpi_problem_row_name(const eqpi_problem *P, int k)
   if (k < P->nx) return t->names[t->comp_sp[P->xcomp[k]]];
   if (k < P->n - 1) {
     int X = P->amt[k - P->nx].target;
+    if (X == EQPI_TARGET_SOLID) return P->amt[k - P->nx].name ? P->amt[k - P->nx].name : "solid";
     return X == EQPI_TARGET_IONIC ? "target ionic strength" : t->names[X];
   }
   if (k > P->n && k - P->n - 1 < t->ns) return t->names[k - P->n - 1];

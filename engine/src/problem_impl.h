@@ -1,8 +1,8 @@
 /* The equilibrium problem over a tableau: one row per component (a mass
-** balance, a fixed activity or the charge balance), amounts of reagents
-** that are unknowns with a row each (an activity, or the ionic strength,
-** held at a target), the ionic strength row, and the state of the last
-** evaluation. Design and the rows a solid phase will add: docs/methods.md. */
+** balance, a fixed activity or the charge balance), amounts that are
+** unknowns with a row each (an activity, or the ionic strength, held at a
+** target; or a solid phase at its saturation), the ionic strength row, and
+** the state of the last evaluation. Design: docs/methods.md. */
 /* SPDX-License-Identifier: MIT */
 #ifndef EQP_PROBLEM_IMPL_H
 #define EQP_PROBLEM_IMPL_H
@@ -16,19 +16,27 @@ enum {
   EQPI_ROW_CHARGE = 2     /* sum_i z_i m_i = 0 in place of c's balance: the total is an output */
 };
 
-#define EQPI_MAX_AMOUNTS 4
+#define EQPI_MAX_TARGETS 4      /* amounts an adjustment solves together */
+/* those and the solid phases present at once (the phase rule caps these) */
+#define EQPI_MAX_AMOUNTS (EQPI_MAX_TARGETS + EQPI_MAX_SOLIDS_PRESENT)
 #define EQPI_TARGET_IONIC (-1)   /* an amount whose row holds the ionic strength */
+#define EQPI_TARGET_SOLID (-3)   /* an amount whose row holds a phase's saturation */
 
 /* An unknown amount v of a direction (a: mol per unit over the local
 ** components, w: kg of water per unit) and the row that fixes it: the
-** activity of a species, or the ionic strength, at a target. */
+** activity of a species, or the ionic strength, at a target; or, for a
+** solid phase (a: minus its composition, w = 0), its saturation
+** sum_c b_c (x_c + ln g_c) = ln_target, the ln Ksp less the log K of the
+** species it dissolves to (b: its composition over the local components). */
 typedef struct eqpi_amount {
   double *a;            /* nc, in the problem's block */
+  double *b;            /* nc, in the problem's block: a solid's row */
   double w;
   double scale;         /* v = u scale: keeps the unknown near 1 */
-  int target;           /* local species, or EQPI_TARGET_IONIC */
+  int target;           /* local species, EQPI_TARGET_IONIC or EQPI_TARGET_SOLID */
   int molal;            /* the row holds ln m of the species, not ln a */
-  double ln_target;     /* ln a(target) (ln m if molal), or ln I */
+  double ln_target;     /* ln a(target) (ln m if molal), ln I, or a solid's as above */
+  const char *name;     /* a solid's, for messages (borrowed) */
 } eqpi_amount;
 
 typedef struct eqpi_problem {
@@ -95,6 +103,11 @@ void eqpi_problem_set_row(eqpi_problem *P, int c, int kind, double lna);
 ** -1 when there are already EQPI_MAX_AMOUNTS. Then eqpi_problem_layout. */
 int eqpi_problem_add_amount(eqpi_problem *P, const double *N0, double W0, const double *a,
                             double w, double scale, int target, int molal, double ln_target);
+/* Add a solid phase as an amount (as eqpi_problem_add_amount, w = 0):
+** a over the database's components, b over the local ones, name
+** borrowed. -1 when there are already EQPI_MAX_AMOUNTS. */
+int eqpi_problem_add_solid(eqpi_problem *P, const double *N0, double W0, const double *a,
+                           double scale, const double *b, double ln_target, const char *name);
 void eqpi_problem_clear_amounts(eqpi_problem *P);
 /* Number the unknowns after the rows or amounts changed. */
 void eqpi_problem_layout(eqpi_problem *P);

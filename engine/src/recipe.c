@@ -68,6 +68,51 @@ static int same_system(const eqpi_db *db, const eqpi_reagent *form, const eqpi_r
   return 0;
 }
 
+int eqpi_reagent_kind(const eqpi_db *db, const eqpi_reagent *r, int *comp)
+{
+  double h = 0;
+  int ladder = -1;
+  for (int t = 0; t < r->nterm; t++) {
+    int cs = db->comp_species[r->term_comp[t]];
+    if (cs == db->h_plus) h += r->term_nu[t];
+    else if (cs != db->water && r->term_nu[t] != 0 && ladder < 0 && has_ladder(db, r->term_comp[t]))
+      ladder = r->term_comp[t];
+  }
+  if (comp) *comp = ladder;
+  if (ladder >= 0) return EQPI_RG_WEAK;
+  return h > 0 ? EQPI_RG_ACID : h < 0 ? EQPI_RG_BASE : EQPI_RG_NEUTRAL;
+}
+
+/* The salt that sets the ionic strength must leave the pH and the buffer
+** alone: an acid or base, or a salt of the buffer's own system, would be
+** compensated by the buffer's ratio (or make the targets unreachable), so
+** the recipe would not be the buffer asked for. */
+static int check_salt(eqp_ctx *ctx, const plan *p)
+{
+  const eqpi_db *db = ctx->db;
+  const eqpi_reagent *s = p->salt;
+  static const char fix[] = "the ionic strength is set with a neutral salt that leaves the pH "
+                            "alone, such as NaCl or KCl";
+  for (int t = 0; t < s->nterm; t++) {
+    int c = s->term_comp[t], cs = db->comp_species[c];
+    if (cs == db->h_plus || cs == db->water || s->term_nu[t] == 0 || !has_ladder(db, c)) continue;
+    for (int k = 0; k < 2; k++) {
+      const eqpi_reagent *f = k ? p->b : p->a;
+      for (int u = 0; u < f->nterm; u++)
+        if (f->term_comp[u] == c && f->term_nu[u] != 0)
+          return eqpi_fail(ctx, EQP_E_INPUT, "recipe: salt = '%s' holds %s, of the buffer's own "
+                           "system (as %s does): it would change the buffer's total and ratio; "
+                           "%s", s->name, db->sp[cs].name, f->name, fix);
+    }
+  }
+  int kind = eqpi_reagent_kind(db, s, NULL);
+  if (kind == EQPI_RG_ACID || kind == EQPI_RG_BASE)
+    return eqpi_fail(ctx, EQP_E_INPUT, "recipe: salt = '%s' is %s (it %s H+), not a neutral salt; "
+                     "%s", s->name, kind == EQPI_RG_ACID ? "an acid" : "a base",
+                     kind == EQPI_RG_ACID ? "releases" : "takes up", fix);
+  return EQP_OK;
+}
+
 static int choose(eqp_ctx *ctx, const eqp_recipe_spec *sp, plan *p)
 {
   memset(p, 0, sizeof *p);
@@ -107,6 +152,16 @@ static int choose(eqp_ctx *ctx, const eqp_recipe_spec *sp, plan *p)
   p->b = reagent_of(ctx, r2);
   if (!p->a || !p->b)
     return eqpi_fail(ctx, EQP_E_UNKNOWN, "recipe: unknown reagent '%s'", p->a ? r2 : r1);
+  if (p->a == p->b)
+    return eqpi_fail(ctx, EQP_E_INPUT, "recipe: using names %s twice; name two reagents: the "
+                     "acid and base forms (such as { 'NaH2PO4', 'Na2HPO4' }), or the buffer "
+                     "substance and a strong acid or base (such as { 'Tris', 'HCl' })", p->a->name);
+  if (eqpi_reagent_kind(ctx->db, p->a, NULL) != EQPI_RG_WEAK &&
+      eqpi_reagent_kind(ctx->db, p->b, NULL) != EQPI_RG_WEAK)
+    return eqpi_fail(ctx, EQP_E_INPUT, "recipe: using = { %s, %s } makes no buffer: neither is "
+                     "a weak acid or base (a form of a buffer system such as phosphate or Tris); "
+                     "name one, with its other form or a strong acid or base", p->a->name,
+                     p->b->name);
   /* a strong acid or base as the second is a titrant stock; two forms of
   ** the same system are a pair */
   static const char *const strong[] = {"HCl", "HNO3", "NaOH", "KOH"};
@@ -115,6 +170,7 @@ static int choose(eqp_ctx *ctx, const eqp_recipe_spec *sp, plan *p)
   if (!isnan(sp->ionic_strength)) {
     p->salt = reagent_of(ctx, sp->salt ? sp->salt : "NaCl");
     if (!p->salt) return eqpi_fail(ctx, EQP_E_UNKNOWN, "recipe: unknown salt '%s'", sp->salt);
+    return check_salt(ctx, p);
   }
   return EQP_OK;
 }
@@ -225,6 +281,18 @@ static void add_item(eqp_recipe *rc, const eqpi_reagent *r, double mol, double m
 #define APPEND(...) do { if (used < sizeof out->procedure) used += (size_t)snprintf( \
     out->procedure + used, sizeof out->procedure - used, __VA_ARGS__); } while (0)
 
+/* A mass (g) or a volume (mL) as the procedure prints it: grams to 0.1 mg
+** and millilitres to 0.01 mL as a balance and a burette read, and smaller
+** quantities in mg or uL with 4 significant digits (a 1 uL recipe printed
+** "0.0000 g"). */
+static void quantity_text(char *buf, size_t len, double v, int volume, int decimals)
+{
+  if (!volume && !(v < 0.01)) snprintf(buf, len, "%.4f g", v);
+  else if (!volume) snprintf(buf, len, "%.4g mg", v * 1e3);
+  else if (!(v < 0.1)) snprintf(buf, len, "%.*f mL", decimals, v);
+  else snprintf(buf, len, "%.4g uL", v * 1e3);
+}
+
 static void write_procedure(eqp_recipe *out, const eqp_recipe_spec *sp, const plan *p)
 {
   size_t used = 0;
@@ -237,18 +305,20 @@ static void write_procedure(eqp_recipe *out, const eqp_recipe_spec *sp, const pl
   for (int i = 0; i < out->nitems; i++) {
     const eqp_recipe_item *it = &out->item[i];
     if (it->role == EQP_ROLE_SOLID || it->role == EQP_ROLE_SALT)
-      APPEND("%2d. Weigh %.4f g of %s (%.4g mmol).\n", step++, it->grams, it->reagent,
+      APPEND("%2d. Weigh %s of %s (%.4g mmol).\n", step++, it->printed, it->reagent,
              it->mol * 1e3);
   }
-  APPEND("%2d. Dissolve in about %.0f mL of water.\n", step++, 0.8 * water_mL);
+  char q[48];
+  quantity_text(q, sizeof q, 0.8 * water_mL, 1, 0);
+  APPEND("%2d. Dissolve in about %s of water.\n", step++, q);
   for (int i = 0; i < out->nitems; i++) {
     const eqp_recipe_item *it = &out->item[i];
     if (it->role == EQP_ROLE_TITRANT)
-      APPEND("%2d. While stirring, add %.2f mL of %.4g M %s (%.4g mmol), slowly.\n", step++,
-             it->mL, sp->titrant_molar, it->reagent, it->mol * 1e3);
+      APPEND("%2d. While stirring, add %s of %.4g M %s (%.4g mmol), slowly.\n", step++,
+             it->printed, sp->titrant_molar, it->reagent, it->mol * 1e3);
   }
-  APPEND("%2d. Bring to %.1f C and make up to %.4g mL with water (about %.1f mL of water in "
-         "all); mix well.\n", step++, tC, sp->volume * 1e3, water_mL);
+  APPEND("%2d. Bring to %.1f C and make up to %.4g mL with water (about %s of water in "
+         "all); mix well.\n", step++, tC, sp->volume * 1e3, out->item[out->nitems - 1].printed);
   APPEND("%2d. Check with a pH meter calibrated at %.1f C: it should read %.2f; the model "
          "gives an estimate, the meter decides.\n", step++, tC, sp->pH);
   for (int i = 0; i < out->nwarn; i++) APPEND("Warning: %s.\n", out->warn[i]);
@@ -278,7 +348,17 @@ static int design(eqp_ctx *ctx, const eqp_recipe_spec *sp, const plan *p, double
       return isnan(I0) ? eqp_ctx_errcode(ctx)
                        : eqpi_fail(ctx, EQP_E_INPUT, "recipe: the buffer alone has ionic "
                                    "strength %.4f mol/kg, above the target %.4f", I0, target);
-    if ((rc = make_at(ctx, sp, p, W, k, 1, &s, v, salt)) < 0) return rc;
+    if ((rc = make_at(ctx, sp, p, W, k, 1, &s, v, salt)) < 0) {
+      if (rc == EQP_E_NOMEM) return rc;
+      char why[EQPI_ERRLEN];
+      snprintf(why, sizeof why, "%s", eqp_ctx_errmsg(ctx));
+      return eqpi_fail(ctx, EQP_E_INPUT, "recipe: the buffer reaches pH %.2f alone, but not "
+                       "with salt "
+                       "'%s' bringing the ionic strength to %.4g mol/kg (%s): %s takes up or "
+                       "gives off H+ itself; the ionic strength is set with a neutral salt that "
+                       "leaves the pH alone, such as NaCl or KCl", sp->pH, p->salt->name, target,
+                       why, p->salt->name);
+    }
   }
   *sout = s;
   return EQP_OK;
@@ -447,9 +527,9 @@ static void print_items(eqp_recipe *r)
 {
   for (int i = 0; i < r->nitems; i++) {
     eqp_recipe_item *it = &r->item[i];
-    if (!isnan(it->grams)) snprintf(r->printed[i], sizeof r->printed[i], "%.4f g", it->grams);
-    else snprintf(r->printed[i], sizeof r->printed[i],
-                  it->role == EQP_ROLE_WATER ? "%.1f mL" : "%.2f mL", it->mL);
+    if (!isnan(it->grams)) quantity_text(r->printed[i], sizeof r->printed[i], it->grams, 0, 4);
+    else quantity_text(r->printed[i], sizeof r->printed[i], it->mL, 1,
+                       it->role == EQP_ROLE_WATER ? 1 : 2);
     it->printed = r->printed[i];
   }
 }
@@ -460,7 +540,8 @@ static int normalize(eqp_ctx *ctx, eqp_recipe_spec *sp)
   if (sp->volume == 0) sp->volume = 1;
   if (!(sp->total > 0) || !(sp->volume > 0) || !isfinite(sp->total) || !isfinite(sp->volume))
     return eqpi_fail(ctx, EQP_E_INPUT, "recipe: 'total' and 'volume' must be positive");
-  if (!(sp->pH > -1 && sp->pH < 15)) return eqpi_fail(ctx, EQP_E_INPUT, "recipe: pH %g", sp->pH);
+  if (!(sp->pH >= -1 && sp->pH <= 15))
+    return eqpi_fail(ctx, EQP_E_INPUT, "recipe: the target pH %g is outside -1..15", sp->pH);
   if (!(sp->titrant_molar > 0)) sp->titrant_molar = 1.0;
   if (sp->T == 0) sp->T = 298.15;
   return EQP_OK;
@@ -493,8 +574,8 @@ int eqp_recipe_make(eqp_ctx *ctx, const eqp_recipe_spec *spec, eqp_recipe **out)
     eqp_recipe_free(r);
     return rc;
   }
+  print_items(r);                /* the procedure prints the items as printed */
   write_procedure(r, &sp, &p);
-  print_items(r);
   char prefix[200];
   snprintf(prefix, sizeof prefix, "recipe for %s and %s, pH %.2f, %.4g mM", p.a->name,
            p.b->name, sp.pH, sp.total * 1e3);

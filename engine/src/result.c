@@ -56,11 +56,18 @@ static void supersaturation_notes(const eqp_result *r)
   for (int k = 0; k < db->nsolids; k++) {
     double si;
     if (eqp_result_saturation(r, db->solids[k].name, &si) != EQP_OK || !(si > 1e-6)) continue;
-    char w[320];
+    /* an index from a 25 C constant, or from a function beyond its range, says so */
+    eqpi_tnotes notes = {0, 0};
+    (void)eqpi_reaction_logK(&db->solids[k].ksp, r->T, &notes);
+    const char *how = notes.missing ? "; its log Ksp has no temperature data, the 25 C value "
+                                      "was used"
+                    : notes.outside ? "; its log Ksp function was used outside its stated "
+                                      "temperature range" : "";
+    char w[420];
     snprintf(w, sizeof w, "%s (%s) is supersaturated, saturation index %.2f: it may "
              "precipitate; a solid forms only where precipitate = {...} allows it (many "
-             "supersaturated media stay metastable for days)", db->solids[k].name,
-             db->solids[k].formula, si);
+             "supersaturated media stay metastable for days)%s", db->solids[k].name,
+             db->solids[k].formula, si, how);
     eqpi_warn(r->ctx, "supersaturated", w);
   }
 }
@@ -207,6 +214,12 @@ int eqp_result_molality(const eqp_result *r, const char *sp, double *out)
 {
   int i = lookup(r, sp);
   if (i < -1) return EQP_E_UNKNOWN;
+  /* the solvent has no molality: 0 (what an absent species gets) would be
+  ** a wrong number, not a missing one */
+  if (i < 0 && eqpi_db_find_species(r->db, sp) == r->db->water)
+    return eqpi_fail(r->ctx, EQP_E_INPUT, "%s is the solvent: it has no molality or molarity "
+                     "(its amount is r.water kg; its activity, r:activity('%s'), is 1 unless "
+                     "the model says otherwise)", sp, sp);
   *out = i < 0 ? 0.0 : r->m[i];
   return EQP_OK;
 }

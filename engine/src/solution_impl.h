@@ -48,6 +48,13 @@ void eqpi_reagent_dir(const eqp_solution *s, const eqpi_reagent *r, double *a, d
 /* Record that reagent r, or everything hazardous in stock, went into s
 ** (and so into the run: its context shows the caution). caution.c */
 int eqpi_use_reagent(eqp_solution *s, const eqpi_reagent *r);
+/* What a reagent does to the pH, as its formula says (recipe.c): it
+** releases H+ (an acid: HCl), takes it up (a base: NaOH), holds a weak acid
+** or base (a component with protonated or hydrolysed forms: KH2PO4, Tris,
+** CaCO3; *comp, if given, is that component, else -1), or none of these
+** (NaCl). */
+enum { EQPI_RG_NEUTRAL, EQPI_RG_ACID, EQPI_RG_BASE, EQPI_RG_WEAK };
+int eqpi_reagent_kind(const eqpi_db *db, const eqpi_reagent *r, int *comp);
 int eqpi_use_stock(eqp_solution *s, const eqp_solution *stock);
 /* The record of a copy: the same reagents, and no new use for the run. */
 int eqpi_copy_hazards(eqp_solution *dst, const eqp_solution *src);

@@ -106,6 +106,43 @@ static void describe(char *buf, size_t len, const eqp_target *t, const leg *g, s
   }
 }
 
+/* The species a target fixes: H+ for a pH, the species of an activity or
+** free molality, -1 for the ionic strength. */
+static int fixes(const eqp_solution *s, const eqp_target *t, int species)
+{
+  return t->kind == EQP_TARGET_PH ? s->db->h_plus
+       : t->kind == EQP_TARGET_IONIC_STRENGTH ? -1 : species;
+}
+
+/* Targets that cannot hold together are refused as such, before the solve
+** would fail with "the targets could not be met together": two on the same
+** quantity (two pH values, a pH and the activity of H+), or one reagent or
+** stock for two targets (one amount cannot meet two values). */
+static int check_together(eqp_solution *s, const eqp_target *t, const int *species, size_t n)
+{
+  for (size_t k = 0; k < n; k++)
+    for (size_t j = k + 1; j < n; j++) {
+      int fk = fixes(s, &t[k], species[k]), fj = fixes(s, &t[j], species[j]);
+      int both_ionic = t[k].kind == EQP_TARGET_IONIC_STRENGTH &&
+                       t[j].kind == EQP_TARGET_IONIC_STRENGTH;
+      if (both_ionic || (fk >= 0 && fk == fj))
+        return eqpi_fail(s->ctx, EQP_E_INPUT, "targets %zu and %zu both set %s: a solution has "
+                         "one value of it; keep one", k + 1, j + 1,
+                         both_ionic ? "the ionic strength"
+                         : fk == s->db->h_plus ? "the pH (the activity of H+)"
+                         : s->db->sp[fk].name);
+      int same = t[k].stock ? t[k].stock == t[j].stock
+                 : t[j].reagent && eqpi_db_find_reagent(s->db, t[k].reagent) >= 0 &&
+                   eqpi_db_find_reagent(s->db, t[k].reagent) ==
+                   eqpi_db_find_reagent(s->db, t[j].reagent);
+      if (same)
+        return eqpi_fail(s->ctx, EQP_E_INPUT, "targets %zu and %zu both add %s: one amount "
+                         "cannot meet two targets; give each target a reagent or stock of its "
+                         "own", k + 1, j + 1, t[k].stock ? "the same stock" : t[k].reagent);
+    }
+  return EQP_OK;
+}
+
 int eqp_solution_adjust(eqp_solution *s, eqp_target *user, size_t n)
 {
   if (!s || !user) return eqpi_fail(s ? s->ctx : NULL, EQP_E_ARG, "NULL argument");
@@ -122,7 +159,11 @@ int eqp_solution_adjust(eqp_solution *s, eqp_target *user, size_t n)
     rc = eqpi_opts_read(ctx, "eqp_target", (const char *)user + k * stride, &targets[k],
                         sizeof targets[k], EQPI_TARGET_FIRST);
   }
+  for (size_t k = 0; k < n && rc == EQP_OK; k++)
+    if (targets[k].stock == s)   /* as pour refuses it: no amount of itself changes it */
+      rc = eqpi_fail(ctx, EQP_E_INPUT, "a solution cannot be adjusted with itself as the stock");
   for (size_t k = 0; k < n && rc == EQP_OK; k++) rc = check_target(s, &targets[k], &species[k]);
+  if (rc == EQP_OK) rc = check_together(s, targets, species, n);
   if (rc < 0) return rc;
   size_t nb = (size_t)s->ntotal + 1;
   double *block = eqpi_calloc(ctx, nb * n, sizeof(double));

@@ -190,6 +190,8 @@ int eqp_solution_titrate(eqp_solution *s, const eqp_titration *user, eqp_curve *
   int rc = eqpi_opts_read(ctx, "eqp_titration", user, &opts, sizeof opts, EQPI_TITRATION_0_1);
   if (rc == EQP_OK) rc = check_spec(ctx, spec);
   if (rc < 0) return rc;
+  if (spec->stock == s)         /* as pour refuses it: the pH would never move */
+    return eqpi_fail(ctx, EQP_E_INPUT, "a solution cannot be titrated with itself");
   for (size_t k = 0; k < spec->nspecies; k++)
     if (eqpi_db_find_species(s->db, spec->species[k]) < 0)
       return eqpi_fail(ctx, EQP_E_UNKNOWN, "unknown species '%s'%s", spec->species[k],
@@ -251,11 +253,16 @@ int eqp_solution_titrate(eqp_solution *s, const eqp_titration *user, eqp_curve *
     pH = pH1;
     dpH = dpH1;
   }
+  /* say what to change: the step, in the units it was given in */
+  const char *unit = spec->stock ? "mL" : "mmol";
   if (rc == EQP_OK && until && c->nrows >= MAX_ROWS)
-    rc = eqpi_fail(ctx, EQP_E_INPUT, "pH %.3f not reached within %d points", spec->until_pH,
-                   MAX_ROWS);
+    rc = eqpi_fail(ctx, EQP_E_INPUT, "titration: pH %.3f not reached within %d rows (pH %.3f "
+                   "after %.4g %s): give a larger step than %.4g %s", spec->until_pH, MAX_ROWS,
+                   pH, v * 1e3, unit, spec->step * 1e3, unit);
   if (rc == EQP_OK && !until && v < end * (1 - 1e-12))
-    rc = eqpi_fail(ctx, EQP_E_INPUT, "titration stopped at %d points before its end", MAX_ROWS);
+    rc = eqpi_fail(ctx, EQP_E_INPUT, "titration: %d rows reach only %.4g of the %.4g %s to add: "
+                   "give a step of at least %.4g %s (it was %.4g %s)", MAX_ROWS, v * 1e3,
+                   end * 1e3, unit, end * 1e3 / MAX_ROWS, unit, spec->step * 1e3, unit);
   if (rc == EQP_OK) rc = find_equivalence(c, w, base, &t);
 out:
   if (t.a) eqpi_free(ctx, t.a, sizeof(double) * ((size_t)(base ? base->ntotal : 0) + 1));

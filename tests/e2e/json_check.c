@@ -59,13 +59,29 @@ static int check_lines(char *buf, size_t n, const char *type)
 
 int main(int argc, char **argv)
 {
-  static char buf[1 << 24];
-  size_t n = fread(buf, 1, sizeof buf - 1, stdin);
+  /* all of stdin, however large (a document of 20,000 results is 23 MB) */
+  size_t n = 0, cap = 1 << 20, got;
+  char *buf = malloc(cap);
+  while (buf && (got = fread(buf + n, 1, cap - n - 1, stdin)) > 0) {
+    n += got;
+    if (cap - n - 1 == 0) {
+      char *more = realloc(buf, cap * 2);
+      if (!more) break;
+      buf = more;
+      cap *= 2;
+    }
+  }
+  if (!buf) return 1;
   buf[n] = '\0';
-  if (argc > 1 && strcmp(argv[1], "--lines") == 0) return check_lines(buf, n, argv[2]);
+  if (argc > 1 && strcmp(argv[1], "--lines") == 0) {
+    int lrc = check_lines(buf, n, argv[2]);
+    free(buf);
+    return lrc;
+  }
   long bad = bad_utf8((const unsigned char *)buf, n);
   if (bad >= 0) {
     fprintf(stderr, "json_check: invalid UTF-8 at byte %ld\n", bad);
+    free(buf);
     return 1;
   }
   /* one document and nothing after it */
@@ -73,8 +89,10 @@ int main(int argc, char **argv)
   if (!doc) {
     fprintf(stderr, "json_check: not one valid JSON document near: %.40s\n",
             cJSON_GetErrorPtr());
+    free(buf);
     return 1;
   }
+  free(buf);
   int rc = 0;
   for (int a = 1; a < argc; a++) {
     char path[512];

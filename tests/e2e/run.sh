@@ -56,6 +56,16 @@ check iupac_standards 0 "all within 0.02 pH" -- "$EQP" run "$SRC/tests/published
 # the buffer catalogue, metal complexes, chelators and gases against published
 # values (sources named beside each check in the script)
 check catalogue 0 "all catalogue checks passed" -- "$EQP" run "$SRC/tests/published/catalogue.lua"
+# the solids: gypsum, calcite in air, saturated Ca(OH)2 and a calcium
+# phosphate mixture against published values (sources beside each check)
+check solids 0 "all solids checks passed" -- "$EQP" run "$SRC/tests/published/solids.lua"
+check solids_library 0 "ok solids library" -- "$EQP" run "$CASES/solids_library.lua"
+check calcium_phosphate_brushite 0 "calcium_phosphate.lua:6: brushite (CaHPO4.2H2O) is supersaturated" -- "$EQP" run "$CASES/calcium_phosphate.lua"
+check calcium_phosphate_apatite 0 "calcium_phosphate.lua:6: hydroxyapatite (Ca5(PO4)3OH) is supersaturated" -- "$EQP" run "$CASES/calcium_phosphate.lua"
+"$EQP" run "$CASES/calcium_phosphate.lua" --json >"$TMP/caphos.json" 2>/dev/null
+for solid in "brushite (CaHPO4.2H2O)" "hydroxyapatite (Ca5(PO4)3OH)"; do
+  check "calcium_phosphate_json $solid" 0 "$solid is supersaturated" -- sh -c "for i in 0 1 2 3 4 5 6 7 8 9; do '$JSON' warnings.\$i < '$TMP/caphos.json' 2>/dev/null; done; true"
+done
 check result_fields 0 "^ok" -- "$EQP" run "$CASES/result_fields.lua"
 check inline_species 0 "pH 5.500" -- "$EQP" run "$CASES/inline_species.lua"
 # 0.025 m KH2PO4 + 0.025 m Na2HPO4 and 0.008695 m + 0.03043 m are the IUPAC
@@ -160,7 +170,7 @@ check notation_show_old_style_ion 3 "(did you mean 'Ca^2+'?" -- "$EQP" species s
 check notation_file_old 4 "old.lua:7: .*write 'X^2-'" -- "$EQP" species check "$CASES/old_notation/old.lua"
 check notation_file_formula 4 "write 'SeO4^2-'" -- "$EQP" species check "$CASES/old_notation/old.lua"
 # a FIFO is refused at once, not waited on; a UTF-8 byte-order mark is read past
-mkfifo "$TMP/fifo.lua" && check species_check_fifo 4 "not a regular file" -- timeout 10 "$EQP" species check "$TMP/fifo.lua"
+mkfifo "$TMP/fifo.lua" && check species_check_fifo 4 "not a regular file" -- timeout 120 "$EQP" species check "$TMP/fifo.lua"
 printf '\357\273\277' > "$TMP/bom.lua" && cat "$CASES/good_species.lua" >> "$TMP/bom.lua"
 check species_check_bom 0 "ok, 2 species added" -- "$EQP" species check "$TMP/bom.lua"
 check species_check_bad 4 "bad_species.lua:6:" -- "$EQP" species check "$CASES/bad_species.lua"

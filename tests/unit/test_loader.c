@@ -302,10 +302,13 @@ static void test_inline_table(void **state)
 #define LOAD_BOUND 5.0
 #endif
 
+/* Processor time of this process: the work done, which other programs on a
+** busy machine do not inflate as they do the wall clock (9 s of wall clock
+** for 1 s of work was seen with two cores shared by several builds). */
 static double seconds(void)
 {
   struct timespec t;
-  clock_gettime(CLOCK_MONOTONIC, &t);
+  clock_gettime(CLOCK_PROCESS_CPUTIME_ID, &t);
   return (double)t.tv_sec + 1e-9 * (double)t.tv_nsec;
 }
 
@@ -325,14 +328,15 @@ static void test_many_species_timed(void **state)
   int rc = eqp_ctx_load_species_text(ctx, t, strlen(t), "many.lua");
   double dt = seconds() - t0;
   if (rc != EQP_OK) fail_msg("%s", eqp_ctx_errmsg(ctx));
-  print_message("100,000 species loaded in %.3f s\n", dt);
+  print_message("100,000 species loaded in %.3f s of processor time\n", dt);
   assert_int_equal(eqp_ctx_species_count(ctx), n0 + 100000);
   assert_int_equal(eqp_ctx_reagent_count(ctx), r0 + 100000);
   char *text;
   assert_int_equal(describe(ctx, "Y49999", &text), EQP_OK);
   assert_contains(text, "X49999");
   eqp_ctx_free(ctx);
-  if (dt > LOAD_BOUND) fail_msg("100,000 species took %.2f s (bound %g s)", dt, LOAD_BOUND);
+  if (dt > LOAD_BOUND)
+    fail_msg("100,000 species took %.2f s of processor time (bound %g s)", dt, LOAD_BOUND);
   free_text();
 }
 
@@ -372,7 +376,11 @@ static void test_species_path(void **state)
                      "   hazards = { 'corossive' } } },\n}\n";
   write_file(dir, "mine.lua", mine);
   write_file(dir, "needs.lua", "return {\n reagents = { { 'ZqOH', formula = 'NaOH',\n"
-             "   gives = { ['Zq+'] = 1, ['OH-'] = 1 } } },\n}\n");
+             "   gives = { ['Zq+'] = 1, ['OH-'] = 1 } } },\n"
+             " species = { { 'Wq+', formula = 'K+' } },\n}\n");
+  /* needs what needs.lua defines: left out in turn, for the same root */
+  write_file(dir, "needs2.lua", "return {\n reagents = { { 'WqCl', formula = 'KCl',\n"
+             "   gives = { ['Wq+'] = 1, ['Cl-'] = 1 } } },\n}\n");
   write_file(dir, "fine.lua", "return {\n reagents = { { 'NaKCl2', formula = 'NaKCl2',\n"
              "   gives = { ['Na+'] = 1, ['K+'] = 1, ['Cl-'] = 2 } } },\n}\n");
 
@@ -387,9 +395,14 @@ static void test_species_path(void **state)
   assert_contains(all, "typo.lua was left out");
   assert_contains(all, "mine.lua was left out");
   assert_contains(all, "unknown hazard class 'corossive'");
-  assert_contains(all, "needs.lua was left out");
-  assert_contains(all, "unknown species 'Zq+'");
-  assert_int_equal(eqp_ctx_notice_count(ctx), 4);
+  /* one notice for the root cause, naming the files left out with it (a
+  ** cascade of one notice per dependent file before) */
+  assert_contains(all, "Left out with it, as they need what it defines: ");
+  assert_contains(all, "needs.lua:2: reagent 'ZqOH' gives unknown species 'Zq+'");
+  assert_contains(all, "needs2.lua:2: reagent 'WqCl' gives unknown species 'Wq+'");
+  assert_null(strstr(all, "needs.lua was left out"));
+  assert_null(strstr(all, "needs2.lua was left out"));
+  assert_int_equal(eqp_ctx_notice_count(ctx), 3);
   assert_int_equal(describe(ctx, "our KHP", &text), EQP_OK);
   assert_contains(text, "KHC8H4O4");
   assert_int_equal(describe(ctx, "NaKCl2", &text), EQP_OK);   /* the rest */
@@ -404,6 +417,8 @@ static void test_species_path(void **state)
   assert_contains(eqp_ctx_errmsg(ctx), "mine.lua, which was left out");
   assert_int_equal(eqp_solution_add_str(s, "ZqOH", "1 mmol"), EQP_E_UNKNOWN);
   assert_contains(eqp_ctx_errmsg(ctx), "needs.lua, which was left out");
+  assert_int_equal(eqp_solution_add_str(s, "WqCl", "1 mmol"), EQP_E_UNKNOWN);
+  assert_contains(eqp_ctx_errmsg(ctx), "needs2.lua, which was left out");
   assert_int_equal(eqp_solution_add_str(s, "NaKCl2", "1 mmol"), EQP_OK);
   eqp_solution_free(s);
   eqp_ctx_free(ctx);

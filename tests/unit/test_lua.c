@@ -347,6 +347,39 @@ static void test_first_message_is_the_problem(void **state)
   refused("eq.solution{ water = '1 kg', volume = '1 L' }", 1, "either 'water'");
   refused("eq.solution{}:set_temperature(120)", 1,
           "set_temperature: temperature 120 C is outside 0..100 C");
+  /* an acid as the salt said "the targets could not be met together"; a
+  ** salt of the buffer's own system (KH2PO4 for phosphate) was taken,
+  ** making more than the 50 mM of buffer asked for */
+  static const char rec[] = "eq.recipe{ buffer = 'phosphate', pH = 7.4, total = '50 mM', "
+                            "ionic_strength = '0.15 M', quiet = true, salt = ";
+  char code[512];
+  snprintf(code, sizeof code, "%s'HCl' }", rec);
+  refused(code, 1, "salt = 'HCl' is an acid (it releases H+), not a neutral salt; the ionic "
+          "strength is set with a neutral salt that leaves the pH alone, such as NaCl or KCl");
+  snprintf(code, sizeof code, "%s'NaOH' }", rec);
+  refused(code, 1, "salt = 'NaOH' is a base (it takes up H+)");
+  snprintf(code, sizeof code, "%s'KH2PO4' }", rec);
+  refused(code, 1, "salt = 'KH2PO4' holds PO4^3-, of the buffer's own system");
+  snprintf(code, sizeof code, "%s'Tris' }", rec);
+  refused(code, 1, "Tris takes up or gives off H+ itself; the ionic strength is set with a "
+          "neutral salt");
+  snprintf(code, sizeof code, "%s'KCl' }", rec);
+  ok(code);
+  /* two reagents that make no buffer gave a "recipe" of HCl weighed in grams */
+  refused("eq.recipe{ using = { 'HCl', 'NaOH' }, pH = 7, total = '50 mM', quiet = true }", 1,
+          "using = { HCl, NaOH } makes no buffer: neither is a weak acid or base");
+  refused("eq.recipe{ using = { 'NaCl', 'KCl' }, pH = 7, total = '50 mM', quiet = true }", 1,
+          "makes no buffer");
+  refused("eq.recipe{ using = { 'Tris', 'Tris' }, pH = 8, total = '50 mM', quiet = true }", 1,
+          "using names Tris twice");
+  /* a load of NaCl ranked every buffer by a shift of 0 */
+  refused("eq.compare_buffers{ pH = 7.2, total = '50 mM', load = '2 mM', load_with = 'NaCl',\n"
+          "  quiet = true }", 1, "load_with = 'NaCl' is neither an acid nor a base");
+  /* an acid that is no acid said "pH 10.282 is out of reach with NaCl" */
+  refused("local s = eq.solution{}\ns:add('Tris', '50 mM')\ns:load_budget{ acid = 'NaCl' }", 3,
+          "load budget: acid = 'NaCl' is neither an acid nor a base; name an acid, such as HCl");
+  refused("local s = eq.solution{}\ns:add('Tris', '50 mM')\n"
+          "s:load_budget{ acid = 'NaOH', base = 'HCl' }", 3, "acid = 'NaOH' is a base");
 }
 
 /* Every message starts with the script's file and line, also through
@@ -365,6 +398,177 @@ static void test_file_and_line(void **state)
           "  step = '1 mmol',\n"
           "  max_dpH = -1,\n"
           "}", 2, "max_dpH");
+}
+
+/* Extra arguments were ignored: s:add("NaCl", "1 mmol", {}) added NaCl and
+** eq.solution({...}, 5) made a solution. Every call refuses them, naming
+** its signature; the optional trailing arguments stay optional. */
+static void test_extra_arguments(void **state)
+{
+  static const char setup[] =
+    "local s = eq.solution{}\n"
+    "local stock = eq.solution{}\n"
+    "local r = s:equilibrate()\n"
+    "local c = s:titrate{ with = 'NaOH', step = '1 mmol', to = '2 mmol' }\n"
+    "local p = eq.plot{ lines = { { x = { 1, 2 }, y = { 1, 2 } } } }\n";
+  static const struct { const char *call, *needle; } calls[] = {
+    {"eq.solution({ volume = '1 L' }, 5)", "eq.solution{ options } takes 1 argument; got 2 "
+                                           "(the 2nd is the number 5)"},
+    {"s:add('NaCl', '1 mmol', {})", "s:add(reagent, amount) takes 2 arguments; got 3 (the 3rd "
+                                    "is a table)"},
+    {"s:add('NaCl', '1 mmol', nil)", "the 3rd is nil"},
+    {"s:equilibrate(1)", "s:equilibrate() takes no arguments; got 1"},
+    {"s:copy(s)", "s:copy() takes no arguments"},
+    {"s:set_temperature(25, 'C')", "s:set_temperature(t) takes 1 argument"},
+    {"s:water(1)", "s:water()"}, {"s:volume(1)", "s:volume()"},
+    {"s:temperature(1)", "s:temperature()"},
+    {"s:pour(stock, '1 mL', '2 mL')", "s:pour(stock, volume) takes 2 arguments"},
+    {"s:dilute(2, 3)", "s:dilute("}, {"s:buffer_capacity('HCl')", "s:buffer_capacity()"},
+    {"s:adjust_pH(7, 'NaOH', '1 M')", "s:adjust_pH(pH, reagent | stock) takes 2 arguments"},
+    {"s:adjust({ { pH = 7, with = 'NaOH' } }, 1)", "s:adjust{ target, ... }"},
+    {"s:fix_activity('Ca^2+', 1e-6, 'Cl-', 1)", "takes 3 arguments"},
+    {"s:load_budget({}, 0.1)", "s:load_budget([options]) takes 1 argument"},
+    {"s:expose('CO2(g)', '1 atm', 1)", "s:expose(gas, pressure)"},
+    {"s:total('Na+', 'mol')", "s:total(component)"},
+    {"s:titrate({ with = 'NaOH', step = '1 mmol', to = '2 mmol' }, 1)", "s:titrate{ options }"},
+    {"s:temperature_sweep({ from = 20, to = 30 }, 1)", "s:temperature_sweep{"},
+    {"r:molality('Na+', 3)", "r:molality(species) takes 1 argument; got 2"},
+    {"r:molarity('Na+', 3)", "r:molarity(species)"}, {"r:activity('Na+', 3)", "r:activity("},
+    {"r:gamma('Na+', 3)", "r:gamma(species)"}, {"r:saturation('calcite', 3)", "r:saturation("},
+    {"r:solid('calcite', 3)", "r:solid(name)"}, {"r:species(1)", "r:species()"},
+    {"c:csv(1)", "curve:csv()"}, {"c:json(1)", "curve:json()"},
+    {"c:write_csv('a.csv', 1)", "curve:write_csv(path)"},
+    {"c:write_json('a.json', 1)", "curve:write_json(path)"},
+    {"c:plot('a.svg', {}, 1)", "curve:plot(file [, options]) takes 2 arguments"},
+    {"p:svg(1)", "plot:svg()"}, {"p:write('a.svg', 1)", "plot:write(file)"},
+    {"eq.mix({ s }, 1)", "eq.mix{ parts }"},
+    {"eq.recipe({ buffer = 'phosphate', pH = 7, total = '50 mM' }, 1)", "eq.recipe{ options }"},
+    {"eq.compare_buffers({ pH = 7, total = '50 mM', load = '2 mM' }, 1)",
+     "eq.compare_buffers{ options }"},
+    {"eq.load_species({}, 1)", "eq.load_species(path_or_table)"},
+    {"eq.molar_mass('NaCl', 1)", "eq.molar_mass(formula)"},
+    {"eq.quantity('1 mM', 1)", "eq.quantity(text)"},
+    {"eq.describe('NaCl', {}, 1)", "eq.describe(name [, options]) takes 2 arguments"},
+    {"eq.plot({ lines = {} }, 1)", "eq.plot{ options }"},
+    {"eq.distribution({ system = 'phosphate' }, 1)", "eq.distribution{ options }"},
+    {"eq.capacity({ total = '50 mM' }, 1)", "eq.capacity{ options }"},
+    {"eq.pretty('Na+', 1)", "eq.pretty(name)"},
+  };
+  for (size_t i = 0; i < sizeof calls / sizeof calls[0]; i++) {
+    char code[2048];
+    snprintf(code, sizeof code, "%s%s", setup, calls[i].call);
+    refused(code, 6, calls[i].needle);
+  }
+  /* optional trailing arguments may be left out, or given */
+  ok("assert(eq.describe('NaCl'))\nassert(eq.describe('NaCl', { temperature = 37 }))\n"
+     "local s = eq.solution{}\ns:add('Tris', '50 mM')\nassert(s:load_budget().pH)\n"
+     "assert(s:load_budget{ window = 0.2 }.pH)");
+}
+
+/* eq.plot drew a NaN or an infinity as a gap, and cut a label at a NUL. */
+static void test_plot_points_and_labels(void **state)
+{
+  refused("eq.plot{ lines = { { x = { 1, 2, 3 }, y = { 1, 0/0, 3 } } } }", 1,
+          "eq.plot line y: item 2 is nan, not a finite number (leave a gap with nil or false)");
+  refused("eq.plot{ lines = { { x = { 1, -math.huge }, y = { 1, 2 } } } }", 1,
+          "eq.plot line x: item 2 is -inf");
+  refused("eq.plot{ bands = { { 0/0, 1 } } , lines = {} }", 1,
+          "a band's from must be a finite number; got nan");
+  refused("eq.plot{ lines = { { x = { 1 }, y = { 1 }, label = 'a\\0b' } } }", 1,
+          "is followed by a NUL character");
+  refused("eq.plot{ title = 'a\\0b', lines = {} }", 1, "is followed by a NUL character");
+  refused("eq.plot{ x = 'pH\\0', lines = {} }", 1, "is followed by a NUL character");
+  refused("eq.plot{ y = { label = 'pH', unit = 'mM\\0x' }, lines = {} }", 1,
+          "is followed by a NUL character");
+  refused("eq.plot{ hlines = { { y = 1, label = 'x\\0y' } }, lines = {} }", 1,
+          "is followed by a NUL character");
+  refused("eq.plot{ width = 1e300, lines = {} }", 1, "200 to 4000");
+  refused("eq.pretty('HPO4^2-\\0x')", 1, "is followed by a NUL character");
+  /* a gap is asked for with nil or false */
+  ok("eq.plot{ lines = { { x = { 1, 2, 3, 4 }, y = { 1, nil, false, 4 } } } }");
+  /* a title an __index makes lives until the figure is made */
+  tortured("local o = setmetatable({ lines = { { x = { 1, 2 }, y = { 1, 2 } } } },\n"
+           "  { __index = function(t, k) if k == 'title' then return table.concat{ 'ti', 'tle' }"
+           " end end })\n"
+           "assert(#eq.plot(o):svg() > 0)", NULL);
+}
+
+/* The sweeps read their options with checks of their own: a NaN
+** temperature made a distribution at 25 C, -40 C a capacity sweep, a volume
+** of 0 L was taken, 2.5 points made 2. */
+static void test_sweep_options(void **state)
+{
+  refused("eq.distribution{ system = 'phosphate', temperature = 0/0 }", 1,
+          "eq.distribution: temperature must be a finite number; got nan");
+  refused("eq.distribution{ system = 'phosphate', temperature = 500 }", 1,
+          "eq.distribution: temperature 500 C is outside 0..100 C");
+  refused("eq.distribution{ system = 'phosphate', ionic_strength = 0/0 }", 1,
+          "ionic_strength (mol/kg) must be a finite number; got nan");
+  refused("eq.distribution{ system = 'phosphate', points = 2.5 }", 1,
+          "points must be a whole number; got 2.5");
+  refused("eq.capacity{ total = '50 mM', temperature = -40 }", 1,
+          "eq.capacity: temperature -40 C is outside 0..100 C");
+  refused("eq.capacity{ total = '50 mM', volume = '0 L' }", 1,
+          "eq.capacity: volume = '0 L' is out of range");
+  refused("eq.capacity{ total = '6 M' }", 1, "eq.capacity: total = '6 M' is out of range");
+  refused("local s = eq.solution{}\ns:temperature_sweep{ from = 20, to = 30, points = 2.7 }", 2,
+          "temperature_sweep: points must be a whole number");
+  refused("local s = eq.solution{}\ns:temperature_sweep{ from = 30, to = 20 }", 2,
+          "from = 30 C must be below to = 20 C");
+  refused("local s = eq.solution{}\ns:temperature_sweep{ from = 0/0, to = 20 }", 2,
+          "must be a finite number");
+  ok("assert(#eq.distribution{ system = 'phosphate', ionic_strength = '0.1 mol/kg',\n"
+     "  temperature = '37 C', points = 11 } == 11)\n"
+     "assert(#eq.solution{}:temperature_sweep{ from = 20, to = 30 } == 11)");
+}
+
+/* Found by trying the calls as a hostile user would. */
+static void test_probed(void **state)
+{
+  /* the solvent's molality was 0, a wrong number rather than a missing one */
+  refused("local r = eq.solution{}:equilibrate()\nprint(r:molality('H2O'))", 2,
+          "H2O is the solvent: it has no molality or molarity");
+  refused("local r = eq.solution{}:equilibrate()\nprint(r:molarity('H2O'))", 2,
+          "H2O is the solvent");
+  ok("local r = eq.solution{}:equilibrate()\nassert(r:activity('H2O') == 1)");
+  /* pour refused a solution as its own stock; adjust_pH said "adding it
+  ** lowers the pH" and titrate made a flat curve */
+  refused("local s = eq.solution{}\ns:add('Tris', '50 mM')\ns:adjust_pH(7, s)", 3,
+          "a solution cannot be adjusted with itself as the stock");
+  refused("local s = eq.solution{}\ns:add('Tris', '50 mM')\n"
+          "s:titrate{ with = s, step = '1 mL', to = '10 mL' }", 3,
+          "a solution cannot be titrated with itself");
+  /* "titration stopped at 100000 points before its end": now what to change */
+  refused("local s = eq.solution{}\ns:add('CH3COOH', '1 mmol')\n"
+          "s:titrate{ with = 'NaOH', step = '1e-12 mmol', to = '2 mmol' }", 3,
+          "titration: 100000 rows reach only 1e-07 of the 2 mmol to add: give a step of at "
+          "least 2e-05 mmol (it was 1e-12 mmol)");
+  /* two targets on one quantity, or one reagent for two targets, said "the
+  ** targets could not be met together" (exit 5) */
+  refused("local s = eq.solution{}\ns:add('Tris', '50 mM')\n"
+          "s:adjust{ { pH = 7, with = 'HCl' }, { pH = 7.5, with = 'NaOH' } }", 3,
+          "targets 1 and 2 both set the pH (the activity of H+)");
+  refused("local s = eq.solution{}\ns:add('Tris', '50 mM')\n"
+          "s:adjust{ { pH = 7, with = 'HCl' }, { species = 'H+', activity = 1e-7, with = 'NaOH' } }",
+          3, "both set the pH");
+  refused("local s = eq.solution{}\ns:add('Tris', '50 mM')\n"
+          "s:adjust{ { pH = 7, with = 'HCl' }, { ionic_strength = '0.15 mol/kg', with = 'HCl' } }",
+          3, "targets 1 and 2 both add HCl: one amount cannot meet two targets");
+  ok("local s = eq.solution{}\ns:add('Tris', '50 mM')\n"
+     "assert(#s:adjust{ { pH = 7, with = 'HCl' }, { ionic_strength = '0.15 mol/kg', "
+     "with = 'NaCl' } } == 2)");
+  /* a recipe of 1 uL printed "Weigh 0.0000 g": now mg, and the printed
+  ** quantity is the amount (re-weighed from the text, the same mmol) */
+  ok("local r = eq.recipe{ buffer = 'phosphate', pH = 7.4, total = '50 mM', volume = '1 uL',\n"
+     "  quiet = true }\n"
+     "local it = r.items[1]\n"
+     "assert(it.printed:find(' mg$'), it.printed)\n"
+     "local v = eq.quantity(it.printed)\n"
+     "assert(math.abs(v * 1e3 / eq.molar_mass(it.reagent) * 1e3 - it.mmol) < 1e-3 * it.mmol)\n"
+     "assert(not r.procedure:find('0.0000 g', 1, true) and r.procedure:find(' uL of water', 1, true))");
+  /* a figure named .bmp was refused as "not an output file" by the sandbox */
+  refused("local c = eq.solution{}:titrate{ with = 'HCl', step = '1 mmol', to = '2 mmol' }\n"
+          "c:plot('x.bmp')", 2, "plot file 'x.bmp': a figure is written as .svg, .png or .pdf");
 }
 
 /* Every documented option of every call is accepted. */
@@ -426,6 +630,10 @@ int main(void)
     cmocka_unit_test(test_first_message_is_the_problem),
     cmocka_unit_test(test_file_and_line),
     cmocka_unit_test(test_every_option_accepted),
+    cmocka_unit_test(test_extra_arguments),
+    cmocka_unit_test(test_plot_points_and_labels),
+    cmocka_unit_test(test_sweep_options),
+    cmocka_unit_test(test_probed),
   };
   return cmocka_run_group_tests(tests, setup, teardown);
 }

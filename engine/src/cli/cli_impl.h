@@ -75,7 +75,12 @@ void cli_strings_free(cli_strings *set);
 /* What the run made, as the engine's observer tells of it (observe.c):
 ** only what this run's output needs is kept. */
 typedef struct cli_record {
-  void *results, *curves;         /* cJSON arrays (--json), with "where" */
+  /* --json: each result and curve as text, written as it is made (with its
+  ** "where"), so that the document costs no memory however many there are;
+  ** each a temporary file, or NULL (then kept in results, curves) */
+  FILE *spill[2];
+  size_t nspill[2];
+  void *results, *curves;         /* cJSON arrays (--json) when no file could be made */
   size_t nresults, ncurves;       /* made so far */
   eqp_result *kept[CLI_KEEP_RESULTS];   /* copies, for the provenance (--json, --jsonl) */
   size_t nkept;
@@ -152,6 +157,10 @@ void *cli_json_bytes(const char *s, size_t len);
 /* Write the JSON text and a newline to f in one write(2), with any invalid
 ** UTF-8 replaced by U+FFFD. */
 void cli_put_json_line(FILE *f, const char *text);
+
+/* s (len bytes) to f with invalid UTF-8 replaced by U+FFFD, and indent
+** (if not NULL) after each newline. */
+void cli_put_clean(FILE *f, const char *s, size_t len, const char *indent);
 
 /* The caution of each hazardous reagent the run used, in order; calls f. */
 void cli_each_caution(cli_state *st, void (*f)(void *, const char *), void *ud);

@@ -169,10 +169,19 @@ static int limit_option(run_args *ra, int mem, const char *v)
 static int param_option(run_args *ra, const char *kv)
 {
   const char *eq = kv ? strchr(kv, '=') : NULL;
-  if (!eq || eq == kv || ra->run.nparams == 64)
+  if (!eq || eq == kv)
     return usage_error(&ra->run, "--param needs NAME=VALUE%s", kv ? "" : " (none given)");
+  if (ra->run.nparams == 64) return usage_error(&ra->run, "at most 64 --param options%s", "");
   char *name = strndup(kv, (size_t)(eq - kv));
   if (!name) return EXIT_NOMEM;
+  for (int i = 0; i < ra->run.nparams; i++)
+    if (strcmp(ra->names[i], name) == 0) {   /* which one the script sees is not obvious */
+      char msg[400];
+      snprintf(msg, sizeof msg, "--param %.100s is given twice ('%.100s' and '%.100s')", name,
+               ra->values[i], eq + 1);
+      free(name);
+      return usage_error(&ra->run, "%s", msg);
+    }
   ra->owned[ra->nowned++] = name;
   ra->names[ra->run.nparams] = name;
   ra->values[ra->run.nparams++] = eq + 1;

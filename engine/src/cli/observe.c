@@ -67,6 +67,8 @@ void cli_strings_free(cli_strings *set)
 
 void cli_record_free(cli_record *rec)
 {
+  for (int k = 0; k < 2; k++)
+    if (rec->spill[k]) fclose(rec->spill[k]);
   cJSON_Delete(rec->results);
   cJSON_Delete(rec->curves);
   for (size_t i = 0; i < rec->nkept; i++) eqp_result_free(rec->kept[i]);
@@ -88,6 +90,28 @@ static void where(cli_state *st, char *buf, size_t len)
   lua_State *L = st->lim.L ? st->lim.L : st->L;
   buf[0] = '\0';
   if (L) eqpi_lua_where(L, buf, len);
+}
+
+/* Keep o (a result, k 0, or a curve, k 1) for the --json document: its
+** text in the spill file (indented for its place in the document), or, if
+** the file cannot be made, the object itself. Takes o. */
+static void keep(cli_state *st, int k, cJSON *o)
+{
+  cli_record *rec = &st->rec;
+  void **list = k ? &rec->curves : &rec->results;
+  if (!rec->spill[k] && !*list) rec->spill[k] = tmpfile();   /* tried once: order is kept */
+  char *text = rec->spill[k] ? cJSON_Print(o) : NULL;
+  if (text) {
+    FILE *f = rec->spill[k];
+    fputs(rec->nspill[k]++ ? ",\n\t\t" : "\t\t", f);
+    cli_put_clean(f, text, strlen(text), "\t\t");   /* JSON strings hold no raw newline */
+    cJSON_free(text);
+    cJSON_Delete(o);
+    return;
+  }
+  if (!*list) *list = cJSON_CreateArray();
+  if (*list) cJSON_AddItemToArray(*list, o);
+  else cJSON_Delete(o);
 }
 
 /* A new record {type, index, where, ...fields of body}. */
@@ -134,9 +158,7 @@ static void on_result(void *ud, const eqp_result *r)
     return;
   }
   cJSON_AddStringToObject(o, "where", at);
-  if (!rec->results) rec->results = cJSON_CreateArray();
-  if (rec->results) cJSON_AddItemToArray(rec->results, o);
-  else cJSON_Delete(o);
+  keep(st, 0, o);
 }
 
 static void on_curve(void *ud, const eqp_curve *c)
@@ -153,9 +175,7 @@ static void on_curve(void *ud, const eqp_curve *c)
     return;
   }
   cJSON_AddStringToObject(o, "where", at);
-  if (!rec->curves) rec->curves = cJSON_CreateArray();
-  if (rec->curves) cJSON_AddItemToArray(rec->curves, o);
-  else cJSON_Delete(o);
+  keep(st, 1, o);
 }
 
 static void on_reagent_used(void *ud, const char *reagent)

@@ -19,6 +19,12 @@ static void put_output(lua_State *L, const char *s, size_t len)
     cJSON_AddStringToObject(o, "type", "output");
     cJSON_AddItemToObject(o, "text", cli_json_bytes(s, len));
     cli_emit(st, o);
+  } else if (st->run->json && st->stray) {
+    /* where fd 1 goes too: the lines keep their order with what child
+    ** processes write, and cost no memory until the document is written */
+    fflush(stdout);
+    fwrite(s, 1, len, st->stray);
+    fflush(st->stray);
   } else if (st->run->json) {
     luaL_getsubtable(L, LUA_REGISTRYINDEX, OUTPUT);
     lua_pushlstring(L, s, len);

@@ -172,37 +172,57 @@ static void add_status(cJSON *doc, int code, const char *error)
   else cJSON_AddNullToObject(doc, "error");
 }
 
-/* What the script printed (--json) and what others wrote to fd 1, as lines. */
-static void add_output(cli_state *st, cJSON *out)
+/* The lines of what the script printed (kept in the registry when no
+** temporary file could be made) and of what was written to fd 1 (the
+** script's print too, in JSON modes), in order, one line in memory at a
+** time; a last line without its newline too. */
+typedef struct lines { char *buf; size_t n, cap; void (*f)(void *, const char *, size_t); void *ud; } lines;
+
+static void feed(lines *l, const char *s, size_t len)
 {
+  for (size_t i = 0; i < len; i++) {
+    if (s[i] == '\n') {
+      l->f(l->ud, l->buf ? l->buf : "", l->n);
+      l->n = 0;
+      continue;
+    }
+    if (l->n == l->cap) {
+      size_t cap = l->cap ? l->cap * 2 : 256;
+      char *b = realloc(l->buf, cap);
+      if (!b) return;           /* out of memory: the rest of this line is lost */
+      l->buf = b;
+      l->cap = cap;
+    }
+    l->buf[l->n++] = s[i];
+  }
+}
+
+static void each_output_line(cli_state *st, void (*f)(void *, const char *, size_t), void *ud)
+{
+  lines l = {NULL, 0, 0, f, ud};
   lua_State *L = st->L;
-  luaL_Buffer b;
-  if (!L) return;
-  int t = lua_gettop(L) + 1;
-  lua_getfield(L, LUA_REGISTRYINDEX, "equipoise.output");
-  luaL_buffinit(L, &b);
-  lua_Integer n = lua_istable(L, t) ? (lua_Integer)lua_rawlen(L, t) : 0;
-  for (lua_Integer i = 1; i <= n; i++) {
-    lua_rawgeti(L, t, i);
-    luaL_addvalue(&b);
+  if (L) {
+    int t = lua_gettop(L) + 1;
+    lua_getfield(L, LUA_REGISTRYINDEX, "equipoise.output");
+    lua_Integer n = lua_istable(L, t) ? (lua_Integer)lua_rawlen(L, t) : 0;
+    for (lua_Integer i = 1; i <= n; i++) {
+      size_t len;
+      lua_rawgeti(L, t, i);
+      const char *s = lua_tolstring(L, -1, &len);
+      if (s) feed(&l, s, len);
+      lua_pop(L, 1);
+    }
+    lua_settop(L, t - 1);
   }
   if (st->stray) {
     char chunk[4096];
     size_t got;
     fflush(stdout);
     rewind(st->stray);
-    while ((got = fread(chunk, 1, sizeof chunk, st->stray)) > 0) luaL_addlstring(&b, chunk, got);
+    while ((got = fread(chunk, 1, sizeof chunk, st->stray)) > 0) feed(&l, chunk, got);
   }
-  luaL_pushresult(&b);
-  size_t len;
-  const char *text = lua_tolstring(L, -1, &len);
-  for (size_t i = 0; i < len;) {
-    const char *nl = memchr(text + i, '\n', len - i);
-    size_t end = nl ? (size_t)(nl - text) : len;
-    cJSON_AddItemToArray(out, cli_json_bytes(text + i, end - i));
-    i = end + 1;
-  }
-  lua_settop(L, t - 1);
+  if (l.n) f(ud, l.buf, l.n);
+  free(l.buf);
 }
 
 static void add_closing(cli_state *st, cJSON *doc)
@@ -253,24 +273,108 @@ static void print_doc(cli_state *st, cJSON *doc, int formatted)
   cJSON_Delete(doc);
 }
 
-/* The list the observer kept (detached: the document owns it now), or []. */
-static cJSON *take(void **list)
+/* s (len bytes) to f with every invalid UTF-8 sequence replaced by U+FFFD,
+** and indent after each newline. */
+static void put_clean(FILE *f, const char *s, size_t len, const char *indent)
 {
-  cJSON *l = *list ? *list : cJSON_CreateArray();
-  *list = NULL;
-  return l;
+  const unsigned char *u = (const unsigned char *)s;
+  for (size_t i = 0; i < len;) {
+    size_t n = u[i] && u[i] < 0x80 ? 1 : u[i] ? utf8_len(u + i, len - i) : 0;
+    if (n) fwrite(s + i, 1, n, f);
+    else fputs(replacement, f);
+    if (indent && s[i] == '\n') fputs(indent, f);
+    i += n ? n : 1;
+  }
 }
 
+void cli_put_clean(FILE *f, const char *s, size_t len, const char *indent)
+{
+  put_clean(f, s, len, indent);
+}
+
+/* The members of the printed object text, without its braces. */
+static void put_members(FILE *f, const char *text)
+{
+  size_t len = strlen(text);
+  if (len > 4) put_clean(f, text + 2, len - 4, NULL);   /* "{\n" members "\n}" */
+}
+
+/* One of the lists the observer kept: its spill file as it is, or the
+** objects themselves. */
+static void put_list(FILE *f, cli_record *rec, int k)
+{
+  void **list = k ? &rec->curves : &rec->results;
+  fputs("[", f);
+  if (rec->spill[k] && rec->nspill[k]) {
+    char chunk[8192];
+    size_t got;
+    fflush(rec->spill[k]);
+    rewind(rec->spill[k]);
+    fputs("\n", f);
+    while ((got = fread(chunk, 1, sizeof chunk, rec->spill[k])) > 0) fwrite(chunk, 1, got, f);
+    fputs("\n\t", f);
+  }
+  for (cJSON *o = *list ? ((cJSON *)*list)->child : NULL; o; o = o->next) {
+    char *text = cJSON_Print(o);
+    if (!text) continue;
+    fputs(o == ((cJSON *)*list)->child && !rec->nspill[k] ? "\n\t\t" : ",\n\t\t", f);
+    put_clean(f, text, strlen(text), "\t\t");
+    cJSON_free(text);
+    if (!o->next) fputs("\n\t", f);
+  }
+  fputs("]", f);
+}
+
+typedef struct out_lines { FILE *f; size_t n; } out_lines;
+
+static void put_line(void *ud, const char *s, size_t len)
+{
+  out_lines *o = ud;
+  cJSON *str = cli_json_bytes(s, len);
+  char *text = str ? cJSON_PrintUnformatted(str) : NULL;
+  if (text) {
+    fputs(o->n++ ? ",\n\t\t" : "\n\t\t", o->f);
+    fputs(text, o->f);
+  }
+  cJSON_free(text);
+  cJSON_Delete(str);
+}
+
+/* The document, written piece by piece: the results, curves and printed
+** lines come from files (or the little kept in memory), so that a run of a
+** million results writes its document in the memory of one. */
 void cli_report_json(cli_state *st, int code, const char *error)
 {
-  cJSON *doc = cJSON_CreateObject();
-  add_head(doc, st->run);
-  add_status(doc, code, error);
-  cJSON_AddItemToObject(doc, "results", take(&st->rec.results));
-  cJSON_AddItemToObject(doc, "curves", take(&st->rec.curves));
-  add_output(st, cJSON_AddArrayToObject(doc, "output"));
-  add_closing(st, doc);
-  print_doc(st, doc, 1);
+  cJSON *head = cJSON_CreateObject(), *tail = cJSON_CreateObject();
+  if (head) {
+    add_head(head, st->run);
+    add_status(head, code, error);
+  }
+  if (tail) add_closing(st, tail);
+  char *h = head ? cJSON_Print(head) : NULL, *t = tail ? cJSON_Print(tail) : NULL;
+  cJSON_Delete(head);
+  cJSON_Delete(tail);
+  FILE *f = st->doc;
+  if (!h || !t) {
+    fputs("{\"status\":\"error\",\"exit_code\":7,\"error\":\"out of memory while writing "
+          "the report\"}\n", f);
+  } else {
+    fputs("{\n", f);
+    put_members(f, h);
+    fputs(",\n\t\"results\": ", f);
+    put_list(f, &st->rec, 0);
+    fputs(",\n\t\"curves\": ", f);
+    put_list(f, &st->rec, 1);
+    fputs(",\n\t\"output\": [", f);
+    out_lines o = {f, 0};
+    each_output_line(st, put_line, &o);
+    fputs(o.n ? "\n\t],\n" : "],\n", f);
+    put_members(f, t);
+    fputs("\n}\n", f);
+  }
+  fflush(f);
+  cJSON_free(h);
+  cJSON_free(t);
 }
 
 void cli_report_start(cli_state *st)
@@ -281,20 +385,18 @@ void cli_report_start(cli_state *st)
   print_doc(st, o, 0);
 }
 
+static void emit_line(void *ud, const char *s, size_t len)
+{
+  cJSON *o = cJSON_CreateObject();
+  cJSON_AddStringToObject(o, "type", "output");
+  cJSON_AddItemToObject(o, "text", cli_json_bytes(s, len));
+  cli_emit(ud, o);
+}
+
 /* The closing record of a stream: what others wrote to fd 1, then the summary. */
 void cli_report_summary(cli_state *st, int code, const char *error)
 {
-  if (st->stray && st->L) {
-    cJSON *lines = cJSON_CreateArray();
-    add_output(st, lines);
-    for (cJSON *l = lines->child; l; l = l->next) {
-      cJSON *o = cJSON_CreateObject();
-      cJSON_AddStringToObject(o, "type", "output");
-      cJSON_AddStringToObject(o, "text", l->valuestring);
-      cli_emit(st, o);
-    }
-    cJSON_Delete(lines);
-  }
+  if (st->stray && st->L) each_output_line(st, emit_line, st);
   cJSON *o = cJSON_CreateObject();
   cJSON_AddStringToObject(o, "type", "summary");
   add_status(o, code, error);

@@ -28,6 +28,8 @@ static void open_output(cli_state *st)
   }
   st->doc = doc;
   st->stray = tmpfile();
+  /* fd 1 and the stream share one file: both write at its end */
+  if (st->stray) fcntl(fileno(st->stray), F_SETFL, fcntl(fileno(st->stray), F_GETFL) | O_APPEND);
   int target = st->stray ? fileno(st->stray) : open("/dev/null", O_WRONLY);
   if (target >= 0) dup2(target, 1);
   if (!st->stray && target >= 0) close(target);

@@ -39,6 +39,7 @@ static int curve_len(lua_State *L)
 
 static int curve_csv(lua_State *L)
 {
+  eqpl_check_nargs(L, 1, "curve:csv()");
   eqp_curve *c = check_curve(L, 1);
   char *buf = NULL;
   size_t len = 0;
@@ -53,6 +54,7 @@ static int curve_csv(lua_State *L)
 
 static int curve_write_csv(lua_State *L)
 {
+  eqpl_check_nargs(L, 2, "curve:write_csv(path)");
   eqp_curve *c = check_curve(L, 1);
   eqpl_check_name(L, 2, "write_csv: path");
   int rc = eqp_curve_save_csv(c, eqpl_host_path(L, 2, 'w'));
@@ -63,6 +65,7 @@ static int curve_write_csv(lua_State *L)
 
 static int curve_json(lua_State *L)
 {
+  eqpl_check_nargs(L, 1, "curve:json()");
   char *text = eqp_curve_to_json(check_curve(L, 1));
   if (!text) return luaL_error(L, "out of memory");
   lua_pushstring(L, text);
@@ -72,6 +75,7 @@ static int curve_json(lua_State *L)
 
 static int curve_write_json(lua_State *L)
 {
+  eqpl_check_nargs(L, 2, "curve:write_json(path)");
   eqp_curve *c = check_curve(L, 1);
   eqpl_check_name(L, 2, "write_json: path");
   int rc = eqp_curve_save_json(c, eqpl_host_path(L, 2, 'w'));

@@ -165,6 +165,7 @@ void eqpl_extend_library(lua_State *L, eqp_ctx *ctx, eqpl_library *h, int idx)
 ** (solutions made from now on see them). */
 static int eq_load_species(lua_State *L)
 {
+  eqpl_check_nargs(L, 1, "eq.load_species(path_or_table)");
   eqp_ctx *ctx = eqpl_ctx_of(L);
   if (eqp_ctx_load_default_library(ctx) < 0) return eqpl_fail(L, ctx, eqp_ctx_errcode(ctx));
   eqpl_library *h = eqpl_push_library(L, eqp_ctx_library(ctx));
@@ -176,6 +177,7 @@ static int eq_load_species(lua_State *L)
 /* eq.molar_mass("Na2HPO4.7H2O") -> g/mol */
 static int eq_molar_mass(lua_State *L)
 {
+  eqpl_check_nargs(L, 1, "eq.molar_mass(formula)");
   eqp_ctx *ctx = eqpl_ctx_of(L);
   double m;
   int rc = eqp_formula_molar_mass(ctx, eqpl_check_name(L, 1, "molar_mass: formula"), &m);
@@ -187,6 +189,7 @@ static int eq_molar_mass(lua_State *L)
 /* eq.quantity("25 mM") -> value in base units, kind name */
 static int eq_quantity(lua_State *L)
 {
+  eqpl_check_nargs(L, 1, "eq.quantity(text)");
   eqp_ctx *ctx = eqpl_ctx_of(L);
   double v;
   eqp_quantity k;
@@ -210,6 +213,7 @@ static const eqpl_opt describe_opts[] = {
 
 static int eq_describe(lua_State *L)
 {
+  eqpl_check_nargs(L, 2, "eq.describe(name [, options])");
   eqp_ctx *ctx = eqpl_ctx_of(L);
   const char *name = eqpl_check_name(L, 1, "describe: name");
   eqpl_val v[1];

@@ -142,6 +142,11 @@ typedef struct eqpl_val {
 ** returns n. Pushes one slot per option. */
 size_t eqpl_options(lua_State *L, int idx, const char *call, const eqpl_opt *spec, eqpl_val *out,
                     unsigned flags);
+/* Raise when the call has more than max arguments (a method's object
+** counts as one): an argument the binding would not read is a mistake to
+** report, not to ignore. signature is the call as documented, such as
+** "s:add(reagent, amount)"; a ':' before the '(' marks a method. */
+void eqpl_check_nargs(lua_State *L, int max, const char *signature);
 /* A string without NUL characters, not empty. */
 const char *eqpl_check_name(lua_State *L, int idx, const char *what);
 double eqpl_check_number(lua_State *L, int idx, const char *what, double min, double max,

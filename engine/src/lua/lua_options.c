@@ -100,6 +100,30 @@ const char *eqpl_describe(lua_State *L, int idx, char *buf, size_t len)
   }
 }
 
+/* "1st", "2nd", "3rd", "4th", ... */
+static const char *ordinal(int n, char *buf, size_t len)
+{
+  const char *suf = (n % 100 >= 11 && n % 100 <= 13) ? "th"
+                  : n % 10 == 1 ? "st" : n % 10 == 2 ? "nd" : n % 10 == 3 ? "rd" : "th";
+  snprintf(buf, len, "%d%s", n, suf);
+  return buf;
+}
+
+void eqpl_check_nargs(lua_State *L, int max, const char *signature)
+{
+  int n = lua_gettop(L);
+  if (n <= max) return;
+  /* a method's own object (s:, r:, curve:, plot:) is not counted for the user */
+  int self = strchr(signature, ':') && strchr(signature, ':') < strchr(signature, '(') ? 1 : 0;
+  int takes = max - self;
+  char buf[96], nth[16], count[32];
+  if (takes) snprintf(count, sizeof count, "%d argument%s", takes, takes == 1 ? "" : "s");
+  else snprintf(count, sizeof count, "no arguments");
+  eqpl_input_error(L, "%s takes %s; got %d (the %s is %s)", signature, count, n - self,
+                   ordinal(max + 1 - self, nth, sizeof nth),
+                   lua_isnil(L, max + 1) ? "nil" : eqpl_describe(L, max + 1, buf, sizeof buf));
+}
+
 static int wrong_type(lua_State *L, int idx, const char *what, const char *wanted)
 {
   char buf[96];

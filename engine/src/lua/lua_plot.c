@@ -49,32 +49,53 @@ static double opt_number(lua_State *L, int t, const char *key, double dflt, cons
   return v;
 }
 
+/* The string at key, or NULL. The value stays on the stack: it anchors the
+** string (an __index may have made it) until the binding returns. */
 static const char *opt_string(lua_State *L, int t, const char *key, const char *what)
 {
   int ty = lua_getfield(L, t, key);
   const char *s = NULL;
-  if (ty == LUA_TSTRING) s = lua_tostring(L, -1);   /* kept alive by the table */
-  else if (ty != LUA_TNIL) eqpl_input_error(L, "%s: '%s' is a string", what, key);
-  lua_pop(L, 1);
+  if (ty == LUA_TSTRING) {
+    size_t len;
+    s = lua_tolstring(L, -1, &len);
+    if (strlen(s) != len)
+      eqpl_input_error(L, "%s: '%s' = '%s' is followed by a NUL character (\\0) and more text",
+                       what, key, s);
+  } else if (ty != LUA_TNIL) {
+    eqpl_input_error(L, "%s: '%s' is a string", what, key);
+  }
   return s;
 }
 
-/* A temperature as a number in C or a string with its unit, in K. */
-static double opt_temperature(lua_State *L, int t, const char *key, double dflt)
+/* A temperature as a number in C or a string with its unit, in K: finite
+** and within 0..100 C, checked as every other call checks it (a NaN was
+** taken as 25 C, -40 C was used as given). */
+static double opt_temperature(lua_State *L, int t, const char *key, double dflt,
+                              const char *what)
 {
-  eqp_ctx *ctx = eqpl_ctx_of(L);
   double T = dflt;
-  int ty = lua_getfield(L, t, key);
-  eqp_quantity k;
-  if (ty == LUA_TNUMBER) T = lua_tonumber(L, -1) + 273.15;
-  else if (ty == LUA_TSTRING) {
-    if (eqp_parse_quantity(ctx, lua_tostring(L, -1), EQP_Q_TEMPERATURE, &T, &k) < 0)
-      eqpl_fail(L, ctx, eqp_ctx_errcode(ctx));
-  } else if (ty != LUA_TNIL) {
-    eqpl_input_error(L, "%s: a number in C or a string such as '310.15 K'", key);
+  if (lua_getfield(L, t, key) != LUA_TNIL) {
+    char w[96];
+    snprintf(w, sizeof w, "%s: %s", what, key);
+    T = eqpl_check_temperature(L, -1, w);
   }
   lua_pop(L, 1);
   return T;
+}
+
+/* A count of points: a whole number from lo to hi (2.5 points was 2). */
+static size_t opt_points(lua_State *L, int t, double dflt, double lo, double hi,
+                         const char *what)
+{
+  double v = dflt;
+  if (lua_getfield(L, t, "points") != LUA_TNIL) {
+    char w[96];
+    snprintf(w, sizeof w, "%s: points", what);
+    v = eqpl_check_number(L, -1, w, lo, hi, 0);
+    if (v != floor(v)) eqpl_input_error(L, "%s must be a whole number; got %g", w, v);
+  }
+  lua_pop(L, 1);
+  return (size_t)v;
 }
 
 /* A pair {lo, hi} of numbers at key; returns 0 if absent. */
@@ -130,6 +151,11 @@ static int finish_plot(lua_State *L, eqp_plot *p, int rc, const char *file)
     eqp_plot_free(p);
     return eqpl_fail(L, ctx, rc);
   }
+  if (file && !eqp_plot_format_of(file)) {   /* before the sandbox speaks of output files */
+    eqp_plot_free(p);
+    return eqpl_input_error(L, "plot file '%s': a figure is written as .svg, .png or .pdf (the "
+                            "name's ending chooses the format)", file);
+  }
   if (file) {
     lua_pushcfunction(L, host_path);
     lua_pushstring(L, file);
@@ -148,8 +174,12 @@ static int finish_plot(lua_State *L, eqp_plot *p, int rc, const char *file)
 
 static int plot_write(lua_State *L)
 {
+  eqpl_check_nargs(L, 2, "plot:write(file)");
   eqp_plot *p = check_plot(L, 1);
-  luaL_checkstring(L, 2);
+  const char *file = eqpl_check_name(L, 2, "plot:write: file");
+  if (!eqp_plot_format_of(file))
+    return eqpl_input_error(L, "plot file '%s': a figure is written as .svg, .png or .pdf (the "
+                            "name's ending chooses the format)", file);
   int rc = eqp_plot_write(p, eqpl_host_path(L, 2, 'w'));
   if (rc < 0) return eqpl_fail(L, eqpl_ctx_of(L), rc);
   lua_settop(L, 1);
@@ -158,6 +188,7 @@ static int plot_write(lua_State *L)
 
 static int plot_svg(lua_State *L)
 {
+  eqpl_check_nargs(L, 1, "plot:svg()");
   char *data;
   size_t len;
   int rc = eqp_plot_render(check_plot(L, 1), EQP_PLOT_SVG, &data, &len);
@@ -197,9 +228,20 @@ static double *number_list(lua_State *L, int idx, size_t *n, const char *what)
   double *v = lua_newuserdatauv(L, sizeof(double) * (*n ? *n : 1), 0);
   for (size_t i = 0; i < *n; i++) {
     int ty = lua_rawgeti(L, idx, (lua_Integer)i + 1);
-    if (ty == LUA_TNUMBER) v[i] = lua_tonumber(L, -1);
-    else if (ty == LUA_TNIL || (ty == LUA_TBOOLEAN && !lua_toboolean(L, -1))) v[i] = NAN;
-    else eqpl_input_error(L, "%s: item %d is not a number", what, (int)i + 1);
+    if (ty == LUA_TNUMBER) {
+      v[i] = lua_tonumber(L, -1);
+      /* a NaN or an infinity is a computation gone wrong, not a gap: a
+      ** gap is asked for with nil or false */
+      if (!isfinite(v[i])) {
+        char num[32];
+        eqpl_input_error(L, "%s: item %d is %s, not a finite number (leave a gap with nil or "
+                         "false)", what, (int)i + 1, eqpl_fmt(v[i], num, sizeof num));
+      }
+    } else if (ty == LUA_TNIL || (ty == LUA_TBOOLEAN && !lua_toboolean(L, -1))) {
+      v[i] = NAN;
+    } else {
+      eqpl_input_error(L, "%s: item %d is not a number", what, (int)i + 1);
+    }
     lua_pop(L, 1);
   }
   return v;
@@ -208,10 +250,12 @@ static double *number_list(lua_State *L, int idx, size_t *n, const char *what)
 static int set_axis(lua_State *L, eqp_plot *p, int t, const char *key, int axis)
 {
   static const char *const keys[] = {"label", "unit", "range", NULL};
+  int top = lua_gettop(L);
   int ty = lua_getfield(L, t, key);
   int rc = EQP_OK;
   if (ty == LUA_TSTRING) {
-    rc = eqp_plot_set_axis(p, axis, lua_tostring(L, -1), NULL, NAN, NAN);
+    rc = eqp_plot_set_axis(p, axis, eqpl_check_name(L, -1, "eq.plot: axis label"), NULL, NAN,
+                           NAN);
   } else if (ty == LUA_TTABLE) {
     int a = lua_gettop(L);
     check_keys(L, a, keys, axis ? "eq.plot y" : "eq.plot x");
@@ -222,7 +266,7 @@ static int set_axis(lua_State *L, eqp_plot *p, int t, const char *key, int axis)
   } else if (ty != LUA_TNIL) {
     eqpl_input_error(L, "eq.plot: '%s' is a label or { label =, unit =, range = }", key);
   }
-  lua_pop(L, 1);
+  lua_settop(L, top);
   return rc;
 }
 
@@ -288,9 +332,11 @@ static int add_marks(lua_State *L, eqp_plot *p, int t)
       } else {
         lua_rawgeti(L, m, 1);
         lua_rawgeti(L, m, 2);
-        if (!lua_isnumber(L, -2) || !lua_isnumber(L, -1))
+        if (lua_type(L, -2) != LUA_TNUMBER || lua_type(L, -1) != LUA_TNUMBER)
           return eqpl_input_error(L, "eq.plot: a band is { from, to, label = }");
-        rc = eqp_plot_add_band(p, lua_tonumber(L, -2), lua_tonumber(L, -1), label);
+        double from = eqpl_check_number(L, -2, "eq.plot: a band's from", -HUGE_VAL, HUGE_VAL, 0);
+        double to = eqpl_check_number(L, -1, "eq.plot: a band's to", -HUGE_VAL, HUGE_VAL, 0);
+        rc = eqp_plot_add_band(p, from, to, label);
       }
       lua_settop(L, list);
     }
@@ -303,6 +349,7 @@ static int add_marks(lua_State *L, eqp_plot *p, int t)
 **          hlines =, width =, height = } -> plot */
 static int eq_plot(lua_State *L)
 {
+  eqpl_check_nargs(L, 1, "eq.plot{ options }");
   static const char *const keys[] = {"file", "title", "x", "y", "lines", "markers", "bands",
                                      "hlines", "width", "height", NULL};
   eqp_ctx *ctx = eqpl_ctx_of(L);
@@ -323,6 +370,9 @@ static int eq_plot(lua_State *L)
   if (rc == EQP_OK) rc = add_marks(L, p, 1);
   double w = opt_number(L, 1, "width", 720, "eq.plot"), h = opt_number(L, 1, "height", 480,
                                                                        "eq.plot");
+  if (!(w >= 200 && w <= 4000 && h >= 150 && h <= 4000))   /* before the cast to int */
+    return eqpl_input_error(L, "eq.plot: width %g and height %g: 200 to 4000 by 150 to 4000 "
+                            "points", w, h);
   if (rc == EQP_OK) rc = eqp_plot_set_size(p, (int)w, (int)h);
   hold->p = NULL;
   return finish_plot(L, p, rc, file);
@@ -344,6 +394,7 @@ static void set_kind(lua_State *L, int curve)
 **                  medium =, pH = { lo, hi }, points = } -> curve */
 static int eq_distribution(lua_State *L)
 {
+  eqpl_check_nargs(L, 1, "eq.distribution{ options }");
   static const char *const keys[] = {"system", "ionic_strength", "temperature", "activity",
                                      "medium", "pH", "points", NULL};
   eqp_ctx *ctx = eqpl_ctx_of(L);
@@ -355,23 +406,21 @@ static int eq_distribution(lua_State *L)
                                          "or buffer system ('phosphate', 'HPO4^2-')");
   int ty = lua_getfield(L, 1, "ionic_strength");
   if (ty == LUA_TNUMBER) {
-    d.ionic_strength = lua_tonumber(L, -1);
+    d.ionic_strength = eqpl_check_number(L, -1, "eq.distribution: ionic_strength (mol/kg)", 0,
+                                         10, 0);
   } else if (ty == LUA_TSTRING) {
-    eqp_quantity k;
-    if (eqp_parse_quantity(ctx, lua_tostring(L, -1), EQP_Q_MOLALITY, &d.ionic_strength, &k) < 0)
-      return eqpl_fail(L, ctx, eqp_ctx_errcode(ctx));
+    d.ionic_strength = eqpl_check_quantity(L, -1, "eq.distribution: ionic_strength",
+                                           EQP_Q_MOLALITY, 0, 10, 0, NULL);
   } else if (ty != LUA_TNIL) {
     return eqpl_input_error(L, "eq.distribution: 'ionic_strength' in mol/kg, a number or "
                             "'0.1 mol/kg'");
   }
   lua_pop(L, 1);
-  d.T = opt_temperature(L, 1, "temperature", 298.15);
+  d.T = opt_temperature(L, 1, "temperature", 298.15, "eq.distribution");
   d.activity = opt_string(L, 1, "activity", "eq.distribution");
   d.medium = opt_string(L, 1, "medium", "eq.distribution");
   opt_range(L, 1, "pH", &d.pH_lo, &d.pH_hi, "eq.distribution");
-  double np = opt_number(L, 1, "points", 281, "eq.distribution");
-  if (!(np >= 2 && np <= 100000)) return eqpl_input_error(L, "eq.distribution: 2 to 100000 points");
-  d.points = (size_t)np;
+  d.points = opt_points(L, 1, 281, 2, 100000, "eq.distribution");
   eqp_curve *c;
   int rc = eqp_distribution(ctx, &d, &c);
   if (rc < 0) return eqpl_fail(L, ctx, rc);
@@ -391,6 +440,7 @@ static int eq_distribution(lua_State *L)
 **              pH = { lo, hi }, points =, window = { lo, hi } } -> curve */
 static int eq_capacity(lua_State *L)
 {
+  eqpl_check_nargs(L, 1, "eq.capacity{ options }");
   static const char *const keys[] = {"buffers", "total", "volume", "temperature", "activity",
                                      "pH", "points", "window", NULL};
   eqp_ctx *ctx = eqpl_ctx_of(L);
@@ -407,32 +457,27 @@ static int eq_capacity(lua_State *L)
       lua_rawgeti(L, -1, (lua_Integer)i + 1);
       if (lua_type(L, -1) != LUA_TSTRING)
         return eqpl_input_error(L, "eq.capacity: buffer %d is a name", (int)i + 1);
-      names[i] = lua_tostring(L, -1);   /* kept alive by the options table */
-      lua_pop(L, 1);
+      names[i] = eqpl_check_name(L, -1, "eq.capacity: a buffer's name");
+      lua_pop(L, 1);              /* kept alive by the list, which stays on the stack */
     }
     s.buffers = names;
   } else if (ty != LUA_TNIL) {
     return eqpl_input_error(L, "eq.capacity: 'buffers' is a list of buffer-system names");
   }
-  lua_pop(L, 1);
-  const char *total = opt_string(L, 1, "total", "eq.capacity");
-  eqp_quantity k;
-  if (!total) return eqpl_input_error(L, "eq.capacity: 'total' is the buffer concentration "
-                                      "('50 mM')");
-  if (eqp_parse_quantity(ctx, total, EQP_Q_MOLARITY, &s.total, &k) < 0)
-    return eqpl_fail(L, ctx, eqp_ctx_errcode(ctx));
-  const char *vol = opt_string(L, 1, "volume", "eq.capacity");
-  if (vol && eqp_parse_quantity(ctx, vol, EQP_Q_VOLUME, &s.volume, &k) < 0)
-    return eqpl_fail(L, ctx, eqp_ctx_errcode(ctx));
-  s.T = opt_temperature(L, 1, "temperature", 298.15);
+  if (lua_getfield(L, 1, "total") == LUA_TNIL)
+    return eqpl_input_error(L, "eq.capacity: 'total' is the buffer concentration ('50 mM')");
+  s.total = eqpl_check_quantity(L, -1, "eq.capacity: total", EQP_Q_MOLARITY, 0, 5, EQPL_ABOVE,
+                                NULL);                     /* as eq.recipe's total */
+  if (lua_getfield(L, 1, "volume") != LUA_TNIL)
+    s.volume = eqpl_check_quantity(L, -1, "eq.capacity: volume", EQP_Q_VOLUME, 0,
+                                   EQPL_MAX_WATER, EQPL_ABOVE, NULL);
+  s.T = opt_temperature(L, 1, "temperature", 298.15, "eq.capacity");
   s.activity = opt_string(L, 1, "activity", "eq.capacity");
   s.pH_lo = 3;
   s.pH_hi = 11;
   opt_range(L, 1, "pH", &s.pH_lo, &s.pH_hi, "eq.capacity");
   opt_range(L, 1, "window", &s.window_lo, &s.window_hi, "eq.capacity");
-  double np = opt_number(L, 1, "points", 61, "eq.capacity");
-  if (!(np >= 2 && np <= 2001)) return eqpl_input_error(L, "eq.capacity: 2 to 2001 points");
-  s.points = (size_t)np;
+  s.points = opt_points(L, 1, 61, 2, 2001, "eq.capacity");
   eqp_curve *c;
   int rc = eqp_capacity_sweep(ctx, &s, &c);
   if (rc < 0) return eqpl_fail(L, ctx, rc);
@@ -452,17 +497,24 @@ static int eq_capacity(lua_State *L)
 /* s:temperature_sweep{ from = 4, to = 40, points = 37 } -> curve */
 static int sol_temperature_sweep(lua_State *L)
 {
+  eqpl_check_nargs(L, 2, "s:temperature_sweep{ from =, to =, points = }");
   static const char *const keys[] = {"from", "to", "points", NULL};
   eqpl_solution *u = eqpl_check_solution(L, 1);
   eqp_ctx *ctx = eqpl_ctx_of(L);
   luaL_checktype(L, 2, LUA_TTABLE);
   check_keys(L, 2, keys, "temperature_sweep");
-  double T0 = opt_temperature(L, 2, "from", NAN), T1 = opt_temperature(L, 2, "to", NAN);
+  double T0 = opt_temperature(L, 2, "from", NAN, "temperature_sweep"),
+         T1 = opt_temperature(L, 2, "to", NAN, "temperature_sweep");
   if (isnan(T0) || isnan(T1))
     return eqpl_input_error(L, "temperature_sweep: 'from' and 'to' are temperatures in C");
-  double np = opt_number(L, 2, "points", 0, "temperature_sweep");   /* 0: one per degree */
-  if (!(np == 0 || (np >= 2 && np <= 10001)))
-    return eqpl_input_error(L, "temperature_sweep: 2 to 10001 points");
+  if (!(T0 < T1))
+    return eqpl_input_error(L, "temperature_sweep: from = %.6g C must be below to = %.6g C",
+                            T0 - 273.15, T1 - 273.15);
+  double np = 0;                                        /* 0: one per degree */
+  lua_getfield(L, 2, "points");
+  int given = !lua_isnil(L, -1);
+  lua_pop(L, 1);
+  if (given) np = (double)opt_points(L, 2, 0, 2, 10001, "temperature_sweep");
   eqp_curve *c;
   int rc = eqp_solution_temperature_sweep(u->s, T0, T1, (size_t)np, &c);
   if (rc < 0) return eqpl_fail(L, ctx, rc);
@@ -537,12 +589,12 @@ static int curve_figure(lua_State *L, int curve, eqp_curve *c, int opts, eqp_plo
   if (has_y) {
     lua_getfield(L, opts, "y");
     if (lua_type(L, -1) == LUA_TSTRING) {
-      ys[ny++] = lua_tostring(L, -1);
+      ys[ny++] = eqpl_check_name(L, -1, "curve:plot: y");
     } else if (lua_type(L, -1) == LUA_TTABLE) {
       for (lua_Integer i = 1; i <= (lua_Integer)lua_rawlen(L, -1) && ny < EQP_PLOT_MAX_Y; i++) {
         lua_rawgeti(L, -1, i);
         if (lua_type(L, -1) != LUA_TSTRING) eqpl_input_error(L, "curve:plot: 'y' lists columns");
-        ys[ny++] = lua_tostring(L, -1);
+        ys[ny++] = eqpl_check_name(L, -1, "curve:plot: y");
         lua_pop(L, 1);
       }
     } else {
@@ -555,13 +607,14 @@ static int curve_figure(lua_State *L, int curve, eqp_curve *c, int opts, eqp_plo
 /* curve:plot("file.svg" [, { title =, x =, y = }]) or curve:plot{ file =, ... } */
 static int curve_plot(lua_State *L)
 {
+  eqpl_check_nargs(L, 3, "curve:plot(file [, options])");
   static const char *const keys[] = {"file", "title", "x", "y", NULL};
   eqpl_curve *u = luaL_checkudata(L, 1, EQPL_CURVE);
   if (!u->c) return luaL_argerror(L, 1, "curve is closed");
   const char *file = NULL;
   int opts = 0;
   if (lua_type(L, 2) == LUA_TSTRING) {
-    file = lua_tostring(L, 2);
+    file = eqpl_check_name(L, 2, "curve:plot: file");
     if (lua_istable(L, 3)) opts = 3;
     else if (!lua_isnoneornil(L, 3)) return eqpl_input_error(L, "curve:plot: options are a table");
   } else if (lua_istable(L, 2)) {
@@ -585,8 +638,9 @@ int eqpl_curve_plot(lua_State *L) { return curve_plot(L); }
 /* eq.pretty("HPO4^2-") -> "HPO₄²⁻" */
 static int eq_pretty(lua_State *L)
 {
+  eqpl_check_nargs(L, 1, "eq.pretty(name)");
   char buf[512];
-  const char *name = luaL_checkstring(L, 1);
+  const char *name = eqpl_check_name(L, 1, "eq.pretty: name");
   if (eqp_name_display(name, buf, sizeof buf) < 0)
     return eqpl_input_error(L, "eq.pretty: name too long");
   lua_pushstring(L, buf);

@@ -26,6 +26,7 @@ static double check_amount(lua_State *L, int idx, const char *reagent, const cha
 /* s:pour(stock, "10 mL") -> s */
 static int sol_pour(lua_State *L)
 {
+  eqpl_check_nargs(L, 3, "s:pour(stock, volume)");
   eqpl_solution *u = eqpl_check_solution(L, 1);
   eqpl_solution *k = eqpl_check_solution(L, 2);
   double V = eqpl_check_volume(L, 3, "pour: volume");
@@ -44,6 +45,7 @@ static const eqpl_opt dilute_opts[] = {
 /* s:dilute(2) doubles the volume; s:dilute{ to = "1 L" } makes it up to 1 L */
 static int sol_dilute(lua_State *L)
 {
+  eqpl_check_nargs(L, 2, "s:dilute(factor | { to = volume })");
   eqpl_solution *u = eqpl_check_solution(L, 1);
   double f;
   if (lua_type(L, 2) == LUA_TNUMBER) {
@@ -73,6 +75,7 @@ static int sol_dilute(lua_State *L)
 /* s:buffer_capacity() -> beta in mol/(L pH), beta in mol/(kg pH), the C order */
 static int sol_buffer_capacity(lua_State *L)
 {
+  eqpl_check_nargs(L, 1, "s:buffer_capacity()");
   eqpl_solution *u = eqpl_check_solution(L, 1);
   double bkg, bL;
   int rc = eqp_solution_buffer_capacity(u->s, &bL, &bkg);
@@ -102,6 +105,7 @@ static void reagent_or_stock(lua_State *L, int idx, const char *what, const char
 /* s:adjust_pH(7.4, "NaOH" | stock) -> mol (nil for a stock), litres (nil for a solid) */
 static int sol_adjust(lua_State *L)
 {
+  eqpl_check_nargs(L, 3, "s:adjust_pH(pH, reagent | stock)");
   eqpl_solution *u = eqpl_check_solution(L, 1);
   double pH = eqpl_check_number(L, 2, "adjust_pH: the target pH", EQPL_PH_MIN, EQPL_PH_MAX, 0);
   double mol, litres;
@@ -156,6 +160,7 @@ static void check_target(lua_State *L, int idx, int k, eqp_target *t)
 ** with = "CaCl2" } } -> { { mol = , litres = }, ... }: all targets at once */
 static int sol_adjust_targets(lua_State *L)
 {
+  eqpl_check_nargs(L, 2, "s:adjust{ target, ... }");
   eqpl_solution *u = eqpl_check_solution(L, 1);
   luaL_checktype(L, 2, LUA_TTABLE);
   lua_Integer n = luaL_len(L, 2);
@@ -188,6 +193,7 @@ static int sol_adjust_targets(lua_State *L)
 ** the counter-ion added (negative: taken away) */
 static int sol_fix_activity(lua_State *L)
 {
+  eqpl_check_nargs(L, 4, "s:fix_activity(component, activity, counter_ion)");
   eqpl_solution *u = eqpl_check_solution(L, 1);
   const char *comp = eqpl_check_name(L, 2, "fix_activity: the component");
   double a = eqpl_check_number(L, 3, "fix_activity: the activity", 0, 100, EQPL_ABOVE);
@@ -210,6 +216,7 @@ static const eqpl_opt budget_opts[] = {
 /* s:load_budget{ window = 0.1, acid = "HCl", base = "NaOH" } -> table */
 static int sol_load_budget(lua_State *L)
 {
+  eqpl_check_nargs(L, 2, "s:load_budget([options])");
   eqpl_solution *u = eqpl_check_solution(L, 1);
   eqp_ctx *ctx = eqpl_ctx_of(L);
   eqpl_val v[3];
@@ -240,6 +247,7 @@ static int sol_load_budget(lua_State *L)
 /* s:expose("CO2(g)", "427 uatm") -> mol taken up (negative: released) */
 static int sol_expose(lua_State *L)
 {
+  eqpl_check_nargs(L, 3, "s:expose(gas, pressure)");
   eqpl_solution *u = eqpl_check_solution(L, 1);
   eqp_ctx *ctx = eqpl_ctx_of(L);
   const char *gas = eqpl_check_name(L, 2, "expose: the gas");
@@ -254,6 +262,7 @@ static int sol_expose(lua_State *L)
 /* s:total("Na+") -> mol of a component */
 static int sol_total(lua_State *L)
 {
+  eqpl_check_nargs(L, 2, "s:total(component)");
   eqpl_solution *u = eqpl_check_solution(L, 1);
   double mol;
   int rc = eqp_solution_total(u->s, eqpl_check_name(L, 2, "total: the component"), &mol);
@@ -276,6 +285,7 @@ enum { T_WITH, T_STEP, T_TO, T_UNTIL, T_MAXDPH, T_SPECIES, T_N };
 /* s:titrate{ with = ..., step = ..., to = ... | until_pH = ..., species = {...} } */
 static int sol_titrate(lua_State *L)
 {
+  eqpl_check_nargs(L, 2, "s:titrate{ options }");
   eqpl_solution *u = eqpl_check_solution(L, 1);
   eqp_ctx *ctx = eqpl_ctx_of(L);
   if (!lua_istable(L, 2)) {
@@ -329,6 +339,7 @@ static const eqpl_opt no_opts[] = {{NULL, 0, 0, 0, 0, 0, NULL}};
 /* eq.mix{ a, b } or eq.mix{ { a, "10 mL" }, { b, "90 mL" } } -> new solution */
 int eqpl_mix(lua_State *L)
 {
+  eqpl_check_nargs(L, 1, "eq.mix{ parts }");
   eqp_ctx *ctx = eqpl_ctx_of(L);
   if (!lua_istable(L, 1))
     return eqpl_input_error(L, "eq.mix: a list of solutions, or of { solution, volume } pairs");

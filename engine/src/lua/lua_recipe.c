@@ -99,6 +99,7 @@ static int recipe_tostring(lua_State *L)
 **            salt =, using = {...}, titrant = "1 M", activity =, quiet = false } */
 static int eq_recipe(lua_State *L)
 {
+  eqpl_check_nargs(L, 1, "eq.recipe{ options }");
   eqp_ctx *ctx = eqpl_ctx_of(L);
   eqpl_val v[R_RECIPE_N];
   if (!lua_istable(L, 1))
@@ -196,6 +197,7 @@ static void emit_lines(lua_State *L, const char *text)
 **   load_with = "HCl", window = 0.1, activity =, quiet = false } -> ranked list */
 static int eq_compare(lua_State *L)
 {
+  eqpl_check_nargs(L, 1, "eq.compare_buffers{ options }");
   eqp_ctx *ctx = eqpl_ctx_of(L);
   eqpl_val v[C_COMPARE_N];
   if (!lua_istable(L, 1))

@@ -21,22 +21,41 @@ void eqpl_push_result(lua_State *L, eqp_result *r)
 
 typedef int (*per_species_fn)(const eqp_result *, const char *, double *);
 
-static int per_species(lua_State *L, per_species_fn f)
+static int per_species(lua_State *L, per_species_fn f, const char *signature)
 {
+  eqpl_check_nargs(L, 2, signature);
   eqp_result *r = check_result(L, 1);
   double v;
-  if (f(r, eqpl_check_name(L, 2, "species"), &v) < 0)
-    return eqpl_fail(L, eqpl_ctx_of(L), EQP_E_UNKNOWN);
+  int rc = f(r, eqpl_check_name(L, 2, "species"), &v);
+  if (rc < 0) return eqpl_fail(L, eqpl_ctx_of(L), rc);
   lua_pushnumber(L, v);
   return 1;
 }
 
-static int result_molality(lua_State *L) { return per_species(L, eqp_result_molality); }
-static int result_molarity(lua_State *L) { return per_species(L, eqp_result_molarity); }
-static int result_activity(lua_State *L) { return per_species(L, eqp_result_activity); }
-static int result_gamma(lua_State *L) { return per_species(L, eqp_result_gamma); }
-static int result_saturation(lua_State *L) { return per_species(L, eqp_result_saturation); }
-static int result_solid(lua_State *L) { return per_species(L, eqp_result_solid); }
+static int result_molality(lua_State *L)
+{
+  return per_species(L, eqp_result_molality, "r:molality(species)");
+}
+static int result_molarity(lua_State *L)
+{
+  return per_species(L, eqp_result_molarity, "r:molarity(species)");
+}
+static int result_activity(lua_State *L)
+{
+  return per_species(L, eqp_result_activity, "r:activity(species)");
+}
+static int result_gamma(lua_State *L)
+{
+  return per_species(L, eqp_result_gamma, "r:gamma(species)");
+}
+static int result_saturation(lua_State *L)
+{
+  return per_species(L, eqp_result_saturation, "r:saturation(solid)");
+}
+static int result_solid(lua_State *L)
+{
+  return per_species(L, eqp_result_solid, "r:solid(name)");
+}
 
 /* r:species() -> { {name=, molality=, gamma=}, ... } by decreasing molality */
 typedef struct row { const char *name; double m, lg; } row;
@@ -62,6 +81,7 @@ static row *sorted_rows(lua_State *L, const eqp_result *r, size_t *n)
 
 static int result_species(lua_State *L)
 {
+  eqpl_check_nargs(L, 1, "r:species()");
   eqp_result *r = check_result(L, 1);
   size_t n;
   row *rows = sorted_rows(L, r, &n);

@@ -197,6 +197,7 @@ int eqpl_solution_new(lua_State *L);
 
 int eqpl_solution_new(lua_State *L)
 {
+  eqpl_check_nargs(L, 1, "eq.solution{ options }");
   eqp_ctx *ctx = eqpl_ctx_of(L);
   eqpl_val v[O_N];
   eqpl_options(L, 1, "eq.solution", solution_opts, v, 0);
@@ -235,6 +236,7 @@ int eqpl_solution_new(lua_State *L)
 /* s:add(reagent, "12.5 mmol") -> s */
 static int solution_add(lua_State *L)
 {
+  eqpl_check_nargs(L, 3, "s:add(reagent, amount)");
   eqpl_solution *u = eqpl_check_solution(L, 1);
   eqp_ctx *ctx = eqpl_ctx_of(L);
   const char *reagent = eqpl_check_name(L, 2, "add: the reagent");
@@ -261,6 +263,7 @@ static int solution_add(lua_State *L)
 /* s:equilibrate() -> result */
 static int solution_equilibrate(lua_State *L)
 {
+  eqpl_check_nargs(L, 1, "s:equilibrate()");
   eqpl_solution *u = eqpl_check_solution(L, 1);
   eqp_ctx *ctx = eqpl_ctx_of(L);
   eqp_result *r;
@@ -272,6 +275,7 @@ static int solution_equilibrate(lua_State *L)
 
 static int solution_copy(lua_State *L)
 {
+  eqpl_check_nargs(L, 1, "s:copy()");
   eqpl_solution *u = eqpl_check_solution(L, 1);
   eqp_ctx *ctx = eqpl_ctx_of(L);
   eqpl_solution *c = eqpl_new_handle(L, sizeof *c, EQPL_SOLUTION);
@@ -283,6 +287,7 @@ static int solution_copy(lua_State *L)
 /* s:set_temperature(37) or ("310.15 K"): same composition, new temperature */
 static int solution_set_temperature(lua_State *L)
 {
+  eqpl_check_nargs(L, 2, "s:set_temperature(t)");
   eqpl_solution *u = eqpl_check_solution(L, 1);
   eqp_ctx *ctx = eqpl_ctx_of(L);
   double T = eqpl_check_temperature(L, 2, "set_temperature: temperature");
@@ -294,18 +299,21 @@ static int solution_set_temperature(lua_State *L)
 
 static int solution_water(lua_State *L)
 {
+  eqpl_check_nargs(L, 1, "s:water()");
   lua_pushnumber(L, eqp_solution_water(eqpl_check_solution(L, 1)->s));
   return 1;
 }
 
 static int solution_volume(lua_State *L)
 {
+  eqpl_check_nargs(L, 1, "s:volume()");
   lua_pushnumber(L, eqp_solution_volume(eqpl_check_solution(L, 1)->s));
   return 1;
 }
 
 static int solution_temperature(lua_State *L)
 {
+  eqpl_check_nargs(L, 1, "s:temperature()");
   lua_pushnumber(L, eqp_solution_temperature_K(eqpl_check_solution(L, 1)->s) - 273.15);
   return 1;
 }
