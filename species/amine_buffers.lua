@@ -1,5 +1,6 @@
--- Amine buffers outside the Good family: Bis-Tris, glycylglycine,
--- ethanolamine and triethanolamine. The protonated amine is "<name>H+".
+-- Amine buffers outside the Good family: Bis-Tris, Bis-Tris propane,
+-- glycylglycine, ethanolamine and triethanolamine. The protonated amine is
+-- "<name>H+"; the diprotonated diamine Bis-Tris propane is "BTPH2^2+".
 -- Hazard classes (GHS keys, docs/species-format.md): the harmonised classification
 -- of Regulation (EC) No 1272/2008, Annex VI, where one exists, else suppliers' safety
 -- data sheets [from memory; the safety data sheet of the product in hand decides].
@@ -8,10 +9,13 @@ return {
   sources = {
     goldberg2002 = "R. N. Goldberg, N. Kishore, R. M. Lennen, 'Thermodynamic quantities for the ionization reactions of buffers', J. Phys. Chem. Ref. Data 31, 231-370 (2002), 298.15 K, I = 0 [values from memory: ethanolamine medium-high; glycylglycine and triethanolamine medium]",
     roy2014bistris = "R. N. Roy, L. N. Roy, K. Hundley, J. Dinga, M. Medcalf, L. Tebbe, R. Parmar, J. Veliz, 'Acid dissociation constants and related thermodynamic functions of protonated BIS-TRIS from (278.15 to 328.15) K', J. Biophys. Chem. 5, 118-124 (2014): pKa = 921.66/T + 14.0007 - 1.86197 ln T; 6.4828 at 298.15 K, 6.2906 at 310.15 K; dH 28.273 kJ/mol, dCp 36 J/(K mol) [seen in the abstract]",
+    goldberg2002_btp = "R. N. Goldberg, N. Kishore, R. M. Lennen, 'Thermodynamic quantities for the ionization reactions of buffers', J. Phys. Chem. Ref. Data 31, 231-370 (2002), 298.15 K, I = 0: 1,3-bis[tris(hydroxymethyl)methylamino]propane, H2L2+ = HL+ + H+ pK 6.65, dH 28.4 kJ/mol; HL+ = L + H+ pK 9.10, dH 31.3 kJ/mol [values from memory, low-medium confidence: suppliers quote 6.8 and 9.0 at 25 C in about 0.1 mol/L salt]",
     crc_density = "CRC Handbook of Chemistry and Physics, physical constants of organic compounds: density of the liquid near 20 C [from memory]",
   },
   species = {
     { "BisTrisH+", formula = "C8H20NO5+" }, { "BisTris", formula = "C8H19NO5" },
+    { "BTPH2^2+", formula = "C11H28N2O6^2+" }, { "BTPH+", formula = "C11H27N2O6+" },
+    { "BTP", formula = "C11H26N2O6" },
     { "H2GlyGly+", formula = "C4H9N2O3+" }, { "GlyGly", formula = "C4H8N2O3" },
     { "GlyGly-", formula = "C4H7N2O3-" },
     { "EthanolamineH+", formula = "C2H8NO+" }, { "Ethanolamine", formula = "C2H7NO" },
@@ -20,6 +24,8 @@ return {
   acids = {
     { "BisTrisH+", "BisTris", pKa = 6.483, source = "roy2014bistris", T_range = { 278.15, 328.15 },
       pKa_T = { { a = 14.0007, c = 921.66, d = -1.86197 } } },
+    { "BTPH2^2+", "BTPH+", "BTP", pKa = { 6.65, 9.10 }, dH = { 28.4, 31.3 },
+      source = "goldberg2002_btp" },
     { "H2GlyGly+", "GlyGly", "GlyGly-", pKa = { 3.140, 8.265 }, dH = { 0.11, 43.4 },
       dCp = { -127, -16 }, source = "goldberg2002" },
     { "EthanolamineH+", "Ethanolamine", pKa = 9.498, dH = 50.52, dCp = 26, source = "goldberg2002" },
@@ -29,6 +35,8 @@ return {
     { "BisTris", names = { "Bis-Tris", "bis-tris methane" }, hazards = { "skin-irritation", "eye-irritation" } },
     { "BisTrisHCl", formula = "C8H19NO5.HCl", gives = { ["BisTrisH+"] = 1, ["Cl-"] = 1 },
       names = { "Bis-Tris hydrochloride" }, hazards = { "skin-irritation", "eye-irritation" } },
+    { "BTP", names = { "Bis-Tris propane", "bis-tris propane" },
+      hazards = { "skin-irritation", "eye-irritation" } },
     { "GlyGly", names = { "glycylglycine", "Gly-Gly" } },
     { "Ethanolamine", names = { "ethanolamine", "2-aminoethanol", "monoethanolamine" },
       density = 1.012, hazards = { "toxic-oral", "toxic-dermal", "toxic-inhaled", "skin-corrosion", "eye-damage", "organ-toxic-single" },
@@ -44,6 +52,11 @@ return {
     { "Bis-Tris", pair = { "BisTrisHCl", "BisTris" }, free = "BisTris", titrant = "HCl",
       notes = { "metals: binds Cu^2+ and Pb^2+; weak binding of Ca^2+ and Mg^2+ (common practice)",
                 "temperature: pKa falls about 0.016 per degree C (dH 28.3 kJ/mol, Roy et al. 2014)" } },
+    { "Bis-Tris propane", free = "BTP", titrant = "HCl",
+      notes = { "range: two amine pK values about 2.4 apart buffer from about pH 6 to 9.5 (Goldberg et al. 2002)",
+                "metals: a diamine; binds Cu^2+ and other transition metal ions (common practice)",
+                "temperature: both pK values fall about 0.017 to 0.018 per degree C (dH 28.4 and 31.3 kJ/mol, from memory)",
+                "data: pK from memory of Goldberg et al. 2002, low-medium confidence; check against the paper before precise work" } },
     { "glycylglycine", free = "GlyGly", titrant = "NaOH",
       notes = { "metals: binds Cu^2+ and other transition metal ions (common practice)",
                 "temperature: pK2 falls about 0.025 per degree C (dH 43.4 kJ/mol, Goldberg et al. 2002)" } },

@@ -1,4 +1,4 @@
--- Formic, succinic, oxalic and L-tartaric acids and their salts.
+-- Formic, succinic, malic, oxalic and L-tartaric acids and their salts.
 -- Hazard classes (GHS keys, docs/species-format.md): the harmonised classification
 -- of Regulation (EC) No 1272/2008, Annex VI, where one exists, else suppliers' safety
 -- data sheets [from memory; the safety data sheet of the product in hand decides].
@@ -9,6 +9,8 @@ return {
     harned1934 = "H. S. Harned, N. D. Embree, J. Am. Chem. Soc. 56, 1042 (1934): formic acid pK = 1342.85/T - 5.2743 + 0.015168 T [from memory]; it gives 3.752, dH -0.1 kJ/mol and dCp -173 J/(K mol) at 25 C, which corroborates goldberg2002's dH and dCp",
     oxalic = "oxalic acid pK1 1.27, pK2 4.266 at 25 C, I = 0, as selected by goldberg2002 (pK2 from the emf work of H. S. Harned, L. D. Fallon, J. Am. Chem. Soc. 61, 3111 (1939)) [values from memory, medium confidence]; no temperature data recorded here",
     bates1951 = "R. G. Bates, R. G. Canham, 'Resolution of the dissociation constants of d-tartaric acid from 0 to 50 C', J. Res. Natl. Bur. Stand. 47, 343 (1951): pK1 3.036, pK2 4.366 at 25 C [values from memory, medium confidence]; no temperature function recorded here",
+    eden1959 = "M. Eden, R. G. Bates, 'Resolution of the dissociation constants of d,l-malic acid from 0 to 50 C', J. Res. Natl. Bur. Stand. 62, 161 (1959) [page from memory], emf of cells without liquid junction [abstract seen]: K1 = 3.48e-4 at 25 C (pK1 3.458), -log K1 = 135x.85/T - 5.1382 + 0.013550 T; -log K2 = 165x.53/T - 6.2364 + 0.019353 T (one digit of each first coefficient, x, is illegible in the copy seen, as is K2). dH and dCp here are derived from the equations: dH = R ln10 (A - C T^2), dCp = -2 R ln10 C T at 298.15 K (the illegible digit moves dH by 0.02 kJ/mol at most)",
+    ms_malic = "A. E. Martell, R. M. Smith, Critical Stability Constants, vol. 3: Other Organic Ligands, Plenum, New York (1977), malic acid at 25 C, I = 0: pK2 5.097 (pK1 3.459) [values from memory, medium confidence]",
     kielland1937 = "J. Kielland, J. Am. Chem. Soc. 59, 1675 (1937): ion-size parameters [ion assignments from memory]",
   },
   size_source = "kielland1937",
@@ -16,6 +18,9 @@ return {
     { "HCOOH" }, { "HCOO-", size = 3.5 },
     { "H2Succ", formula = "C4H6O4" }, { "HSucc-", formula = "C4H5O4-" },
     { "Succ^2-", formula = "C4H4O4^2-", size = 5 },
+    { "H2Mal", formula = "C4H6O5" }, { "HMal-", formula = "C4H5O5-" },
+    { "Mal^2-", formula = "C4H4O5^2-", size = 5,
+      note = "size as Kielland's other C4 dicarboxylates (succinate, tartrate)" },
     { "H2C2O4" }, { "HC2O4-" }, { "C2O4^2-", size = 4.5 },
     { "H2Tart", formula = "C4H6O6" }, { "HTart-", formula = "C4H5O6-" },
     { "Tart^2-", formula = "C4H4O6^2-", size = 5 },
@@ -24,6 +29,9 @@ return {
     { "HCOOH", "HCOO-", pKa = 3.745, dH = -0.1, dCp = -165, source = "goldberg2002" },
     { "H2Succ", "HSucc-", "Succ^2-", pKa = { 4.207, 5.636 }, dH = { 3.0, -0.5 },
       dCp = { -121, -217 }, source = "goldberg2002" },
+    { "H2Mal", "HMal-", pKa = 3.458, dH = 2.95, dCp = -155, source = "eden1959" },
+    { "HMal-", "Mal^2-", pKa = 5.097, dH = -1.2, dCp = -221, source = "ms_malic",
+      note = "dH and dCp derived from the pK2 equation of eden1959" },
     { "H2C2O4", "HC2O4-", "C2O4^2-", pKa = { 1.27, 4.266 }, source = "oxalic" },
     { "H2Tart", "HTart-", "Tart^2-", pKa = { 3.036, 4.366 }, source = "bates1951" },
   },
@@ -35,6 +43,11 @@ return {
     { "H2Succ", names = { "succinic acid" }, hazards = { "eye-damage" } },
     { "Na2Succ", formula = "C4H4Na2O4", gives = { ["Na+"] = 2, ["Succ^2-"] = 1 },
       names = { "disodium succinate", "sodium succinate" }, hydrates = { 6 } },
+    { "H2Mal", names = { "malic acid", "DL-malic acid", "L-malic acid" }, hazards = { "eye-irritation" } },
+    { "NaHMal", formula = "C4H5NaO5", gives = { ["Na+"] = 1, ["HMal-"] = 1 },
+      names = { "monosodium malate", "sodium hydrogen malate" } },
+    { "Na2Mal", formula = "C4H4Na2O5", gives = { ["Na+"] = 2, ["Mal^2-"] = 1 },
+      names = { "disodium malate", "sodium malate" } },
     { "H2C2O4", names = { "oxalic acid" }, hydrates = { 2 }, hazards = { "toxic-oral", "toxic-dermal", "eye-damage" } },
     { "Na2C2O4", gives = { ["Na+"] = 2, ["C2O4^2-"] = 1 }, names = { "sodium oxalate" },
       hazards = { "toxic-oral", "toxic-dermal" } },
@@ -54,6 +67,9 @@ return {
     { "succinate", free = "H2Succ", titrant = "NaOH",
       notes = { "metals: binds Ca^2+ weakly (Martell & Smith, common practice)",
                 "range: two overlapping pKa values buffer from about pH 3.5 to 6.5 (Goldberg et al. 2002)" } },
+    { "malate", pair = { "H2Mal", "Na2Mal" }, free = "H2Mal", titrant = "NaOH",
+      notes = { "range: two pKa values buffer from about pH 2.5 to 6 (Eden & Bates 1959; Martell & Smith)",
+                "metals: binds Ca^2+, Mg^2+ and transition metal ions weakly (common practice)" } },
     { "oxalate", free = "H2C2O4", titrant = "NaOH",
       notes = { "metals: precipitates Ca^2+ as calcium oxalate (common practice)",
                 "toxicity: oxalates are toxic (common practice)",

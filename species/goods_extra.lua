@@ -1,5 +1,6 @@
 -- The rest of the Good et al. (1966) family: ADA, PIPES, ACES, MOPSO, BES,
--- TES, TAPSO, POPSO, HEPPSO, EPPS, Tricine, Bicine, TAPS, CHES, CAPSO, CAPS.
+-- TES, DIPSO, TAPSO, POPSO, HEPPSO, EPPS, Tricine, Bicine, TAPS, CHES, CAPSO,
+-- CAPS.
 -- Names: the zwitterion as sold (net charge 0, or 0 for the free acid of a
 -- disulfonate) goes by the acronym; its conjugate base adds the charge
 -- ("ACES-", "PIPES^2-"); a piperazine disulfonate's monoanion is "HPIPES-".
@@ -24,6 +25,7 @@ return {
     roy2014popso = "R. N. Roy, L. N. Roy, K. Hundley, T. Wehmeyer, L. Tebbe, 'Thermodynamics of the second dissociation constants (pK2) of POPSO sesquisodium salt from 278.15 to 328.15 K', J. Biophys. Chem. 5, 143-151 (2014): pK2 = -1041.77/T + 51.0459 - 6.97646 ln T, 7.8029 at 25 C [seen in the abstract; its stated 7.6862 at 310.15 K disagrees with the equation's 7.663, see docs/validation.md]",
     roy2006taps = "R. N. Roy et al., 'Thermodynamic constants of N-[tris(hydroxymethyl)methyl-3-amino]propanesulfonic acid (TAPS) from 278.15 K to 328.15 K', J. Chem. Thermodyn. 38, 413-417 (2006): pK2 = 2969.61/T - 17.05052 + 2.73697 ln T; 8.502 at 298.15 K and 8.225 at 310.15 K [seen in the abstract; the equation as printed gives 8.504 at 298.15 K and 8.226 at 310.15 K]",
     roy2006bicine = "L. N. Roy, R. N. Roy et al., 'Second dissociation constant of bis-[(2-hydroxyethyl)amino]acetic acid (BICINE) and pH of its buffer solutions from 5 to 55 C', J. Solution Chem. 35, 605-624 (2006): pK2 8.333 at 25 C and 8.156 at 37 C [seen in the abstract]; dH 26.34 kJ/mol from goldberg2002 [from memory; the two values of Roy imply 26.1]",
+    goldberg2002_dipso = "R. N. Goldberg, N. Kishore, R. M. Lennen, 'Thermodynamic quantities for the ionization reactions of buffers', J. Phys. Chem. Ref. Data 31, 231-370 (2002), 298.15 K, I = 0: DIPSO pK 7.576, dH 30.18 kJ/mol [values from memory, low-medium confidence; no dCp recorded here]; R. N. Roy et al., 'Buffer standards for the physiological pH of the zwitterionic compound, DIPSO from 5 to 55 C', J. Solution Chem. 38, 459-469 (2009) reports pH values of DIPSO buffers and cites an emf study of pK2 [abstract seen; neither paper's pK2 read]",
     good1966 = "N. E. Good, G. D. Winget, W. Winter, T. N. Connolly, S. Izawa, R. M. M. Singh, 'Hydrogen ion buffers for biological research', Biochemistry 5, 467-477 (1966): metal binding of the buffers [from memory]",
   },
   species = {
@@ -34,6 +36,7 @@ return {
     { "MOPSO", formula = "C7H15NO5S" },   { "MOPSO-", formula = "C7H14NO5S-" },
     { "BES", formula = "C6H15NO5S" },     { "BES-", formula = "C6H14NO5S-" },
     { "TES", formula = "C6H15NO6S" },     { "TES-", formula = "C6H14NO6S-" },
+    { "DIPSO", formula = "C7H17NO6S" },   { "DIPSO-", formula = "C7H16NO6S-" },
     { "TAPSO", formula = "C7H17NO7S" },   { "TAPSO-", formula = "C7H16NO7S-" },
     { "HPOPSO-", formula = "C10H21N2O8S2-" }, { "POPSO^2-", formula = "C10H20N2O8S2^2-" },
     { "HEPPSO", formula = "C9H20N2O5S" }, { "HEPPSO-", formula = "C9H19N2O5S-" },
@@ -57,6 +60,7 @@ return {
     { "BES", "BES-", pKa = 7.187, dH = 24.25, source = "vega1976" },
     { "TES", "TES-", pKa = 7.550, dH = 32.13, dCp = 0, source = "roy1997tes",
       note = "dH and dCp from goldberg2002 [from memory, medium]" },
+    { "DIPSO", "DIPSO-", pKa = 7.576, dH = 30.18, source = "goldberg2002_dipso" },
     { "TAPSO", "TAPSO-", pKa = 7.635, source = "roy1997tapso", T_range = { 278.15, 328.15 },
       pKa_T = { { a = -4.9783, c = 2254.0057, d = 0.88672 } } },
     { "HPOPSO-", "POPSO^2-", pKa = 7.803, source = "roy2014popso", T_range = { 278.15, 328.15 },
@@ -103,6 +107,9 @@ return {
     { "TES", names = { "TES free acid" }, hazards = { "skin-irritation", "eye-irritation" } },
     { "TESNa", formula = "C6H14NNaO6S", gives = { ["Na+"] = 1, ["TES-"] = 1 },
       names = { "TES sodium salt" } },
+    { "DIPSO", names = { "DIPSO free acid" }, hazards = { "skin-irritation", "eye-irritation" } },
+    { "DIPSONa", formula = "C7H16NNaO6S", gives = { ["Na+"] = 1, ["DIPSO-"] = 1 },
+      names = { "DIPSO sodium salt" } },
     { "TAPSO", names = { "TAPSO free acid" }, hazards = { "skin-irritation", "eye-irritation" } },
     { "TAPSONa", formula = "C7H16NNaO7S", gives = { ["Na+"] = 1, ["TAPSO-"] = 1 },
       names = { "TAPSO sodium salt" } },
@@ -150,6 +157,9 @@ return {
       notes = { "metals: binds Cu^2+ and Co^2+ (common practice)" } },
     { "TES", pair = { "TES", "TESNa" }, free = "TES", titrant = "NaOH",
       notes = { "metals: binds Cu^2+; negligible binding of Ca^2+ and Mg^2+ (common practice)" } },
+    { "DIPSO", pair = { "DIPSO", "DIPSONa" }, free = "DIPSO", titrant = "NaOH",
+      notes = { "metals: binds Cu^2+ and other transition metal ions through its diethanolamine group; weak binding of Mg^2+ and Ca^2+ (common practice)",
+                "data: pK from memory of Goldberg et al. 2002, low-medium confidence; check against the paper before precise work" } },
     { "TAPSO", pair = { "TAPSO", "TAPSONa" }, free = "TAPSO", titrant = "NaOH",
       notes = { "metals: binds Cu^2+ (common practice)" } },
     { "POPSO", free = "POPSO", titrant = "NaOH",

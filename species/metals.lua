@@ -1,6 +1,7 @@
 -- Metal ions beyond Na+, K+, Ca^2+ and Mg^2+ (Mn^2+, Zn^2+, Cu^2+, Fe^3+),
 -- their salts, and the complexes of all of them with hydroxide, chloride,
--- acetate, ammonia, phosphate, carbonate, sulfate, citrate and succinate.
+-- acetate, ammonia, phosphate, carbonate, sulfate, citrate, succinate and
+-- glycine.
 --
 -- Names: metal first, then the ligand as its species is named, then the
 -- charge: "CaOH+", "CuCH3COO+", "Zn(NH3)4^2+", "CaHPO4(aq)", "CaCit-". A
@@ -40,6 +41,9 @@ return {
     mgphos = "MgHPO4 log K 2.87 at 25 C, I = 0, as selected in A. E. Martell, R. M. Smith, Critical Stability Constants [value from memory, medium confidence]",
     pb1982 = "L. N. Plummer, E. Busenberg, Geochim. Cosmochim. Acta 46, 1011-1040 (1982): log K(CaHCO3+) = 1209.120 + 0.31294 T - 34765.05/T - 478.782 log10 T; log K(CaCO3 aq) = -1228.732 - 0.299444 T + 35512.75/T + 485.818 log10 T, 0-90 C [equations from memory, medium-high confidence: they give the accepted 1.106 and 3.224 at 25 C]",
     sh1977 = "R. M. Siebert, P. B. Hostetler, 'The stability of the magnesium bicarbonate ion pair from 10 to 90 C' and '... magnesium carbonate ion pair', Am. J. Sci. 277, 697 and 716 (1977): MgHCO3+ log K 1.07, MgCO3 2.98 at 25 C, I = 0 [values from memory, medium confidence]",
+    childs1970 = "C. W. Childs, 'A potentiometric study of equilibria in aqueous divalent metal orthophosphate solutions', Inorg. Chem. 9, 2465-2469 (1970): 25 C, I = 0: MgH2PO4+ 1.513, MgPO4- 6.589 [values and title from memory, medium confidence]",
+    ms_cit_mg = "A. E. Martell, R. M. Smith, Critical Stability Constants vol. 3 (1977) / NIST SRD 46, citrate at 25 C, I = 0.1 mol/L: MgCit- 3.37, MgHCit 1.92, CaHCit 2.10 [values from memory, low-medium confidence]",
+    ms_gly = "A. E. Martell, R. M. Smith, Critical Stability Constants vol. 1: Amino Acids (1974) / NIST SRD 46, glycinate at 25 C, I = 0.1 mol/L: Cu^2+ log beta1 8.15, beta2 15.03; Zn^2+ log beta1 4.96, beta2 9.19 [values from memory: Cu medium, Zn low-medium confidence]",
     sulfpairs = "CaSO4 log K 2.30 (R. P. Bell, J. H. B. George, Trans. Faraday Soc. 49, 619 (1953)) and MgSO4 2.23 at 25 C, I = 0, as selected in Martell & Smith [values from memory, medium confidence]",
     powell2007 = "K. J. Powell, P. L. Brown, R. H. Byrne, T. Gajda, G. Hefter, S. Sjoberg, H. Wanner, 'Chemical speciation of environmentally significant metals with inorganic ligands. Part 2: The Cu2+-OH-, Cl-, CO32-, SO42-, and PO43- systems (IUPAC Technical Report)', Pure Appl. Chem. 79, 895-950 (2007) [title seen]: 25 C, I = 0: log *K of CuO(s) (tenorite) 7.64, Cu(OH)2(s) 8.67 [values from memory, medium confidence]",
     powell2013 = "K. J. Powell et al., 'Chemical speciation of environmentally significant metals with inorganic ligands. Part 5: The Zn2+ + OH-, Cl-, CO32-, SO42-, and PO43- systems (IUPAC Technical Report)', Pure Appl. Chem. 85, 2249-2311 (2013): 25 C, I = 0: log *K of ZnO(s) (zincite) 11.12 (C. F. Baes, R. E. Mesmer 1976: 11.14), epsilon-Zn(OH)2(s) 11.38 [values from memory: ZnO medium, Zn(OH)2 low-medium confidence]",
@@ -59,12 +63,16 @@ return {
     { "Cu(NH3)^2+" }, { "Cu(NH3)2^2+" }, { "Cu(NH3)3^2+" }, { "Cu(NH3)4^2+" },
     { "Zn(NH3)^2+" }, { "Zn(NH3)2^2+" }, { "Zn(NH3)3^2+" }, { "Zn(NH3)4^2+" },
     { "CaHPO4(aq)", formula = "CaHPO4" }, { "CaH2PO4+" }, { "CaPO4-" },
-    { "MgHPO4(aq)", formula = "MgHPO4" },
+    { "MgHPO4(aq)", formula = "MgHPO4" }, { "MgH2PO4+" }, { "MgPO4-" },
     { "CaHCO3+" }, { "CaCO3(aq)", formula = "CaCO3" },
     { "MgHCO3+" }, { "MgCO3(aq)", formula = "MgCO3" },
     { "CaSO4(aq)", formula = "CaSO4" }, { "MgSO4(aq)", formula = "MgSO4" },
     { "CaCit-", formula = "C6H5CaO7-" },
     { "CaSucc(aq)", formula = "C4H4CaO4" },
+    { "MgCit-", formula = "C6H5MgO7-" }, { "MgHCit(aq)", formula = "C6H6MgO7" },
+    { "CaHCit(aq)", formula = "C6H6CaO7" },
+    { "CuGly+", formula = "C2H4CuNO2+" }, { "Cu(Gly)2(aq)", formula = "C4H8CuN2O4" },
+    { "ZnGly+", formula = "C2H4NO2Zn+" }, { "Zn(Gly)2(aq)", formula = "C4H8N2O4Zn" },
   },
   reactions = {
     -- hydroxide
@@ -124,6 +132,8 @@ return {
     { "CaH2PO4+", from = { ["Ca^2+"] = 1, ["H2PO4-"] = 1 }, logK = 1.408, source = "cmn1968" },
     { "CaPO4-", from = { ["Ca^2+"] = 1, ["PO4^3-"] = 1 }, logK = 6.459, source = "cmn1968" },
     { "MgHPO4(aq)", from = { ["Mg^2+"] = 1, ["HPO4^2-"] = 1 }, logK = 2.87, source = "mgphos" },
+    { "MgH2PO4+", from = { ["Mg^2+"] = 1, ["H2PO4-"] = 1 }, logK = 1.513, source = "childs1970" },
+    { "MgPO4-", from = { ["Mg^2+"] = 1, ["PO4^3-"] = 1 }, logK = 6.589, source = "childs1970" },
     -- carbonate (log10 T written as ln T / ln 10)
     { "CaHCO3+", from = { ["Ca^2+"] = 1, ["HCO3-"] = 1 }, logK = 1.106, source = "pb1982",
       logK_T = { a = 1209.120, b = 0.31294, c = -34765.05, d = -478.782 / L10 },
@@ -141,6 +151,21 @@ return {
       source = "ms1974ca", note = "log K 3.45 at 25 C, I = 0.1 mol/L; Davies to I = 0" },
     { "CaSucc(aq)", from = { ["Ca^2+"] = 1, ["Succ^2-"] = 1 }, logK = I0(1.25, 4 + 4),
       source = "ms1974ca", note = "log K 1.25 at 25 C, I = 0.1 mol/L; Davies to I = 0" },
+    { "MgCit-", from = { ["Mg^2+"] = 1, ["Cit^3-"] = 1 }, logK = I0(3.37, 4 + 9 - 1),
+      source = "ms_cit_mg", note = "log K 3.37 at 25 C, I = 0.1 mol/L; Davies to I = 0" },
+    { "MgHCit(aq)", from = { ["Mg^2+"] = 1, ["HCit^2-"] = 1 }, logK = I0(1.92, 4 + 4),
+      source = "ms_cit_mg", note = "log K 1.92 at 25 C, I = 0.1 mol/L; Davies to I = 0" },
+    { "CaHCit(aq)", from = { ["Ca^2+"] = 1, ["HCit^2-"] = 1 }, logK = I0(2.10, 4 + 4),
+      source = "ms_cit_mg", note = "log K 2.10 at 25 C, I = 0.1 mol/L; Davies to I = 0" },
+    -- glycinate, published at I = 0.1 mol/L (overall beta)
+    { "CuGly+", from = { ["Cu^2+"] = 1, ["Gly-"] = 1 }, logK = I0(8.15, 4 + 1 - 1),
+      source = "ms_gly", note = "log beta1 8.15 at 25 C, I = 0.1 mol/L; Davies to I = 0" },
+    { "Cu(Gly)2(aq)", from = { ["Cu^2+"] = 1, ["Gly-"] = 2 }, logK = I0(15.03, 4 + 2),
+      source = "ms_gly", note = "log beta2 15.03 at 25 C, I = 0.1 mol/L; Davies to I = 0" },
+    { "ZnGly+", from = { ["Zn^2+"] = 1, ["Gly-"] = 1 }, logK = I0(4.96, 4 + 1 - 1),
+      source = "ms_gly", note = "log beta1 4.96 at 25 C, I = 0.1 mol/L; Davies to I = 0" },
+    { "Zn(Gly)2(aq)", from = { ["Zn^2+"] = 1, ["Gly-"] = 2 }, logK = I0(9.19, 4 + 2),
+      source = "ms_gly", note = "log beta2 9.19 at 25 C, I = 0.1 mol/L; Davies to I = 0" },
   },
   reagents = {
     { "Ca(OH)2", gives = { ["Ca^2+"] = 1, ["OH-"] = 2 }, names = { "calcium hydroxide",
