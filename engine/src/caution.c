@@ -218,6 +218,27 @@ static int int_push(eqp_ctx *ctx, int **arr, int *n, int *cap, int v)
   return 1;
 }
 
+/* Append a caution under its label (a reagent's name, or a label such as a
+** sealed vessel's) and tell the observer. */
+static int record(eqp_ctx *ctx, const char *label, const char *text)
+{
+  if (eqpi_grow(ctx, &ctx->caution_rg, &ctx->capcaution_rg, ctx->ncautions + 1,
+                sizeof(char *)) < 0 ||
+      eqpi_grow(ctx, &ctx->caution_text, &ctx->capcautions, ctx->ncautions + 1,
+                sizeof(char *)) < 0)
+    return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
+  char *t = eqpi_strdup(ctx, text), *nm = eqpi_strdup(ctx, label);
+  if (!t || !nm) {
+    eqpi_strfree(ctx, t);
+    eqpi_strfree(ctx, nm);
+    return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
+  }
+  ctx->caution_rg[ctx->ncautions] = nm;
+  ctx->caution_text[ctx->ncautions++] = t;
+  eqpi_observe_caution(ctx, nm, t);
+  return EQP_OK;
+}
+
 /* The context's record: reagent name and its caution text, in order of
 ** first use (by name: solutions may use libraries of their own). */
 static int ctx_record(eqp_ctx *ctx, const eqpi_db *db, int reagent)
@@ -234,22 +255,10 @@ static int ctx_record(eqp_ctx *ctx, const eqpi_db *db, int reagent)
   }
   char text[1024];
   eqpi_caution_text(db, reagent, text, sizeof text);
-  if (eqpi_grow(ctx, &ctx->caution_rg, &ctx->capcaution_rg, ctx->ncautions + 1,
-                sizeof(char *)) < 0 ||
-      eqpi_grow(ctx, &ctx->caution_text, &ctx->capcautions, ctx->ncautions + 1,
-                sizeof(char *)) < 0)
-    return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
-  char *t = eqpi_strdup(ctx, text), *nm = eqpi_strdup(ctx, name);
-  if (!t || !nm) {
-    eqpi_strfree(ctx, t);
-    eqpi_strfree(ctx, nm);
-    return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
-  }
-  ctx->caution_rg[ctx->ncautions] = nm;
-  ctx->caution_text[ctx->ncautions++] = t;
+  int rc = record(ctx, name, text);
+  if (rc < 0) return rc;
   ctx->caution_seen_gen = db->generation;
   ctx->caution_seen_rg = reagent;
-  eqpi_observe_caution(ctx, nm, t);
   return EQP_OK;
 }
 
@@ -345,21 +354,7 @@ int eqpi_caution_note(eqp_ctx *ctx, const char *label, const char *text)
   if (ctx->caution_hold) return EQP_OK;
   for (int i = 0; i < ctx->ncautions; i++)
     if (strcmp(ctx->caution_rg[i], label) == 0) return EQP_OK;
-  if (eqpi_grow(ctx, &ctx->caution_rg, &ctx->capcaution_rg, ctx->ncautions + 1,
-                sizeof(char *)) < 0 ||
-      eqpi_grow(ctx, &ctx->caution_text, &ctx->capcautions, ctx->ncautions + 1,
-                sizeof(char *)) < 0)
-    return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
-  char *t = eqpi_strdup(ctx, text), *nm = eqpi_strdup(ctx, label);
-  if (!t || !nm) {
-    eqpi_strfree(ctx, t);
-    eqpi_strfree(ctx, nm);
-    return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
-  }
-  ctx->caution_rg[ctx->ncautions] = nm;
-  ctx->caution_text[ctx->ncautions++] = t;
-  eqpi_observe_caution(ctx, nm, t);
-  return EQP_OK;
+  return record(ctx, label, text);
 }
 
 /* ------------------------------------------------------------ gases */
