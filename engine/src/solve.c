@@ -43,7 +43,13 @@ static int active_mask(eqp_ctx *ctx, const eqpi_db *db, const double *totals,
     int neg = 0;
     for (int c = 0; c < db->ncomp; c++) {
       mask[c] = totals[c] > 0;
-      neg |= (totals[c] < -1e-14) & (c != w) & (c != h);
+      neg |= totals[c] < -1e-14;
+    }
+    /* the totals of water and H+ may be negative: only another one counts */
+    if (neg) {
+      neg = 0;
+      for (int c = 0; c < db->ncomp && !neg; c++)
+        neg = c != w && c != h && totals[c] < -1e-14;
     }
     mask[w] = 0;
     mask[h] = 1;
