@@ -73,8 +73,13 @@ int eqpi_chain_refuse(eqp_solution *s, double I, const char *what)
 static int molalities(eqp_solution *s, double *mol)
 {
   eqp_ctx *ctx = s->ctx;
+  int bad = 0;                       /* one pass without exits, then the message */
   for (int c = 0; c < s->ntotal; c++) {
-    mol[c] = s->total[c] / s->water_kg;
+    /* most of the library's components are absent: no division for them */
+    mol[c] = s->total[c] != 0 ? s->total[c] / s->water_kg : s->total[c];
+    bad |= !(fabs(mol[c]) <= EQPI_MAX_MOLALITY);
+  }
+  for (int c = 0; bad && c < s->ntotal; c++) {
     if (!(fabs(mol[c]) <= EQPI_MAX_MOLALITY))
       return eqpi_fail(ctx, EQP_E_INPUT, "the total of %s is %g mol per kg of water, beyond "
                        "%g mol/kg: not an aqueous solution any activity model here describes",

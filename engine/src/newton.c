@@ -35,8 +35,8 @@ static int kin_f(N_Vector uu, N_Vector fval, void *ud)
 {
   eqpi_newton *ws = ud;
   eqpi_problem *P = ws->P;
-  double *F = N_VGetArrayPointer(fval);
-  const double *u = N_VGetArrayPointer(uu);
+  double *F = NV_DATA_S(fval);
+  const double *u = NV_DATA_S(uu);
   int rc;
   if (P->at_ok && memcmp(P->u_at, u, sizeof(double) * (size_t)ws->n) == 0) {
     memcpy(F, P->F, sizeof(double) * (size_t)ws->n);   /* the start, evaluated already */
@@ -53,13 +53,13 @@ static int kin_f(N_Vector uu, N_Vector fval, void *ud)
 static int kin_psetup(N_Vector uu, N_Vector uscale, N_Vector fval, N_Vector fscale, void *ud)
 {
   eqpi_newton *ws = ud;
-  return eqpi_newton_factor(ws, ws->P, N_VGetArrayPointer(uu)) < 0 ? 1 : 0;
+  return eqpi_newton_factor(ws, ws->P, NV_DATA_S(uu)) < 0 ? 1 : 0;
 }
 
 static int kin_psolve(N_Vector uu, N_Vector uscale, N_Vector fval, N_Vector fscale,
                       N_Vector vv, void *ud)
 {
-  eqpi_newton_lu_solve(ud, N_VGetArrayPointer(vv));
+  eqpi_newton_lu_solve(ud, NV_DATA_S(vv));
   return 0;
 }
 
@@ -68,8 +68,8 @@ static int kin_jtimes(N_Vector v, N_Vector Jv, N_Vector uu, sunbooleantype *new_
 {
   eqpi_newton *ws = ud;
   const int n = ws->n;
-  const double *x = N_VGetArrayPointer(v), *u = N_VGetArrayPointer(uu);
-  double *y = N_VGetArrayPointer(Jv);
+  const double *x = NV_DATA_S(v), *u = NV_DATA_S(uu);
+  double *y = NV_DATA_S(Jv);
   if (!ws->jac_ok || memcmp(ws->uj, u, sizeof(double) * (size_t)n) != 0)
     if (eqpi_newton_factor(ws, ws->P, u) == -1) return -1;
   *new_uu = SUNFALSE;
@@ -109,6 +109,8 @@ static int kinsol_setup(eqpi_newton *ws, double *udata, double *sdata)
   ws->scale = N_VMake_Serial(n, sdata, ws->sun);
   ws->kmem = KINCreate(ws->sun);
   if (!ws->u || !ws->scale || !ws->kmem) return -1;
+  eqpi_vec_install(ws->u);      /* before KINSOL and GMRES clone u */
+  eqpi_vec_install(ws->scale);
   N_VConst(1.0, ws->scale);
   if (KINSetUserData(ws->kmem, ws) || KINSetErrHandlerFn(ws->kmem, kin_err, ws) ||
       KINInit(ws->kmem, kin_f, ws->u))
@@ -217,7 +219,7 @@ int eqpi_newton_run(eqpi_newton *ws, eqpi_problem *P, const double *u0, int maxi
                     long *iters)
 {
   const int n = ws->n;
-  double *uu = N_VGetArrayPointer(ws->u);
+  double *uu = NV_DATA_S(ws->u);
   ws->P = P;
   ws->kin_err[0] = '\0';
   ws->last_linear = 0;

@@ -51,12 +51,15 @@ void eqpi_newton_pool_free(eqp_ctx *ctx);
 ** iterate is eqpi_newton_u(ws) whatever the flag. */
 int eqpi_newton_run(eqpi_newton *ws, eqpi_problem *P, const double *u0, int maxiter,
                     long *iters);
-static inline double *eqpi_newton_u(eqpi_newton *ws) { return N_VGetArrayPointer(ws->u); }
+static inline double *eqpi_newton_u(eqpi_newton *ws) { return NV_DATA_S(ws->u); }
 /* The Jacobian of P at u and its LU factors. 0, -1 when the model failed,
 ** -2 when the matrix is singular. */
 int eqpi_newton_factor(eqpi_newton *ws, eqpi_problem *P, const double *u);
 /* b := J^-1 b with the factors of the last eqpi_newton_factor. */
 void eqpi_newton_lu_solve(eqpi_newton *ws, double *b);
+/* Kernels for short vectors in v's table of operations (vecops.c); before
+** KINSOL or GMRES clone v. */
+void eqpi_vec_install(N_Vector v);
 /* The name of a KINSOL flag (or of EQPI_KIN_IMPLAUSIBLE). */
 const char *eqpi_newton_flag_name(int flag, char *buf, size_t len);
 

@@ -55,13 +55,16 @@ static void gather(void *ud, const char *kind, const char *text)
   w->n++;
 }
 
+static void saturation_of(const eqp_result *r, int k, double *si);
+
 /* A solid the result is supersaturated in: said, not formed (docs/user-guide.md). */
 static void supersaturation_notes(const eqp_result *r)
 {
   const eqpi_db *db = r->db;
   for (int k = 0; k < db->nsolids; k++) {
     double si;
-    if (eqp_result_saturation(r, db->solids[k].name, &si) != EQP_OK || !(si > 1e-6)) continue;
+    saturation_of(r, k, &si);      /* by index: no lookup of the name */
+    if (!(si > 1e-6)) continue;
     /* an index from a 25 C constant, or from a function beyond its range, says so */
     eqpi_tnotes notes = {0, 0};
     (void)eqpi_reaction_logK(&db->solids[k].ksp, r->T, &notes);
@@ -277,9 +280,15 @@ static int find_solid(const eqp_result *r, const char *solid)
 int eqp_result_saturation(const eqp_result *r, const char *solid, double *si)
 {
   if (!r || !solid || !si) return EQP_E_ARG;
-  const eqpi_db *db = r->db;
   int k = find_solid(r, solid);
   if (k < 0) return k;
+  saturation_of(r, k, si);
+  return EQP_OK;
+}
+
+static void saturation_of(const eqp_result *r, int k, double *si)
+{
+  const eqpi_db *db = r->db;
   const eqpi_solid *s = &db->solids[k];
   double iap = 0;
   for (int j = 0; j < s->n; j++) {
@@ -287,13 +296,12 @@ int eqp_result_saturation(const eqp_result *r, const char *solid, double *si)
     int i = local_of(r, s->sp[j]);
     if (i < 0 || !(r->m[i] > 0)) {
       *si = -INFINITY;
-      return EQP_OK;
+      return;
     }
     iap += s->nu[j] * (log10(r->m[i]) + r->lg[i]);
   }
   eqpi_tnotes notes = {0, 0};
   *si = iap - eqpi_reaction_logK(&s->ksp, r->T, &notes);
-  return EQP_OK;
 }
 
 int eqpi_result_set_solids(eqp_result *r, const double *amounts, int n, double water_kg)

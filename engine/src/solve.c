@@ -35,6 +35,26 @@ void eqpi_system_free(eqp_ctx *ctx, eqpi_system *sys)
 static int active_mask(eqp_ctx *ctx, const eqpi_db *db, const double *totals,
                        unsigned char *mask)
 {
+  /* one pass without branches over the whole library's components (this
+  ** runs before every solve); the loop below only for a negative total */
+  const int w = db->sp[db->water].component, h = db->sp[db->h_plus].component;
+  if (w >= 0 && h >= 0 && db->comp_species[w] == db->water &&
+      db->comp_species[h] == db->h_plus) {
+    int neg = 0;
+    for (int c = 0; c < db->ncomp; c++) {
+      mask[c] = totals[c] > 0;
+      neg |= totals[c] < -1e-14;
+    }
+    /* the totals of water and H+ may be negative: only another one counts */
+    if (neg) {
+      neg = 0;
+      for (int c = 0; c < db->ncomp && !neg; c++)
+        neg = c != w && c != h && totals[c] < -1e-14;
+    }
+    mask[w] = 0;
+    mask[h] = 1;
+    if (!neg) return EQP_OK;
+  }
   for (int c = 0; c < db->ncomp; c++) {
     int sp = db->comp_species[c];
     mask[c] = 0;

@@ -113,8 +113,8 @@ int eqpi_parse_quantity(const char *text, unsigned allowed, double *value,
     return -1;
   }
   const unit_def *u = NULL;
-  for (size_t i = 0; i < sizeof units / sizeof units[0]; i++)
-    if (strcmp(units[i].sym, unit) == 0) u = &units[i];
+  for (size_t i = 0; i < sizeof units / sizeof units[0] && !u; i++)   /* symbols are unique */
+    if (units[i].sym[0] == unit[0] && strcmp(units[i].sym, unit) == 0) u = &units[i];
   if (!u) {
     snprintf(err, errlen, "unknown unit '%s' in '%s' (expected %s)", unit, text,
              kind_names(allowed, want, sizeof want));
