@@ -310,8 +310,12 @@ while [ "$n" -lt 3000 ] && [ "$(wc -l < "$TMP/l2")" -lt 50 ] && kill -0 "$pid" 2
   sleep 0.1; n=$((n + 1))
 done
 kill -9 "$pid"; wait "$pid" 2>/dev/null
-check jsonl_killed_valid 0 "" -- "$JSON" --lines < "$TMP/l2"
-records=$("$JSON" --lines result < "$TMP/l2")
+# a kill can cut the record being written where the write crosses a page
+# (Linux stops a write at a page boundary for a fatal signal): a reader
+# keeps the lines that end in a newline (docs/json-output.md), so does this
+if [ -n "$(tail -c 1 "$TMP/l2")" ]; then sed '$d' "$TMP/l2" > "$TMP/l2c"; else cp "$TMP/l2" "$TMP/l2c"; fi
+check jsonl_killed_valid 0 "" -- "$JSON" --lines < "$TMP/l2c"
+records=$("$JSON" --lines result < "$TMP/l2c")
 [ "${records:-0}" -ge 40 ] && ok "jsonl_killed_kept ($records results)" ||
   bad "jsonl_killed_kept: ${records:-0} results in $(wc -l < "$TMP/l2") lines after $n waits: $(head -c 300 "$TMP/l2")"
 grep -q '"type":"summary"' "$TMP/l2" && bad "a killed run wrote a summary"
