@@ -83,10 +83,19 @@ static int molalities(eqp_solution *s, double *mol)
   return EQP_OK;
 }
 
+/* One adjustment with the model of aj: with the solids s allows, when any,
+** coupled to the targets in each solve (precipitate.c). */
+static int adjust_once(eqp_solution *s, eqpi_adjust *aj, int n, double *v, eqpi_solve_stats *st,
+                       const char *what)
+{
+  if (eqpi_solution_any_solid(s)) return eqpi_precipitate_adjust(s, aj, n, v, st, what);
+  return eqpi_system_adjust(s->ctx, s->db, &s->sys, aj, n, v, st);
+}
+
 int eqpi_solution_adjust(eqp_solution *s, eqpi_adjust *aj, int n, double *v, eqpi_solve_stats *st,
                          int *k, const char *what)
 {
-  int rc = eqpi_system_adjust(s->ctx, s->db, &s->sys, aj, n, v, st);
+  int rc = adjust_once(s, aj, n, v, st, what);
   while (rc == EQP_OK && s->model_default) {
     double I = eqpi_system_ionic_strength(s->sys);
     int next = eqpi_chain_choice(s, I, *k);
@@ -98,7 +107,7 @@ int eqpi_solution_adjust(eqp_solution *s, eqpi_adjust *aj, int n, double *v, eqp
     }
     eqpi_model *m = eqpi_chain_model(s, *k = next);
     for (int j = 0; j < n; j++) aj[j].model = m;
-    rc = eqpi_system_adjust(s->ctx, s->db, &s->sys, aj, n, v, st);
+    rc = adjust_once(s, aj, n, v, st, what);
   }
   return rc;
 }
@@ -133,8 +142,7 @@ int eqpi_solution_equilibrate_from(eqp_solution *s, int *kp, int follow, eqp_res
   ** is none, so nothing here runs) */
   double *amt = NULL;
   size_t amt_bytes = sizeof(double) * (size_t)(s->db->nsolids > 0 ? s->db->nsolids : 1);
-  int any = 0;
-  for (int j = 0; j < s->db->nsolids; j++) any |= eqpi_solution_allowed(s, j);
+  int any = eqpi_solution_any_solid(s);
   if (rc == EQP_OK && any) {
     if (!(amt = eqpi_malloc(ctx, amt_bytes))) rc = eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
     else rc = eqpi_precipitate(s, mol, model, &st, amt);

@@ -100,5 +100,14 @@ int eqpi_solution_allowed(const eqp_solution *s, int k);
 ** amounts (one per solid of the library) holds mol/kg of each phase. */
 int eqpi_precipitate(eqp_solution *s, const double *mol, eqpi_model *model,
                      eqpi_solve_stats *st, double *amounts);
+/* Whether s lets any solid form. */
+int eqpi_solution_any_solid(const eqp_solution *s);
+/* The adjustment of n targets (eqpi_system_adjust) with the solids s
+** allows: the active set with each set one solve in which the targets'
+** amounts and the phases' amounts are unknowns together; v receives the
+** targets' amounts, s->sys ends solved at the dissolved totals. what names
+** the operation in a failure. */
+int eqpi_precipitate_adjust(eqp_solution *s, const eqpi_adjust *aj, int n, double *v,
+                            eqpi_solve_stats *st, const char *what);
 
 #endif
