@@ -143,9 +143,10 @@ int eqpi_solution_equilibrate_from(eqp_solution *s, int *kp, int follow, eqp_res
   double *amt = NULL;
   size_t amt_bytes = sizeof(double) * (size_t)(s->db->nsolids > 0 ? s->db->nsolids : 1);
   int any = eqpi_solution_any_solid(s);
+  double wfrac = 1;      /* the water the solids leave in solution */
   if (rc == EQP_OK && any) {
     if (!(amt = eqpi_malloc(ctx, amt_bytes))) rc = eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
-    else rc = eqpi_precipitate(s, mol, model, &st, amt);
+    else rc = eqpi_precipitate(s, mol, model, &st, amt, &wfrac);
   }
   if (mol != stack) eqpi_free(ctx, mol, sizeof(double) * (size_t)s->ntotal);
   if (rc == EQP_OK) {
@@ -154,7 +155,7 @@ int eqpi_solution_equilibrate_from(eqp_solution *s, int *kp, int follow, eqp_res
     st.replaced = k > 0 && s->model_default ? s->model.desc : NULL;
     *kp = k;
     if (stout) *stout = st;
-    rc = eqpi_result_make(ctx, s->db, s->sys, model, s->T, s->water_kg, &st, out);
+    rc = eqpi_result_make(ctx, s->db, s->sys, model, s->T, s->water_kg * wfrac, &st, out);
     if (rc == EQP_OK && amt &&
         (rc = eqpi_result_set_solids(*out, amt, s->db->nsolids, s->water_kg)) < 0) {
       eqp_result_free(*out);

@@ -135,7 +135,9 @@ typedef struct pset {
   double *a, *b, *lnfree, *u;   /* scratch: ncomp + EQPI_MAX_AMOUNTS + 1 each */
   int ph[MAX_PHASES];    /* the phases present */
   double n[MAX_PHASES];  /* their amounts, mol/kg */
+  double pw[MAX_PHASES]; /* kg of water one mol of each holds (a hydrate's) */
   int np;                /* present */
+  double wfrac;          /* the water left over that before the solids, at the end */
   long iters;            /* Newton iterations of every solve */
 } pset;
 
@@ -157,10 +159,29 @@ static double water(const pset *P)
   return W;
 }
 
+/* The water left in the solution: a hydrate's water stays in its solid. */
+static double water_left(const pset *P)
+{
+  double W = water(P);
+  for (int q = 0; q < P->np; q++) W -= P->n[q] * P->pw[q];
+  return W;
+}
+
+/* kg of water in one mol of phase k: the water its dissolution releases
+** (as a reagent's formula counts it into the solvent). */
+static double phase_water(const eqpi_db *db, int k)
+{
+  const eqpi_solid *p = &db->solids[k];
+  double h2o = 0;
+  for (int j = 0; j < p->n; j++)
+    if (p->sp[j] == db->water) h2o += p->nu[j];
+  return h2o * EQPI_M_WATER * 1e-3;
+}
+
 static void dissolved(pset *P)
 {
   const eqpi_db *db = P->s->db;
-  double W = water(P);
+  double W = water_left(P);
   for (int c = 0; c < db->ncomp; c++) {
     double N = base(P, c), v = N;
     for (int q = 0; q < P->np; q++) v -= P->n[q] * P->dir[q * db->ncomp + c];
@@ -366,6 +387,8 @@ static int newton_set(pset *Q, int join)
         eqpi_problem_add_solid(P, N0, W0, Q->a, sc, Q->b, lnt,
                                db->solids[Q->ph[q]].name) < 0)
       ok = -1;
+    else
+      P->amt[P->na - 1].w = -Q->pw[q];     /* its water leaves with it */
   }
   eqpi_problem_layout(P);
   eqpi_newton *ws = ok == 0 ? eqpi_newton_get(ctx, P->n) : NULL;
@@ -451,6 +474,7 @@ static void drop(pset *P, int q, int nc)
   for (int r = q; r + 1 < P->np; r++) {
     P->ph[r] = P->ph[r + 1];
     P->n[r] = P->n[r + 1];
+    P->pw[r] = P->pw[r + 1];
     memmove(P->dir + r * nc, P->dir + (r + 1) * nc, sizeof(double) * (size_t)nc);
   }
   P->np--;
@@ -539,12 +563,14 @@ static int active_set(pset *Pp, double *amounts)
       break;
     }
     P.ph[P.np] = join;
+    P.pw[P.np] = phase_water(db, join);
     P.n[P.np++] = 0;
     rc = solve_phases(&P, P.np - 1);
   }
   if (rc == EQP_OK)
     for (int q = 0; q < P.np; q++) amounts[P.ph[q]] = P.n[q] / water(&P);
   Pp->iters = P.iters;
+  Pp->wfrac = water_left(&P) / water(&P);
   return rc;
 }
 
@@ -562,12 +588,12 @@ static pset make_set(eqp_solution *s, eqpi_model *model, eqpi_solve_stats *st, d
   const size_t w = (size_t)nc + EQPI_MAX_AMOUNTS + 1;
   double *sc = blk + (size_t)nc * (MAX_PHASES + 1);
   pset P = {s, model, st, NULL, NULL, 0, NULL, NULL, blk, blk + nc, sc, sc + w, sc + 2 * w,
-            sc + 3 * w, {0}, {0}, 0, st ? st->iterations : 0};
+            sc + 3 * w, {0}, {0}, {0}, 0, 1, st ? st->iterations : 0};
   return P;
 }
 
 int eqpi_precipitate(eqp_solution *s, const double *mol, eqpi_model *model,
-                     eqpi_solve_stats *st, double *amounts)
+                     eqpi_solve_stats *st, double *amounts, double *wfrac)
 {
   eqp_ctx *ctx = s->ctx;
   for (int k = 0; k < s->db->nsolids; k++) amounts[k] = 0;
@@ -577,6 +603,7 @@ int eqpi_precipitate(eqp_solution *s, const double *mol, eqpi_model *model,
   pset P = make_set(s, model, st, blk);
   P.mol = mol;
   int rc = active_set(&P, amounts);
+  *wfrac = P.wfrac;
   if (st) st->iterations = P.iters;
   eqpi_free(ctx, blk, bytes);
   return rc;

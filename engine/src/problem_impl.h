@@ -25,7 +25,7 @@ enum {
 /* An unknown amount v of a direction (a: mol per unit over the local
 ** components, w: kg of water per unit) and the row that fixes it: the
 ** activity of a species, or the ionic strength, at a target; or, for a
-** solid phase (a: minus its composition, w = 0), its saturation
+** solid phase (a: minus its composition, w: minus a hydrate's water), its saturation
 ** sum_c b_c (x_c + ln g_c) = ln_target, the ln Ksp less the log K of the
 ** species it dissolves to (b: its composition over the local components). */
 typedef struct eqpi_amount {

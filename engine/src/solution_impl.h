@@ -97,9 +97,11 @@ int eqpi_solution_adjust(eqp_solution *s, eqpi_adjust *aj, int n, double *v, eqp
 int eqpi_solution_allowed(const eqp_solution *s, int k);
 /* The active set of solids over the totals mol (mol/kg, nothing
 ** precipitated) with model: s->sys ends solved for the dissolved totals,
-** amounts (one per solid of the library) holds mol/kg of each phase. */
+** amounts (one per solid of the library) holds mol of each phase per kg of
+** the water before precipitation, *wfrac the water left in solution over
+** that (a hydrate's water stays in the solid). */
 int eqpi_precipitate(eqp_solution *s, const double *mol, eqpi_model *model,
-                     eqpi_solve_stats *st, double *amounts);
+                     eqpi_solve_stats *st, double *amounts, double *wfrac);
 /* Whether s lets any solid form. */
 int eqpi_solution_any_solid(const eqp_solution *s);
 /* The adjustment of n targets (eqpi_system_adjust) with the solids s
