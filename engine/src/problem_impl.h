@@ -103,8 +103,9 @@ void eqpi_problem_set_row(eqpi_problem *P, int c, int kind, double lna);
 ** -1 when there are already EQPI_MAX_AMOUNTS. Then eqpi_problem_layout. */
 int eqpi_problem_add_amount(eqpi_problem *P, const double *N0, double W0, const double *a,
                             double w, double scale, int target, int molal, double ln_target);
-/* Add a solid phase as an amount (as eqpi_problem_add_amount, w = 0):
-** a over the database's components, b over the local ones, name
+/* Add a solid phase as an amount (as eqpi_problem_add_amount, w = 0; a
+** hydrate sets amt[na - 1].w to minus its water after): a over the
+** database's components, b over the local ones, name
 ** borrowed. -1 when there are already EQPI_MAX_AMOUNTS. */
 int eqpi_problem_add_solid(eqpi_problem *P, const double *N0, double W0, const double *a,
                            double scale, const double *b, double ln_target, const char *name);

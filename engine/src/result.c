@@ -206,6 +206,7 @@ int eqp_result_copy(const eqp_result *r, eqp_result **out)
   c->m = (double *)((char *)r->m + d);
   c->lg = (double *)((char *)r->lg + d);
   c->sp = (int *)((char *)r->sp + d);
+  c->warn = (const char **)((char *)r->warn + d);
   for (int i = 0; i < c->nwarn; i++) c->warn[i] = r->warn[i] + d;
   *out = c;
   return EQP_OK;
