@@ -215,6 +215,23 @@ static void restore_totals(eqpi_system *s)
   P->at_ok = 0;
 }
 
+int eqpi_adjust_add_targets(eqpi_system *s, const eqpi_adjust *aj, int n, const double *vlin)
+{
+  for (int k = 0; k < n; k++)
+    if (target_of(s, &aj[k]) == ABSENT) return -1;
+  for (int k = 0; k < n; k++) {
+    /* v = u scale: the scale keeps u near 1 for KINSOL's step limits; the
+    ** linear estimate alone can be far too small in an unbuffered solution */
+    double sc = isfinite(vlin[k]) ? fmin(fmax(fabs(vlin[k]), 1e-3 * aj[k].vmax), aj[k].vmax)
+                                  : aj[k].vmax;
+    if (eqpi_problem_add_amount(s->prob, aj[0].N0, aj[0].W0, aj[k].a, aj[k].w, sc,
+                                target_of(s, &aj[k]), aj[k].kind == EQPI_ADJ_FREE,
+                                ln_target(&aj[k])) < 0)
+      return -1;
+  }
+  return 0;
+}
+
 /* The problem with the amounts as unknowns, from the solved state at A->v
 ** toward the linear estimate vlin (which sets the scale of each unknown).
 ** 0 and A->v set on success; -1 otherwise (the system is left as it was). */
@@ -229,16 +246,7 @@ static int amounts_kinsol(adj *A, const double *vlin)
   if (eqpi_problem_at(P, s->u_last) < 0) return -1;
   double lnI = s->u_last[P->n - 1], *lnfree = s->work;
   memcpy(lnfree, P->lnfree, sizeof(double) * (size_t)nc);
-  for (int k = 0; k < A->n; k++)
-    if (target_of(s, &aj[k]) == ABSENT) return -1;
-  for (int k = 0; k < A->n; k++) {
-    /* v = u scale: the scale keeps u near 1 for KINSOL's step limits; the
-    ** linear estimate alone can be far too small in an unbuffered solution */
-    double sc = isfinite(vlin[k]) ? fmin(fmax(fabs(vlin[k]), 1e-3 * aj[k].vmax), aj[k].vmax)
-                                  : aj[k].vmax;
-    eqpi_problem_add_amount(P, aj[0].N0, aj[0].W0, aj[k].a, aj[k].w, sc, target_of(s, &aj[k]),
-                            aj[k].kind == EQPI_ADJ_FREE, ln_target(&aj[k]));
-  }
+  if (eqpi_adjust_add_targets(s, aj, A->n, vlin) < 0) return -1;
   eqpi_problem_layout(P);
   eqpi_newton *ws = eqpi_newton_get(ctx, P->n);
   int ok = -1;

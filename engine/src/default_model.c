@@ -88,11 +88,20 @@ static int molalities(eqp_solution *s, double *mol)
   return EQP_OK;
 }
 
+/* One adjustment with the model of aj: with the solids s allows, when any,
+** coupled to the targets in each solve (precipitate.c). */
+static int adjust_once(eqp_solution *s, eqpi_adjust *aj, int n, double *v, eqpi_solve_stats *st,
+                       const char *what)
+{
+  if (eqpi_solution_any_solid(s)) return eqpi_precipitate_adjust(s, aj, n, v, st, what);
+  return eqpi_system_adjust(s->ctx, s->db, &s->sys, aj, n, v, st);
+}
+
 int eqpi_solution_adjust(eqp_solution *s, eqpi_adjust *aj, int n, double *v, eqpi_solve_stats *st,
                          int *k, const char *what)
 {
   if (s->head) return eqpi_head_refuse(s, what);
-  int rc = eqpi_system_adjust(s->ctx, s->db, &s->sys, aj, n, v, st);
+  int rc = adjust_once(s, aj, n, v, st, what);
   while (rc == EQP_OK && s->model_default) {
     double I = eqpi_system_ionic_strength(s->sys);
     int next = eqpi_chain_choice(s, I, *k);
@@ -104,7 +113,7 @@ int eqpi_solution_adjust(eqp_solution *s, eqpi_adjust *aj, int n, double *v, eqp
     }
     eqpi_model *m = eqpi_chain_model(s, *k = next);
     for (int j = 0; j < n; j++) aj[j].model = m;
-    rc = eqpi_system_adjust(s->ctx, s->db, &s->sys, aj, n, v, st);
+    rc = adjust_once(s, aj, n, v, st, what);
   }
   return rc;
 }
@@ -127,12 +136,12 @@ int eqpi_solution_equilibrate_from(eqp_solution *s, int *kp, int follow, eqp_res
   ** around it (headspace.c) */
   double *amt = NULL;
   size_t amt_bytes = sizeof(double) * (size_t)(s->db->nsolids > 0 ? s->db->nsolids : 1);
-  int any = 0;
-  for (int j = 0; j < s->db->nsolids; j++) any |= eqpi_solution_allowed(s, j);
+  int any = eqpi_solution_any_solid(s);
+  double wfrac = 1;      /* the water the solids leave in solution */
   if (rc == EQP_OK && any && !(amt = eqpi_malloc(ctx, amt_bytes)))
     rc = eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
   if (rc == EQP_OK)
-    rc = s->head ? eqpi_headspace_solve(s, mol, model, &st, amt)
+    rc = s->head ? eqpi_headspace_solve(s, mol, model, &st, amt, &wfrac)
                  : eqpi_system_solve(ctx, s->db, &s->sys, mol, s->T, model, &st);
   while (rc == EQP_OK && s->model_default && follow) {
     double I = eqpi_system_ionic_strength(s->sys);
@@ -144,10 +153,10 @@ int eqpi_solution_equilibrate_from(eqp_solution *s, int *kp, int follow, eqp_res
     }
     k = next;
     model = eqpi_chain_model(s, k);
-    rc = s->head ? eqpi_headspace_solve(s, mol, model, &st, amt)
+    rc = s->head ? eqpi_headspace_solve(s, mol, model, &st, amt, &wfrac)
                  : eqpi_system_solve(ctx, s->db, &s->sys, mol, s->T, model, &st);
   }
-  if (rc == EQP_OK && any && !s->head) rc = eqpi_precipitate(s, mol, model, &st, amt);
+  if (rc == EQP_OK && any && !s->head) rc = eqpi_precipitate(s, mol, model, &st, amt, &wfrac);
   if (mol != stack) eqpi_free(ctx, mol, sizeof(double) * (size_t)s->ntotal);
   if (rc == EQP_OK) {
     st.solute_L = s->solute_L;
@@ -155,7 +164,7 @@ int eqpi_solution_equilibrate_from(eqp_solution *s, int *kp, int follow, eqp_res
     st.replaced = k > 0 && s->model_default ? s->model.desc : NULL;
     *kp = k;
     if (stout) *stout = st;
-    rc = eqpi_result_make(ctx, s->db, s->sys, model, s->T, s->water_kg, &st, out);
+    rc = eqpi_result_make(ctx, s->db, s->sys, model, s->T, s->water_kg * wfrac, &st, out);
     if (rc == EQP_OK && amt &&
         (rc = eqpi_result_set_solids(*out, amt, s->db->nsolids, s->water_kg)) < 0) {
       eqp_result_free(*out);

@@ -188,6 +188,7 @@ typedef struct part {
   eqpi_model *model;
   eqpi_solve_stats *st;
   double *amt;             /* solids' amounts, when solids may form */
+  double wfrac;            /* the water the solids leave in solution */
   const double *mol;       /* the liquid's totals before any exchange, mol/kg */
   double *tot;             /* dissolved totals now, mol/kg */
   double *dir;             /* ng x nt: per mol of gas dissolved */
@@ -211,7 +212,8 @@ static int solve_now(part *P)
     P->tot[c] = v < 0 && v > -1e-13 * fabs(P->mol[c]) - 1e-300 ? 0 : v;
   }
   int rc = eqpi_system_solve(s->ctx, s->db, &s->sys, P->tot, s->T, P->model, P->st);
-  if (rc == EQP_OK && P->amt) rc = eqpi_precipitate(s, P->tot, P->model, P->st, P->amt);
+  if (rc == EQP_OK && P->amt)
+    rc = eqpi_precipitate(s, P->tot, P->model, P->st, P->amt, &P->wfrac);
   P->fresh = rc == EQP_OK;
   return rc;
 }
@@ -315,7 +317,7 @@ static int one_gas(part *P, int g)
 }
 
 int eqpi_headspace_solve(eqp_solution *s, const double *mol, eqpi_model *model,
-                         eqpi_solve_stats *st, double *amt)
+                         eqpi_solve_stats *st, double *amt, double *wfrac)
 {
   eqp_ctx *ctx = s->ctx;
   const eqpi_db *db = s->db;
@@ -328,7 +330,7 @@ int eqpi_headspace_solve(eqp_solution *s, const double *mol, eqpi_model *model,
   size_t bytes = sizeof(double) * ((size_t)nt * ((size_t)ng + 1) + (size_t)ng + 1);
   double *blk = eqpi_calloc(ctx, 1, bytes);
   if (!blk) return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
-  part P = {s, model, st, amt, mol, blk, blk + nt, blk + nt + (size_t)nt * ng, nt, V,
+  part P = {s, model, st, amt, 1, mol, blk, blk + nt, blk + nt + (size_t)nt * ng, nt, V,
             R_ATM * s->T, 0, 0};
   /* the gases the vessel holds: in the headspace, or all of whose dissolved
   ** species' components the solution holds */
@@ -383,6 +385,7 @@ int eqpi_headspace_solve(eqp_solution *s, const double *mol, eqpi_model *model,
     }
     h->V = V;
     h->pw = eqpi_water_vapour_atm(s->T);
+    if (wfrac) *wfrac = P.wfrac;
   }
   eqpi_free(ctx, blk, bytes);
   return rc;

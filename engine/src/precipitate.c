@@ -72,6 +72,13 @@ int eqpi_solution_allowed(const eqp_solution *s, int k)
   return s->allow_all ? k < s->db->nsolids : k < s->nallow && s->allow[k];
 }
 
+int eqpi_solution_any_solid(const eqp_solution *s)
+{
+  for (int k = 0; k < s->db->nsolids; k++)
+    if (eqpi_solution_allowed(s, k)) return 1;
+  return 0;
+}
+
 /* ------------------------------------------------------------ measures */
 
 /* What one mol of phase k holds, over the database's components (water's
@@ -115,32 +122,90 @@ typedef struct pset {
   eqp_solution *s;
   eqpi_model *model;
   eqpi_solve_stats *st;
-  const double *mol;     /* totals with nothing precipitated, mol/kg */
+  const double *mol;     /* totals with nothing precipitated, mol/kg (no targets) */
+  /* targets solved with the solids (an adjustment, nt > 0): their amounts
+  ** are unknowns of each solve too, and the phases' amounts are then mol
+  ** (in the water W0 + sum v w), not mol/kg */
+  const eqpi_adjust *aj;
+  int nt;
+  double *v;             /* nt amounts */
+  const char *what;      /* the operation, for messages */
   double *tot;           /* dissolved totals now */
   double *dir;           /* MAX_PHASES x ncomp */
   double *a, *b, *lnfree, *u;   /* scratch: ncomp + EQPI_MAX_AMOUNTS + 1 each */
   int ph[MAX_PHASES];    /* the phases present */
   double n[MAX_PHASES];  /* their amounts, mol/kg */
+  double pw[MAX_PHASES]; /* kg of water one mol of each holds (a hydrate's) */
   int np;                /* present */
+  double wfrac;          /* the water left over that before the solids, at the end */
   long iters;            /* Newton iterations of every solve */
 } pset;
+
+/* What the solution holds of component c with nothing precipitated (mol/kg
+** without targets; mol with them), and its water (1 without; kg with). */
+static double base(const pset *P, int c)
+{
+  if (!P->nt) return P->mol[c];
+  double N = P->aj[0].N0[c];
+  for (int k = 0; k < P->nt; k++) N += P->v[k] * P->aj[k].a[c];
+  return N;
+}
+
+static double water(const pset *P)
+{
+  if (!P->nt) return 1;
+  double W = P->aj[0].W0;
+  for (int k = 0; k < P->nt; k++) W += P->v[k] * P->aj[k].w;
+  return W;
+}
+
+/* The water left in the solution: a hydrate's water stays in its solid. */
+static double water_left(const pset *P)
+{
+  double W = water(P);
+  for (int q = 0; q < P->np; q++) W -= P->n[q] * P->pw[q];
+  return W;
+}
+
+/* kg of water in one mol of phase k: the water its dissolution releases
+** (as a reagent's formula counts it into the solvent). */
+static double phase_water(const eqpi_db *db, int k)
+{
+  const eqpi_solid *p = &db->solids[k];
+  double h2o = 0;
+  for (int j = 0; j < p->n; j++)
+    if (p->sp[j] == db->water) h2o += p->nu[j];
+  return h2o * EQPI_M_WATER * 1e-3;
+}
 
 static void dissolved(pset *P)
 {
   const eqpi_db *db = P->s->db;
+  double W = water_left(P);
   for (int c = 0; c < db->ncomp; c++) {
-    double v = P->mol[c];
+    double N = base(P, c), v = N;
     for (int q = 0; q < P->np; q++) v -= P->n[q] * P->dir[q * db->ncomp + c];
     /* a component used up to rounding is gone, not negative */
-    P->tot[c] = v < 0 && v > -1e-13 * fabs(P->mol[c]) - 1e-300 ? 0 : v;
+    P->tot[c] = (v < 0 && v > -1e-13 * fabs(N) - 1e-300 ? 0 : v) / W;
   }
 }
 
-/* An ordinary solve at the dissolved totals of the amounts P->n. */
-static int solve_set(pset *P)
+/* An ordinary solve at the dissolved totals of the amounts P->n (and of
+** the targets' amounts P->v as they stand). */
+static int solve_plain(pset *P)
 {
   dissolved(P);
   int rc = eqpi_system_solve(P->s->ctx, P->s->db, &P->s->sys, P->tot, P->s->T, P->model, P->st);
+  if (rc == EQP_OK && P->st) P->iters += P->st->iterations;
+  return rc;
+}
+
+/* The solve of a set without phases: ordinary, or the adjustment of the
+** targets alone. */
+static int solve_set(pset *P)
+{
+  if (!P->nt) return solve_plain(P);
+  int rc = eqpi_system_adjust(P->s->ctx, P->s->db, &P->s->sys, P->aj, P->nt, P->v, P->st);
   if (rc == EQP_OK && P->st) P->iters += P->st->iterations;
   return rc;
 }
@@ -182,7 +247,7 @@ static double most(const pset *P, int q)
   for (int c = 0; c < db->ncomp; c++) {
     double a = P->dir[q * db->ncomp + c];
     if (a <= 0 || c == hc) continue;
-    double v = P->mol[c];
+    double v = base(P, c);
     for (int r = 0; r < P->np; r++)
       if (r != q) v -= P->n[r] * P->dir[r * db->ncomp + c];
     best = fmin(best, fmax(v, 0) / a);
@@ -310,15 +375,20 @@ static int newton_set(pset *Q, int join)
   if (!s->solved || eqpi_problem_at(P, s->u_last) < 0) return -1;
   double lnI = s->u_last[P->n - 1];
   memcpy(Q->lnfree, P->lnfree, sizeof(double) * (size_t)nc);
-  int ok = 0;
+  int ok = 0, nt = Q->nt;
+  const double *N0 = nt ? Q->aj[0].N0 : Q->mol;
+  const double W0 = nt ? Q->aj[0].W0 : 1.0;
+  if (nt && eqpi_adjust_add_targets(s, Q->aj, nt, Q->v) < 0) ok = -1;
   for (int q = 0; q < Q->np && ok == 0; q++) {
     double lnt, sc = Q->n[q] > 0 ? Q->n[q] : most(Q, q);   /* u near 1, or below it */
     if (!(sc > 0) || !isfinite(sc)) sc = 1e-3;
     for (int c = 0; c < db->ncomp; c++) Q->a[c] = -Q->dir[q * db->ncomp + c];
     if (solid_row(s, Q->s->T, Q->ph[q], Q->b, &lnt) < 0 ||
-        eqpi_problem_add_solid(P, Q->mol, 1.0, Q->a, sc, Q->b, lnt,
+        eqpi_problem_add_solid(P, N0, W0, Q->a, sc, Q->b, lnt,
                                db->solids[Q->ph[q]].name) < 0)
       ok = -1;
+    else
+      P->amt[P->na - 1].w = -Q->pw[q];     /* its water leaves with it */
   }
   eqpi_problem_layout(P);
   eqpi_newton *ws = ok == 0 ? eqpi_newton_get(ctx, P->n) : NULL;
@@ -327,14 +397,21 @@ static int newton_set(pset *Q, int join)
     double *u = Q->u, *u0 = Q->a;   /* a: free again once the rows are set */
     for (int c = 0; c < nc; c++)
       if (P->xidx[c] >= 0) u[P->xidx[c]] = Q->lnfree[c];
-    for (int q = 0; q < P->na; q++) u[P->nx + q] = Q->n[q] / P->amt[q].scale;
+    for (int k = 0; k < nt; k++) u[P->nx + k] = Q->v[k] / P->amt[k].scale;
+    for (int q = 0; q < Q->np; q++) u[P->nx + nt + q] = Q->n[q] / P->amt[nt + q].scale;
     u[P->n - 1] = lnI;
     memcpy(u0, u, sizeof(double) * (size_t)P->n);
     ok = run_set(Q, ws, u, SET_ITERS);
-    if (ok < 0 && join >= 0) ok = continue_set(Q, ws, u, u0, join);
+    if (ok < 0 && join >= 0) ok = continue_set(Q, ws, u, u0, nt + join);
     if (ok == 0 && eqpi_problem_at(P, u) < 0) ok = -1;
+    for (int k = 0; k < nt && ok == 0; k++) {
+      /* a target's amount out of its bounds is no answer */
+      double v = u[P->nx + k] * P->amt[k].scale;
+      if (!(v >= Q->aj[k].vmin && v <= Q->aj[k].vmax)) ok = -1;
+    }
     if (ok == 0) {
-      for (int q = 0; q < P->na; q++) Q->n[q] = u[P->nx + q] * P->amt[q].scale;
+      for (int k = 0; k < nt; k++) Q->v[k] = u[P->nx + k] * P->amt[k].scale;
+      for (int q = 0; q < Q->np; q++) Q->n[q] = u[P->nx + nt + q] * P->amt[nt + q].scale;
       memcpy(Q->lnfree, P->lnfree, sizeof(double) * (size_t)nc);
       lnI = u[P->n - 1];
     }
@@ -367,7 +444,7 @@ static int newton_set(pset *Q, int join)
   }
   /* should the normal form miss the tolerance, an ordinary (warm) solve at
   ** the totals of the amounts finishes it */
-  return normal_form(Q, lnI) == 0 ? 0 : solve_set(Q) == EQP_OK ? 0 : -1;
+  return normal_form(Q, lnI) == 0 ? 0 : solve_plain(Q) == EQP_OK ? 0 : -1;
 }
 
 /* Solve the set as it stands: one Newton solve (an ordinary one when no
@@ -382,6 +459,11 @@ static int solve_phases(pset *P, int join)
   for (int q = 0; q < P->np && m < sizeof names; q++)
     m += (size_t)snprintf(names + m, sizeof names - m, "%s%s", q ? ", " : "",
                           db->solids[P->ph[q]].name);
+  if (P->nt)
+    return eqpi_fail(P->s->ctx, EQP_E_CONVERGE, "%s with the solids %s present did not "
+                     "converge (or needed an amount beyond its bounds); without precipitate = "
+                     "{...} the operation runs, the solids then only reported as saturation "
+                     "indices", P->what, names);
   return eqpi_fail(P->s->ctx, EQP_E_CONVERGE, "the solids %s could not be brought to "
                    "saturation together: the equilibrium with them did not converge", names);
 }
@@ -392,6 +474,7 @@ static void drop(pset *P, int q, int nc)
   for (int r = q; r + 1 < P->np; r++) {
     P->ph[r] = P->ph[r + 1];
     P->n[r] = P->n[r + 1];
+    P->pw[r] = P->pw[r + 1];
     memmove(P->dir + r * nc, P->dir + (r + 1) * nc, sizeof(double) * (size_t)nc);
   }
   P->np--;
@@ -420,19 +503,15 @@ static int rank_of(const pset *P, int ncomp, int rows)
   return r;
 }
 
-int eqpi_precipitate(eqp_solution *s, const double *mol, eqpi_model *model,
-                     eqpi_solve_stats *st, double *amounts)
+/* The active set from the solved state (P.np = 0); amounts as for
+** eqpi_precipitate, mol/kg of the final water. */
+static int active_set(pset *Pp, double *amounts)
 {
+  pset P = *Pp;
+  eqp_solution *s = P.s;
   eqp_ctx *ctx = s->ctx;
   const eqpi_db *db = s->db;
   const int nc = db->ncomp, nsol = db->nsolids;
-  for (int k = 0; k < nsol; k++) amounts[k] = 0;
-  const size_t w = (size_t)nc + EQPI_MAX_AMOUNTS + 1;
-  size_t bytes = sizeof(double) * ((size_t)nc * (MAX_PHASES + 1) + 4 * w);
-  double *blk = eqpi_calloc(ctx, 1, bytes), *sc = blk + (size_t)nc * (MAX_PHASES + 1);
-  if (!blk) return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
-  pset P = {s, model, st, mol, blk, blk + nc, sc, sc + w, sc + 2 * w, sc + 3 * w,
-            {0}, {0}, 0, st ? st->iterations : 0};
   int rc = EQP_OK;
   int hc = db->sp[db->h_plus].component;
   for (int round = 0; rc == EQP_OK; round++) {
@@ -484,12 +563,72 @@ int eqpi_precipitate(eqp_solution *s, const double *mol, eqpi_model *model,
       break;
     }
     P.ph[P.np] = join;
+    P.pw[P.np] = phase_water(db, join);
     P.n[P.np++] = 0;
     rc = solve_phases(&P, P.np - 1);
   }
   if (rc == EQP_OK)
-    for (int q = 0; q < P.np; q++) amounts[P.ph[q]] = P.n[q];
+    for (int q = 0; q < P.np; q++) amounts[P.ph[q]] = P.n[q] / water(&P);
+  Pp->iters = P.iters;
+  Pp->wfrac = water_left(&P) / water(&P);
+  return rc;
+}
+
+/* The scratch of a set: dir, tot and four vectors as in pset. */
+static double *scratch(eqp_ctx *ctx, int nc, size_t *bytes)
+{
+  const size_t w = (size_t)nc + EQPI_MAX_AMOUNTS + 1;
+  *bytes = sizeof(double) * ((size_t)nc * (MAX_PHASES + 1) + 4 * w);
+  return eqpi_calloc(ctx, 1, *bytes);
+}
+
+static pset make_set(eqp_solution *s, eqpi_model *model, eqpi_solve_stats *st, double *blk)
+{
+  const int nc = s->db->ncomp;
+  const size_t w = (size_t)nc + EQPI_MAX_AMOUNTS + 1;
+  double *sc = blk + (size_t)nc * (MAX_PHASES + 1);
+  pset P = {s, model, st, NULL, NULL, 0, NULL, NULL, blk, blk + nc, sc, sc + w, sc + 2 * w,
+            sc + 3 * w, {0}, {0}, {0}, 0, 1, st ? st->iterations : 0};
+  return P;
+}
+
+int eqpi_precipitate(eqp_solution *s, const double *mol, eqpi_model *model,
+                     eqpi_solve_stats *st, double *amounts, double *wfrac)
+{
+  eqp_ctx *ctx = s->ctx;
+  for (int k = 0; k < s->db->nsolids; k++) amounts[k] = 0;
+  size_t bytes;
+  double *blk = scratch(ctx, s->db->ncomp, &bytes);
+  if (!blk) return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
+  pset P = make_set(s, model, st, blk);
+  P.mol = mol;
+  int rc = active_set(&P, amounts);
+  *wfrac = P.wfrac;
   if (st) st->iterations = P.iters;
   eqpi_free(ctx, blk, bytes);
+  return rc;
+}
+
+int eqpi_precipitate_adjust(eqp_solution *s, const eqpi_adjust *aj, int n, double *v,
+                            eqpi_solve_stats *st, const char *what)
+{
+  eqp_ctx *ctx = s->ctx;
+  size_t bytes, ab = sizeof(double) * (size_t)(s->db->nsolids > 0 ? s->db->nsolids : 1);
+  double *blk = scratch(ctx, s->db->ncomp, &bytes), *amounts = eqpi_malloc(ctx, ab);
+  double vv[EQPI_MAX_TARGETS];
+  int rc = blk && amounts ? EQP_OK : eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
+  pset P = make_set(s, aj[0].model, st, blk);
+  P.aj = aj;
+  P.nt = n;
+  P.v = vv;
+  P.what = what;
+  for (int k = 0; k < n; k++) vv[k] = aj[k].v0;
+  /* the targets alone first, then the phases join and leave around them */
+  if (rc == EQP_OK) rc = solve_set(&P);
+  if (rc == EQP_OK) rc = active_set(&P, amounts);
+  if (rc == EQP_OK) memcpy(v, vv, sizeof(double) * (size_t)n);
+  if (st) st->iterations = P.iters;
+  eqpi_free(ctx, blk, bytes);
+  eqpi_free(ctx, amounts, ab);
   return rc;
 }

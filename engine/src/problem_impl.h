@@ -25,7 +25,7 @@ enum {
 /* An unknown amount v of a direction (a: mol per unit over the local
 ** components, w: kg of water per unit) and the row that fixes it: the
 ** activity of a species, or the ionic strength, at a target; or, for a
-** solid phase (a: minus its composition, w = 0), its saturation
+** solid phase (a: minus its composition, w: minus a hydrate's water), its saturation
 ** sum_c b_c (x_c + ln g_c) = ln_target, the ln Ksp less the log K of the
 ** species it dissolves to (b: its composition over the local components). */
 typedef struct eqpi_amount {
@@ -103,8 +103,9 @@ void eqpi_problem_set_row(eqpi_problem *P, int c, int kind, double lna);
 ** -1 when there are already EQPI_MAX_AMOUNTS. Then eqpi_problem_layout. */
 int eqpi_problem_add_amount(eqpi_problem *P, const double *N0, double W0, const double *a,
                             double w, double scale, int target, int molal, double ln_target);
-/* Add a solid phase as an amount (as eqpi_problem_add_amount, w = 0):
-** a over the database's components, b over the local ones, name
+/* Add a solid phase as an amount (as eqpi_problem_add_amount, w = 0; a
+** hydrate sets amt[na - 1].w to minus its water after): a over the
+** database's components, b over the local ones, name
 ** borrowed. -1 when there are already EQPI_MAX_AMOUNTS. */
 int eqpi_problem_add_solid(eqpi_problem *P, const double *N0, double W0, const double *a,
                            double scale, const double *b, double ln_target, const char *name);

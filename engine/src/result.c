@@ -6,7 +6,8 @@
 #include <stdio.h>
 #include <string.h>
 
-#define MAX_WARN 8
+/* the state's own warnings (few) and one per supersaturated solid */
+#define MAX_WARN 64
 #define MAX_GASES 16      /* gases of a headspace reported */
 #define P_WARN 2.0        /* atm: a headspace beyond it is warned of */
 
@@ -21,7 +22,7 @@ struct eqp_result {
   long iters;
   const char *model;
   int nwarn;
-  const char *warn[MAX_WARN];   /* into the end of the block */
+  const char **warn;            /* nwarn, into the end of the block */
   int nsolid;                   /* solids present (precipitate.c) */
   int solid_k[EQPI_MAX_SOLIDS_PRESENT];
   double solid_mol[EQPI_MAX_SOLIDS_PRESENT];
@@ -55,19 +56,51 @@ static void gather(void *ud, const char *kind, const char *text)
   w->n++;
 }
 
-static void saturation_of(const eqp_result *r, int k, double *si);
+/* Species of a state, ascending by global index (a result's, or those of
+** a system before its result is made). */
+typedef struct view { const eqpi_db *db; int ns; const int *sp; const double *m, *lg; double T; } view;
 
-/* A solid the result is supersaturated in: said, not formed (docs/user-guide.md). */
-static void supersaturation_notes(const eqp_result *r)
+static int view_local(const view *v, int g)
 {
-  const eqpi_db *db = r->db;
+  int lo = 0, hi = v->ns - 1;
+  while (lo <= hi) {
+    int mid = (lo + hi) / 2;
+    if (v->sp[mid] == g) return mid;
+    if (v->sp[mid] < g) lo = mid + 1;
+    else hi = mid - 1;
+  }
+  return -1;
+}
+
+/* Saturation index of solid k, log10(IAP/Ksp); -inf when a species of it
+** is absent. */
+static double sat_index(const view *v, int k)
+{
+  const eqpi_db *db = v->db;
+  const eqpi_solid *s = &db->solids[k];
+  double iap = 0;
+  for (int j = 0; j < s->n; j++) {
+    if (s->sp[j] == db->water) continue;           /* unit activity */
+    int i = view_local(v, s->sp[j]);
+    if (i < 0 || !(v->m[i] > 0)) return -INFINITY;
+    iap += s->nu[j] * (log10(v->m[i]) + v->lg[i]);
+  }
+  eqpi_tnotes notes = {0, 0};
+  return iap - eqpi_reaction_logK(&s->ksp, v->T, &notes);
+}
+
+/* A solid the state is supersaturated in: said, not formed (docs/user-guide.md);
+** a warning of the result like those of the state. */
+static void supersaturation_notes(const view *v, void (*fn)(void *, const char *, const char *),
+                                  void *ud)
+{
+  const eqpi_db *db = v->db;
   for (int k = 0; k < db->nsolids; k++) {
-    double si;
-    saturation_of(r, k, &si);      /* by index: no lookup of the name */
+    double si = sat_index(v, k);
     if (!(si > 1e-6)) continue;
     /* an index from a 25 C constant, or from a function beyond its range, says so */
     eqpi_tnotes notes = {0, 0};
-    (void)eqpi_reaction_logK(&db->solids[k].ksp, r->T, &notes);
+    (void)eqpi_reaction_logK(&db->solids[k].ksp, v->T, &notes);
     const char *how = notes.missing ? "; its log Ksp has no temperature data, the 25 C value "
                                       "was used"
                     : notes.outside ? "; its log Ksp function was used outside its stated "
@@ -77,8 +110,26 @@ static void supersaturation_notes(const eqp_result *r)
              "precipitate; a solid forms only where precipitate = {...} allows it (many "
              "supersaturated media stay metastable for days)%s", db->solids[k].name,
              db->solids[k].formula, si, how);
-    eqpi_warn(r->ctx, "supersaturated", w);
+    fn(ud, "supersaturated", w);
   }
+}
+
+/* The saturation notes of a system's state, for sizing its result. */
+static int size_notes(eqp_ctx *ctx, const eqpi_db *db, const eqpi_system *sys, double T,
+                      wlist *w)
+{
+  int ns = eqpi_system_nspecies(sys);
+  if (db->nsolids == 0 || ns == 0) return EQP_OK;
+  size_t b = (sizeof(int) + 2 * sizeof(double)) * (size_t)ns;
+  double *m = eqpi_malloc(ctx, b);
+  if (!m) return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
+  double *lg = m + ns;
+  int *sp = (int *)(lg + ns);
+  for (int i = 0; i < ns; i++) sp[i] = eqpi_system_species(sys, i, &m[i], &lg[i]);
+  view v = {db, ns, sp, m, lg, T};
+  supersaturation_notes(&v, gather, w);
+  eqpi_free(ctx, m, b);
+  return EQP_OK;
 }
 
 int eqpi_result_make(eqp_ctx *ctx, const eqpi_db *db, const eqpi_system *sys,
@@ -92,8 +143,10 @@ int eqpi_result_make(eqp_ctx *ctx, const eqpi_db *db, const eqpi_system *sys,
                      "most %g mol/kg is a solution)", I, EQPI_MAX_MOLALITY);
   wlist w = {0, 0, NULL, NULL};
   eqpi_state_warnings(model, I, T, water_kg, st, gather, &w);
-  size_t fixed = sizeof(eqp_result) + sizeof(int) * (size_t)ns +
-                 sizeof(double) * (size_t)(2 * ns) + 16;
+  int rc = size_notes(ctx, db, sys, T, &w);
+  if (rc < 0) return rc;
+  size_t fixed = sizeof(eqp_result) + sizeof(double) * (size_t)(2 * ns) +
+                 sizeof(const char *) * (size_t)w.n + sizeof(int) * (size_t)ns + 16;
   size_t bytes = fixed + w.bytes;
   eqp_result *r = eqpi_malloc(ctx, bytes);
   if (!r) return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
@@ -104,7 +157,8 @@ int eqpi_result_make(eqp_ctx *ctx, const eqpi_db *db, const eqpi_system *sys,
   r->ndb = ndb;
   r->m = (double *)(r + 1);
   r->lg = r->m + ns;
-  r->sp = (int *)(r->lg + ns);
+  r->warn = (const char **)(r->lg + ns);
+  r->sp = (int *)(r->warn + w.n);
   int h = -1;
   for (int i = 0; i < ns; i++) {
     r->sp[i] = eqpi_system_species(sys, i, &r->m[i], &r->lg[i]);   /* ascending */
@@ -127,10 +181,14 @@ int eqpi_result_make(eqp_ctx *ctx, const eqpi_db *db, const eqpi_system *sys,
   r->model = model->desc->name;
   r->nwarn = w.n;
   if (w.n) {
+    /* the same warnings again, into the block (and to the observer); a
+    ** result cut short by the cap keeps the ones it sized */
     wlist fill = {0, 0, r, (char *)r + fixed};
     eqpi_state_warnings(model, I, T, water_kg, st, gather, &fill);
+    view v = {db, ns, r->sp, r->m, r->lg, T};
+    supersaturation_notes(&v, gather, &fill);
+    r->nwarn = fill.n;
   }
-  supersaturation_notes(r);
   *out = r;
   return EQP_OK;
 }
@@ -155,6 +213,7 @@ int eqp_result_copy(const eqp_result *r, eqp_result **out)
   c->m = (double *)((char *)r->m + d);
   c->lg = (double *)((char *)r->lg + d);
   c->sp = (int *)((char *)r->sp + d);
+  c->warn = (const char **)((char *)r->warn + d);
   for (int i = 0; i < c->nwarn; i++) c->warn[i] = r->warn[i] + d;
   *out = c;
   return EQP_OK;
@@ -282,26 +341,10 @@ int eqp_result_saturation(const eqp_result *r, const char *solid, double *si)
   if (!r || !solid || !si) return EQP_E_ARG;
   int k = find_solid(r, solid);
   if (k < 0) return k;
-  saturation_of(r, k, si);
-  return EQP_OK;
-}
-
-static void saturation_of(const eqp_result *r, int k, double *si)
-{
   const eqpi_db *db = r->db;
-  const eqpi_solid *s = &db->solids[k];
-  double iap = 0;
-  for (int j = 0; j < s->n; j++) {
-    if (s->sp[j] == db->water) continue;           /* unit activity */
-    int i = local_of(r, s->sp[j]);
-    if (i < 0 || !(r->m[i] > 0)) {
-      *si = -INFINITY;
-      return;
-    }
-    iap += s->nu[j] * (log10(r->m[i]) + r->lg[i]);
-  }
-  eqpi_tnotes notes = {0, 0};
-  *si = iap - eqpi_reaction_logK(&s->ksp, r->T, &notes);
+  view v = {db, r->ns, r->sp, r->m, r->lg, r->T};
+  *si = sat_index(&v, k);
+  return EQP_OK;
 }
 
 int eqpi_result_set_solids(eqp_result *r, const double *amounts, int n, double water_kg)

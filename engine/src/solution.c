@@ -510,6 +510,23 @@ int eqp_solution_dpH(eqp_solution *s, const char *reagent, double *dpH_dmol)
   const eqpi_reagent *r = NULL;
   int rc = eqpi_find_reagent(s, reagent, &r);
   if (rc < 0 || (rc = eqpi_solution_solved(s)) < 0) return rc;
+  if (eqpi_solution_any_solid(s)) {
+    /* the derivative is that of the solution alone: refused with a solid present */
+    eqp_result *res;
+    s->ctx->quiet++;
+    rc = eqpi_solution_equilibrate(s, &res);
+    s->ctx->quiet--;
+    if (rc < 0) return rc;
+    double mol;
+    const char *name = eqp_result_solid_count(res) ? eqp_result_solid_name(res, 0, &mol) : NULL;
+    char keep[128];
+    if (name) snprintf(keep, sizeof keep, "%s", name);
+    eqp_result_free(res);
+    if (name)
+      return eqpi_fail(s->ctx, EQP_E_INPUT, "dpH/d(%s) and the buffer capacity are not computed "
+                       "with a solid present (%s): use s:adjust_pH at two pH values, or a "
+                       "solution without precipitate = {...}", reagent, keep);
+  }
   double *a = eqpi_calloc(s->ctx, (size_t)s->ntotal + 1, sizeof(double)), w;
   if (!a) return eqpi_fail(s->ctx, EQP_E_NOMEM, "out of memory");
   eqpi_reagent_dir(s, r, a, &w, 1.0);

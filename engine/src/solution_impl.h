@@ -99,16 +99,28 @@ int eqpi_solution_adjust(eqp_solution *s, eqpi_adjust *aj, int n, double *v, eqp
 int eqpi_solution_allowed(const eqp_solution *s, int k);
 /* The active set of solids over the totals mol (mol/kg, nothing
 ** precipitated) with model: s->sys ends solved for the dissolved totals,
-** amounts (one per solid of the library) holds mol/kg of each phase. */
+** amounts (one per solid of the library) holds mol of each phase per kg of
+** the water before precipitation, *wfrac the water left in solution over
+** that (a hydrate's water stays in the solid). */
 int eqpi_precipitate(eqp_solution *s, const double *mol, eqpi_model *model,
-                     eqpi_solve_stats *st, double *amounts);
+                     eqpi_solve_stats *st, double *amounts, double *wfrac);
+/* Whether s lets any solid form. */
+int eqpi_solution_any_solid(const eqp_solution *s);
+/* The adjustment of n targets (eqpi_system_adjust) with the solids s
+** allows: the active set with each set one solve in which the targets'
+** amounts and the phases' amounts are unknowns together; v receives the
+** targets' amounts, s->sys ends solved at the dissolved totals. what names
+** the operation in a failure. */
+int eqpi_precipitate_adjust(eqp_solution *s, const eqpi_adjust *aj, int n, double *v,
+                            eqpi_solve_stats *st, const char *what);
 
 /* headspace.c. The gases of a sealed solution partitioned over the liquid's
 ** totals mol (mol/kg, before any exchange) with model: s->sys ends solved
-** for the dissolved totals (and amt, if not NULL, holds the solids' amounts,
-** as eqpi_precipitate); the record keeps each gas's pressure and amount. */
+** for the dissolved totals (and amt, if not NULL, holds the solids' amounts
+** and *wfrac the water left in solution, as eqpi_precipitate); the record
+** keeps each gas's pressure and amount. */
 int eqpi_headspace_solve(eqp_solution *s, const double *mol, eqpi_model *model,
-                         eqpi_solve_stats *st, double *amt);
+                         eqpi_solve_stats *st, double *amt, double *wfrac);
 /* Give r the headspace of the last eqpi_headspace_solve. */
 int eqpi_headspace_result(const eqp_solution *s, eqp_result *r);
 /* dpH/dv along a direction (a over the library's components, w kg of water

@@ -38,6 +38,11 @@ int eqpi_system_solve_prepared(eqp_ctx *ctx, eqpi_system *s, eqpi_solve_stats *s
 ** direction brings that the system does not have yet (spectators to be). */
 int eqpi_sys_dpH(eqpi_system *sys, const double *a, double w, double W, double dI_absent,
                  double *dpH);
+/* Add the amounts of the n targets aj to the problem of s (then
+** eqpi_problem_layout), each scaled by vlin (a linear estimate, or the
+** amounts now); -1 when a target's species is not in the system or there
+** are too many amounts. adjust.c */
+int eqpi_adjust_add_targets(eqpi_system *s, const eqpi_adjust *aj, int n, const double *vlin);
 /* Largest relative residual at u after a fresh evaluation (eqpi_problem_verify). */
 static inline double eqpi_sys_verify(eqpi_system *sys, const double *u, int *worst)
 {

@@ -303,6 +303,9 @@ int eqp_solution_fix_activity(eqp_solution *s, const char *comp, double activity
   if (!(activity > 0 && activity <= EQPI_MAX_MOLALITY))
     return eqpi_fail(ctx, EQP_E_INPUT, "activity of %s, %g, is outside (0, %g]", comp, activity,
                      EQPI_MAX_MOLALITY);
+  /* with solids allowed, the amount of the neutral pair is solved with
+  ** their amounts (an adjustment coupled to the active set) */
+  if (eqpi_solution_any_solid(s)) return fix_by_amount(s, comp, activity, c, q, mol, mol_counter);
   double *tot = eqpi_malloc(ctx, sizeof(double) * ((size_t)s->ntotal + 1)), tc, tq;
   if (!tot) return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
   for (int k = 0; k < s->ntotal; k++) tot[k] = s->total[k] / s->water_kg;

@@ -32,6 +32,17 @@ static int state_at(eqp_solution *w, const eqp_solution *base, const titrant *t,
   eqp_result *r;
   int rc = eqpi_solution_equilibrate(w, &r);
   if (rc < 0) return rc;
+  if (eqp_result_solid_count(r) > 0) {
+    /* the slope and the equivalence points come from the solution alone */
+    double mol;
+    const char *name = eqp_result_solid_name(r, 0, &mol);
+    eqp_result_free(r);
+    return eqpi_fail(w->ctx, EQP_E_INPUT, "titration: %s forms after %.4g %s of titrant, and "
+                     "the titration curve's slope is not computed with solids present; titrate "
+                     "without precipitate = {...} (the saturation indices then show where a "
+                     "solid may form), or find single points with s:adjust_pH", name, v,
+                     t->stock ? "kg" : "mol");
+  }
   *pH = eqp_result_pH(r);
   rc = eqpi_solution_dpH_dir(w, t->a, t->w, dpH);
   if (keep) *keep = r;
