@@ -25,6 +25,8 @@ local function pK0(pKa, z) return pKa + A * f * ((z - 1) ^ 2 + 1 - z ^ 2) end
 -- data sheets [from memory; the safety data sheet of the product in hand decides].
 return {
   system = "chelators",
+  -- every constant: published at 25 C, I = 0.1 mol/L (KCl or KNO3), Davies to I = 0
+  measured = { I = 0.1, t = 25, to_I0 = "davies" },
   sources = {
     nist46_edta = "R. M. Smith, A. E. Martell, NIST Critically Selected Stability Constants of Metal Complexes (NIST SRD 46) / Critical Stability Constants vol. 1, EDTA at 25 C, I = 0.1 mol/L, as tabulated by D. C. Harris, Quantitative Chemical Analysis (appendix on EDTA): pK 1.50, 2.00, 2.69, 6.13, 10.37 (the pK 0.0 of H6EDTA^2+ is left out) [pK values seen as quoted from that table; metal log K from memory, medium-high confidence: Mg 8.79, Ca 10.65, Mn 13.89, Zn 16.50, Cu 18.78, Fe(III) 25.1, Na 1.86, K 0.8]",
     nist46_egta = "R. M. Smith, A. E. Martell, NIST Critically Selected Stability Constants of Metal Complexes (NIST SRD 46), EGTA at 25 C, I = 0.1 mol/L: pK 9.40, 8.79, 2.70, 2.00; log K CaL 10.86, MgL 5.21 [values from memory, medium confidence]",

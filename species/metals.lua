@@ -25,12 +25,15 @@ local f = math.sqrt(I) / (1 + math.sqrt(I)) - 0.3 * I
 -- dz2 = sum of z^2 of the reactants minus that of the products
 local function I0(logK, dz2) return logK + A * f * dz2 end
 local L10 = math.log(10)
+-- the conditions of a constant published at I = 0.1 mol/L (medium not stated)
+local at_I01 = { I = 0.1, t = 25, to_I0 = "davies" }
 
 -- Hazard classes (GHS keys, docs/species-format.md): the harmonised classification
 -- of Regulation (EC) No 1272/2008, Annex VI, where one exists, else suppliers' safety
 -- data sheets [from memory; the safety data sheet of the product in hand decides].
 return {
   system = "metal ions and their complexes",
+  measured = { I = 0, t = 25 },             -- every entry, unless it says otherwise
   sources = {
     kielland1937 = "J. Kielland, J. Am. Chem. Soc. 59, 1675 (1937): ion-size parameters [ion assignments from memory]",
     ms1976 = "A. E. Martell, R. M. Smith, Critical Stability Constants, vols. 1-4, Plenum, New York (1974-1976), 25 C, I = 0, as tabulated in 'E4a: Stepwise association constants', LibreTexts Chemistry reference tables [seen]: acetate log K1 Mg 1.27, Ca 1.18, Mn 1.40, Zn 1.57, Cu 2.22 (K2 1.41); ammonia Cu 4.04, 3.43, 2.80, 1.48, Zn 2.21, 2.29, 2.36, 2.03; chloride Cu 0.40, Fe(III) 1.48, 0.65, Zn 0.43, 0.18, -0.11, -0.3",
@@ -148,24 +151,33 @@ return {
     { "MgSO4(aq)", from = { ["Mg^2+"] = 1, ["SO4^2-"] = 1 }, logK = 2.23, source = "sulfpairs" },
     -- citrate and succinate, published at I = 0.1 mol/L
     { "CaCit-", from = { ["Ca^2+"] = 1, ["Cit^3-"] = 1 }, logK = I0(3.45, 4 + 9 - 1),
-      source = "ms1974ca", note = "log K 3.45 at 25 C, I = 0.1 mol/L; Davies to I = 0" },
+      source = "ms1974ca", measured = at_I01,
+      note = "log K 3.45 at 25 C, I = 0.1 mol/L; Davies to I = 0" },
     { "CaSucc(aq)", from = { ["Ca^2+"] = 1, ["Succ^2-"] = 1 }, logK = I0(1.25, 4 + 4),
-      source = "ms1974ca", note = "log K 1.25 at 25 C, I = 0.1 mol/L; Davies to I = 0" },
+      source = "ms1974ca", measured = at_I01,
+      note = "log K 1.25 at 25 C, I = 0.1 mol/L; Davies to I = 0" },
     { "MgCit-", from = { ["Mg^2+"] = 1, ["Cit^3-"] = 1 }, logK = I0(3.37, 4 + 9 - 1),
-      source = "ms_cit_mg", note = "log K 3.37 at 25 C, I = 0.1 mol/L; Davies to I = 0" },
+      source = "ms_cit_mg", measured = at_I01,
+      note = "log K 3.37 at 25 C, I = 0.1 mol/L; Davies to I = 0" },
     { "MgHCit(aq)", from = { ["Mg^2+"] = 1, ["HCit^2-"] = 1 }, logK = I0(1.92, 4 + 4),
-      source = "ms_cit_mg", note = "log K 1.92 at 25 C, I = 0.1 mol/L; Davies to I = 0" },
+      source = "ms_cit_mg", measured = at_I01,
+      note = "log K 1.92 at 25 C, I = 0.1 mol/L; Davies to I = 0" },
     { "CaHCit(aq)", from = { ["Ca^2+"] = 1, ["HCit^2-"] = 1 }, logK = I0(2.10, 4 + 4),
-      source = "ms_cit_mg", note = "log K 2.10 at 25 C, I = 0.1 mol/L; Davies to I = 0" },
+      source = "ms_cit_mg", measured = at_I01,
+      note = "log K 2.10 at 25 C, I = 0.1 mol/L; Davies to I = 0" },
     -- glycinate, published at I = 0.1 mol/L (overall beta)
     { "CuGly+", from = { ["Cu^2+"] = 1, ["Gly-"] = 1 }, logK = I0(8.15, 4 + 1 - 1),
-      source = "ms_gly", note = "log beta1 8.15 at 25 C, I = 0.1 mol/L; Davies to I = 0" },
+      source = "ms_gly", measured = at_I01,
+      note = "log beta1 8.15 at 25 C, I = 0.1 mol/L; Davies to I = 0" },
     { "Cu(Gly)2(aq)", from = { ["Cu^2+"] = 1, ["Gly-"] = 2 }, logK = I0(15.03, 4 + 2),
-      source = "ms_gly", note = "log beta2 15.03 at 25 C, I = 0.1 mol/L; Davies to I = 0" },
+      source = "ms_gly", measured = at_I01,
+      note = "log beta2 15.03 at 25 C, I = 0.1 mol/L; Davies to I = 0" },
     { "ZnGly+", from = { ["Zn^2+"] = 1, ["Gly-"] = 1 }, logK = I0(4.96, 4 + 1 - 1),
-      source = "ms_gly", note = "log beta1 4.96 at 25 C, I = 0.1 mol/L; Davies to I = 0" },
+      source = "ms_gly", measured = at_I01,
+      note = "log beta1 4.96 at 25 C, I = 0.1 mol/L; Davies to I = 0" },
     { "Zn(Gly)2(aq)", from = { ["Zn^2+"] = 1, ["Gly-"] = 2 }, logK = I0(9.19, 4 + 2),
-      source = "ms_gly", note = "log beta2 9.19 at 25 C, I = 0.1 mol/L; Davies to I = 0" },
+      source = "ms_gly", measured = at_I01,
+      note = "log beta2 9.19 at 25 C, I = 0.1 mol/L; Davies to I = 0" },
   },
   reagents = {
     { "Ca(OH)2", gives = { ["Ca^2+"] = 1, ["OH-"] = 2 }, names = { "calcium hydroxide",

@@ -21,6 +21,7 @@ local function I0(logK, dz2) return logK + A * f * dz2 end
 
 return {
   system = "nucleotides",
+  measured = { I = 0, t = 25 },             -- every entry, unless it says otherwise
   sources = {
     alberty2003 = "R. A. Alberty, Thermodynamics of Biochemical Reactions, Wiley-Interscience, Hoboken (2003), Table 1.2 'Equilibrium constants in the ATP series at 298.15 K', pK at I = 0 [seen]: HATP3- 7.60, H2ATP2- 4.68, MgATP2- 6.18, MgHATP- 3.63, Mg2ATP 2.69 (Mg2+ + MgATP2-); HADP2- 7.18, H2ADP- 4.36, MgADP- 4.65, MgHADP 2.50 (dissociation pK, equal to the log K of formation)",
     ms_atp_ca = "A. E. Martell, R. M. Smith, Critical Stability Constants vol. 2: Amines (nucleotides), Plenum, New York (1975) / NIST SRD 46, Ca^2+ at 25 C, I = 0.1 mol/L: log K CaATP 3.91, CaADP 2.82 [values from memory, low-medium confidence]",
@@ -46,9 +47,11 @@ return {
     { "MgADP-", from = { ["Mg^2+"] = 1, ["ADP^3-"] = 1 }, logK = 4.65, source = "alberty2003" },
     { "MgHADP(aq)", from = { ["Mg^2+"] = 1, ["HADP^2-"] = 1 }, logK = 2.50, source = "alberty2003" },
     { "CaATP^2-", from = { ["Ca^2+"] = 1, ["ATP^4-"] = 1 }, logK = I0(3.91, 4 + 16 - 4),
-      source = "ms_atp_ca", note = "log K 3.91 at 25 C, I = 0.1 mol/L; Davies to I = 0" },
+      source = "ms_atp_ca", measured = { I = 0.1, t = 25, to_I0 = "davies" },
+      note = "log K 3.91 at 25 C, I = 0.1 mol/L; Davies to I = 0" },
     { "CaADP-", from = { ["Ca^2+"] = 1, ["ADP^3-"] = 1 }, logK = I0(2.82, 4 + 9 - 1),
-      source = "ms_atp_ca", note = "log K 2.82 at 25 C, I = 0.1 mol/L; Davies to I = 0" },
+      source = "ms_atp_ca", measured = { I = 0.1, t = 25, to_I0 = "davies" },
+      note = "log K 2.82 at 25 C, I = 0.1 mol/L; Davies to I = 0" },
   },
   reagents = {
     -- ATP as sold: the disodium salt Na2H2ATP, usually a hydrate of about 3 H2O

@@ -21,6 +21,7 @@ local function I0(logK, dz2) return logK + A * f * dz2 end
 -- data sheets [from memory; the safety data sheet of the product in hand decides].
 return {
   system = "pyrophosphate",
+  measured = { I = 0, t = 25 },             -- every entry, unless it says otherwise
   sources = {
     ms_p2o7 = "R. M. Smith, A. E. Martell, NIST Critically Selected Stability Constants of Metal Complexes (NIST SRD 46) / Critical Stability Constants vol. 4: Inorganic Complexes, Plenum, New York (1976), diphosphate at 25 C, I = 0: pK 0.83, 2.26, 6.72, 9.46 [values from memory, medium confidence; no enthalpies recorded here; handbooks also quote 0.85, 1.96, 6.60, 9.41, medium not checked]",
     ms_p2o7_mg = "R. M. Smith, A. E. Martell, Critical Stability Constants vol. 4 (1976) / NIST SRD 46, Mg^2+ with diphosphate at 25 C, I = 0.1 mol/L (tetramethylammonium salt): log K MgL 5.70, MgHL 3.06 [values from memory, low-medium confidence]",
@@ -36,9 +37,13 @@ return {
   },
   reactions = {
     { "MgP2O7^2-", from = { ["Mg^2+"] = 1, ["P2O7^4-"] = 1 }, logK = I0(5.70, 4 + 16 - 4),
-      source = "ms_p2o7_mg", note = "log K 5.70 at 25 C, I = 0.1 mol/L; Davies to I = 0" },
+      source = "ms_p2o7_mg",
+      measured = { I = 0.1, t = 25, medium = "tetramethylammonium salt", to_I0 = "davies" },
+      note = "log K 5.70 at 25 C, I = 0.1 mol/L; Davies to I = 0" },
     { "MgHP2O7-", from = { ["Mg^2+"] = 1, ["HP2O7^3-"] = 1 }, logK = I0(3.06, 4 + 9 - 1),
-      source = "ms_p2o7_mg", note = "log K 3.06 at 25 C, I = 0.1 mol/L; Davies to I = 0" },
+      source = "ms_p2o7_mg",
+      measured = { I = 0.1, t = 25, medium = "tetramethylammonium salt", to_I0 = "davies" },
+      note = "log K 3.06 at 25 C, I = 0.1 mol/L; Davies to I = 0" },
   },
   reagents = {
     { "Na4P2O7", gives = { ["Na+"] = 4, ["P2O7^4-"] = 1 },

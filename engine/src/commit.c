@@ -19,6 +19,7 @@ int eqpi_commit_constant(eqpi_stage *st, const st_const *k, const char *file, in
   d->Tmin = k->Tmin;
   d->Tmax = k->Tmax;
   d->source = k->source;
+  d->measured = k->measured;
   d->file = file;
   d->line = line;
   if (d->tmodel == EQPI_T_VANTHOFF) return 0;

@@ -228,6 +228,13 @@ static cJSON *constant_json(const eqpi_reaction *r, const view *v, const double 
     cJSON_AddItemToArray(range, cJSON_CreateNumber(celsius(r->Tmin)));
     cJSON_AddItemToArray(range, cJSON_CreateNumber(celsius(r->Tmax)));
   }
+  if (r->measured.given) {
+    cJSON *m = cJSON_AddObjectToObject(o, "measured");
+    cJSON_AddNumberToObject(m, "ionic_strength", r->measured.I);
+    cJSON_AddNumberToObject(m, "temperature", r->measured.t);
+    if (r->measured.medium) cJSON_AddStringToObject(m, "medium", r->measured.medium);
+    if (r->measured.to_I0) cJSON_AddStringToObject(m, "to_I0", r->measured.to_I0);
+  }
   cJSON_AddStringToObject(o, "source", r->source ? r->source : "");
   add_defined(o, r->file, r->line);
   if (notes.outside || notes.missing) {

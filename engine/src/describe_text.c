@@ -56,6 +56,20 @@ static void constant_text(eqpi_text *t, const cJSON *c)
     eqpi_text_printf(t, ")\n");
   }
   cJSON_ArrayForEach(v, arr(c, "warnings")) eqpi_text_printf(t, "      warning: %s\n", v->valuestring);
+  const cJSON *m = cJSON_GetObjectItemCaseSensitive(c, "measured");
+  if (m) {
+    const cJSON *medium = cJSON_GetObjectItemCaseSensitive(m, "medium");
+    const cJSON *to = cJSON_GetObjectItemCaseSensitive(m, "to_I0");
+    eqpi_text_printf(t, "      measured at I = %g, %g \u00b0C", num(m, "ionic_strength")->valuedouble,
+                     num(m, "temperature")->valuedouble);
+    if (cJSON_IsString(medium)) eqpi_text_printf(t, " (%s)", medium->valuestring);
+    if (cJSON_IsString(to))
+      eqpi_text_printf(t, "; taken to I = 0 with %s",
+                       strcmp(to->valuestring, "davies") == 0 ? "the Davies equation"
+                       : strcmp(to->valuestring, "sit") == 0 ? "specific ion interaction theory"
+                       : "the Debye\u2013H\u00fcckel equation");
+    eqpi_text_printf(t, "\n");
+  }
   eqpi_text_printf(t, "      source: %s\n", str(c, "source"));
 }
 

@@ -172,6 +172,15 @@ typedef struct eqpi_tnotes {
   int outside;          /* functions evaluated outside their stated range */
 } eqpi_tnotes;
 
+/* The conditions a published constant was measured at (a file's or an
+** entry's 'measured'): I in mol/L or mol/kg, t in C, the medium, and how
+** the value was taken to I = 0 (NULL when it was published for I = 0). */
+typedef struct eqpi_measured {
+  int given;            /* 0: the file does not say */
+  double I, t;
+  const char *medium, *to_I0;
+} eqpi_measured;
+
 typedef struct eqpi_reaction {
   int product;          /* species index */
   int n;
@@ -184,6 +193,7 @@ typedef struct eqpi_reaction {
   double fn[6];         /* EQPI_T_FUNCTION: log10 K = a + bT + c/T + d lnT + e/T^2 + fT^2 */
   double Tmin, Tmax;    /* stated range of the function, K; NaN if none */
   const char *source;
+  eqpi_measured measured;
   const char *file;
   int line;
 } eqpi_reaction;
@@ -330,6 +340,10 @@ struct eqp_library {
   unsigned long long how;
   eqpi_db *live_prev, *live_next; /* the context's list of libraries held (weak) */
 };
+
+/* 1 if r forms a complex of a metal ion (a cation with a metal element
+** among its reactants, with a ligand other than H+; conditions.c). */
+int eqpi_reaction_metal_ligand(const eqpi_db *db, const eqpi_reaction *r);
 
 /* A library with nothing in it (a new reference), NULL when out of memory. */
 eqpi_db *eqpi_db_new_empty(eqp_ctx *ctx);

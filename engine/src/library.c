@@ -547,6 +547,15 @@ int eqp_ctx_check_species_file(eqp_ctx *ctx, const char *path, size_t *nspecies)
   if (rc < 0) return rc;
   if (nspecies)
     for (int i = 0; i < ctx->db->nsp; i++) *nspecies += strcmp(ctx->db->sp[i].file, path) == 0;
+  /* warnings, not errors: a metal complex's log K depends on the medium */
+  const eqpi_db *db = ctx->db;
+  for (int i = 0; i < db->nrx; i++) {
+    const eqpi_reaction *r = &db->rx[i];
+    if (r->file && strcmp(r->file, path) == 0 && !r->measured.given &&
+        eqpi_reaction_metal_ligand(db, r))
+      notice(ctx, "%s:%d: log K of %s has no conditions (measured = { I =, t = })", r->file,
+             r->line, db->sp[r->product].name);
+  }
   return EQP_OK;
 }
 

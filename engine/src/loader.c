@@ -24,6 +24,7 @@ typedef struct conv {
   int sources;          /* stack index of the sources table, 0 if none */
   const char *size_source; /* file-level source of ion sizes */
   const char *params_source; /* file-level source of species parameters */
+  eqpi_measured measured;   /* file-level conditions of the constants */
 } conv;
 
 /* Keys are pushed for every field read: plain copies, no formatting. */
@@ -424,6 +425,41 @@ static void cv_trange(conv *c, double *lo, double *hi)
   *hi = v[1];
 }
 
+/* measured = { I =, t =, medium =, to_I0 = } of the table at top: the
+** conditions of the published constant. The library holds constants at
+** I = 0, so a value published at I > 0 says how it was taken there. */
+static void cv_measured(conv *c, eqpi_measured *m)
+{
+  static const char *const keys[] = {"I", "t", "medium", "to_I0", NULL};
+  static const char *const methods[] = {"davies", "debye-huckel", "sit", NULL};
+  cv_push(c, "measured");
+  int t = cv_field(c, "measured");
+  if (t == LUA_TTABLE) {
+    cv_keys(c, keys, 0);
+    eqpi_measured v = {1, NAN, NAN, NULL, NULL};
+    v.I = cv_number(c, "I", 0, 10, 1);
+    v.t = cv_number(c, "t", 0, 100, 1);
+    v.medium = cv_string(c, "medium", 0);
+    v.to_I0 = cv_string(c, "to_I0", 0);
+    int known = !v.to_I0;
+    for (int i = 0; v.to_I0 && methods[i]; i++) known |= strcmp(v.to_I0, methods[i]) == 0;
+    cv_push(c, "to_I0");
+    if (!known)
+      CV_ERR(c, "unknown method '%s' (known: davies, debye-huckel, sit)", v.to_I0);
+    else if (v.I > 0 && !v.to_I0)
+      CV_ERR(c, "a constant measured at I = %g needs to_I0, the method that took it to I = 0 "
+             "(the library holds constants at I = 0)", v.I);
+    else if (v.I == 0 && v.to_I0)
+      CV_ERR(c, "to_I0 is for a constant measured at I > 0");
+    cv_pop(c);
+    *m = v;
+  } else if (t != LUA_TNIL) {
+    CV_ERR(c, "expected a table { I =, t =, medium =, to_I0 = }");
+  }
+  lua_pop(c->L, 1);
+  cv_pop(c);
+}
+
 #define STAGE_PUSH(c, arr, n, cap) \
   eqpi_stage_push((c)->ctx, (c)->st, (void **)&(c)->st->arr, &(c)->st->n, &(c)->st->cap, \
                   sizeof *(c)->st->arr)
@@ -470,7 +506,7 @@ static void cv_species(conv *c)
 static void cv_acid(conv *c)
 {
   static const char *const keys[] = {"pKa", "dH", "dCp", "pKa_T", "T_range", "source",
-                                     "note", NULL};
+                                     "measured", "note", NULL};
   int nforms = (int)lua_rawlen(c->L, -1);
   cv_keys(c, keys, nforms);
   if (nforms < 2) {
@@ -486,6 +522,8 @@ static void cv_acid(conv *c)
   cv_ladder_numbers(c, "dH", nst, dH, -200, 200, 0);
   cv_ladder_numbers(c, "dCp", nst, dCp, -2000, 2000, 0);
   const char *src = cv_source(c, "source", 1);
+  eqpi_measured meas = c->measured;
+  cv_measured(c, &meas);
   double Tmin, Tmax;
   cv_trange(c, &Tmin, &Tmax);
   int tm[15] = {0};
@@ -529,6 +567,7 @@ static void cv_acid(conv *c)
     r->k.Tmin = Tmin;
     r->k.Tmax = Tmax;
     r->k.source = src;
+    r->k.measured = meas;
     r->file = c->file;
     cv_push(c, "pKa");
     cv_pushi(c, k + 1);
@@ -558,13 +597,15 @@ static void cv_constant(conv *c, const char *logkey, double lo, double hi, const
 static void cv_reaction(conv *c)
 {
   static const char *const keys[] = {"from", "logK", "dH", "dCp", "logK_T", "T_range",
-                                     "source", "note", NULL};
+                                     "source", "measured", "note", NULL};
   cv_keys(c, keys, 1);
   st_reaction *r = STAGE_PUSH(c, rx, nrx, caprx);
   if (!r) return;
   r->product = cv_pos_string(c, 1);
   r->n = cv_pairs(c, "from", &r->r);
   cv_constant(c, "logK", -100, 100, "logK_T", &r->k);
+  r->k.measured = c->measured;
+  cv_measured(c, &r->k.measured);
   r->file = c->file;
   r->line = cv_line(c);
   if (r->n < 0) r->n = 0;
@@ -780,9 +821,9 @@ int eqpi_stage_from_table(eqp_ctx *ctx, eqpi_stage *st, lua_State *L, int idx,
   static const char *const keys[] = {"system", "about", "sources", "size_source",
                                      "params_source", "species", "acids", "reactions",
                                      "reagents", "interactions", "buffers", "gases",
-                                     "solids", NULL};
+                                     "solids", "measured", NULL};
   idx = lua_absindex(L, idx);
-  conv c = {ctx, st, L, lines, idx, NULL, {0}, {{0}}, 0, 0, NULL, NULL};
+  conv c = {ctx, st, L, lines, idx, NULL, {0}, {{0}}, 0, 0, NULL, NULL, {0, NAN, NAN, NULL, NULL}};
   int before = st->nerr;
   int top = lua_gettop(L);
   c.file = eqpi_arena_strdup(ctx, &st->arena, file);
@@ -801,6 +842,7 @@ int eqpi_stage_from_table(eqp_ctx *ctx, eqpi_stage *st, lua_State *L, int idx,
   cv_string(&c, "system", 0);
   c.size_source = cv_source(&c, "size_source", 0);
   c.params_source = cv_source(&c, "params_source", 0);
+  cv_measured(&c, &c.measured);
   cv_list(&c, "species", cv_species);
   cv_list(&c, "acids", cv_acid);
   cv_list(&c, "reactions", cv_reaction);

@@ -33,6 +33,7 @@ typedef struct st_const {
   int tmodel;             /* EQPI_T_* */
   double fn[6], Tmin, Tmax;
   const char *source;
+  eqpi_measured measured;
 } st_const;
 
 typedef struct st_reaction {

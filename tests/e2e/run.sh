@@ -154,6 +154,8 @@ check species_unknown_command 2 "unknown species command 'lsit'" -- "$EQP" speci
 check describe_lua 0 "at 37 °C: pKa $pK37" -- "$EQP" run "$CASES/describe.lua"
 check describe_lua_option 3 "unknown option 'temprature'" -- "$EQP" run "$CASES/describe.lua" --param bad=1
 check species_check_good 0 "ok, 2 species added" -- "$EQP" species check "$CASES/good_species.lua"
+# a metal complex without its conditions: a warning at its line, exit 0
+check species_check_conditions 0 "complex_no_conditions.lua:7: log K of CaOHq+ has no conditions" -- "$EQP" species check "$CASES/complex_no_conditions.lua"
 # IUPAC charge notation (number then sign after a caret); Unicode accepted
 check notation_unicode 3 "ok notation" -- "$EQP" run "$CASES/notation.lua"
 check notation_old_style 3 "notation.lua:17: unknown species 'HPO4-2' (did you mean 'HPO4^2-'?" -- "$EQP" run "$CASES/notation.lua"

@@ -46,7 +46,8 @@ mkdir -p "$TMP/lines"
 awk -v dir="$TMP/lines" '{ f = sprintf("%s/line%04d.json", dir, NR); print > f; close(f) }' "$TMP/stream.jsonl"
 "$PY" "$SRC/tests/schema/validate.py" "$SCHEMA" record "$DOC" "$TMP"/lines/*.json || fail=1
 
-for name in H2PO4- OH- phosphate Tris calcite "CO2(g)" Na2HPO4.7H2O "sodium acetate" CH3COOH; do
+for name in H2PO4- OH- phosphate Tris calcite "CO2(g)" Na2HPO4.7H2O "sodium acetate" CH3COOH \
+            CaEDTA^2- MgP2O7^2-; do
   n=$((n + 1))
   "$EQP" species show "$name" --json --temperature 37 >"$TMP/show$n.json" || fail=1
 done
