@@ -8,6 +8,8 @@
 #include <stdio.h>
 #include <string.h>
 
+#define EQPI_GAS_P_WARN 2.0   /* atm, as for a sealed headspace (result.c) */
+
 static const eqpi_gas *find_gas(const eqpi_db *db, const char *name)
 {
   int i = eqpi_db_find_gas(db, name);
@@ -68,6 +70,22 @@ int eqp_solution_expose(eqp_solution *s, const char *gas, double p_atm, double *
   if (rc == EQP_OK) {
     for (int c = 0; c < s->ntotal; c++) s->total[c] += v * a[c];
     if (mol) *mol = v;
+    /* Henry's law is a low-pressure law, and a constant has the
+    ** temperatures its source measured: beyond either, say so */
+    char w[400];
+    if (p_atm > EQPI_GAS_P_WARN) {
+      snprintf(w, sizeof w, "%s at %.3g atm: beyond %g atm Henry's law with an ideal gas loses "
+               "accuracy (no fugacity or pressure correction here; CO2 liquefies near 64 atm at "
+               "25 C); work under pressure needs a rated vessel and local practice", gas, p_atm,
+               EQPI_GAS_P_WARN);
+      eqpi_warn(ctx, "pressure", w);
+    }
+    if (notes.outside || notes.missing) {
+      snprintf(w, sizeof w, "Henry's law constant of %s used %s, at %.2f C", gas,
+               notes.missing ? "without temperature data (its 25 C value)"
+                             : "outside the temperature range its source states", s->T - 273.15);
+      eqpi_warn(ctx, "temperature", w);
+    }
     /* the state the solution is left in: its warnings reach the observer */
     eqp_result *r;
     rc = eqpi_solution_equilibrate_from(s, &k, 1, &r, NULL);
