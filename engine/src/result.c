@@ -1,6 +1,7 @@
 /* Results: per-species molality, activity and activity coefficient. */
 /* SPDX-License-Identifier: MIT */
 #include "result_impl.h"
+#include "system_impl.h"
 #include <math.h>
 #include <stddef.h>
 #include <stdio.h>
@@ -60,13 +61,14 @@ static void gather(void *ud, const char *kind, const char *text)
 ** a system before its result is made). */
 typedef struct view { const eqpi_db *db; int ns; const int *sp; const double *m, *lg; double T; } view;
 
-static int view_local(const view *v, int g)
+/* Local index of library species g in sp (ascending, ns of them), or -1. */
+static int find_local(const int *sp, int ns, int g)
 {
-  int lo = 0, hi = v->ns - 1;
+  int lo = 0, hi = ns - 1;
   while (lo <= hi) {
     int mid = (lo + hi) / 2;
-    if (v->sp[mid] == g) return mid;
-    if (v->sp[mid] < g) lo = mid + 1;
+    if (sp[mid] == g) return mid;
+    if (sp[mid] < g) lo = mid + 1;
     else hi = mid - 1;
   }
   return -1;
@@ -81,7 +83,7 @@ static double sat_index(const view *v, int k)
   double iap = 0;
   for (int j = 0; j < s->n; j++) {
     if (s->sp[j] == db->water) continue;           /* unit activity */
-    int i = view_local(v, s->sp[j]);
+    int i = find_local(v->sp, v->ns, s->sp[j]);
     if (i < 0 || !(v->m[i] > 0)) return -INFINITY;
     iap += s->nu[j] * (log10(v->m[i]) + v->lg[i]);
   }
@@ -89,18 +91,18 @@ static double sat_index(const view *v, int k)
   return iap - eqpi_reaction_logK(&s->ksp, v->T, &notes);
 }
 
-/* A solid the state is supersaturated in: said, not formed (docs/user-guide.md);
-** a warning of the result like those of the state. */
-static void supersaturation_notes(const view *v, void (*fn)(void *, const char *, const char *),
-                                  void *ud)
+/* A solid the state is supersaturated in (si: the index of each solid):
+** said, not formed (docs/user-guide.md); a warning of the result like those
+** of the state. */
+static void supersaturation_notes(const eqpi_db *db, const double *si_of, double T,
+                                  void (*fn)(void *, const char *, const char *), void *ud)
 {
-  const eqpi_db *db = v->db;
   for (int k = 0; k < db->nsolids; k++) {
-    double si = sat_index(v, k);
+    double si = si_of[k];
     if (!(si > 1e-6)) continue;
     /* an index from a 25 C constant, or from a function beyond its range, says so */
     eqpi_tnotes notes = {0, 0};
-    (void)eqpi_reaction_logK(&db->solids[k].ksp, v->T, &notes);
+    (void)eqpi_reaction_logK(&db->solids[k].ksp, T, &notes);
     const char *how = notes.missing ? "; its log Ksp has no temperature data, the 25 C value "
                                       "was used"
                     : notes.outside ? "; its log Ksp function was used outside its stated "
@@ -114,24 +116,6 @@ static void supersaturation_notes(const view *v, void (*fn)(void *, const char *
   }
 }
 
-/* The saturation notes of a system's state, for sizing its result. */
-static int size_notes(eqp_ctx *ctx, const eqpi_db *db, const eqpi_system *sys, double T,
-                      wlist *w)
-{
-  int ns = eqpi_system_nspecies(sys);
-  if (db->nsolids == 0 || ns == 0) return EQP_OK;
-  size_t b = (sizeof(int) + 2 * sizeof(double)) * (size_t)ns;
-  double *m = eqpi_malloc(ctx, b);
-  if (!m) return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
-  double *lg = m + ns;
-  int *sp = (int *)(lg + ns);
-  for (int i = 0; i < ns; i++) sp[i] = eqpi_system_species(sys, i, &m[i], &lg[i]);
-  view v = {db, ns, sp, m, lg, T};
-  supersaturation_notes(&v, gather, w);
-  eqpi_free(ctx, m, b);
-  return EQP_OK;
-}
-
 int eqpi_result_make(eqp_ctx *ctx, const eqpi_db *db, const eqpi_system *sys,
                      const eqpi_model *model, double T, double water_kg,
                      const eqpi_solve_stats *st, eqp_result **out)
@@ -141,15 +125,25 @@ int eqpi_result_make(eqp_ctx *ctx, const eqpi_db *db, const eqpi_system *sys,
   if (!(I <= EQPI_MAX_MOLALITY))
     return eqpi_fail(ctx, EQP_E_VERIFY, "refusing the result: ionic strength %g mol/kg (at "
                      "most %g mol/kg is a solution)", I, EQPI_MAX_MOLALITY);
+  /* the saturation index of every solid, once: the notes are sized from
+  ** them and then written from them */
+  double si_stack[32], *si = si_stack;
+  size_t si_bytes = sizeof(double) * (size_t)db->nsolids;
+  if (db->nsolids > 32 && !(si = eqpi_malloc(ctx, si_bytes)))
+    return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
+  view v = {db, ns, sys->tab->sp, sys->prob->m, sys->prob->lg, T};
+  for (int k = 0; k < db->nsolids; k++) si[k] = sat_index(&v, k);
   wlist w = {0, 0, NULL, NULL};
   eqpi_state_warnings(model, I, T, water_kg, st, gather, &w);
-  int rc = size_notes(ctx, db, sys, T, &w);
-  if (rc < 0) return rc;
+  supersaturation_notes(db, si, T, gather, &w);
   size_t fixed = sizeof(eqp_result) + sizeof(double) * (size_t)(2 * ns) +
                  sizeof(const char *) * (size_t)w.n + sizeof(int) * (size_t)ns + 16;
   size_t bytes = fixed + w.bytes;
   eqp_result *r = eqpi_malloc(ctx, bytes);
-  if (!r) return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
+  if (!r) {
+    if (si != si_stack) eqpi_free(ctx, si, si_bytes);
+    return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
+  }
   r->ctx = ctx;
   r->db = eqpi_db_ref(db);
   r->bytes = bytes;
@@ -169,6 +163,7 @@ int eqpi_result_make(eqp_ctx *ctx, const eqpi_db *db, const eqpi_system *sys,
   if (!isfinite(r->pH)) {
     eqpi_db_release(r->db);
     eqpi_free(ctx, r, bytes);
+    if (si != si_stack) eqpi_free(ctx, si, si_bytes);
     return eqpi_fail(ctx, EQP_E_VERIFY, "refusing the result: the pH is not a finite number");
   }
   r->T = T;
@@ -185,10 +180,10 @@ int eqpi_result_make(eqp_ctx *ctx, const eqpi_db *db, const eqpi_system *sys,
     ** result cut short by the cap keeps the ones it sized */
     wlist fill = {0, 0, r, (char *)r + fixed};
     eqpi_state_warnings(model, I, T, water_kg, st, gather, &fill);
-    view v = {db, ns, r->sp, r->m, r->lg, T};
-    supersaturation_notes(&v, gather, &fill);
+    supersaturation_notes(db, si, T, gather, &fill);
     r->nwarn = fill.n;
   }
+  if (si != si_stack) eqpi_free(ctx, si, si_bytes);
   *out = r;
   return EQP_OK;
 }
@@ -255,14 +250,7 @@ double eqp_result_species_log_gamma(const eqp_result *r, size_t i)
 /* Local index of library species g (the species are in library order), or -1. */
 static int local_of(const eqp_result *r, int g)
 {
-  int lo = 0, hi = r->ns - 1;
-  while (lo <= hi) {
-    int mid = (lo + hi) / 2;
-    if (r->sp[mid] == g) return mid;
-    if (r->sp[mid] < g) lo = mid + 1;
-    else hi = mid - 1;
-  }
-  return -1;
+  return find_local(r->sp, r->ns, g);
 }
 
 /* Local index of a species name: >= 0 present, -1 in the library but absent
