@@ -80,11 +80,17 @@ static double sat_index(const view *v, int k)
 {
   const eqpi_db *db = v->db;
   const eqpi_solid *s = &db->solids[k];
-  double iap = 0;
+  /* most solids of a library miss an ion of the solution: find that out
+  ** before any logarithm is taken */
   for (int j = 0; j < s->n; j++) {
     if (s->sp[j] == db->water) continue;           /* unit activity */
     int i = find_local(v->sp, v->ns, s->sp[j]);
     if (i < 0 || !(v->m[i] > 0)) return -INFINITY;
+  }
+  double iap = 0;
+  for (int j = 0; j < s->n; j++) {
+    if (s->sp[j] == db->water) continue;
+    int i = find_local(v->sp, v->ns, s->sp[j]);
     iap += s->nu[j] * (log10(v->m[i]) + v->lg[i]);
   }
   eqpi_tnotes notes = {0, 0};
