@@ -6,6 +6,7 @@
 ** derivative against differences of sealed equilibria, and refusals. */
 /* SPDX-License-Identifier: MIT */
 #include "eqp_test.h"
+#include "pb1982.h"
 #include "eqp_impl.h"
 
 static eqp_ctx *ctx;
@@ -50,11 +51,9 @@ static void seal(eqp_solution *s, double litres, const char *gas, double p)
 ** equations (log10 T and all). */
 static void pb1982(double T, double *KH, double *K1, double *K2)
 {
-  *KH = pow(10, 108.3865 + 0.01985076 * T - 6919.53 / T - 40.45154 * log10(T) + 669365 / (T * T));
-  *K1 = pow(10, -356.3094 - 0.06091964 * T + 21834.37 / T + 126.8339 * log10(T) -
-                    1684915 / (T * T));
-  *K2 = pow(10, -107.8871 - 0.03252849 * T + 5151.79 / T + 38.92561 * log10(T) -
-                    563713.9 / (T * T));
+  *KH = pow(10, pb1982_logKH(T));
+  *K1 = pow(10, pb1982_logK1(T));
+  *K2 = pow(10, pb1982_logK2(T));
 }
 
 /* n mol of CO2 into W kg of pure water, sealed under V L with no CO2 at

@@ -2,6 +2,7 @@
 ** against independent closed forms of the same equations. */
 /* SPDX-License-Identifier: MIT */
 #include "eqp_test.h"
+#include "pb1982.h"
 #include "eqp_impl.h"
 #include "solution_impl.h"
 #include "system_impl.h"
@@ -20,12 +21,11 @@ typedef struct consts { double K1, K2, Ksp, Kch, Kcc, Kco, Kw; } consts;
 static consts at(double T)
 {
   consts k;
-  double l = log10(T);
-  k.K1 = pow(10, -356.3094 - 0.06091964 * T + 21834.37 / T + 126.8339 * l - 1684915 / (T * T));
-  k.K2 = pow(10, -107.8871 - 0.03252849 * T + 5151.79 / T + 38.92561 * l - 563713.9 / (T * T));
-  k.Ksp = pow(10, -171.9065 - 0.077993 * T + 2839.319 / T + 71.595 * l);
-  k.Kch = pow(10, 1209.120 + 0.31294 * T - 34765.05 / T - 478.782 * l);
-  k.Kcc = pow(10, -1228.732 - 0.299444 * T + 35512.75 / T + 485.818 * l);
+  k.K1 = pow(10, pb1982_logK1(T));
+  k.K2 = pow(10, pb1982_logK2(T));
+  k.Ksp = pow(10, pb1982_logKsp_calcite(T));
+  k.Kch = pow(10, pb1982_logK_CaHCO3(T));
+  k.Kcc = pow(10, pb1982_logK_CaCO3(T));
   k.Kco = pow(10, 1.30);
   k.Kw = pow(10, -eqpi_water_pKw(T));
   return k;
