@@ -237,6 +237,14 @@ int eqpi_db_find_gas(const eqpi_db *db, const char *name)
   return -1;
 }
 
+void eqpi_db_add_composition(const eqpi_db *db, int sp, double coef, double *a, int n)
+{
+  const eqpi_species *x = &db->sp[sp];
+  int water = db->water >= 0 ? db->sp[db->water].component : -1;
+  for (int t = 0; t < x->nterm; t++)
+    if (x->term_comp[t] != water && x->term_comp[t] < n) a[x->term_comp[t]] += coef * x->term_nu[t];
+}
+
 int eqpi_db_find_solid(const eqpi_db *db, const char *name)
 {
   char buf[256];

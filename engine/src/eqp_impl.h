@@ -391,6 +391,10 @@ int eqpi_db_find_reagent(const eqpi_db *db, const char *name);
 int eqpi_db_find_solid(const eqpi_db *db, const char *name);
 /* A gas by name ("CO2(g)", "CO₂(g)"); -1 if none. */
 int eqpi_db_find_gas(const eqpi_db *db, const char *name);
+/* a[c] += coef x (the units of component c in species sp), for the
+** components below n, water's own component left out (as for reagents):
+** the direction of a gas dissolving or a solid leaving the solution. */
+void eqpi_db_add_composition(const eqpi_db *db, int sp, double coef, double *a, int n);
 /* "calcite, aragonite": the solids with formula f (for a message). */
 void eqpi_db_solids_with_formula(const eqpi_db *db, const char *f, char *buf, size_t len);
 /* Parameter key of species i, or of the pair (i, j) in either order:

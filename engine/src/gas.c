@@ -34,10 +34,8 @@ int eqp_solution_expose(eqp_solution *s, const char *gas, double p_atm, double *
   size_t n = (size_t)s->ntotal + 1;
   double *a = eqpi_calloc(ctx, n, sizeof(double));
   if (!a) return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
-  const eqpi_species *x = &db->sp[g->species];
-  int water = db->sp[db->water].component, hplus = db->sp[db->h_plus].component;
-  for (int t = 0; t < x->nterm; t++)
-    if (x->term_comp[t] != water) a[x->term_comp[t]] = x->term_nu[t];
+  int hplus = db->sp[db->h_plus].component;
+  eqpi_db_add_composition(db, g->species, 1, a, s->ntotal);
   /* the gas can leave only what the solution holds: no total but H+'s may
   ** go negative, and a trace stays, so every species exists */
   double lo = -INFINITY;

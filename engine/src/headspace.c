@@ -105,11 +105,8 @@ int eqpi_head_refuse(eqp_solution *s, const char *what)
 ** components (water's own left out, as for reagents). */
 static void gas_dir(const eqpi_db *db, int g, double *a, int n)
 {
-  const eqpi_species *x = &db->sp[db->gases[g].species];
-  int water = db->sp[db->water].component;
   for (int c = 0; c < n; c++) a[c] = 0;
-  for (int t = 0; t < x->nterm; t++)
-    if (x->term_comp[t] != water && x->term_comp[t] < n) a[x->term_comp[t]] += x->term_nu[t];
+  eqpi_db_add_composition(db, db->gases[g].species, 1, a, n);
 }
 
 int eqp_solution_seal(eqp_solution *s, const eqp_headspace *user)
@@ -208,8 +205,7 @@ static int solve_now(part *P)
     for (int g = 0; g < h->ng; g++)
       if (h->on[g]) v += h->delta[g] * P->dir[g * P->nt + c];
     v /= s->water_kg;
-    /* a component used up to rounding is gone, not negative */
-    P->tot[c] = v < 0 && v > -1e-13 * fabs(P->mol[c]) - 1e-300 ? 0 : v;
+    P->tot[c] = eqpi_used_up(v, P->mol[c]);
   }
   int rc = eqpi_system_solve(s->ctx, s->db, &s->sys, P->tot, s->T, P->model, P->st);
   if (rc == EQP_OK && P->amt)

@@ -86,14 +86,9 @@ int eqpi_solution_any_solid(const eqp_solution *s)
 static void phase_dir(const eqpi_db *db, int k, double *a)
 {
   const eqpi_solid *p = &db->solids[k];
-  int water = db->water >= 0 ? db->sp[db->water].component : -1;
   memset(a, 0, sizeof(double) * (size_t)db->ncomp);
-  for (int j = 0; j < p->n; j++) {
-    if (p->sp[j] == db->water) continue;
-    const eqpi_species *sp = &db->sp[p->sp[j]];
-    for (int t = 0; t < sp->nterm; t++)
-      if (sp->term_comp[t] != water) a[sp->term_comp[t]] += p->nu[j] * sp->term_nu[t];
-  }
+  for (int j = 0; j < p->n; j++)
+    if (p->sp[j] != db->water) eqpi_db_add_composition(db, p->sp[j], p->nu[j], a, db->ncomp);
 }
 
 /* ln(IAP/Ksp) of phase k in the solved system; -HUGE_VAL when a species of
@@ -185,8 +180,7 @@ static void dissolved(pset *P)
   for (int c = 0; c < db->ncomp; c++) {
     double N = base(P, c), v = N;
     for (int q = 0; q < P->np; q++) v -= P->n[q] * P->dir[q * db->ncomp + c];
-    /* a component used up to rounding is gone, not negative */
-    P->tot[c] = (v < 0 && v > -1e-13 * fabs(N) - 1e-300 ? 0 : v) / W;
+    P->tot[c] = eqpi_used_up(v, N) / W;
   }
 }
 

@@ -133,4 +133,11 @@ void eqpi_head_free(eqp_solution *s);
 /* Saturation vapour pressure of water at T (K), atm. */
 double eqpi_water_vapour_atm(double T);
 
+/* A total that rounding took just below zero (within 1e-13 of what it was
+** made from) is used up, not negative. */
+static inline double eqpi_used_up(double v, double ref)
+{
+  return v < 0 && v > -1e-13 * fabs(ref) - 1e-300 ? 0 : v;
+}
+
 #endif
