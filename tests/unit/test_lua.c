@@ -448,6 +448,8 @@ static void test_extra_arguments(void **state)
     {"s:fix_activity('Ca^2+', 1e-6, 'Cl-', 1)", "takes 3 arguments"},
     {"s:load_budget({}, 0.1)", "s:load_budget([options]) takes 1 argument"},
     {"s:expose('CO2(g)', '1 atm', 1)", "s:expose(gas, pressure)"},
+    {"s:seal({ headspace = '5 mL' }, 1)", "s:seal{"}, {"s:unseal(1)", "s:unseal()"},
+    {"s:sealed(1)", "s:sealed()"}, {"r:gas('CO2(g)', 1)", "r:gas(name)"},
     {"s:total('Na+', 'mol')", "s:total(component)"},
     {"s:titrate({ with = 'NaOH', step = '1 mmol', to = '2 mmol' }, 1)", "s:titrate{ options }"},
     {"s:temperature_sweep({ from = 20, to = 30 }, 1)", "s:temperature_sweep{"},

@@ -281,6 +281,7 @@ static const eqpl_opt seal_opts[] = {
 /* s:seal{ headspace = "5 mL", gases = { ["CO2(g)"] = "426.9 uatm", ... } } */
 static int sol_seal(lua_State *L)
 {
+  eqpl_check_nargs(L, 2, "s:seal{ headspace = ..., gases = { ... } }");
   eqpl_solution *u = eqpl_check_solution(L, 1);
   eqp_ctx *ctx = eqpl_ctx_of(L);
   char buf[96];
@@ -340,6 +341,7 @@ static int sol_seal(lua_State *L)
 /* s:unseal(): the headspace's gas let go */
 static int sol_unseal(lua_State *L)
 {
+  eqpl_check_nargs(L, 1, "s:unseal()");
   eqpl_solution *u = eqpl_check_solution(L, 1);
   int rc = eqp_solution_unseal(u->s);
   if (rc < 0) return eqpl_fail(L, eqpl_ctx_of(L), rc);
@@ -349,6 +351,7 @@ static int sol_unseal(lua_State *L)
 /* s:sealed() -> true under a headspace */
 static int sol_sealed(lua_State *L)
 {
+  eqpl_check_nargs(L, 1, "s:sealed()");
   eqpl_solution *u = eqpl_check_solution(L, 1);
   lua_pushboolean(L, eqp_solution_sealed(u->s));
   return 1;

@@ -60,10 +60,11 @@ static int result_solid(lua_State *L)
 /* r:gas("CO2(g)") -> partial pressure in the headspace (atm), mol in the gas phase */
 static int result_gas(lua_State *L)
 {
+  eqpl_check_nargs(L, 2, "r:gas(name)");
   eqp_result *r = check_result(L, 1);
   double p, mol;
-  if (eqp_result_gas(r, eqpl_check_name(L, 2, "gas"), &p, &mol) < 0)
-    return eqpl_fail(L, eqpl_ctx_of(L), EQP_E_UNKNOWN);
+  int rc = eqp_result_gas(r, eqpl_check_name(L, 2, "gas"), &p, &mol);
+  if (rc < 0) return eqpl_fail(L, eqpl_ctx_of(L), rc);
   lua_pushnumber(L, p);
   lua_pushnumber(L, mol);
   return 2;
