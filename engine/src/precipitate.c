@@ -74,8 +74,10 @@ int eqpi_solution_allowed(const eqp_solution *s, int k)
 
 int eqpi_solution_any_solid(const eqp_solution *s)
 {
-  for (int k = 0; k < s->db->nsolids; k++)
-    if (eqpi_solution_allowed(s, k)) return 1;
+  /* asked on every equilibration: nothing to scan unless solids were named */
+  if (s->allow_all) return s->db->nsolids > 0;
+  for (int k = 0; k < s->nallow; k++)
+    if (s->allow[k]) return 1;
   return 0;
 }
 
