@@ -97,15 +97,34 @@ static double sat_index(const view *v, int k)
   return iap - eqpi_reaction_logK(&s->ksp, v->T, &notes);
 }
 
-/* A solid the state is supersaturated in (si: the index of each solid):
-** said, not formed (docs/user-guide.md); a warning of the result like those
-** of the state. */
-static void supersaturation_notes(const eqpi_db *db, const double *si_of, double T,
-                                  void (*fn)(void *, const char *, const char *), void *ud)
+/* Saturation index of the tableau's solid j in the solved state: its
+** terms are local already (tableau.c). */
+static double tableau_sat_index(const eqpi_db *db, const eqpi_tableau *t, const double *m,
+                                const double *lg, double T, int j)
 {
-  for (int k = 0; k < db->nsolids; k++) {
-    double si = si_of[k];
+  for (int q = t->srow[j]; q < t->srow[j + 1]; q++)
+    if (!(m[t->ssp[q]] > 0)) return -INFINITY;
+  double iap = 0;
+  for (int q = t->srow[j]; q < t->srow[j + 1]; q++) {
+    int i = t->ssp[q];
+    iap += t->snu[q] * (log10(m[i]) + lg[i]);
+  }
+  if (t->T == T) return iap - t->slogK[j];
+  eqpi_tnotes notes = {0, 0};          /* a state at another temperature than its tableau */
+  return iap - eqpi_reaction_logK(&db->solids[t->sol[j]].ksp, T, &notes);
+}
+
+/* A solid the state is supersaturated in (si: the index of each of the
+** tableau's solids): said, not formed (docs/user-guide.md); a warning of
+** the result like those of the state. */
+static void supersaturation_notes(const eqpi_db *db, const eqpi_tableau *t, const double *si_of,
+                                  double T, void (*fn)(void *, const char *, const char *),
+                                  void *ud)
+{
+  for (int j = 0; j < t->nsol; j++) {
+    double si = si_of[j];
     if (!(si > 1e-6)) continue;
+    int k = t->sol[j];
     /* an index from a 25 C constant, or from a function beyond its range, says so */
     eqpi_tnotes notes = {0, 0};
     (void)eqpi_reaction_logK(&db->solids[k].ksp, T, &notes);
@@ -131,17 +150,19 @@ int eqpi_result_make(eqp_ctx *ctx, const eqpi_db *db, const eqpi_system *sys,
   if (!(I <= EQPI_MAX_MOLALITY))
     return eqpi_fail(ctx, EQP_E_VERIFY, "refusing the result: ionic strength %g mol/kg (at "
                      "most %g mol/kg is a solution)", I, EQPI_MAX_MOLALITY);
-  /* the saturation index of every solid, once: the notes are sized from
-  ** them and then written from them */
+  /* the saturation index of each solid the tableau can form, once: the
+  ** notes are sized from them and then written from them (the others
+  ** miss a species, so their index is -inf) */
+  const eqpi_tableau *tab = sys->tab;
   double si_stack[32], *si = si_stack;
-  size_t si_bytes = sizeof(double) * (size_t)db->nsolids;
-  if (db->nsolids > 32 && !(si = eqpi_malloc(ctx, si_bytes)))
+  size_t si_bytes = sizeof(double) * (size_t)tab->nsol;
+  if (tab->nsol > 32 && !(si = eqpi_malloc(ctx, si_bytes)))
     return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
-  view v = {db, ns, sys->tab->sp, sys->prob->m, sys->prob->lg, T};
-  for (int k = 0; k < db->nsolids; k++) si[k] = sat_index(&v, k);
+  for (int j = 0; j < tab->nsol; j++)
+    si[j] = tableau_sat_index(db, tab, sys->prob->m, sys->prob->lg, T, j);
   wlist w = {0, 0, NULL, NULL};
   eqpi_state_warnings(model, I, T, water_kg, st, gather, &w);
-  supersaturation_notes(db, si, T, gather, &w);
+  supersaturation_notes(db, tab, si, T, gather, &w);
   size_t fixed = sizeof(eqp_result) + sizeof(double) * (size_t)(2 * ns) +
                  sizeof(const char *) * (size_t)w.n + sizeof(int) * (size_t)ns + 16;
   size_t bytes = fixed + w.bytes;
@@ -186,7 +207,7 @@ int eqpi_result_make(eqp_ctx *ctx, const eqpi_db *db, const eqpi_system *sys,
     ** result cut short by the cap keeps the ones it sized */
     wlist fill = {0, 0, r, (char *)r + fixed};
     eqpi_state_warnings(model, I, T, water_kg, st, gather, &fill);
-    supersaturation_notes(db, si, T, gather, &fill);
+    supersaturation_notes(db, tab, si, T, gather, &fill);
     r->nwarn = fill.n;
   }
   if (si != si_stack) eqpi_free(ctx, si, si_bytes);

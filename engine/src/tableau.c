@@ -36,10 +36,62 @@ typedef struct layout {
   int *comp, *comp_sp, *sp, *row, *cmp, *col, *csp, *lad, *ladsp;
   const char **names;
   double *z, *z2, *size, *lnK, *nu, *cnu;
+  int *sol, *srow, *ssp;
+  double *snu, *slogK;
 } layout;
 
-static void carve_all(carver *k, layout *l, int ncg, int nc, int ns, int nnz, int nlad)
+/* Whether every species of solid k but water is present. */
+static int solid_present(const eqpi_db *db, int k, const unsigned char *mask)
 {
+  const eqpi_solid *s = &db->solids[k];
+  for (int j = 0; j < s->n; j++)
+    if (s->sp[j] != db->water && !species_present(db, s->sp[j], mask)) return 0;
+  return 1;
+}
+
+/* Local index of library species g among the ascending sp[0..ns). */
+static int local_of(const int *sp, int ns, int g)
+{
+  int lo = 0, hi = ns - 1;
+  while (lo <= hi) {
+    int mid = lo + (hi - lo) / 2;
+    if (sp[mid] == g) return mid;
+    if (sp[mid] < g) lo = mid + 1;
+    else hi = mid - 1;
+  }
+  return -1;
+}
+
+/* The solids present with their terms over local species, once l->sp is
+** filled. */
+static void fill_solids(const eqpi_db *db, const unsigned char *mask, layout *l, int ns,
+                        double T)
+{
+  int n = 0, t = 0;
+  for (int k = 0; k < db->nsolids; k++) {
+    if (!solid_present(db, k, mask)) continue;
+    const eqpi_solid *s = &db->solids[k];
+    l->sol[n] = k;
+    l->srow[n] = t;
+    eqpi_tnotes notes = {0, 0};
+    l->slogK[n++] = eqpi_reaction_logK(&s->ksp, T, &notes);
+    for (int j = 0; j < s->n; j++) {
+      if (s->sp[j] == db->water) continue;      /* unit activity */
+      l->ssp[t] = local_of(l->sp, ns, s->sp[j]);
+      l->snu[t++] = s->nu[j];
+    }
+  }
+  l->srow[n] = t;
+}
+
+static void carve_all(carver *k, layout *l, int ncg, int nc, int ns, int nnz, int nlad,
+                      int nsol, int nst)
+{
+  CARVE(k, l->snu, nst);
+  CARVE(k, l->slogK, nsol);
+  CARVE(k, l->sol, nsol);
+  CARVE(k, l->srow, nsol + 1);
+  CARVE(k, l->ssp, nst);
   CARVE(k, l->z, ns);
   CARVE(k, l->z2, ns);
   CARVE(k, l->size, ns);
@@ -134,10 +186,16 @@ eqpi_tableau *eqpi_tableau_new(eqp_ctx *ctx, const eqpi_db *db, const unsigned c
       ns++;
       nnz += db->sp[i].nterm;
     }
+  int nsol = 0, nst = 0;
+  for (int q = 0; q < db->nsolids; q++)
+    if (solid_present(db, q, mask)) {
+      nsol++;
+      nst += db->solids[q].n;
+    }
   /* ladders: at most one entry per species per component it holds */
   carver k = {NULL, sizeof(eqpi_tableau)};
   layout l = {0};
-  carve_all(&k, &l, ncg, nc, ns, nnz, nnz);
+  carve_all(&k, &l, ncg, nc, ns, nnz, nnz, nsol, nst);
   eqpi_tableau *tb = eqpi_calloc(ctx, 1, k.used);
   if (!tb) {
     if (loc != stack) eqpi_free(ctx, loc, sizeof(int) * (size_t)ncg);
@@ -146,7 +204,7 @@ eqpi_tableau *eqpi_tableau_new(eqp_ctx *ctx, const eqpi_db *db, const unsigned c
   tb->bytes = k.used;
   k.base = (char *)tb;
   k.used = sizeof(eqpi_tableau);
-  carve_all(&k, &l, ncg, nc, ns, nnz, nnz);
+  carve_all(&k, &l, ncg, nc, ns, nnz, nnz, nsol, nst);
   memcpy(l.active, mask, (size_t)ncg);
   for (int c = 0; c < ncg; c++)
     if (loc[c] >= 0) l.comp[loc[c]] = c;
@@ -165,6 +223,7 @@ eqpi_tableau *eqpi_tableau_new(eqp_ctx *ctx, const eqpi_db *db, const unsigned c
     j++;
   }
   fill_terms(db, &l, loc, nc, ns);
+  fill_solids(db, mask, &l, ns, T);
   int nlad;
   fill_ladders(&l, nc, h, &nlad);
   if (loc != stack) eqpi_free(ctx, loc, sizeof(int) * (size_t)ncg);
@@ -196,6 +255,12 @@ eqpi_tableau *eqpi_tableau_new(eqp_ctx *ctx, const eqpi_db *db, const unsigned c
   tb->lad = l.lad;
   tb->ladsp = l.ladsp;
   tb->closed = l.closed;
+  tb->nsol = nsol;
+  tb->sol = l.sol;
+  tb->srow = l.srow;
+  tb->ssp = l.ssp;
+  tb->snu = l.snu;
+  tb->slogK = l.slogK;
   return tb;
 }
 

@@ -40,6 +40,13 @@ typedef struct eqpi_tableau {
   ** closed[c] when c is in no other species (then its ladder is all of it). */
   const int *lad, *ladsp;
   const unsigned char *closed;
+  /* The library's solids whose species are all present (water aside), by
+  ** ascending library index sol[j]: terms [srow[j], srow[j+1]) of local
+  ** species ssp with coefficients snu, and log10 Ksp at T. Every other
+  ** solid has a saturation index of -inf here, so results skip it. */
+  int nsol;
+  const int *sol, *srow, *ssp;
+  const double *snu, *slogK;
 } eqpi_tableau;
 
 /* Build the tableau of the components flagged in mask (ncomp flags over the
