@@ -215,8 +215,8 @@ void eqpi_newton_lu_solve(eqpi_newton *ws, double *b)
 
 /* ------------------------------------------------------------ a run */
 
-int eqpi_newton_run(eqpi_newton *ws, eqpi_problem *P, const double *u0, int maxiter,
-                    long *iters)
+static int run(eqpi_newton *ws, eqpi_problem *P, const double *u0, int maxiter, long *iters,
+               int strategy)
 {
   const int n = ws->n;
   double *uu = NV_DATA_S(ws->u);
@@ -239,7 +239,7 @@ int eqpi_newton_run(eqpi_newton *ws, eqpi_problem *P, const double *u0, int maxi
   for (int k = 0; k < n; k++) fmax = fmax > fabs(P->F[k]) ? fmax : fabs(P->F[k]);
   if (fmax <= EQPI_FNORM_TOL) return P->I > EQPI_MAX_MOLALITY ? EQPI_KIN_IMPLAUSIBLE : KIN_SUCCESS;
   ws->jac_ok = 0;
-  int flag = KINSol(ws->kmem, ws->u, KIN_LINESEARCH, ws->scale, ws->scale);
+  int flag = KINSol(ws->kmem, ws->u, strategy, ws->scale, ws->scale);
   if (flag == KIN_STEP_LT_STPTOL) {
     /* "steps too small" is a success only if the residual is small too;
     ** otherwise KINSOL has stalled and the caller's fallback must run */
@@ -259,14 +259,26 @@ int eqpi_newton_run(eqpi_newton *ws, eqpi_problem *P, const double *u0, int maxi
     KINGetNumFuncEvals(ws->kmem, &nfe);
     KINGetNumBacktrackOps(ws->kmem, &nbt);
     KINGetFuncNorm(ws->kmem, &fn);
-    eqpi_log(ws->ctx, EQP_LOG_TRACE, "KINSOL lambda %.2f, %d unknowns, %s Jv: %s, %ld "
+    eqpi_log(ws->ctx, EQP_LOG_TRACE, "KINSOL lambda %.2f, %d unknowns, %s Jv, %s: %s, %ld "
              "iterations, %ld linear, %ld evaluations, %ld backtracks, |F| %.2e %s", P->lambda,
              n, analytic ? "analytic" : "difference",
-             eqpi_newton_flag_name(flag, name, sizeof name), it, ws->last_linear, nfe, nbt, fn,
+             strategy == KIN_NONE ? "full steps" : "line search", eqpi_newton_flag_name(flag, name, sizeof name), it, ws->last_linear, nfe, nbt, fn,
              ws->kin_err);
   }
   *iters += it;
   return flag;
+}
+
+int eqpi_newton_run(eqpi_newton *ws, eqpi_problem *P, const double *u0, int maxiter,
+                    long *iters)
+{
+  return run(ws, P, u0, maxiter, iters, KIN_LINESEARCH);
+}
+
+int eqpi_newton_run_full(eqpi_newton *ws, eqpi_problem *P, const double *u0, int maxiter,
+                         long *iters)
+{
+  return run(ws, P, u0, maxiter, iters, KIN_NONE);
 }
 
 /* ------------------------------------------------------------ small dense LU */

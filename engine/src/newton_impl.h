@@ -51,6 +51,11 @@ void eqpi_newton_pool_free(eqp_ctx *ctx);
 ** iterate is eqpi_newton_u(ws) whatever the flag. */
 int eqpi_newton_run(eqpi_newton *ws, eqpi_problem *P, const double *u0, int maxiter,
                     long *iters);
+/* The same with full Newton steps (no line search): for a start already
+** inside the region where Newton converges quadratically, where the line
+** search would only accept the full step at the cost of its tests. */
+int eqpi_newton_run_full(eqpi_newton *ws, eqpi_problem *P, const double *u0, int maxiter,
+                         long *iters);
 static inline double *eqpi_newton_u(eqpi_newton *ws) { return NV_DATA_S(ws->u); }
 /* The Jacobian of P at u and its LU factors. 0, -1 when the model failed,
 ** -2 when the matrix is singular. */

@@ -402,16 +402,12 @@ int eqpi_problem_reference(eqpi_problem *P)
       continue;
     }
     double best = -1;
-    for (int k = t->col[c]; k < t->col[c + 1]; k++) {
-      int i = t->csp[k];
-      double nuc = t->cnu[k];
-      if (nuc <= 0) continue;
-      int own = 1;
-      for (int j = t->row[i]; j < t->row[i + 1] && own; j++)
-        own = t->cmp[j] == c || t->cmp[j] == h;
-      if (own && P->m[i] / nuc > best) {
+    for (int k = t->own[c]; k < t->own[c + 1]; k++) {
+      int i = t->ownsp[k];
+      double nuc = t->ownc[k];
+      if (P->m[i] / nuc > best) {
         best = P->m[i] / nuc;
-        P->href[c] = eqpi_tableau_nu(t, i, h) / nuc;
+        P->href[c] = t->ownh[k] / nuc;
       }
     }
     changed |= P->href[c] != old;

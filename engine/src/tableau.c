@@ -36,8 +36,8 @@ typedef struct layout {
   int *comp, *comp_sp, *sp, *row, *cmp, *col, *csp, *lad, *ladsp;
   const char **names;
   double *z, *z2, *size, *lnK, *nu, *cnu;
-  int *sol, *srow, *ssp;
-  double *snu, *slogK;
+  int *sol, *srow, *ssp, *own, *ownsp;
+  double *snu, *slogK, *ownc, *ownh;
 } layout;
 
 /* Whether every species of solid k but water is present. */
@@ -87,6 +87,10 @@ static void fill_solids(const eqpi_db *db, const unsigned char *mask, layout *l,
 static void carve_all(carver *k, layout *l, int ncg, int nc, int ns, int nnz, int nlad,
                       int nsol, int nst)
 {
+  CARVE(k, l->ownc, nnz);
+  CARVE(k, l->ownh, nnz);
+  CARVE(k, l->own, nc + 1);
+  CARVE(k, l->ownsp, nnz);
   CARVE(k, l->snu, nst);
   CARVE(k, l->slogK, nsol);
   CARVE(k, l->sol, nsol);
@@ -143,6 +147,30 @@ static void fill_ladders(layout *l, int nc, int h, int *nlad)
   }
   l->lad[nc] = n;
   *nlad = n;
+}
+
+/* For each component but H+, the species of it and H+ alone. */
+static void fill_own(layout *l, int nc, int h)
+{
+  int n = 0;
+  for (int c = 0; c < nc; c++) {
+    l->own[c] = n;
+    for (int t = l->col[c]; t < l->col[c + 1] && c != h; t++) {
+      int i = l->csp[t];
+      if (l->cnu[t] <= 0) continue;
+      int alone = 1;
+      double nh = 0;
+      for (int j = l->row[i]; j < l->row[i + 1] && alone; j++) {
+        alone = l->cmp[j] == c || l->cmp[j] == h;
+        if (l->cmp[j] == h) nh = l->nu[j];
+      }
+      if (!alone) continue;
+      l->ownsp[n] = i;
+      l->ownc[n] = l->cnu[t];
+      l->ownh[n++] = nh;
+    }
+  }
+  l->own[nc] = n;
 }
 
 /* Stoichiometry by species (CSR) and by component (CSC). */
@@ -224,6 +252,7 @@ eqpi_tableau *eqpi_tableau_new(eqp_ctx *ctx, const eqpi_db *db, const unsigned c
   }
   fill_terms(db, &l, loc, nc, ns);
   fill_solids(db, mask, &l, ns, T);
+  fill_own(&l, nc, h);
   int nlad;
   fill_ladders(&l, nc, h, &nlad);
   if (loc != stack) eqpi_free(ctx, loc, sizeof(int) * (size_t)ncg);
@@ -255,6 +284,10 @@ eqpi_tableau *eqpi_tableau_new(eqp_ctx *ctx, const eqpi_db *db, const unsigned c
   tb->lad = l.lad;
   tb->ladsp = l.ladsp;
   tb->closed = l.closed;
+  tb->own = l.own;
+  tb->ownsp = l.ownsp;
+  tb->ownc = l.ownc;
+  tb->ownh = l.ownh;
   tb->nsol = nsol;
   tb->sol = l.sol;
   tb->srow = l.srow;

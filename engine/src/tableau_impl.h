@@ -40,6 +40,11 @@ typedef struct eqpi_tableau {
   ** closed[c] when c is in no other species (then its ladder is all of it). */
   const int *lad, *ladsp;
   const unsigned char *closed;
+  /* Species made of component c and H+ alone (c at least once; c = H+
+  ** has none), t in [own[c], own[c+1]): local species ownsp[t] with
+  ** ownc[t] of c and ownh[t] of H+. The proton reference is chosen among them. */
+  const int *own, *ownsp;
+  const double *ownc, *ownh;
   /* The library's solids whose species are all present (water aside), by
   ** ascending library index sol[j]: terms [srow[j], srow[j+1]) of local
   ** species ssp with coefficients snu, and log10 Ksp at T. Every other
