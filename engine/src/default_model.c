@@ -69,23 +69,20 @@ int eqpi_chain_refuse(eqp_solution *s, double I, const char *what)
                    "which then carries a range warning", what, I, ranges);
 }
 
-/* Totals in mol/kg of water, refusing amounts no model here describes. */
-static int molalities(eqp_solution *s, double *mol)
+/* Totals in mol/kg of water and the mask of the components present,
+** refusing amounts no model here describes. */
+static int molalities(eqp_solution *s, double *mol, unsigned char *mask)
 {
   eqp_ctx *ctx = s->ctx;
   int bad = 0;                       /* one pass without exits, then the message */
-  for (int c = 0; c < s->ntotal; c++) {
-    /* most of the library's components are absent: no division for them */
-    mol[c] = s->total[c] != 0 ? s->total[c] / s->water_kg : s->total[c];
-    bad |= !(fabs(mol[c]) <= EQPI_MAX_MOLALITY);
-  }
+  int rc = eqpi_system_molalities(ctx, s->db, s->total, s->water_kg, mol, mask, &bad);
   for (int c = 0; bad && c < s->ntotal; c++) {
     if (!(fabs(mol[c]) <= EQPI_MAX_MOLALITY))
       return eqpi_fail(ctx, EQP_E_INPUT, "the total of %s is %g mol per kg of water, beyond "
                        "%g mol/kg: not an aqueous solution any activity model here describes",
                        s->db->sp[s->db->comp_species[c]].name, mol[c], EQPI_MAX_MOLALITY);
   }
-  return EQP_OK;
+  return rc;
 }
 
 /* One adjustment with the model of aj: with the solids s allows, when any,
@@ -122,11 +119,15 @@ int eqpi_solution_equilibrate_from(eqp_solution *s, int *kp, int follow, eqp_res
                                    eqpi_solve_stats *stout)
 {
   eqp_ctx *ctx = s->ctx;
+  if (eqpi_solution_grow(s) < 0) return eqp_ctx_errcode(ctx);   /* a total per component */
   double stack[128];
-  double *mol = s->ntotal <= 128 ? stack : eqpi_malloc(ctx, sizeof(double) * (size_t)s->ntotal);
+  unsigned char maskstack[128];
+  size_t bytes = (sizeof(double) + 1) * (size_t)s->ntotal;
+  double *mol = s->ntotal <= 128 ? stack : eqpi_malloc(ctx, bytes);
   if (!mol) return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
+  unsigned char *mask = mol == stack ? maskstack : (unsigned char *)(mol + s->ntotal);
   eqpi_solve_stats st = {0};
-  int k = *kp, rc = molalities(s, mol);
+  int k = *kp, rc = molalities(s, mol, mask);
   eqpi_model *model = eqpi_chain_model(s, k);
   if (rc == EQP_OK && !model)
     rc = eqpi_fail(ctx, EQP_E_PLUGIN, "activity model '%s' is not available",
@@ -142,7 +143,7 @@ int eqpi_solution_equilibrate_from(eqp_solution *s, int *kp, int follow, eqp_res
     rc = eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
   if (rc == EQP_OK)
     rc = s->head ? eqpi_headspace_solve(s, mol, model, &st, amt, &wfrac)
-                 : eqpi_system_solve(ctx, s->db, &s->sys, mol, s->T, model, &st);
+                 : eqpi_system_solve_mask(ctx, s->db, &s->sys, mol, mask, s->T, model, &st);
   while (rc == EQP_OK && s->model_default && follow) {
     double I = eqpi_system_ionic_strength(s->sys);
     int next = eqpi_chain_choice(s, I, k);
@@ -157,7 +158,7 @@ int eqpi_solution_equilibrate_from(eqp_solution *s, int *kp, int follow, eqp_res
                  : eqpi_system_solve(ctx, s->db, &s->sys, mol, s->T, model, &st);
   }
   if (rc == EQP_OK && any && !s->head) rc = eqpi_precipitate(s, mol, model, &st, amt, &wfrac);
-  if (mol != stack) eqpi_free(ctx, mol, sizeof(double) * (size_t)s->ntotal);
+  if (mol != stack) eqpi_free(ctx, mol, bytes);
   if (rc == EQP_OK) {
     st.solute_L = s->solute_L;
     st.unknown_g = s->unknown_g;

@@ -659,6 +659,17 @@ extern const char *const eqpi_default_chain[EQPI_DEFAULT_CHAIN];
 int eqpi_system_solve(eqp_ctx *ctx, const eqpi_db *db, eqpi_system **sysp,
                       const double *totals, double T, eqpi_model *model,
                       eqpi_solve_stats *stats);
+/* The same with the mask of the components present given, as
+** eqpi_system_molalities made it for these totals. */
+int eqpi_system_solve_mask(eqp_ctx *ctx, const eqpi_db *db, eqpi_system **sysp,
+                           const double *totals, const unsigned char *mask, double T,
+                           eqpi_model *model, eqpi_solve_stats *stats);
+/* One pass over the library's components: mol = total / water_kg (mol/kg),
+** the mask of those present for eqpi_system_solve_mask, and *big when a
+** molality is beyond EQPI_MAX_MOLALITY or not finite. A negative total
+** (other than of water or H+) is an error. */
+int eqpi_system_molalities(eqp_ctx *ctx, const eqpi_db *db, const double *total,
+                           double water_kg, double *mol, unsigned char *mask, int *big);
 void eqpi_system_free(eqp_ctx *ctx, eqpi_system *sys);
 /* Whether the system holds the solution for these totals (mol over the
 ** database's components, in water_kg) at T (K). */

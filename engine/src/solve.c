@@ -37,20 +37,15 @@ void eqpi_system_free(eqp_ctx *ctx, eqpi_system *sys)
   eqpi_free(ctx, sys, sys->bytes);
 }
 
-/* Which components are present: H+ always, others with a positive total. */
-static int active_mask(eqp_ctx *ctx, const eqpi_db *db, const double *totals,
-                       unsigned char *mask)
+/* The mask of the totals made by a branch-free pass (neg: some total is
+** below -1e-14): water out, H+ in, and a negative total other than
+** theirs refused. */
+static int mask_finish(eqp_ctx *ctx, const eqpi_db *db, const double *totals,
+                       unsigned char *mask, int neg)
 {
-  /* one pass without branches over the whole library's components (this
-  ** runs before every solve); the loop below only for a negative total */
   const int w = db->sp[db->water].component, h = db->sp[db->h_plus].component;
   if (w >= 0 && h >= 0 && db->comp_species[w] == db->water &&
       db->comp_species[h] == db->h_plus) {
-    int neg = 0;
-    for (int c = 0; c < db->ncomp; c++) {
-      mask[c] = totals[c] > 0;
-      neg |= totals[c] < -1e-14;
-    }
     /* the totals of water and H+ may be negative: only another one counts */
     if (neg) {
       neg = 0;
@@ -74,6 +69,38 @@ static int active_mask(eqp_ctx *ctx, const eqpi_db *db, const double *totals,
     mask[c] = totals[c] > 0;
   }
   return EQP_OK;
+}
+
+/* Which components are present: H+ always, others with a positive total;
+** a negative total (beyond rounding) other than those of water and H+ is
+** an error. */
+static int active_mask(eqp_ctx *ctx, const eqpi_db *db, const double *totals,
+                       unsigned char *mask)
+{
+  /* one pass without branches over the whole library's components (this
+  ** runs before every solve); the loop below only for a negative total */
+  int neg = 0;
+  for (int c = 0; c < db->ncomp; c++) {
+    mask[c] = totals[c] > 0;
+    neg |= totals[c] < -1e-14;
+  }
+  return mask_finish(ctx, db, totals, mask, neg);
+}
+
+int eqpi_system_molalities(eqp_ctx *ctx, const eqpi_db *db, const double *total,
+                           double water_kg, double *mol, unsigned char *mask, int *big)
+{
+  int neg = 0, far = 0;
+  for (int c = 0; c < db->ncomp; c++) {
+    /* most of the library's components are absent: no division for them */
+    double m = total[c] != 0 ? total[c] / water_kg : total[c];
+    mol[c] = m;
+    mask[c] = m > 0;
+    neg |= m < -1e-14;
+    far |= !(fabs(m) <= EQPI_MAX_MOLALITY);
+  }
+  *big = far;
+  return mask_finish(ctx, db, mol, mask, neg);
 }
 
 /* A new system on tab (whose reference it takes): one block for the
@@ -136,15 +163,17 @@ eqpi_system *eqpi_system_clone(eqp_ctx *ctx, const eqpi_system *src, eqpi_model 
 
 /* Reuse the system (its KINSOL instance with it) while the same components
 ** are present; a new temperature is a new tableau under the same problem. */
-int eqpi_system_prepare(eqp_ctx *ctx, const eqpi_db *db, eqpi_system **sysp,
-                        const double *totals, double T, eqpi_model *model, const double *extra)
+static int prepare(eqp_ctx *ctx, const eqpi_db *db, eqpi_system **sysp, const double *totals,
+                   const unsigned char *known, double T, eqpi_model *model, const double *extra)
 {
   if (db->h_plus < 0 || db->water < 0)
     return eqpi_fail(ctx, EQP_E_DATA, "the species library defines no 'H+' and 'H2O'");
   unsigned char stackmask[256];
   unsigned char *mask = db->ncomp <= 256 ? stackmask : eqpi_malloc(ctx, (size_t)db->ncomp);
   if (!mask) return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
-  int rc = active_mask(ctx, db, totals, mask);
+  int rc = EQP_OK;
+  if (known) memcpy(mask, known, (size_t)db->ncomp);
+  else rc = active_mask(ctx, db, totals, mask);
   /* components a reagent about to be added brings must be in the system */
   for (int c = 0; extra && rc == EQP_OK && c < db->ncomp; c++)
     if (extra[c] > 0 && db->comp_species[c] != db->water) mask[c] = 1;
@@ -172,6 +201,12 @@ int eqpi_system_prepare(eqp_ctx *ctx, const eqpi_db *db, eqpi_system **sysp,
   if ((rc = eqpi_problem_set_model(s->prob, model)) < 0) return rc;
   eqpi_problem_set_totals(s->prob, totals);
   return EQP_OK;
+}
+
+int eqpi_system_prepare(eqp_ctx *ctx, const eqpi_db *db, eqpi_system **sysp,
+                        const double *totals, double T, eqpi_model *model, const double *extra)
+{
+  return prepare(ctx, db, sysp, totals, NULL, T, model, extra);
 }
 
 bool eqpi_system_current(const eqpi_system *s, const double *total, double water_kg, double T)
@@ -439,7 +474,14 @@ out:
 int eqpi_system_solve(eqp_ctx *ctx, const eqpi_db *db, eqpi_system **sysp, const double *totals,
                       double T, eqpi_model *model, eqpi_solve_stats *stats)
 {
-  int rc = eqpi_system_prepare(ctx, db, sysp, totals, T, model, NULL);
+  return eqpi_system_solve_mask(ctx, db, sysp, totals, NULL, T, model, stats);
+}
+
+int eqpi_system_solve_mask(eqp_ctx *ctx, const eqpi_db *db, eqpi_system **sysp,
+                           const double *totals, const unsigned char *mask, double T,
+                           eqpi_model *model, eqpi_solve_stats *stats)
+{
+  int rc = prepare(ctx, db, sysp, totals, mask, T, model, NULL);
   if (rc < 0) return rc;
   return eqpi_system_solve_prepared(ctx, *sysp, stats);
 }
