@@ -5,6 +5,7 @@
 /* SPDX-License-Identifier: MIT */
 #include "system_impl.h"
 #include <math.h>
+#include <stdint.h>
 #include <stdio.h>
 #include <string.h>
 
@@ -87,17 +88,36 @@ static int active_mask(eqp_ctx *ctx, const eqpi_db *db, const double *totals,
   return mask_finish(ctx, db, totals, mask, neg);
 }
 
+/* The bits of x but its sign: zero for +0 and -0 alone. */
+static inline uint64_t magnitude_bits(const double *x)
+{
+  uint64_t b;
+  memcpy(&b, x, sizeof b);
+  return b << 1;
+}
+
 int eqpi_system_molalities(eqp_ctx *ctx, const eqpi_db *db, const double *total,
                            double water_kg, double *mol, unsigned char *mask, int *big)
 {
+  const int n = db->ncomp;
   int neg = 0, far = 0;
-  for (int c = 0; c < db->ncomp; c++) {
-    /* most of the library's components are absent: no division for them */
-    double m = total[c] != 0 ? total[c] / water_kg : total[c];
-    mol[c] = m;
-    mask[c] = m > 0;
-    neg |= m < -1e-14;
-    far |= !(fabs(m) <= EQPI_MAX_MOLALITY);
+  memcpy(mol, total, sizeof(double) * (size_t)n);   /* an absent component's 0 stays */
+  memset(mask, 0, (size_t)n);
+  /* most of the library's components are absent: four at a time are
+  ** passed over when they are all zero */
+  for (int c0 = 0; c0 < n; c0 += 4) {
+    const double *t = total + c0;
+    if (c0 + 4 <= n && !(magnitude_bits(t) | magnitude_bits(t + 1) | magnitude_bits(t + 2) |
+                         magnitude_bits(t + 3)))
+      continue;
+    for (int c = c0; c < c0 + 4 && c < n; c++) {
+      if (total[c] == 0) continue;
+      double m = total[c] / water_kg;
+      mol[c] = m;
+      mask[c] = m > 0;
+      neg |= m < -1e-14;
+      far |= !(fabs(m) <= EQPI_MAX_MOLALITY);
+    }
   }
   *big = far;
   return mask_finish(ctx, db, mol, mask, neg);
