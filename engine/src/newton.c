@@ -210,7 +210,7 @@ int eqpi_newton_factor(eqpi_newton *ws, eqpi_problem *P, const double *u)
 
 void eqpi_newton_lu_solve(eqpi_newton *ws, double *b)
 {
-  SUNDlsMat_denseGETRS(ws->cols, ws->n, ws->piv, b);
+  eqpi_dense_getrs(ws->cols, ws->n, ws->piv, b);
 }
 
 /* ------------------------------------------------------------ a run */
@@ -313,5 +313,5 @@ void eqpi_lu_solve(const double *A, const int *piv, int n, double *b)
     cols[j] = (double *)(A + (size_t)j * n);
     p[j] = piv[j];
   }
-  SUNDlsMat_denseGETRS(cols, n, p, b);
+  eqpi_dense_getrs(cols, n, p, b);
 }

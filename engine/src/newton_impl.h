@@ -65,6 +65,9 @@ void eqpi_newton_lu_solve(eqpi_newton *ws, double *b);
 /* Kernels for short vectors in v's table of operations (vecops.c); before
 ** KINSOL or GMRES clone v. */
 void eqpi_vec_install(N_Vector v);
+/* b := A^-1 b from the factors of SUNDlsMat_denseGETRF (columns a, pivots
+** p): SUNDlsMat_denseGETRS's operations in its order (vecops.c). */
+void eqpi_dense_getrs(double *const *a, int n, const sunindextype *p, double *b);
 /* The name of a KINSOL flag (or of EQPI_KIN_IMPLAUSIBLE). */
 const char *eqpi_newton_flag_name(int flag, char *buf, size_t len);
 

@@ -195,7 +195,7 @@ int eqpi_result_make(eqp_ctx *ctx, const eqpi_db *db, const eqpi_system *sys,
   }
   r->T = T;
   r->water_kg = water_kg;
-  r->rho = eqpi_water_density(T);
+  r->rho = tab->T == T ? tab->rho : eqpi_water_density(T);
   r->residual = st->residual;
   r->iters = st->iterations;
   r->nsolid = 0;

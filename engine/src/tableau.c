@@ -275,6 +275,7 @@ eqpi_tableau *eqpi_tableau_new(eqp_ctx *ctx, const eqpi_db *db, const unsigned c
   tb->missing_T = notes.missing;
   tb->outside_T = notes.outside;
   eqpi_debye_huckel_AB(T, &tb->A, &tb->B);
+  tb->rho = eqpi_water_density(T);
   tb->row = l.row;
   tb->cmp = l.cmp;
   tb->nu = l.nu;

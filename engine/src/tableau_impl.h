@@ -27,6 +27,7 @@ typedef struct eqpi_tableau {
   const double *lnK;    /* natural log of the overall formation constant at T */
   int missing_T, outside_T;   /* temperature notes of lnK (eqpi_tnotes) */
   double A, B;          /* Debye-Hueckel A and B at T */
+  double rho;           /* density of water at T, kg/L (every result reports it) */
   /* Stoichiometry, sparse by species (CSR): species i is the sum over
   ** t in [row[i], row[i+1]) of nu[t] times component cmp[t]. */
   const int *row, *cmp;
