@@ -115,8 +115,14 @@ static int kinsol_setup(eqpi_newton *ws, double *udata, double *sdata)
   if (KINSetUserData(ws->kmem, ws) || KINSetErrHandlerFn(ws->kmem, kin_err, ws) ||
       KINInit(ws->kmem, kin_f, ws->u))
     return -1;
-  ws->LS = SUNLinSol_SPGMR(ws->u, SUN_PREC_RIGHT, (int)n + 2, ws->sun);
-  if (!ws->LS || KINSetLinearSolver(ws->kmem, ws->LS, NULL) ||
+  /* With the exact Jacobian as preconditioner GMRES needs one iteration;
+  ** a Krylov space of two, restarted up to n times, leaves room for a
+  ** model without derivatives (preconditioner and J v then differ by the
+  ** difference quotient). Every solve zeroes GMRES's Hessenberg matrix,
+  ** (maxl + 1) maxl entries: a larger space costs on every solve. */
+  ws->LS = SUNLinSol_SPGMR(ws->u, SUN_PREC_RIGHT, 2, ws->sun);
+  if (!ws->LS || SUNLinSol_SPGMRSetMaxRestarts(ws->LS, (int)n) ||
+      KINSetLinearSolver(ws->kmem, ws->LS, NULL) ||
       KINSetPreconditioner(ws->kmem, kin_psetup, kin_psolve))
     return -1;
   KINSetMaxSetupCalls(ws->kmem, 1);
