@@ -42,6 +42,7 @@ void eqp_ctx_free(eqp_ctx *ctx)
 {
   if (!ctx) return;
   eqpi_newton_pool_free(ctx);
+  eqpi_result_spare_free(ctx);
   eqpi_tableau_cache_free(ctx);
   eqpi_plugins_free(ctx);
   for (int i = 0; i < ctx->nplugin_dirs; i++) eqpi_strfree(ctx, ctx->plugin_dirs[i]);

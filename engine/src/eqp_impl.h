@@ -561,6 +561,8 @@ struct eqp_ctx {
   void *obs_ud;
   struct eqpi_newton *newton_pool;   /* idle Newton workspaces (newton.c) */
   int newton_pooled;
+  void *spare_result;       /* the last result block freed, for the next (result.c) */
+  size_t spare_bytes;
   struct eqpi_tableau *tableaux[EQPI_TABLEAU_CACHE];  /* the last tableaux made (tableau.c) */
   char **gases_used;    /* gases a solution was opened to, for the provenance */
   int ngases_used, capgases_used;
@@ -685,6 +687,8 @@ const eqpi_model *eqpi_system_model(const eqpi_system *s);
 /* Free the idle Newton workspaces of the context (newton.c), and its
 ** cached tableaux (tableau.c; one a system still uses goes with it). */
 void eqpi_newton_pool_free(eqp_ctx *ctx);
+/* Free the result block the context keeps for the next result (result.c). */
+void eqpi_result_spare_free(eqp_ctx *ctx);
 void eqpi_tableau_cache_free(eqp_ctx *ctx);
 
 /* What an adjustment holds: the pH, the activity of a species, or the

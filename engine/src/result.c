@@ -11,6 +11,7 @@
 #define MAX_WARN 64
 #define MAX_GASES 16      /* gases of a headspace reported */
 #define P_WARN 2.0        /* atm: a headspace beyond it is warned of */
+#define SPARE_MAX 4096    /* bytes: the largest result block kept for the next */
 
 struct eqp_result {
   eqp_ctx *ctx;
@@ -141,6 +142,26 @@ static void supersaturation_notes(const eqpi_db *db, const eqpi_tableau *t, cons
   }
 }
 
+/* Results come and go at the rate of solves, mostly of one size: the
+** block of the last one freed is kept (one, of at most SPARE_MAX bytes)
+** and taken by the next that fits it without wasting half of it. */
+static eqp_result *result_alloc(eqp_ctx *ctx, size_t *bytes)
+{
+  if (ctx->spare_result && ctx->spare_bytes >= *bytes && ctx->spare_bytes / 2 <= *bytes) {
+    eqp_result *r = ctx->spare_result;
+    *bytes = ctx->spare_bytes;
+    ctx->spare_result = NULL;
+    return r;
+  }
+  return eqpi_malloc(ctx, *bytes);
+}
+
+void eqpi_result_spare_free(eqp_ctx *ctx)
+{
+  eqpi_free(ctx, ctx->spare_result, ctx->spare_bytes);
+  ctx->spare_result = NULL;
+}
+
 int eqpi_result_make(eqp_ctx *ctx, const eqpi_db *db, const eqpi_system *sys,
                      const eqpi_model *model, double T, double water_kg,
                      const eqpi_solve_stats *st, eqp_result **out)
@@ -166,7 +187,7 @@ int eqpi_result_make(eqp_ctx *ctx, const eqpi_db *db, const eqpi_system *sys,
   size_t fixed = sizeof(eqp_result) + sizeof(double) * (size_t)(2 * ns) +
                  sizeof(const char *) * (size_t)w.n + sizeof(int) * (size_t)ns + 16;
   size_t bytes = fixed + w.bytes;
-  eqp_result *r = eqpi_malloc(ctx, bytes);
+  eqp_result *r = result_alloc(ctx, &bytes);
   if (!r) {
     if (si != si_stack) eqpi_free(ctx, si, si_bytes);
     return eqpi_fail(ctx, EQP_E_NOMEM, "out of memory");
@@ -219,7 +240,13 @@ void eqp_result_free(eqp_result *r)
 {
   if (!r) return;
   eqpi_db_release(r->db);
-  eqpi_free(r->ctx, r, r->bytes);
+  eqp_ctx *ctx = r->ctx;
+  if (!ctx->spare_result && r->bytes <= SPARE_MAX) {
+    ctx->spare_result = r;
+    ctx->spare_bytes = r->bytes;
+  } else {
+    eqpi_free(ctx, r, r->bytes);
+  }
 }
 
 /* One block: copied whole, its pointers moved to the copy. */

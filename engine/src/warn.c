@@ -64,6 +64,9 @@ void eqpi_state_warnings(const eqpi_model *model, double I, double T, double wat
              "used at %.2f C", st->missing_T, T - 273.15);
     add(ud, "temperature", w);
   }
+  /* water is never denser than 1 kg/L, so its volume is at least water_kg
+  ** litres: most states are shown below the limit without the density */
+  if (!((st->solute_L + st->unknown_g * 1e-3) / water_kg > SCALE_LIMIT)) return;
   double Vw = water_kg / eqpi_water_density(T);   /* L */
   double known = st->solute_L / Vw;
   /* a solid of unknown density: at least 1 g/mL for the salts and organic
