@@ -126,6 +126,7 @@ static int kinsol_setup(eqpi_newton *ws, double *udata, double *sdata)
       KINSetPreconditioner(ws->kmem, kin_psetup, kin_psolve))
     return -1;
   KINSetMaxSetupCalls(ws->kmem, 1);
+  KINSetEtaConstValue(ws->kmem, 1e-4);
   KINSetNumMaxIters(ws->kmem, 200);
   KINSetFuncNormTol(ws->kmem, EQPI_FNORM_TOL);
   KINSetScaledStepTol(ws->kmem, 1e-15);
@@ -233,6 +234,11 @@ static int run(eqpi_newton *ws, eqpi_problem *P, const double *u0, int maxiter, 
   int analytic = P->derivs != EQPI_DERIV_NONE || P->lambda == 0;
   if (analytic != ws->jv_analytic) {
     KINSetJacTimesVecFn(ws->kmem, analytic ? kin_jtimes : NULL);
+    /* With the exact Jacobian GMRES's one iteration solves to rounding, so
+    ** the forcing term (GMRES's tolerance) only costs its bookkeeping: a
+    ** constant one, tight enough that a poorly conditioned step still
+    ** gets a second iteration. Otherwise Eisenstat and Walker's choice 1. */
+    KINSetEtaForm(ws->kmem, analytic ? KIN_ETACONSTANT : KIN_ETACHOICE1);
     ws->jv_analytic = analytic;
   }
   KINSetNumMaxIters(ws->kmem, maxiter);
