@@ -9,14 +9,14 @@
 
 static eqp_curve *check_curve(lua_State *L, int idx)
 {
-  eqpl_curve *u = luaL_checkudata(L, idx, EQPL_CURVE);
+  eqpl_curve *u = eqpl_check_handle(L, idx, EQPL_K_CURVE);
   if (!u->c) luaL_argerror(L, idx, "curve is closed");
   return u->c;
 }
 
 void eqpl_push_curve(lua_State *L, eqp_curve *c)
 {
-  eqpl_curve *u = eqpl_new_handle(L, sizeof *u, EQPL_CURVE);
+  eqpl_curve *u = eqpl_new_handle(L, sizeof *u, EQPL_K_CURVE);
   u->c = c;
 }
 
@@ -150,7 +150,7 @@ static int curve_index(lua_State *L)
 
 static int curve_close(lua_State *L)
 {
-  eqpl_curve *u = luaL_checkudata(L, 1, EQPL_CURVE);
+  eqpl_curve *u = eqpl_check_handle(L, 1, EQPL_K_CURVE);
   eqp_curve_free(u->c);
   u->c = NULL;
   return 0;

@@ -6,23 +6,53 @@
 #include <stdio.h>
 #include <string.h>
 
-eqp_ctx *eqpl_ctx_of(lua_State *L)
-{
-  eqpl_ctx *c = lua_touserdata(L, lua_upvalueindex(1));
-  if (!c || !c->ctx) luaL_error(L, "equipoise: context is closed");
-  return c->ctx;
-}
+const char *const eqpl_handle_name[EQPL_K_N] = {EQPL_SOLUTION, EQPL_RESULT, EQPL_CURVE,
+                                                 EQPL_PLOT, EQPL_LIBHOLD};
 
-void *eqpl_new_handle(lua_State *L, size_t size, const char *meta)
+void *eqpl_new_handle(lua_State *L, size_t size, int kind)
 {
   eqpl_ctx *c = lua_touserdata(L, lua_upvalueindex(1));
   if (c) eqpl_account(L, c);    /* a new object: the engine has likely grown */
   void *u = lua_newuserdatauv(L, size, 1);
   memset(u, 0, size);
-  luaL_setmetatable(L, meta);
+  if (c && c->meta[kind]) {
+    lua_getiuservalue(L, lua_upvalueindex(1), kind + 1);
+    lua_setmetatable(L, -2);
+  } else {
+    luaL_setmetatable(L, eqpl_handle_name[kind]);
+  }
   lua_pushvalue(L, lua_upvalueindex(1));
   lua_setiuservalue(L, -2, 1);
   return u;
+}
+
+/* The handle at idx when its metatable is c's for kind: the answer of
+** luaL_testudata without its registry look-up. NULL sends the caller to the
+** auxiliary library, whose answers and messages stay the only ones. */
+static void *fast_handle(lua_State *L, const eqpl_ctx *c, int idx, int kind)
+{
+  void *u = lua_touserdata(L, idx);
+  if (!u || !c || !c->meta[kind] || !lua_getmetatable(L, idx)) return NULL;
+  const void *mt = lua_topointer(L, -1);
+  lua_pop(L, 1);
+  return mt == c->meta[kind] ? u : NULL;
+}
+
+void *eqpl_handle_in(lua_State *L, const eqpl_ctx *c, int idx, int kind)
+{
+  void *u = fast_handle(L, c, idx, kind);
+  return u ? u : luaL_testudata(L, idx, eqpl_handle_name[kind]);
+}
+
+void *eqpl_test_handle(lua_State *L, int idx, int kind)
+{
+  return eqpl_handle_in(L, lua_touserdata(L, lua_upvalueindex(1)), idx, kind);
+}
+
+void *eqpl_check_handle(lua_State *L, int idx, int kind)
+{
+  void *u = fast_handle(L, lua_touserdata(L, lua_upvalueindex(1)), idx, kind);
+  return u ? u : luaL_checkudata(L, idx, eqpl_handle_name[kind]);
 }
 
 static int hold_gc(lua_State *L)
@@ -122,7 +152,7 @@ static int ctx_gc(lua_State *L)
 
 static int library_gc(lua_State *L)
 {
-  eqpl_library *h = luaL_checkudata(L, 1, EQPL_LIBHOLD);
+  eqpl_library *h = eqpl_check_handle(L, 1, EQPL_K_LIBRARY);
   eqp_library_free(h->lib);
   h->lib = NULL;
   return 0;
@@ -130,7 +160,7 @@ static int library_gc(lua_State *L)
 
 eqpl_library *eqpl_push_library(lua_State *L, const eqp_library *lib)
 {
-  eqpl_library *h = eqpl_new_handle(L, sizeof *h, EQPL_LIBHOLD);
+  eqpl_library *h = eqpl_new_handle(L, sizeof *h, EQPL_K_LIBRARY);
   h->lib = eqp_library_ref(lib);
   return h;
 }
@@ -268,8 +298,8 @@ int eqp_lua_open(lua_State *L)
   /* one context per Lua state, shared by every require */
   if (lua_getfield(L, LUA_REGISTRYINDEX, "equipoise.module") == LUA_TTABLE) return 1;
   lua_pop(L, 1);
-  eqpl_ctx *c = lua_newuserdatauv(L, sizeof *c, 0);
-  c->ctx = NULL;
+  eqpl_ctx *c = lua_newuserdatauv(L, sizeof *c, EQPL_K_N);
+  memset(c, 0, sizeof *c);
   if (luaL_newmetatable(L, EQPL_CTX)) {
     lua_pushcfunction(L, ctx_gc);
     lua_setfield(L, -2, "__gc");
@@ -297,6 +327,11 @@ int eqp_lua_open(lua_State *L)
   luaL_setfuncs(L, eq_funcs, 1);
   eqpl_open_recipe(L, ctxidx);
   eqpl_open_plot(L, ctxidx);
+  for (int k = 0; k < EQPL_K_N; k++) {
+    luaL_getmetatable(L, eqpl_handle_name[k]);
+    c->meta[k] = lua_topointer(L, -1);
+    lua_setiuservalue(L, ctxidx, k + 1);
+  }
   lua_pushstring(L, EQP_VERSION_STRING);
   lua_setfield(L, -2, "version");
   lua_pushvalue(L, -1);

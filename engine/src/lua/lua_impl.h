@@ -17,13 +17,23 @@
 #define EQPL_CURVEKIND "equipoise.curvekind" /* registry: curve -> how it was made (weak) */
 #define EQPL_LIBHOLD "equipoise.library"    /* a library being made, released by __gc */
 
+/* The kinds of handle, each with its metatable registered under its name
+** (eqpl_handle_name). */
+enum { EQPL_K_SOLUTION, EQPL_K_RESULT, EQPL_K_CURVE, EQPL_K_PLOT, EQPL_K_LIBRARY, EQPL_K_N };
+extern const char *const eqpl_handle_name[EQPL_K_N];
+
 /* The module's context: a full userdata, so its address is stable for the
-** allocator that counts the engine's memory through it (lua_host.c). */
+** allocator that counts the engine's memory through it (lua_host.c). Its
+** user value k + 1 is the metatable of handle kind k, and meta[k] that
+** table's identity (lua_topointer: Lua never moves an object, and the
+** registry keeps these alive), so that a binding checks or sets a handle's
+** metatable without looking its name up in the registry. */
 typedef struct eqpl_ctx {
   eqp_ctx *ctx;
   eqp_alloc_fn alloc;         /* where the engine's memory comes from */
   void *alloc_ud;
   long long grown;            /* bytes the engine took since the collector was told */
+  const void *meta[EQPL_K_N]; /* NULL until the module has made them all */
 } eqpl_ctx;
 typedef struct eqpl_solution { eqp_solution *s; } eqpl_solution;
 typedef struct eqpl_result { eqp_result *r; } eqpl_result;
@@ -42,19 +52,40 @@ eqp_ctx *eqpl_host_ctx_new(lua_State *L, eqpl_ctx *c);
 /* Tell the collector of the memory the engine has taken since the last time. */
 void eqpl_account(lua_State *L, eqpl_ctx *c);
 
-/* Push a new handle userdata of the given size, zeroed, with its metatable
-** and a link to the context (the caller's upvalue 1) so that the context
-** outlives it. The handle exists before the C object it will hold, so a
-** failure in between leaves a closed handle, never a dangling one. */
-void *eqpl_new_handle(lua_State *L, size_t size, const char *meta);
+/* Push a new handle userdata of the given size, zeroed, with the metatable
+** of kind and a link to the context (the caller's upvalue 1) so that the
+** context outlives it. The handle exists before the C object it will hold,
+** so a failure in between leaves a closed handle, never a dangling one. */
+void *eqpl_new_handle(lua_State *L, size_t size, int kind);
+/* The handle of kind at idx: what luaL_testudata (luaL_checkudata, with its
+** message) gives for the kind's name, found through the context when the
+** running binding has it as upvalue 1. */
+void *eqpl_test_handle(lua_State *L, int idx, int kind);
+void *eqpl_check_handle(lua_State *L, int idx, int kind);
+/* eqpl_test_handle with the context c (NULL: not known) already at hand. */
+void *eqpl_handle_in(lua_State *L, const eqpl_ctx *c, int idx, int kind);
 /* An engine object the binding owns while it builds Lua values from it: a
 ** memory error in between frees it through the holder's __gc. Set p; clear
 ** it (after freeing) when done. */
 typedef struct eqpl_hold { void *p; void (*free_fn)(void *p); } eqpl_hold;
 eqpl_hold *eqpl_hold_new(lua_State *L, void (*free_fn)(void *p));
 void eqpl_hold_free(eqpl_hold *h);
-/* The context of this Lua state (upvalue 1 of every binding). */
-eqp_ctx *eqpl_ctx_of(lua_State *L);
+/* The block of the context (upvalue 1 of every binding), or NULL. */
+static inline eqpl_ctx *eqpl_self(lua_State *L)
+{
+  return lua_touserdata(L, lua_upvalueindex(1));
+}
+/* The engine context of c; raises when it is closed or missing. */
+static inline eqp_ctx *eqpl_ctx_in(lua_State *L, const eqpl_ctx *c)
+{
+  if (!c || !c->ctx) luaL_error(L, "equipoise: context is closed");
+  return c->ctx;
+}
+/* The context of this Lua state. */
+static inline eqp_ctx *eqpl_ctx_of(lua_State *L)
+{
+  return eqpl_ctx_in(L, eqpl_self(L));
+}
 /* Raise a Lua error with the context's message; remembers the engine status
 ** so the command can map it to an exit code. Never returns. */
 int eqpl_fail(lua_State *L, eqp_ctx *ctx, int status);
@@ -81,6 +112,7 @@ double eqpl_check_volume(lua_State *L, int idx, const char *what);
 /* Push a new result object for r (takes ownership); links it to the ctx. */
 void eqpl_push_result(lua_State *L, eqp_result *r);
 eqpl_solution *eqpl_check_solution(lua_State *L, int idx);
+eqpl_solution *eqpl_check_solution_in(lua_State *L, const eqpl_ctx *c, int idx);
 #define EQPL_PRINT "equipoise.print"
 /* Push the print the module writes text through: the host's, as found when
 ** the module opened, else the present global one. */
@@ -146,7 +178,11 @@ size_t eqpl_options(lua_State *L, int idx, const char *call, const eqpl_opt *spe
 ** counts as one): an argument the binding would not read is a mistake to
 ** report, not to ignore. signature is the call as documented, such as
 ** "s:add(reagent, amount)"; a ':' before the '(' marks a method. */
-void eqpl_check_nargs(lua_State *L, int max, const char *signature);
+void eqpl_nargs_error(lua_State *L, int max, const char *signature);
+static inline void eqpl_check_nargs(lua_State *L, int max, const char *signature)
+{
+  if (lua_gettop(L) > max) eqpl_nargs_error(L, max, signature);
+}
 /* A string without NUL characters, not empty. */
 const char *eqpl_check_name(lua_State *L, int idx, const char *what);
 double eqpl_check_number(lua_State *L, int idx, const char *what, double min, double max,

@@ -90,9 +90,9 @@ const char *eqpl_describe(lua_State *L, int idx, char *buf, size_t len)
   }
   case LUA_TTABLE: return "a table";
   case LUA_TUSERDATA:
-    if (luaL_testudata(L, idx, EQPL_SOLUTION)) return "a solution";
-    if (luaL_testudata(L, idx, EQPL_RESULT)) return "a result";
-    if (luaL_testudata(L, idx, EQPL_CURVE)) return "a curve";
+    if (eqpl_test_handle(L, idx, EQPL_K_SOLUTION)) return "a solution";
+    if (eqpl_test_handle(L, idx, EQPL_K_RESULT)) return "a result";
+    if (eqpl_test_handle(L, idx, EQPL_K_CURVE)) return "a curve";
     return "a userdata";
   default:
     snprintf(buf, len, "a %s", luaL_typename(L, idx));
@@ -109,10 +109,9 @@ static const char *ordinal(int n, char *buf, size_t len)
   return buf;
 }
 
-void eqpl_check_nargs(lua_State *L, int max, const char *signature)
+void eqpl_nargs_error(lua_State *L, int max, const char *signature)
 {
   int n = lua_gettop(L);
-  if (n <= max) return;
   /* a method's own object (s:, r:, curve:, plot:) is not counted for the user */
   int self = strchr(signature, ':') && strchr(signature, ':') < strchr(signature, '(') ? 1 : 0;
   int takes = max - self;

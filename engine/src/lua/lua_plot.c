@@ -124,7 +124,7 @@ static int opt_range(lua_State *L, int t, const char *key, double *lo, double *h
 
 static eqp_plot *check_plot(lua_State *L, int idx)
 {
-  eqpl_plot *u = luaL_checkudata(L, idx, EQPL_PLOT);
+  eqpl_plot *u = eqpl_check_handle(L, idx, EQPL_K_PLOT);
   if (!u->p) luaL_argerror(L, idx, "plot is closed");
   return u->p;
 }
@@ -132,7 +132,7 @@ static eqp_plot *check_plot(lua_State *L, int idx)
 /* Own p in a new plot object on the stack. */
 static void push_plot(lua_State *L, eqp_plot *p)
 {
-  eqpl_plot *u = eqpl_new_handle(L, sizeof *u, EQPL_PLOT);
+  eqpl_plot *u = eqpl_new_handle(L, sizeof *u, EQPL_K_PLOT);
   u->p = p;
 }
 
@@ -207,7 +207,7 @@ static int plot_index(lua_State *L)
 
 static int plot_close(lua_State *L)
 {
-  eqpl_plot *u = luaL_checkudata(L, 1, EQPL_PLOT);
+  eqpl_plot *u = eqpl_check_handle(L, 1, EQPL_K_PLOT);
   eqp_plot_free(u->p);
   u->p = NULL;
   return 0;
@@ -361,7 +361,7 @@ static int eq_plot(lua_State *L)
   int rc = eqp_plot_new(ctx, &p);
   if (rc < 0) return eqpl_fail(L, ctx, rc);
   /* p is not owned by Lua yet: park it so that an error frees it */
-  eqpl_plot *hold = eqpl_new_handle(L, sizeof *hold, EQPL_PLOT);
+  eqpl_plot *hold = eqpl_new_handle(L, sizeof *hold, EQPL_K_PLOT);
   hold->p = p;
   rc = eqp_plot_set_title(p, opt_string(L, 1, "title", "eq.plot"));
   if (rc == EQP_OK) rc = set_axis(L, p, 1, "x", 0);
@@ -609,7 +609,7 @@ static int curve_plot(lua_State *L)
 {
   eqpl_check_nargs(L, 3, "curve:plot(file [, options])");
   static const char *const keys[] = {"file", "title", "x", "y", NULL};
-  eqpl_curve *u = luaL_checkudata(L, 1, EQPL_CURVE);
+  eqpl_curve *u = eqpl_check_handle(L, 1, EQPL_K_CURVE);
   if (!u->c) return luaL_argerror(L, 1, "curve is closed");
   const char *file = NULL;
   int opts = 0;

@@ -93,7 +93,7 @@ static void reagent_or_stock(lua_State *L, int idx, const char *what, const char
   *stock = NULL;
   if (lua_type(L, idx) == LUA_TSTRING) {
     *reagent = eqpl_check_name(L, idx, what);
-  } else if (luaL_testudata(L, idx, EQPL_SOLUTION)) {
+  } else if (eqpl_test_handle(L, idx, EQPL_K_SOLUTION)) {
     *stock = eqpl_check_solution(L, idx)->s;
   } else {
     char buf[96];
@@ -451,7 +451,7 @@ int eqpl_mix(lua_State *L)
       lua_pushvalue(L, part);
       lua_pushnil(L);
     }
-    eqpl_solution *s = luaL_testudata(L, -2, EQPL_SOLUTION);
+    eqpl_solution *s = eqpl_test_handle(L, -2, EQPL_K_SOLUTION);
     if (!s || !s->s) {
       char buf[96];
       return eqpl_input_error(L, "%s must be a solution or a pair { solution, '10 mL' }; got %s",
@@ -467,7 +467,7 @@ int eqpl_mix(lua_State *L)
     }
     lua_settop(L, part - 1);
   }
-  eqpl_solution *u = eqpl_new_handle(L, sizeof *u, EQPL_SOLUTION);
+  eqpl_solution *u = eqpl_new_handle(L, sizeof *u, EQPL_K_SOLUTION);
   int rc = eqp_solution_mix(n, parts, litres, &u->s);
   if (rc < 0) return eqpl_fail(L, ctx, rc);
   return 1;

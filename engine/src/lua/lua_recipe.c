@@ -163,7 +163,7 @@ static int eq_recipe(lua_State *L)
     lua_rawseti(L, -2, (lua_Integer)i + 1);
   }
   lua_setfield(L, -2, "warnings");
-  eqpl_solution *u = eqpl_new_handle(L, sizeof *u, EQPL_SOLUTION);
+  eqpl_solution *u = eqpl_new_handle(L, sizeof *u, EQPL_K_SOLUTION);
   if ((rc = eqp_solution_copy(eqp_recipe_solution(r), &u->s)) < 0) return eqpl_fail(L, ctx, rc);
   eqpl_hold_free(h);
   lua_setfield(L, -2, "solution");

@@ -8,14 +8,14 @@
 
 static eqp_result *check_result(lua_State *L, int idx)
 {
-  eqpl_result *u = luaL_checkudata(L, idx, EQPL_RESULT);
+  eqpl_result *u = eqpl_check_handle(L, idx, EQPL_K_RESULT);
   if (!u->r) luaL_argerror(L, idx, "result is closed");
   return u->r;
 }
 
 void eqpl_push_result(lua_State *L, eqp_result *r)
 {
-  eqpl_result *u = eqpl_new_handle(L, sizeof *u, EQPL_RESULT);
+  eqpl_result *u = eqpl_new_handle(L, sizeof *u, EQPL_K_RESULT);
   u->r = r;
 }
 
@@ -194,7 +194,7 @@ static int result_index(lua_State *L)
 
 static int result_close(lua_State *L)
 {
-  eqpl_result *u = luaL_checkudata(L, 1, EQPL_RESULT);
+  eqpl_result *u = eqpl_check_handle(L, 1, EQPL_K_RESULT);
   eqp_result_free(u->r);
   u->r = NULL;
   return 0;

@@ -22,12 +22,17 @@ static eqpl_solution *not_a_solution(lua_State *L, int idx)
   return NULL;
 }
 
-eqpl_solution *eqpl_check_solution(lua_State *L, int idx)
+eqpl_solution *eqpl_check_solution_in(lua_State *L, const eqpl_ctx *c, int idx)
 {
-  eqpl_solution *u = luaL_testudata(L, idx, EQPL_SOLUTION);
+  eqpl_solution *u = eqpl_handle_in(L, c, idx, EQPL_K_SOLUTION);
   if (!u) return not_a_solution(L, idx);
   if (!u->s) eqpl_input_error(L, "argument %d: the solution is closed", idx);
   return u;
+}
+
+eqpl_solution *eqpl_check_solution(lua_State *L, int idx)
+{
+  return eqpl_check_solution_in(L, eqpl_self(L), idx);
 }
 
 static const eqpl_opt solution_opts[] = {
@@ -215,7 +220,7 @@ int eqpl_solution_new(lua_State *L)
   restrict_library(L, ctx, &v[O_LIBRARY], h);
   load_species(L, ctx, &v[O_SPECIES], h);
   eqp_solution *s;
-  eqpl_solution *u = eqpl_new_handle(L, sizeof *u, EQPL_SOLUTION);
+  eqpl_solution *u = eqpl_new_handle(L, sizeof *u, EQPL_K_SOLUTION);
   int hidx = lua_gettop(L);
   int rc = eqp_solution_new_in(ctx, h->lib, &o, &s);
   if (rc < 0) return eqpl_fail(L, ctx, rc);
@@ -237,15 +242,17 @@ int eqpl_solution_new(lua_State *L)
 static int solution_add(lua_State *L)
 {
   eqpl_check_nargs(L, 3, "s:add(reagent, amount)");
-  eqpl_solution *u = eqpl_check_solution(L, 1);
-  eqp_ctx *ctx = eqpl_ctx_of(L);
+  eqpl_ctx *c = eqpl_self(L);
+  eqpl_solution *u = eqpl_check_solution_in(L, c, 1);
+  eqp_ctx *ctx = eqpl_ctx_in(L, c);
   const char *reagent = eqpl_check_name(L, 2, "add: the reagent");
-  if (lua_type(L, 3) == LUA_TNUMBER) {
+  int type = lua_type(L, 3);
+  if (type == LUA_TNUMBER) {
     lua_pushvalue(L, 3);     /* converted in a slot of its own, which anchors it */
     return eqpl_input_error(L, "amount of %s: %s has no unit (write it as a string with its "
                             "unit, such as '10 mmol' or '1.5 g')", reagent, lua_tostring(L, -1));
   }
-  if (lua_type(L, 3) != LUA_TSTRING)
+  if (type != LUA_TSTRING)
     return eqpl_input_error(L, "amount of %s: expected a string such as '10 mmol'", reagent);
   size_t len;
   const char *amount = lua_tolstring(L, 3, &len);
@@ -264,8 +271,9 @@ static int solution_add(lua_State *L)
 static int solution_equilibrate(lua_State *L)
 {
   eqpl_check_nargs(L, 1, "s:equilibrate()");
-  eqpl_solution *u = eqpl_check_solution(L, 1);
-  eqp_ctx *ctx = eqpl_ctx_of(L);
+  eqpl_ctx *c = eqpl_self(L);
+  eqpl_solution *u = eqpl_check_solution_in(L, c, 1);
+  eqp_ctx *ctx = eqpl_ctx_in(L, c);
   eqp_result *r;
   int rc = eqp_solution_equilibrate(u->s, &r);
   if (rc < 0) return eqpl_fail(L, ctx, rc);
@@ -278,7 +286,7 @@ static int solution_copy(lua_State *L)
   eqpl_check_nargs(L, 1, "s:copy()");
   eqpl_solution *u = eqpl_check_solution(L, 1);
   eqp_ctx *ctx = eqpl_ctx_of(L);
-  eqpl_solution *c = eqpl_new_handle(L, sizeof *c, EQPL_SOLUTION);
+  eqpl_solution *c = eqpl_new_handle(L, sizeof *c, EQPL_K_SOLUTION);
   int rc = eqp_solution_copy(u->s, &c->s);
   if (rc < 0) return eqpl_fail(L, ctx, rc);
   return 1;
@@ -320,7 +328,7 @@ static int solution_temperature(lua_State *L)
 
 static int solution_close(lua_State *L)
 {
-  eqpl_solution *u = luaL_checkudata(L, 1, EQPL_SOLUTION);
+  eqpl_solution *u = eqpl_check_handle(L, 1, EQPL_K_SOLUTION);
   eqp_solution_free(u->s);
   u->s = NULL;
   return 0;
@@ -328,7 +336,7 @@ static int solution_close(lua_State *L)
 
 static int solution_tostring(lua_State *L)
 {
-  eqpl_solution *u = luaL_checkudata(L, 1, EQPL_SOLUTION);
+  eqpl_solution *u = eqpl_check_handle(L, 1, EQPL_K_SOLUTION);
   if (!u->s) lua_pushstring(L, "solution (closed)");
   else
     lua_pushfstring(L, "solution (%f kg water, %f C)", eqp_solution_water(u->s),
