@@ -127,6 +127,9 @@ int eqpi_name_pretty(const char *name, char *out, size_t len);
 
 /* ---------------------------------------------------------- units */
 
+/* A plain decimal at p read exactly as strtod reads it, by the exact fast
+** path; the end of the number, or NULL when strtod must decide (units.c). */
+const char *eqpi_fast_decimal(const char *p, double *out);
 int eqpi_parse_quantity(const char *text, unsigned allowed, double *value,
                         eqp_quantity *kind, char *err, size_t errlen);
 

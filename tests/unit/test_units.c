@@ -1,6 +1,7 @@
 /* Units: amounts, masses, concentrations, volumes, temperatures. */
 /* SPDX-License-Identifier: MIT */
 #include "eqp_test.h"
+#include "eqp_impl.h"
 
 static eqp_ctx *ctx;
 
@@ -100,6 +101,53 @@ static void test_errors_name_the_value(void **state)
   expect_error("-300 C", EQP_Q_TEMPERATURE, "negative on the kelvin scale");
 }
 
+/* The fast path of the number reader against glibc's strtod (the
+** reference): the same value to the bit and the same characters read, for
+** every string it takes; what it leaves to strtod is strtod's anyway. */
+static void check_decimal(const char *text, int *fast)
+{
+  double a, b;
+  const char *end = eqpi_fast_decimal(text, &a);
+  char *send;
+  b = strtod(text, &send);
+  if (!end) return;
+  (*fast)++;
+  if (end != send) fail_msg("'%s': read %d characters, strtod %d", text, (int)(end - text),
+                            (int)(send - text));
+  if (memcmp(&a, &b, sizeof a) != 0) fail_msg("'%s': %.17g, strtod %.17g", text, a, b);
+}
+
+static void test_fast_decimal(void **state)
+{
+  static const char *const cases[] = {
+    "0", "-0", "+0", "1", "25", "0.07", ".5", "+.5", "1.", "-1.", "007", "1e5", "1E-5",
+    "2.5e+3", "1e", "1e-", "1e+", "3ex", "0x1p3", "inf", "nan", ".", "-", "", "1.5.3",
+    "9007199254740992", "9007199254740993", "9007199254740991.5", "123456789012345678",
+    "1e22", "1e23", "1e-22", "1e-23", "0.1", "0.2", "0.3", "4.35", "1234.5678e-3",
+    "1 umol", "10 mmol", "0.000001", "1e-2147483649", "99999999999999999999"};
+  int fast = 0;
+  for (size_t i = 0; i < sizeof cases / sizeof cases[0]; i++) check_decimal(cases[i], &fast);
+  /* random decimals of up to 17 digits, a point anywhere, exponents to +-30 */
+  uint64_t x = 0x9E3779B97F4A7C15ull;
+  char buf[64];
+  for (int k = 0; k < 200000; k++) {
+    x ^= x << 13; x ^= x >> 7; x ^= x << 17;
+    int nd = 1 + (int)(x % 17), dot = (int)((x >> 8) % (uint64_t)(nd + 2)), n = 0;
+    if ((x >> 20) & 1) buf[n++] = '-';
+    uint64_t y = x;
+    for (int d = 0; d < nd; d++) {
+      if (d == dot) buf[n++] = '.';
+      y = y * 6364136223846793005ull + 1442695040888963407ull;
+      buf[n++] = (char)('0' + (y >> 60) % 10);
+    }
+    if ((x >> 24) % 3 == 0) n += snprintf(buf + n, sizeof buf - (size_t)n, "e%d",
+                                          (int)((x >> 32) % 61) - 30);
+    buf[n] = '\0';
+    check_decimal(buf, &fast);
+  }
+  assert_true(fast > 100000);      /* most of them went the fast way */
+}
+
 int main(void)
 {
   ctx = eqp_ctx_new(NULL, NULL);
@@ -107,6 +155,7 @@ int main(void)
     cmocka_unit_test(test_base_units),
     cmocka_unit_test(test_litre_symbols),
     cmocka_unit_test(test_errors_name_the_value),
+    cmocka_unit_test(test_fast_decimal),
   };
   int rc = cmocka_run_group_tests(tests, NULL, NULL);
   eqp_ctx_free(ctx);
