@@ -271,6 +271,22 @@ static int is_water(const eqp_solution *s, const eqpi_reagent *r)
   return r->n == 1 && r->sp[0] == s->db->water;
 }
 
+/* The reagent of the library named name; -1 if none. */
+static int find_reagent(eqp_solution *s, const char *name)
+{
+  if (s->rg_name[0] && s->rg_gen == s->db->generation && strcmp(s->rg_name, name) == 0)
+    return s->rg_index;
+  int g = eqpi_db_find_reagent(s->db, name);
+  size_t len = strlen(name);
+  s->rg_name[0] = '\0';
+  if (g >= 0 && len < sizeof s->rg_name) {
+    memcpy(s->rg_name, name, len + 1);
+    s->rg_index = g;
+    s->rg_gen = s->db->generation;
+  }
+  return g;
+}
+
 int eqp_solution_add(eqp_solution *s, const char *reagent, double value, eqp_quantity kind)
 {
   if (!s || !reagent) return eqpi_fail(s ? s->ctx : NULL, EQP_E_ARG, "NULL argument");
@@ -278,7 +294,7 @@ int eqp_solution_add(eqp_solution *s, const char *reagent, double value, eqp_qua
   if (!isfinite(value) || value < 0)
     return eqpi_fail(ctx, EQP_E_INPUT, "amount of %s must be a non-negative number, got %g",
                      reagent, value);
-  int g = eqpi_db_find_reagent(s->db, reagent);
+  int g = find_reagent(s, reagent);
   if (g < 0) return unknown_reagent(s, reagent);
   const eqpi_reagent *r = &s->db->rg[g];
   double mol;

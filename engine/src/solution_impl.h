@@ -26,6 +26,11 @@ struct eqp_solution {
   signed char chain_state[EQPI_DEFAULT_CHAIN]; /* 0 not tried, 1 open, -1 unavailable */
   /* estimated volume of the solutes (volume.c) and mass of those of unknown volume */
   double solute_L, unknown_g;
+  /* the last reagent added, by the name it was given: a titration or a
+  ** loop adds one reagent over and over (solution.c) */
+  char rg_name[32];
+  int rg_index;
+  unsigned rg_gen;
   const eqpi_reagent *vol_r;   /* the last reagent's volume, cached */
   unsigned vol_gen;
   double vol_L;
