@@ -165,7 +165,8 @@ int eqpi_solution_equilibrate_from(eqp_solution *s, int *kp, int follow, eqp_res
     st.replaced = k > 0 && s->model_default ? s->model.desc : NULL;
     *kp = k;
     if (stout) *stout = st;
-    rc = eqpi_result_make(ctx, s->db, s->sys, model, s->T, s->water_kg * wfrac, &st, out);
+    rc = eqpi_result_make(ctx, s->db, s->sys, model, s->T, s->water_kg * wfrac, &st,
+                          any || s->head != NULL, out);
     if (rc == EQP_OK && amt &&
         (rc = eqpi_result_set_solids(*out, amt, s->db->nsolids, s->water_kg)) < 0) {
       eqp_result_free(*out);

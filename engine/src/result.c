@@ -25,6 +25,12 @@ struct eqp_result {
   const char *model;
   int nwarn;
   const char **warn;            /* nwarn, into the end of the block */
+  struct phases *ph;            /* in the block when the solve could have them, else NULL */
+};
+
+/* Solids present and a closed headspace: most results have neither, and
+** without this part a result is less than half the size. */
+typedef struct phases {
   int nsolid;                   /* solids present (precipitate.c) */
   int solid_k[EQPI_MAX_SOLIDS_PRESENT];
   double solid_mol[EQPI_MAX_SOLIDS_PRESENT];
@@ -32,7 +38,10 @@ struct eqp_result {
   double head_L, head_pw;
   int gas_k[MAX_GASES];
   double gas_p[MAX_GASES], gas_mol[MAX_GASES];
-};
+} phases;
+
+static const phases no_phases;
+#define PH(r) ((r)->ph ? (r)->ph : &no_phases)
 
 /* The warnings of a state are written twice: once to size the result's
 ** block, once into it (few results have any). */
@@ -164,7 +173,7 @@ void eqpi_result_spare_free(eqp_ctx *ctx)
 
 int eqpi_result_make(eqp_ctx *ctx, const eqpi_db *db, const eqpi_system *sys,
                      const eqpi_model *model, double T, double water_kg,
-                     const eqpi_solve_stats *st, eqp_result **out)
+                     const eqpi_solve_stats *st, int with_phases, eqp_result **out)
 {
   int ns = eqpi_system_nspecies(sys), ndb = db->nsp;
   double I = eqpi_system_ionic_strength(sys);
@@ -184,8 +193,9 @@ int eqpi_result_make(eqp_ctx *ctx, const eqpi_db *db, const eqpi_system *sys,
   wlist w = {0, 0, NULL, NULL};
   eqpi_state_warnings(model, I, T, water_kg, st, gather, &w);
   supersaturation_notes(db, tab, si, T, gather, &w);
-  size_t fixed = sizeof(eqp_result) + sizeof(double) * (size_t)(2 * ns) +
-                 sizeof(const char *) * (size_t)w.n + sizeof(int) * (size_t)ns + 16;
+  size_t fixed = sizeof(eqp_result) + (with_phases ? sizeof(phases) : 0) +
+                 sizeof(double) * (size_t)(2 * ns) + sizeof(const char *) * (size_t)w.n +
+                 sizeof(int) * (size_t)ns + 16;
   size_t bytes = fixed + w.bytes;
   eqp_result *r = result_alloc(ctx, &bytes);
   if (!r) {
@@ -197,7 +207,8 @@ int eqpi_result_make(eqp_ctx *ctx, const eqpi_db *db, const eqpi_system *sys,
   r->bytes = bytes;
   r->ns = ns;
   r->ndb = ndb;
-  r->m = (double *)(r + 1);
+  r->ph = with_phases ? (phases *)(r + 1) : NULL;
+  r->m = (double *)((char *)(r + 1) + (with_phases ? sizeof(phases) : 0));
   r->lg = r->m + ns;
   r->warn = (const char **)(r->lg + ns);
   r->sp = (int *)(r->warn + w.n);
@@ -219,8 +230,7 @@ int eqpi_result_make(eqp_ctx *ctx, const eqpi_db *db, const eqpi_system *sys,
   r->rho = tab->T == T ? tab->rho : eqpi_water_density(T);
   r->residual = st->residual;
   r->iters = st->iterations;
-  r->nsolid = 0;
-  r->sealed = r->ngas = 0;
+  if (r->ph) memset(r->ph, 0, sizeof *r->ph);
   r->model = model->desc->name;
   r->nwarn = w.n;
   if (w.n) {
@@ -263,6 +273,7 @@ int eqp_result_copy(const eqp_result *r, eqp_result **out)
   c->lg = (double *)((char *)r->lg + d);
   c->sp = (int *)((char *)r->sp + d);
   c->warn = (const char **)((char *)r->warn + d);
+  if (r->ph) c->ph = (phases *)((char *)r->ph + d);
   for (int i = 0; i < c->nwarn; i++) c->warn[i] = r->warn[i] + d;
   *out = c;
   return EQP_OK;
@@ -391,14 +402,16 @@ int eqp_result_saturation(const eqp_result *r, const char *solid, double *si)
 
 int eqpi_result_set_solids(eqp_result *r, const double *amounts, int n, double water_kg)
 {
-  r->nsolid = 0;
+  phases *ph = r->ph;
+  if (!ph) return eqpi_fail(r->ctx, EQP_E_ARG, "a result made without room for solids");
+  ph->nsolid = 0;
   for (int k = 0; k < n; k++) {
     if (!(amounts[k] > 0)) continue;
-    if (r->nsolid >= EQPI_MAX_SOLIDS_PRESENT)
+    if (ph->nsolid >= EQPI_MAX_SOLIDS_PRESENT)
       return eqpi_fail(r->ctx, EQP_E_INPUT, "more than %d solids at once",
                        EQPI_MAX_SOLIDS_PRESENT);
-    r->solid_k[r->nsolid] = k;
-    r->solid_mol[r->nsolid++] = amounts[k] * water_kg;
+    ph->solid_k[ph->nsolid] = k;
+    ph->solid_mol[ph->nsolid++] = amounts[k] * water_kg;
   }
   return EQP_OK;
 }
@@ -410,37 +423,40 @@ int eqp_result_solid(const eqp_result *r, const char *solid, double *mol)
   int k = find_solid(r, solid);
   if (k < 0) return k;
   *mol = 0;
-  for (int q = 0; q < r->nsolid; q++)
-    if (r->solid_k[q] == k) *mol = r->solid_mol[q];
+  const phases *ph = PH(r);
+  for (int q = 0; q < ph->nsolid; q++)
+    if (ph->solid_k[q] == k) *mol = ph->solid_mol[q];
   return EQP_OK;
 }
 
-size_t eqp_result_solid_count(const eqp_result *r) { return r ? (size_t)r->nsolid : 0; }
+size_t eqp_result_solid_count(const eqp_result *r) { return r ? (size_t)PH(r)->nsolid : 0; }
 
 const char *eqp_result_solid_name(const eqp_result *r, size_t i, double *mol)
 {
-  if (!r || i >= (size_t)r->nsolid) return NULL;
-  if (mol) *mol = r->solid_mol[i];
-  return r->db->solids[r->solid_k[i]].name;
+  if (!r || i >= (size_t)PH(r)->nsolid) return NULL;
+  if (mol) *mol = r->ph->solid_mol[i];
+  return r->db->solids[r->ph->solid_k[i]].name;
 }
 
 int eqpi_result_set_gases(eqp_result *r, double litres, double p_water, int n,
                           const unsigned char *on, const double *p, const double *mol,
                           const char *note)
 {
+  phases *ph = r->ph;
+  if (!ph) return eqpi_fail(r->ctx, EQP_E_ARG, "a result made without room for gases");
   if (note) eqpi_warn(r->ctx, "temperature", note);
-  r->sealed = 1;
-  r->head_L = litres;
-  r->head_pw = p_water;
-  r->ngas = 0;
+  ph->sealed = 1;
+  ph->head_L = litres;
+  ph->head_pw = p_water;
+  ph->ngas = 0;
   double total = p_water;
   for (int g = 0; g < n; g++) {
     if (!on[g]) continue;
-    if (r->ngas >= MAX_GASES)
+    if (ph->ngas >= MAX_GASES)
       return eqpi_fail(r->ctx, EQP_E_INPUT, "more than %d gases in a headspace", MAX_GASES);
-    r->gas_k[r->ngas] = g;
-    r->gas_p[r->ngas] = p[g];
-    r->gas_mol[r->ngas++] = mol[g];
+    ph->gas_k[ph->ngas] = g;
+    ph->gas_p[ph->ngas] = p[g];
+    ph->gas_mol[ph->ngas++] = mol[g];
     total += p[g];
   }
   if (total > P_WARN) {
@@ -459,12 +475,13 @@ int eqp_result_headspace(const eqp_result *r, double *litres, double *p_total_at
                          double *p_water_atm)
 {
   if (!r) return EQP_E_ARG;
-  if (!r->sealed) return 0;
-  double total = r->head_pw;
-  for (int q = 0; q < r->ngas; q++) total += r->gas_p[q];
-  if (litres) *litres = r->head_L;
+  const phases *ph = PH(r);
+  if (!ph->sealed) return 0;
+  double total = ph->head_pw;
+  for (int q = 0; q < ph->ngas; q++) total += ph->gas_p[q];
+  if (litres) *litres = ph->head_L;
   if (p_total_atm) *p_total_atm = total;
-  if (p_water_atm) *p_water_atm = r->head_pw;
+  if (p_water_atm) *p_water_atm = ph->head_pw;
   return 1;
 }
 
@@ -481,21 +498,22 @@ int eqp_result_gas(const eqp_result *r, const char *gas, double *p_atm, double *
                      r->db->ngases ? list : "none");
   }
   double pv = 0, nv = 0;
-  for (int q = 0; q < r->ngas; q++)
-    if (r->gas_k[q] == g) { pv = r->gas_p[q]; nv = r->gas_mol[q]; }
+  const phases *ph = PH(r);
+  for (int q = 0; q < ph->ngas; q++)
+    if (ph->gas_k[q] == g) { pv = ph->gas_p[q]; nv = ph->gas_mol[q]; }
   if (p_atm) *p_atm = pv;
   if (mol) *mol = nv;
   return EQP_OK;
 }
 
-size_t eqp_result_gas_count(const eqp_result *r) { return r ? (size_t)r->ngas : 0; }
+size_t eqp_result_gas_count(const eqp_result *r) { return r ? (size_t)PH(r)->ngas : 0; }
 
 const char *eqp_result_gas_name(const eqp_result *r, size_t i, double *p_atm, double *mol)
 {
-  if (!r || i >= (size_t)r->ngas) return NULL;
-  if (p_atm) *p_atm = r->gas_p[i];
-  if (mol) *mol = r->gas_mol[i];
-  return r->db->gases[r->gas_k[i]].name;
+  if (!r || i >= (size_t)PH(r)->ngas) return NULL;
+  if (p_atm) *p_atm = r->ph->gas_p[i];
+  if (mol) *mol = r->ph->gas_mol[i];
+  return r->db->gases[r->ph->gas_k[i]].name;
 }
 
 size_t eqp_ctx_solid_count(const eqp_ctx *ctx) { return ctx ? (size_t)ctx->db->nsolids : 0; }

@@ -5,10 +5,12 @@
 
 #include "eqp_impl.h"
 
-/* A result of the solved system sys, made with library db (which it holds). */
+/* A result of the solved system sys, made with library db (which it holds);
+** with_phases: with room for the solids present and a headspace (the
+** solve allowed solids or the vessel is sealed). */
 int eqpi_result_make(eqp_ctx *ctx, const eqpi_db *db, const eqpi_system *sys,
                      const eqpi_model *model, double T, double water_kg,
-                     const eqpi_solve_stats *st, eqp_result **out);
+                     const eqpi_solve_stats *st, int with_phases, eqp_result **out);
 
 const eqpi_db *eqpi_result_library(const eqp_result *r);
 
