@@ -8,6 +8,8 @@
 #include <stdarg.h>
 #include <stdbool.h>
 #include <stddef.h>
+#include <stdint.h>
+#include <string.h>
 
 #define EQPI_ERRLEN 2048
 #define EQPI_LN10 2.302585092994045684
@@ -587,6 +589,24 @@ static inline bool eqpi_log_on(const eqp_ctx *ctx, int level)
 {
   return ctx && level <= ctx->log_level;
 }
+/* Short vectors of the solver (a few unknowns): copied and compared in
+** line, without a call into the C library for a handful of doubles. */
+static inline void eqpi_vcopy(double *restrict dst, const double *restrict src, int n)
+{
+  for (int i = 0; i < n; i++) dst[i] = src[i];
+}
+/* Whether a and b hold the same bits (memcmp's equality: -0 is not 0). */
+static inline bool eqpi_vsame(const double *a, const double *b, int n)
+{
+  for (int i = 0; i < n; i++) {
+    uint64_t x, y;
+    memcpy(&x, &a[i], sizeof x);
+    memcpy(&y, &b[i], sizeof y);
+    if (x != y) return false;
+  }
+  return true;
+}
+
 /* One line (no newline) to the context's log at level (EQP_LOG_*); nothing
 ** when no callback takes that level. Lines longer than 1 KiB are cut. */
 void eqpi_log(eqp_ctx *ctx, int level, const char *fmt, ...) EQPI_PRINTF(3, 4);

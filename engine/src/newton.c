@@ -38,8 +38,8 @@ static int kin_f(N_Vector uu, N_Vector fval, void *ud)
   double *F = NV_DATA_S(fval);
   const double *u = NV_DATA_S(uu);
   int rc;
-  if (P->at_ok && memcmp(P->u_at, u, sizeof(double) * (size_t)ws->n) == 0) {
-    memcpy(F, P->F, sizeof(double) * (size_t)ws->n);   /* the start, evaluated already */
+  if (P->at_ok && eqpi_vsame(P->u_at, u, ws->n)) {
+    eqpi_vcopy(F, P->F, ws->n);   /* the start, evaluated already */
     rc = 0;
   } else {
     rc = eqpi_problem_eval(P, u, F);
@@ -70,7 +70,7 @@ static int kin_jtimes(N_Vector v, N_Vector Jv, N_Vector uu, sunbooleantype *new_
   const int n = ws->n;
   const double *x = NV_DATA_S(v), *u = NV_DATA_S(uu);
   double *y = NV_DATA_S(Jv);
-  if (!ws->jac_ok || memcmp(ws->uj, u, sizeof(double) * (size_t)n) != 0)
+  if (!ws->jac_ok || !eqpi_vsame(ws->uj, u, n))
     if (eqpi_newton_factor(ws, ws->P, u) == -1) return -1;
   *new_uu = SUNFALSE;
   memset(y, 0, sizeof(double) * (size_t)n);
@@ -208,8 +208,8 @@ int eqpi_newton_factor(eqpi_newton *ws, eqpi_problem *P, const double *u)
   ws->jac_ok = 0;
   if (eqpi_problem_at(P, u) < 0) return -1;
   if (eqpi_problem_jacobian(P, ws->J, &ws->jac_exact) < 0) return -1;
-  memcpy(ws->Jlu, ws->J, sizeof(double) * (size_t)n * (size_t)n);
-  memcpy(ws->uj, u, sizeof(double) * (size_t)n);
+  eqpi_vcopy(ws->Jlu, ws->J, n * n);
+  eqpi_vcopy(ws->uj, u, n);
   if (SUNDlsMat_denseGETRF(ws->cols, n, n, ws->piv) != 0) return -2;
   ws->jac_ok = 1;
   return 0;
@@ -230,7 +230,7 @@ static int run(eqpi_newton *ws, eqpi_problem *P, const double *u0, int maxiter, 
   ws->P = P;
   ws->kin_err[0] = '\0';
   ws->last_linear = 0;
-  memcpy(uu, u0, sizeof(double) * (size_t)n);
+  eqpi_vcopy(uu, u0, n);
   int analytic = P->derivs != EQPI_DERIV_NONE || P->lambda == 0;
   if (analytic != ws->jv_analytic) {
     KINSetJacTimesVecFn(ws->kmem, analytic ? kin_jtimes : NULL);

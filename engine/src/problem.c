@@ -371,15 +371,15 @@ int eqpi_problem_eval(eqpi_problem *P, const double *u, double *F)
   P->I = I;
   P->Ic = Ic;
   rows(P, u, F);
-  memcpy(P->u_at, u, sizeof(double) * (size_t)n);
-  if (F != P->F) memcpy(P->F, F, sizeof(double) * (size_t)n);
+  eqpi_vcopy(P->u_at, u, n);
+  if (F != P->F) eqpi_vcopy(P->F, F, n);
   P->at_ok = 1;
   return 0;
 }
 
 int eqpi_problem_at(eqpi_problem *P, const double *u)
 {
-  if (P->at_ok && memcmp(P->u_at, u, sizeof(double) * (size_t)P->n) == 0) return 0;
+  if (P->at_ok && eqpi_vsame(P->u_at, u, P->n)) return 0;
   return eqpi_problem_eval(P, u, P->F);
 }
 
@@ -442,7 +442,7 @@ double eqpi_problem_verify(eqpi_problem *P, const double *u, int *worst)
 {
   const eqpi_tableau *t = P->tab;
   double lam = P->lambda;
-  int fresh = !(lam == 1 && P->at_ok && memcmp(P->u_at, u, sizeof(double) * (size_t)P->n) == 0);
+  int fresh = !(lam == 1 && P->at_ok && eqpi_vsame(P->u_at, u, P->n));
   P->lambda = 1;
   double w = INFINITY;
   *worst = -1;

@@ -281,7 +281,7 @@ static double warm_start(eqpi_system *s, double *u)
   eqpi_problem *P = s->prob;
   const eqpi_tableau *t = s->tab;
   const int n = P->n, nx = P->nx, h = t->hloc;
-  memcpy(u, s->u_last, sizeof(double) * (size_t)n);
+  eqpi_vcopy(u, s->u_last, n);
   int moved = 0;
   if (s->lu_near_last && s->ws->jac_ok) {
     double *b = s->work, Ic = s->S_last[n - 1], big = 0;
@@ -472,9 +472,9 @@ int eqpi_system_solve_prepared(eqp_ctx *ctx, eqpi_system *s, eqpi_solve_stats *s
                      eqpi_newton_flag_name(flag, fname, sizeof fname), iters);
     goto out;
   }
-  memcpy(s->u_last, ufin, sizeof(double) * (size_t)n);
-  memcpy(s->tot_last, P->tot, sizeof(double) * (size_t)s->tab->nc);
-  memcpy(s->S_last, P->S, sizeof(double) * (size_t)n);
+  eqpi_vcopy(s->u_last, ufin, n);
+  eqpi_vcopy(s->tot_last, P->tot, s->tab->nc);
+  eqpi_vcopy(s->S_last, P->S, n);
   s->S_last[n - 1] = P->Ic;     /* the ionic strength row keeps the computed I */
   s->solved = true;
   s->lu_near_last = s->ws->jac_ok && s->ws->n == n;
