@@ -26,6 +26,7 @@ struct eqp_result {
   int nwarn;
   const char **warn;            /* nwarn, into the end of the block */
   struct phases *ph;            /* in the block when the solve could have them, else NULL */
+  int placed;                   /* the block is its holder's memory (eqpi_result_place) */
 };
 
 /* Solids present and a closed headspace: most results have neither, and
@@ -207,6 +208,7 @@ int eqpi_result_make(eqp_ctx *ctx, const eqpi_db *db, const eqpi_system *sys,
   r->bytes = bytes;
   r->ns = ns;
   r->ndb = ndb;
+  r->placed = 0;
   r->ph = with_phases ? (phases *)(r + 1) : NULL;
   r->m = (double *)((char *)(r + 1) + (with_phases ? sizeof(phases) : 0));
   r->lg = r->m + ns;
@@ -246,11 +248,9 @@ int eqpi_result_make(eqp_ctx *ctx, const eqpi_db *db, const eqpi_system *sys,
   return EQP_OK;
 }
 
-void eqp_result_free(eqp_result *r)
+/* The block back to the context: kept for the next result, or freed. */
+static void block_free(eqp_ctx *ctx, eqp_result *r)
 {
-  if (!r) return;
-  eqpi_db_release(r->db);
-  eqp_ctx *ctx = r->ctx;
   if (!ctx->spare_result && r->bytes <= SPARE_MAX) {
     ctx->spare_result = r;
     ctx->spare_bytes = r->bytes;
@@ -259,24 +259,48 @@ void eqp_result_free(eqp_result *r)
   }
 }
 
-/* One block: copied whole, its pointers moved to the copy. */
+void eqp_result_free(eqp_result *r)
+{
+  if (!r) return;
+  eqpi_db_release(r->db);
+  if (!r->placed) block_free(r->ctx, r);
+}
+
+/* r's block copied whole to c, its pointers moved to the copy. */
+static void relocate(eqp_result *c, const eqp_result *r)
+{
+  memcpy(c, r, r->bytes);
+  ptrdiff_t d = (char *)c - (const char *)r;
+  c->m = (double *)((char *)r->m + d);
+  c->lg = (double *)((char *)r->lg + d);
+  c->sp = (int *)((char *)r->sp + d);
+  c->warn = (const char **)((char *)r->warn + d);
+  for (int i = 0; i < c->nwarn; i++) c->warn[i] = r->warn[i] + d;
+  if (r->ph) c->ph = (struct phases *)((char *)r->ph + d);
+}
+
 int eqp_result_copy(const eqp_result *r, eqp_result **out)
 {
   if (!r || !out) return EQP_E_ARG;
   *out = NULL;
   eqp_result *c = eqpi_malloc(r->ctx, r->bytes);
   if (!c) return eqpi_fail(r->ctx, EQP_E_NOMEM, "out of memory");
-  memcpy(c, r, r->bytes);
+  relocate(c, r);
+  c->placed = 0;
   c->db = eqpi_db_ref(r->db);       /* the copy holds the library too */
-  ptrdiff_t d = (char *)c - (const char *)r;
-  c->m = (double *)((char *)r->m + d);
-  c->lg = (double *)((char *)r->lg + d);
-  c->sp = (int *)((char *)r->sp + d);
-  c->warn = (const char **)((char *)r->warn + d);
-  if (r->ph) c->ph = (phases *)((char *)r->ph + d);
-  for (int i = 0; i < c->nwarn; i++) c->warn[i] = r->warn[i] + d;
   *out = c;
   return EQP_OK;
+}
+
+size_t eqpi_result_bytes(const eqp_result *r) { return r->bytes; }
+
+eqp_result *eqpi_result_place(eqp_result *r, void *mem)
+{
+  eqp_result *c = mem;
+  relocate(c, r);
+  c->placed = 1;                    /* the library's reference moves with it */
+  block_free(r->ctx, r);
+  return c;
 }
 
 eqp_ctx *eqpi_result_ctx(const eqp_result *r) { return r->ctx; }

@@ -14,6 +14,14 @@ int eqpi_result_make(eqp_ctx *ctx, const eqpi_db *db, const eqpi_system *sys,
 
 const eqpi_db *eqpi_result_library(const eqp_result *r);
 
+/* A result moved into memory its holder owns (eqpi_result_bytes of it,
+** aligned for a double), as a Lua host does with its userdata so that a
+** result is one object for the collector: r's block goes back to the
+** context; the copy keeps r's reference to its library, which
+** eqp_result_free gives back, leaving the memory to its holder. */
+size_t eqpi_result_bytes(const eqp_result *r);
+eqp_result *eqpi_result_place(eqp_result *r, void *mem);
+
 /* The context a result belongs to. */
 eqp_ctx *eqpi_result_ctx(const eqp_result *r);
 

@@ -1,6 +1,7 @@
 /* Lua binding of eqp_result: r.pH, r.ionic_strength, r:molality(sp), ... */
 /* SPDX-License-Identifier: MIT */
 #include "lua_impl.h"
+#include "../result_impl.h"
 #include <math.h>
 #include <stdio.h>
 #include <stdlib.h>
@@ -13,10 +14,13 @@ static eqp_result *check_result(lua_State *L, int idx)
   return u->r;
 }
 
+/* The result moves into its handle's memory: one object for the collector,
+** which sees its true size, and the engine's block is reused by the next. */
 void eqpl_push_result(lua_State *L, eqp_result *r)
 {
-  eqpl_result *u = eqpl_new_handle(L, sizeof *u, EQPL_K_RESULT);
-  u->r = r;
+  const size_t at = (sizeof(eqpl_result) + 15) / 16 * 16;
+  eqpl_result *u = eqpl_new_handle(L, at + eqpi_result_bytes(r), EQPL_K_RESULT);
+  u->r = eqpi_result_place(r, (char *)u + at);
 }
 
 typedef int (*per_species_fn)(const eqp_result *, const char *, double *);
