@@ -261,9 +261,9 @@ static void block_free(eqp_ctx *ctx, eqp_result *r)
 
 void eqp_result_free(eqp_result *r)
 {
-  if (!r) return;
+  if (!r || r->placed) return;     /* a placed result is its holder's, library and all */
   eqpi_db_release(r->db);
-  if (!r->placed) block_free(r->ctx, r);
+  block_free(r->ctx, r);
 }
 
 /* r's block copied whole to c, its pointers moved to the copy. */
@@ -298,7 +298,8 @@ eqp_result *eqpi_result_place(eqp_result *r, void *mem)
 {
   eqp_result *c = mem;
   relocate(c, r);
-  c->placed = 1;                    /* the library's reference moves with it */
+  c->placed = 1;
+  eqpi_db_release(r->db);           /* the holder keeps the library now */
   block_free(r->ctx, r);
   return c;
 }

@@ -16,9 +16,10 @@ const eqpi_db *eqpi_result_library(const eqp_result *r);
 
 /* A result moved into memory its holder owns (eqpi_result_bytes of it,
 ** aligned for a double), as a Lua host does with its userdata so that a
-** result is one object for the collector: r's block goes back to the
-** context; the copy keeps r's reference to its library, which
-** eqp_result_free gives back, leaving the memory to its holder. */
+** result is plain memory for the collector: r's block goes back to the
+** context and r's reference to its library is given back, so the holder
+** must keep that library (eqpi_result_library of r) alive while the copy
+** lives, and the context too. eqp_result_free of the copy does nothing. */
 size_t eqpi_result_bytes(const eqp_result *r);
 eqp_result *eqpi_result_place(eqp_result *r, void *mem);
 

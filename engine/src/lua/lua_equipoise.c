@@ -11,9 +11,14 @@ const char *const eqpl_handle_name[EQPL_K_N] = {EQPL_SOLUTION, EQPL_RESULT, EQPL
 
 void *eqpl_new_handle(lua_State *L, size_t size, int kind)
 {
+  return eqpl_new_handle_uv(L, size, kind, 1);
+}
+
+void *eqpl_new_handle_uv(lua_State *L, size_t size, int kind, int nuv)
+{
   eqpl_ctx *c = lua_touserdata(L, lua_upvalueindex(1));
   if (c) eqpl_account(L, c);    /* a new object: the engine has likely grown */
-  void *u = lua_newuserdatauv(L, size, 1);
+  void *u = lua_newuserdatauv(L, size, nuv);
   memset(u, 0, size);
   if (c && c->meta[kind]) {
     lua_getiuservalue(L, lua_upvalueindex(1), kind + 1);
@@ -298,7 +303,7 @@ int eqp_lua_open(lua_State *L)
   /* one context per Lua state, shared by every require */
   if (lua_getfield(L, LUA_REGISTRYINDEX, "equipoise.module") == LUA_TTABLE) return 1;
   lua_pop(L, 1);
-  eqpl_ctx *c = lua_newuserdatauv(L, sizeof *c, EQPL_K_N);
+  eqpl_ctx *c = lua_newuserdatauv(L, sizeof *c, EQPL_UV_HOLDER);
   memset(c, 0, sizeof *c);
   if (luaL_newmetatable(L, EQPL_CTX)) {
     lua_pushcfunction(L, ctx_gc);

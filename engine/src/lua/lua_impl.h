@@ -34,7 +34,11 @@ typedef struct eqpl_ctx {
   void *alloc_ud;
   long long grown;            /* bytes the engine took since the collector was told */
   const void *meta[EQPL_K_N]; /* NULL until the module has made them all */
+  const void *held_lib;       /* the library of the holder in user value EQPL_UV_HOLDER */
 } eqpl_ctx;
+/* The context's user values: the metatables (1 .. EQPL_K_N), then a holder
+** of the library results were last made with (lua_result.c). */
+#define EQPL_UV_HOLDER (EQPL_K_N + 1)
 typedef struct eqpl_solution { eqp_solution *s; } eqpl_solution;
 typedef struct eqpl_result { eqp_result *r; } eqpl_result;
 typedef struct eqpl_curve { eqp_curve *c; } eqpl_curve;
@@ -57,6 +61,8 @@ void eqpl_account(lua_State *L, eqpl_ctx *c);
 ** context outlives it. The handle exists before the C object it will hold,
 ** so a failure in between leaves a closed handle, never a dangling one. */
 void *eqpl_new_handle(lua_State *L, size_t size, int kind);
+/* The same with nuv user values (the first is the context). */
+void *eqpl_new_handle_uv(lua_State *L, size_t size, int kind, int nuv);
 /* The handle of kind at idx: what luaL_testudata (luaL_checkudata, with its
 ** message) gives for the kind's name, found through the context when the
 ** running binding has it as upvalue 1. */

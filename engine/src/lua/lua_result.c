@@ -14,12 +14,28 @@ static eqp_result *check_result(lua_State *L, int idx)
   return u->r;
 }
 
-/* The result moves into its handle's memory: one object for the collector,
-** which sees its true size, and the engine's block is reused by the next. */
+/* The result moves into its handle's memory, and the handle's second user
+** value is a holder of its library (the context keeps the last one made):
+** a result is then plain memory that the collector frees without a
+** finalizer, seeing its true size, and the engine's block is reused by the
+** next result. */
 void eqpl_push_result(lua_State *L, eqp_result *r)
 {
+  eqpl_ctx *c = lua_touserdata(L, lua_upvalueindex(1));
+  if (!c || !c->ctx) {
+    eqp_result_free(r);
+    luaL_error(L, "equipoise: context is closed");
+  }
   const size_t at = (sizeof(eqpl_result) + 15) / 16 * 16;
-  eqpl_result *u = eqpl_new_handle(L, at + eqpi_result_bytes(r), EQPL_K_RESULT);
+  eqpl_result *u = eqpl_new_handle_uv(L, at + eqpi_result_bytes(r), EQPL_K_RESULT, 2);
+  const eqp_library *lib = eqpi_result_library(r);
+  if (c->held_lib != lib) {
+    eqpl_push_library(L, lib);
+    lua_setiuservalue(L, lua_upvalueindex(1), EQPL_UV_HOLDER);
+    c->held_lib = lib;
+  }
+  lua_getiuservalue(L, lua_upvalueindex(1), EQPL_UV_HOLDER);
+  lua_setiuservalue(L, -2, 2);
   u->r = eqpi_result_place(r, (char *)u + at);
 }
 
@@ -196,16 +212,8 @@ static int result_index(lua_State *L)
   return 1;
 }
 
-static int result_close(lua_State *L)
-{
-  eqpl_result *u = eqpl_check_handle(L, 1, EQPL_K_RESULT);
-  eqp_result_free(u->r);
-  u->r = NULL;
-  return 0;
-}
-
+/* No __gc: a result is plain memory (eqpl_push_result). */
 static const luaL_Reg result_meta[] = {
-  {"__gc", result_close},
   {"__tostring", result_tostring},
   {NULL, NULL},
 };
