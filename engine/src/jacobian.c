@@ -56,6 +56,10 @@ static int gamma_slope(eqpi_problem *P)
   return 0;
 }
 
+static void direction_rows(const eqpi_problem *P, const double *dl, double dlnI, const double *dT,
+                           const double *dlng, const double *dlngc, const double *dlnm,
+                           double dIc, double *col);
+
 /* The derivative of every row along a direction of the state: dl (d ln
 ** free molality per component; NULL when none moves), dlnI, and dT (d
 ** total per component, NULL when the totals stay). Column of n entries
@@ -64,7 +68,7 @@ static int direction(eqpi_problem *P, const double *dl, double dlnI, const doubl
                      double *col)
 {
   const eqpi_tableau *t = P->tab;
-  const int nc = t->nc, ns = t->ns, nx = P->nx, n = P->n, h = t->hloc;
+  const int nc = t->nc, ns = t->ns;
   double *ds0 = P->w_ns[0], *dlng = P->w_ns[1], *dlnm = P->w_ns[2], *dmid = P->w_ns[3];
   double *dlngc = P->w_nc[0];
   int moves = 0;
@@ -93,6 +97,37 @@ static int direction(eqpi_problem *P, const double *dl, double dlnI, const doubl
     dlnm[i] = s * P->m[i];          /* from here on: d m_i */
     dIc += 0.5 * t->z2[i] * dlnm[i];
   }
+  direction_rows(P, dl, dlnI, dT, dlng, dlngc, dlnm, dIc, col);
+  return 0;
+}
+
+/* The ln I column, direction's case with no component and no total moving
+** (dl, dT NULL, dlnI 1: d ln m = -d ln g + sum nu d ln g_c), without its
+** passes that would only add zeros: the same arithmetic. */
+static void lnI_column(eqpi_problem *P, double *col)
+{
+  const eqpi_tableau *t = P->tab;
+  const int nc = t->nc, ns = t->ns;
+  const double *dlng = P->dlng;
+  double *dlnm = P->w_ns[2], *dlngc = P->w_nc[0];
+  for (int c = 0; c < nc; c++) dlngc[c] = dlng[t->comp_sp[c]];
+  double dIc = 0;
+  for (int i = 0; i < ns; i++) {
+    double s = -dlng[i];
+    for (int k = t->row[i]; k < t->row[i + 1]; k++) s += t->nu[k] * dlngc[t->cmp[k]];
+    dlnm[i] = s * P->m[i];
+    dIc += 0.5 * t->z2[i] * dlnm[i];
+  }
+  direction_rows(P, NULL, 1.0, NULL, dlng, dlngc, dlnm, dIc, col);
+}
+
+/* The rows' derivatives from the species' (dlnm: d m_i) along a direction. */
+static void direction_rows(const eqpi_problem *P, const double *dl, double dlnI, const double *dT,
+                           const double *dlng, const double *dlngc, const double *dlnm,
+                           double dIc, double *col)
+{
+  const eqpi_tableau *t = P->tab;
+  const int nc = t->nc, ns = t->ns, nx = P->nx, n = P->n, h = t->hloc;
   for (int k = 0; k < nx; k++) {
     int c = P->xcomp[k];
     double a = 0, b = 0;
@@ -135,7 +170,6 @@ static int direction(eqpi_problem *P, const double *dl, double dlnI, const doubl
     col[nx + k] = s;
   }
   col[n - 1] = dIc / (P->Ic > TINY ? P->Ic : TINY) - dlnI;
-  return 0;
 }
 
 /* The component columns for a model of I alone: species by species, over
@@ -217,5 +251,6 @@ int eqpi_problem_jacobian(eqpi_problem *P, double *J, int *exact)
   for (int k = 0; k < P->na; k++)
     if (amount_column(P, k, J + (size_t)(nx + k) * n) < 0) return -1;
   /* the ln I column: no component moves */
-  return direction(P, NULL, 1.0, NULL, J + (size_t)(n - 1) * n);
+  lnI_column(P, J + (size_t)(n - 1) * n);
+  return 0;
 }

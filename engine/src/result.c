@@ -214,11 +214,10 @@ int eqpi_result_make(eqp_ctx *ctx, const eqpi_db *db, const eqpi_system *sys,
   r->lg = r->m + ns;
   r->warn = (const char **)(r->lg + ns);
   r->sp = (int *)(r->warn + w.n);
-  int h = -1;
-  for (int i = 0; i < ns; i++) {
-    r->sp[i] = eqpi_system_species(sys, i, &r->m[i], &r->lg[i]);   /* ascending */
-    if (r->sp[i] == db->h_plus) h = i;
-  }
+  memcpy(r->m, sys->prob->m, sizeof(double) * (size_t)ns);
+  memcpy(r->lg, sys->prob->lg, sizeof(double) * (size_t)ns);
+  memcpy(r->sp, tab->sp, sizeof(int) * (size_t)ns);        /* ascending */
+  int h = tab->hloc >= 0 ? tab->comp_sp[tab->hloc] : -1;     /* H+ is a component */
   r->pH = h >= 0 ? -(log10(r->m[h]) + r->lg[h]) : NAN;
   r->I = I;
   if (!isfinite(r->pH)) {
