@@ -128,6 +128,7 @@ static int kinsol_setup(eqpi_newton *ws, double *udata, double *sdata)
   KINSetMaxSetupCalls(ws->kmem, 1);
   KINSetEtaConstValue(ws->kmem, 1e-4);
   KINSetNumMaxIters(ws->kmem, 200);
+  ws->maxiter = 200;
   KINSetFuncNormTol(ws->kmem, EQPI_FNORM_TOL);
   KINSetScaledStepTol(ws->kmem, 1e-15);
   /* a log-variable step of more than ~10 per unknown only overshoots */
@@ -229,7 +230,6 @@ static int run(eqpi_newton *ws, eqpi_problem *P, const double *u0, int maxiter, 
   double *uu = NV_DATA_S(ws->u);
   ws->P = P;
   ws->kin_err[0] = '\0';
-  ws->last_linear = 0;
   eqpi_vcopy(uu, u0, n);
   int analytic = P->derivs != EQPI_DERIV_NONE || P->lambda == 0;
   if (analytic != ws->jv_analytic) {
@@ -241,7 +241,10 @@ static int run(eqpi_newton *ws, eqpi_problem *P, const double *u0, int maxiter, 
     KINSetEtaForm(ws->kmem, analytic ? KIN_ETACONSTANT : KIN_ETACHOICE1);
     ws->jv_analytic = analytic;
   }
-  KINSetNumMaxIters(ws->kmem, maxiter);
+  if (maxiter != ws->maxiter) {        /* a setter of KINSOL's costs a call chain */
+    KINSetNumMaxIters(ws->kmem, maxiter);
+    ws->maxiter = maxiter;
+  }
   /* the proton reference for this run, from the state at u0; an already
   ** converged start (a repeated solve) would make KINSOL's line search fail
   ** to find a distinct iterate: accept it as it is */
@@ -263,19 +266,19 @@ static int run(eqpi_newton *ws, eqpi_problem *P, const double *u0, int maxiter, 
   if (flag >= 0 && !(uu[n - 1] <= log(EQPI_MAX_MOLALITY))) flag = EQPI_KIN_IMPLAUSIBLE;
   long it = 0;
   KINGetNumNonlinSolvIters(ws->kmem, &it);
-  KINGetNumLinIters(ws->kmem, &ws->last_linear);
   if (eqpi_log_on(ws->ctx, EQP_LOG_TRACE)) {
-    long nfe = 0, nbt = 0;
+    long nfe = 0, nbt = 0, nli = 0;
     double fn = 0;
     char name[64];
+    KINGetNumLinIters(ws->kmem, &nli);
     KINGetNumFuncEvals(ws->kmem, &nfe);
     KINGetNumBacktrackOps(ws->kmem, &nbt);
     KINGetFuncNorm(ws->kmem, &fn);
     eqpi_log(ws->ctx, EQP_LOG_TRACE, "KINSOL lambda %.2f, %d unknowns, %s Jv, %s: %s, %ld "
              "iterations, %ld linear, %ld evaluations, %ld backtracks, |F| %.2e %s", P->lambda,
              n, analytic ? "analytic" : "difference",
-             strategy == KIN_NONE ? "full steps" : "line search", eqpi_newton_flag_name(flag, name, sizeof name), it, ws->last_linear, nfe, nbt, fn,
-             ws->kin_err);
+             strategy == KIN_NONE ? "full steps" : "line search",
+             eqpi_newton_flag_name(flag, name, sizeof name), it, nli, nfe, nbt, fn, ws->kin_err);
   }
   *iters += it;
   return flag;

@@ -37,7 +37,7 @@ typedef struct eqpi_newton {
   int jv_analytic;            /* KINSOL gets J v from J (else difference quotients) */
   eqpi_problem *P;            /* the problem of the present run */
   char kin_err[256];
-  long last_linear;           /* GMRES iterations of the last run */
+  int maxiter;                /* KINSOL's iteration limit as last set */
 } eqpi_newton;
 
 /* A workspace for problems of n unknowns, from the pool or new; NULL with
