@@ -64,6 +64,28 @@ static void tortured(const char *code, const char *needle)
 
 /* ------------------------------------------------------- memory safety */
 
+/* A result lives in its handle's memory with no finalizer and keeps its
+** library through a holder (lua_result.c): a result made from a solution
+** with a library of its own must read that library after the solution,
+** its library and the context's holder of it have all moved on. */
+static void test_result_keeps_its_library(void **state)
+{
+  tortured("local r1\n"
+           "do\n"
+           "  local s = eq.solution{ library = { only = { 'phosphate' } } }\n"
+           "  s:add('KH2PO4', '10 mmol'):add('Na2HPO4', '5 mmol')\n"
+           "  r1 = s:equilibrate()\n"
+           "end\n"
+           "local s2 = eq.solution{}\n"
+           "local r2 = s2:add('NaCl', '1 mmol'):equilibrate()\n"
+           "s2 = nil\n"
+           "collectgarbage() collectgarbage()\n"
+           "local m = r1:molality('H2PO4-')\n"
+           "assert(m > 0 and m < 0.011, 'H2PO4- ' .. tostring(m))\n"
+           "assert(tostring(r1):find('pH'), tostring(r1))\n"
+           "assert(r2:molality('Na+') > 0)\n", NULL);
+}
+
 /* Numbers where names are expected were converted to strings on the stack,
 ** popped, and then used: now they are refused before any conversion. */
 static void test_numbers_as_names(void **state)
@@ -644,6 +666,7 @@ static int teardown(void **state)
 int main(void)
 {
   const struct CMUnitTest tests[] = {
+    cmocka_unit_test(test_result_keeps_its_library),
     cmocka_unit_test(test_numbers_as_names),
     cmocka_unit_test(test_strings_from_index),
     cmocka_unit_test(test_unknown_options),
