@@ -239,6 +239,8 @@ static int run(eqpi_newton *ws, eqpi_problem *P, const double *u0, int maxiter, 
     ** constant one, tight enough that a poorly conditioned step still
     ** gets a second iteration. Otherwise Eisenstat and Walker's choice 1. */
     KINSetEtaForm(ws->kmem, analytic ? KIN_ETACONSTANT : KIN_ETACHOICE1);
+    /* choice 1 leaves its last eta behind in KINSOL: the constant again */
+    if (analytic) KINSetEtaConstValue(ws->kmem, 1e-4);
     ws->jv_analytic = analytic;
   }
   if (maxiter != ws->maxiter) {        /* a setter of KINSOL's costs a call chain */

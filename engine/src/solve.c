@@ -438,6 +438,9 @@ int eqpi_system_solve_prepared(eqp_ctx *ctx, eqpi_system *s, eqpi_solve_stats *s
   if (s->solved) {
     double r0 = warm_start(s, uh);
     if (r0 <= NEAR) flag = eqpi_newton_run_full(s->ws, P, uh, NEAR_ITERS, &iters);
+    /* a model that failed at a full step may hold where the line search
+    ** steps: it gets its chance from the same start */
+    if (flag < 0 && r0 <= NEAR) P->plugin_failed = 0;
     if (flag < 0 && !P->plugin_failed)
       flag = eqpi_newton_run(s->ws, P, uh, WARM_ITERS, &iters);
   }

@@ -175,6 +175,19 @@ check memory_limit_rep 9 "memory limit reached" -- "$EQP" run l_rep.lua --max-me
 snippet l_mem_pcall 'local t = {}
 while true do pcall(function() while true do t[#t + 1] = {} end end) end'
 check memory_limit_pcall 9 "memory limit reached" -- "$EQP" run l_mem_pcall.lua --max-memory 32M
+# the limit reached while a result is being handed to the script: nothing
+# leaks (the sanitizer suite's leak check fails the run otherwise); the
+# allocation that hits it moves with the limit, so three of them
+snippet l_mem_results 'local s = eq.solution{}
+s:add("NaCl", "10 mmol")
+local keep = {}
+for i = 1, 1e9 do
+  s:add("NaCl", "0.001 mmol")
+  keep[i] = s:equilibrate()
+end'
+for cap in 3000000 3300000 3600000; do
+  check "memory_limit_results_$cap" 9 "l_mem_results.lua:6: memory limit reached" -- "$EQP" run l_mem_results.lua --max-memory $cap
+done
 # a limit below the hook's interval of 1000 instructions: a loop of about
 # 400 instructions ran to its end under a limit of 10
 snippet l_short 'local n = 0

@@ -86,6 +86,25 @@ static void test_result_keeps_its_library(void **state)
            "assert(r2:molality('Na+') > 0)\n", NULL);
 }
 
+/* A finalizer that reads a result after the collector finalized the holder
+** of its library (objects are finalized newest first) finds it closed,
+** where it read freed memory before. */
+static void test_result_read_by_a_finalizer(void **state)
+{
+  ok("seen = nil\n"
+     "local keep = setmetatable({}, { __gc = function(t)\n"
+     "  local okk, err = pcall(function() return t.r:molality('Na+') end)\n"
+     "  seen = okk and 'read' or tostring(err)\n"
+     "end })\n"
+     "local s = eq.solution{ library = { only = { 'phosphate' } } }\n"
+     "keep.r = s:add('NaCl', '10 mmol'):equilibrate()\n"
+     "s = nil\n"
+     "local r2 = eq.solution{}:add('NaCl', '1 mmol'):equilibrate()\n"
+     "keep = nil\n"
+     "collectgarbage() collectgarbage()\n"
+     "assert(seen and seen:find('result is closed'), tostring(seen))\n");
+}
+
 /* Numbers where names are expected were converted to strings on the stack,
 ** popped, and then used: now they are refused before any conversion. */
 static void test_numbers_as_names(void **state)
@@ -667,6 +686,7 @@ int main(void)
 {
   const struct CMUnitTest tests[] = {
     cmocka_unit_test(test_result_keeps_its_library),
+    cmocka_unit_test(test_result_read_by_a_finalizer),
     cmocka_unit_test(test_numbers_as_names),
     cmocka_unit_test(test_strings_from_index),
     cmocka_unit_test(test_unknown_options),

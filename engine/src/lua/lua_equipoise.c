@@ -150,6 +150,8 @@ int eqpl_input_error(lua_State *L, const char *fmt, ...)
 static int ctx_gc(lua_State *L)
 {
   eqpl_ctx *c = luaL_checkudata(L, 1, EQPL_CTX);
+  eqp_result_free(c->pending);      /* a push cut short by an error */
+  c->pending = NULL;
   eqp_ctx_free(c->ctx);
   c->ctx = NULL;
   return 0;

@@ -35,12 +35,21 @@ typedef struct eqpl_ctx {
   long long grown;            /* bytes the engine took since the collector was told */
   const void *meta[EQPL_K_N]; /* NULL until the module has made them all */
   const void *held_lib;       /* the library of the holder in user value EQPL_UV_HOLDER */
+  eqp_result *pending;        /* a result being pushed (lua_result.c), owned here until placed */
 } eqpl_ctx;
 /* The context's user values: the metatables (1 .. EQPL_K_N), then a holder
 ** of the library results were last made with (lua_result.c). */
 #define EQPL_UV_HOLDER (EQPL_K_N + 1)
 typedef struct eqpl_solution { eqp_solution *s; } eqpl_solution;
-typedef struct eqpl_result { eqp_result *r; } eqpl_result;
+/* A result in its handle's memory (lua_result.c); hold and c: the holder of
+** its library and the context, which the handle's user values keep as
+** memory, but which a finalizer run before one reading the result may have
+** closed. */
+typedef struct eqpl_result {
+  eqp_result *r;
+  const struct eqpl_library *hold;
+  const struct eqpl_ctx *c;
+} eqpl_result;
 typedef struct eqpl_curve { eqp_curve *c; } eqpl_curve;
 typedef struct eqpl_plot { eqp_plot *p; } eqpl_plot;
 

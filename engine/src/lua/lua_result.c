@@ -10,7 +10,8 @@
 static eqp_result *check_result(lua_State *L, int idx)
 {
   eqpl_result *u = eqpl_check_handle(L, idx, EQPL_K_RESULT);
-  if (!u->r) luaL_argerror(L, idx, "result is closed");
+  if (!u->r || !u->hold || !u->hold->lib || !u->c || !u->c->ctx)
+    luaL_argerror(L, idx, "result is closed");
   return u->r;
 }
 
@@ -26,6 +27,10 @@ void eqpl_push_result(lua_State *L, eqp_result *r)
     eqp_result_free(r);
     luaL_error(L, "equipoise: context is closed");
   }
+  /* the allocations below may raise (a memory limit): until it is placed
+  ** the context owns r, and frees one left over by such an error */
+  if (c->pending) eqp_result_free(c->pending);
+  c->pending = r;
   const size_t at = (sizeof(eqpl_result) + 15) / 16 * 16;
   eqpl_result *u = eqpl_new_handle_uv(L, at + eqpi_result_bytes(r), EQPL_K_RESULT, 2);
   const eqp_library *lib = eqpi_result_library(r);
@@ -35,8 +40,11 @@ void eqpl_push_result(lua_State *L, eqp_result *r)
     c->held_lib = lib;
   }
   lua_getiuservalue(L, lua_upvalueindex(1), EQPL_UV_HOLDER);
+  u->hold = lua_touserdata(L, -1);
+  u->c = c;
   lua_setiuservalue(L, -2, 2);
   u->r = eqpi_result_place(r, (char *)u + at);
+  c->pending = NULL;
 }
 
 typedef int (*per_species_fn)(const eqp_result *, const char *, double *);
