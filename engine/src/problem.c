@@ -33,6 +33,7 @@ static void carve_problem(pcarver *k, eqpi_problem *P, int nc, int ns, int nmax)
 {
 #define D(p, n) ((p) = pcarve(k, sizeof(double) * (size_t)(n)))
   D(P->lna, nc); D(P->tot, nc); D(P->lnfix, nc); D(P->N0, nc); D(P->href, nc);
+  D(P->logx, nc); D(P->logv, nc);
   D(P->lnfree, nc); D(P->lngc, nc);
   D(P->coefH, ns); D(P->s0, ns); D(P->mid, ns); D(P->lg, ns); D(P->lng, ns); D(P->m, ns);
   D(P->dlng, ns);
@@ -95,6 +96,7 @@ eqpi_problem *eqpi_problem_new(eqp_ctx *ctx, const eqpi_tableau *tab, eqpi_model
   P->tab = tab;
   P->nmax = nmax;
   P->lambda = 1;
+  for (int c = 0; c < nc; c++) P->logx[c] = NAN;       /* no log taken yet */
   for (int i = 0; i < ns; i++) P->coefH[i] = eqpi_tableau_nu(tab, i, tab->hloc);  /* href = 0 */
   eqpi_problem_layout(P);
   if (eqpi_problem_set_model(P, model) < 0) {
@@ -115,7 +117,13 @@ void eqpi_problem_set_totals(eqpi_problem *P, const double *totals)
   for (int c = 0; c < t->nc; c++) {
     if (P->kind[c] != EQPI_ROW_MASS) continue;
     P->tot[c] = totals[t->comp[c]];
-    P->lnfix[c] = log(P->tot[c] > 0 ? P->tot[c] : TINY);
+    /* most totals are those of the last solve: their log is at hand */
+    double x = P->tot[c] > 0 ? P->tot[c] : TINY;
+    if (x != P->logx[c]) {
+      P->logx[c] = x;
+      P->logv[c] = log(x);
+    }
+    P->lnfix[c] = P->logv[c];
   }
   P->at_ok = 0;
 }

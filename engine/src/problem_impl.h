@@ -54,6 +54,7 @@ typedef struct eqpi_problem {
   double *lna;          /* nc: target ln a of an ACTIVITY row */
   double *tot;          /* nc: totals, mol/kg (outputs for ACTIVITY and CHARGE rows) */
   double *lnfix;        /* nc: ln total of spectators */
+  double *logx, *logv;  /* nc: the last total set_totals took the log of, and its log */
   int *xidx;            /* nc: unknown of the component, -1 for a spectator */
   /* amounts: the totals follow them, T = (N0 + sum v a) / (W0 + sum v w) */
   int na;
