@@ -589,6 +589,19 @@ static inline bool eqpi_log_on(const eqp_ctx *ctx, int level)
 {
   return ctx && level <= ctx->log_level;
 }
+/* Index of v in the ascending a[0..n), or -1: a tableau's species are its
+** library indexes in ascending order (tableau.c, result.c). */
+static inline int eqpi_find_sorted(const int *a, int n, int v)
+{
+  int lo = 0, hi = n - 1;
+  while (lo <= hi) {
+    int mid = lo + (hi - lo) / 2;
+    if (a[mid] == v) return mid;
+    if (a[mid] < v) lo = mid + 1;
+    else hi = mid - 1;
+  }
+  return -1;
+}
 /* Short vectors of the solver (a few unknowns): copied and compared in
 ** line, without a call into the C library for a handful of doubles. */
 static inline void eqpi_vcopy(double *restrict dst, const double *restrict src, int n)

@@ -72,19 +72,6 @@ static void gather(void *ud, const char *kind, const char *text)
 ** a system before its result is made). */
 typedef struct view { const eqpi_db *db; int ns; const int *sp; const double *m, *lg; double T; } view;
 
-/* Local index of library species g in sp (ascending, ns of them), or -1. */
-static int find_local(const int *sp, int ns, int g)
-{
-  int lo = 0, hi = ns - 1;
-  while (lo <= hi) {
-    int mid = (lo + hi) / 2;
-    if (sp[mid] == g) return mid;
-    if (sp[mid] < g) lo = mid + 1;
-    else hi = mid - 1;
-  }
-  return -1;
-}
-
 /* Saturation index of solid k, log10(IAP/Ksp); -inf when a species of it
 ** is absent. */
 static double sat_index(const view *v, int k)
@@ -95,13 +82,13 @@ static double sat_index(const view *v, int k)
   ** before any logarithm is taken */
   for (int j = 0; j < s->n; j++) {
     if (s->sp[j] == db->water) continue;           /* unit activity */
-    int i = find_local(v->sp, v->ns, s->sp[j]);
+    int i = eqpi_find_sorted(v->sp, v->ns, s->sp[j]);
     if (i < 0 || !(v->m[i] > 0)) return -INFINITY;
   }
   double iap = 0;
   for (int j = 0; j < s->n; j++) {
     if (s->sp[j] == db->water) continue;
-    int i = find_local(v->sp, v->ns, s->sp[j]);
+    int i = eqpi_find_sorted(v->sp, v->ns, s->sp[j]);
     iap += s->nu[j] * (log10(v->m[i]) + v->lg[i]);
   }
   eqpi_tnotes notes = {0, 0};
@@ -336,12 +323,6 @@ double eqp_result_species_log_gamma(const eqp_result *r, size_t i)
   return r && i < (size_t)r->ns ? r->lg[i] : NAN;
 }
 
-/* Local index of library species g (the species are in library order), or -1. */
-static int local_of(const eqp_result *r, int g)
-{
-  return find_local(r->sp, r->ns, g);
-}
-
 /* Local index of a species name: >= 0 present, -1 in the library but absent
 ** from this solution, < -1 unknown (message recorded). */
 static int lookup(const eqp_result *r, const char *sp)
@@ -353,7 +334,7 @@ static int lookup(const eqp_result *r, const char *sp)
     eqpi_fail(r->ctx, EQP_E_UNKNOWN, "unknown species '%s'%s", sp, eqpi_name_hint(sp, hint, sizeof hint));
     return -2;
   }
-  return local_of(r, g);
+  return eqpi_find_sorted(r->sp, r->ns, g);    /* the species are in library order */
 }
 
 int eqp_result_molality(const eqp_result *r, const char *sp, double *out)

@@ -49,19 +49,6 @@ static int solid_present(const eqpi_db *db, int k, const unsigned char *mask)
   return 1;
 }
 
-/* Local index of library species g among the ascending sp[0..ns). */
-static int local_of(const int *sp, int ns, int g)
-{
-  int lo = 0, hi = ns - 1;
-  while (lo <= hi) {
-    int mid = lo + (hi - lo) / 2;
-    if (sp[mid] == g) return mid;
-    if (sp[mid] < g) lo = mid + 1;
-    else hi = mid - 1;
-  }
-  return -1;
-}
-
 /* The solids present with their terms over local species, once l->sp is
 ** filled. */
 static void fill_solids(const eqpi_db *db, const unsigned char *mask, layout *l, int ns,
@@ -77,7 +64,7 @@ static void fill_solids(const eqpi_db *db, const unsigned char *mask, layout *l,
     l->slogK[n++] = eqpi_reaction_logK(&s->ksp, T, &notes);
     for (int j = 0; j < s->n; j++) {
       if (s->sp[j] == db->water) continue;      /* unit activity */
-      l->ssp[t] = local_of(l->sp, ns, s->sp[j]);
+      l->ssp[t] = eqpi_find_sorted(l->sp, ns, s->sp[j]);
       l->snu[t++] = s->nu[j];
     }
   }
