@@ -271,22 +271,6 @@ static int is_water(const eqp_solution *s, const eqpi_reagent *r)
   return r->n == 1 && r->sp[0] == s->db->water;
 }
 
-/* The reagent of the library named name; -1 if none. */
-static int find_reagent(eqp_solution *s, const char *name)
-{
-  if (s->rg_name[0] && s->rg_gen == s->db->generation && strcmp(s->rg_name, name) == 0)
-    return s->rg_index;
-  int g = eqpi_db_find_reagent(s->db, name);
-  size_t len = strlen(name);
-  s->rg_name[0] = '\0';
-  if (g >= 0 && len < sizeof s->rg_name) {
-    memcpy(s->rg_name, name, len + 1);
-    s->rg_index = g;
-    s->rg_gen = s->db->generation;
-  }
-  return g;
-}
-
 int eqp_solution_add(eqp_solution *s, const char *reagent, double value, eqp_quantity kind)
 {
   if (!s || !reagent) return eqpi_fail(s ? s->ctx : NULL, EQP_E_ARG, "NULL argument");
@@ -294,9 +278,9 @@ int eqp_solution_add(eqp_solution *s, const char *reagent, double value, eqp_qua
   if (!isfinite(value) || value < 0)
     return eqpi_fail(ctx, EQP_E_INPUT, "amount of %s must be a non-negative number, got %g",
                      reagent, value);
-  int g = find_reagent(s, reagent);
-  if (g < 0) return unknown_reagent(s, reagent);
-  const eqpi_reagent *r = &s->db->rg[g];
+  const eqpi_reagent *r;
+  int rc = eqpi_find_reagent(s, reagent, &r);
+  if (rc < 0) return rc;
   double mol;
   switch (kind) {
   case EQP_Q_AMOUNT: mol = value; break;
@@ -320,7 +304,7 @@ int eqp_solution_add(eqp_solution *s, const char *reagent, double value, eqp_qua
   if (!isfinite(mol))
     return eqpi_fail(ctx, EQP_E_INPUT, "amount of %s overflows (not a finite number of "
                      "moles)", reagent);
-  int rc = eqpi_solution_grow(s);
+  rc = eqpi_solution_grow(s);
   if (rc < 0) return rc;
   /* check every total the reagent changes before changing any */
   double W = s->water_kg + mol * reagent_water(s->db, r), w;
@@ -512,10 +496,23 @@ int eqpi_solution_solved(eqp_solution *s)
   return rc;
 }
 
+/* The last reagent found is remembered by the name it was given: a
+** titration or a loop adds one reagent over and over. */
 int eqpi_find_reagent(eqp_solution *s, const char *name, const eqpi_reagent **r)
 {
+  if (s->rg_name[0] && s->rg_gen == s->db->generation && strcmp(s->rg_name, name) == 0) {
+    *r = &s->db->rg[s->rg_index];
+    return EQP_OK;
+  }
   int g = eqpi_db_find_reagent(s->db, name);
   if (g < 0) return unknown_reagent(s, name);
+  size_t len = strlen(name);
+  s->rg_name[0] = '\0';
+  if (len < sizeof s->rg_name) {
+    memcpy(s->rg_name, name, len + 1);
+    s->rg_index = g;
+    s->rg_gen = s->db->generation;
+  }
   *r = &s->db->rg[g];
   return EQP_OK;
 }
