@@ -103,34 +103,16 @@ static void carve_all(carver *k, layout *l, int ncg, int nc, int ns, int nnz, in
   CARVE(k, l->closed, nc);
 }
 
-/* Species i of the tableau belongs to the ladder of c: made of c (once)
-** and H+ alone. */
-static int in_ladder(const layout *l, int i, int c, int h)
-{
-  int has = 0;
-  for (int t = l->row[i]; t < l->row[i + 1]; t++) {
-    if (l->cmp[t] == c && l->nu[t] == 1) has = 1;
-    else if (l->cmp[t] != h) return 0;
-  }
-  return has;
-}
-
+/* Acid ladders from the own species (fill_own): those with one c each
+** are c's protonation states; closed[c] when they are all of c's species. */
 static void fill_ladders(layout *l, int nc, int h, int *nlad)
 {
   int n = 0;
   for (int c = 0; c < nc; c++) {
     l->lad[c] = n;
-    int others = 0;
-    for (int t = l->col[c]; t < l->col[c + 1]; t++) {
-      int i = l->csp[t];
-      if (c != h && in_ladder(l, i, c, h)) {
-        l->ladsp[n] = i;
-        n++;
-      } else {
-        others = 1;
-      }
-    }
-    l->closed[c] = c != h && !others;
+    for (int t = l->own[c]; t < l->own[c + 1]; t++)
+      if (l->ownc[t] == 1) l->ladsp[n++] = l->ownsp[t];
+    l->closed[c] = c != h && n - l->lad[c] == l->col[c + 1] - l->col[c];
   }
   l->lad[nc] = n;
   *nlad = n;
