@@ -72,22 +72,6 @@ static int mask_finish(eqp_ctx *ctx, const eqpi_db *db, const double *totals,
   return EQP_OK;
 }
 
-/* Which components are present: H+ always, others with a positive total;
-** a negative total (beyond rounding) other than those of water and H+ is
-** an error. */
-static int active_mask(eqp_ctx *ctx, const eqpi_db *db, const double *totals,
-                       unsigned char *mask)
-{
-  /* one pass without branches over the whole library's components (this
-  ** runs before every solve); the loop below only for a negative total */
-  int neg = 0;
-  for (int c = 0; c < db->ncomp; c++) {
-    mask[c] = totals[c] > 0;
-    neg |= totals[c] < -1e-14;
-  }
-  return mask_finish(ctx, db, totals, mask, neg);
-}
-
 /* The bits of x but its sign: zero for +0 and -0 alone. */
 static inline uint64_t magnitude_bits(const double *x)
 {
@@ -96,15 +80,17 @@ static inline uint64_t magnitude_bits(const double *x)
   return b << 1;
 }
 
-int eqpi_system_molalities(eqp_ctx *ctx, const eqpi_db *db, const double *total,
-                           double water_kg, double *mol, unsigned char *mask, int *big)
+/* One pass over the library's components: total / w into mol (when not
+** NULL; an absent component's 0 stays as it is), the mask of those with a
+** positive value, *neg when one is below -1e-14, *far when one is beyond
+** EQPI_MAX_MOLALITY or not finite. Most of the library's components are
+** absent: four at a time are passed over when they are all zero. */
+static void scan(const double *total, int n, double w, double *mol, unsigned char *mask,
+                 int *neg, int *far)
 {
-  const int n = db->ncomp;
-  int neg = 0, far = 0;
-  memcpy(mol, total, sizeof(double) * (size_t)n);   /* an absent component's 0 stays */
+  if (mol) memcpy(mol, total, sizeof(double) * (size_t)n);
   memset(mask, 0, (size_t)n);
-  /* most of the library's components are absent: four at a time are
-  ** passed over when they are all zero */
+  *neg = *far = 0;
   for (int c0 = 0; c0 < n; c0 += 4) {
     const double *t = total + c0;
     if (c0 + 4 <= n && !(magnitude_bits(t) | magnitude_bits(t + 1) | magnitude_bits(t + 2) |
@@ -112,14 +98,31 @@ int eqpi_system_molalities(eqp_ctx *ctx, const eqpi_db *db, const double *total,
       continue;
     for (int c = c0; c < c0 + 4 && c < n; c++) {
       if (total[c] == 0) continue;
-      double m = total[c] / water_kg;
-      mol[c] = m;
+      double m = total[c] / w;
+      if (mol) mol[c] = m;
       mask[c] = m > 0;
-      neg |= m < -1e-14;
-      far |= !(fabs(m) <= EQPI_MAX_MOLALITY);
+      *neg |= m < -1e-14;
+      *far |= !(fabs(m) <= EQPI_MAX_MOLALITY);
     }
   }
-  *big = far;
+}
+
+/* Which components are present: H+ always, others with a positive total;
+** a negative total (beyond rounding) other than those of water and H+ is
+** an error. */
+static int active_mask(eqp_ctx *ctx, const eqpi_db *db, const double *totals,
+                       unsigned char *mask)
+{
+  int neg, far;
+  scan(totals, db->ncomp, 1.0, NULL, mask, &neg, &far);   /* x / 1 is x */
+  return mask_finish(ctx, db, totals, mask, neg);
+}
+
+int eqpi_system_molalities(eqp_ctx *ctx, const eqpi_db *db, const double *total,
+                           double water_kg, double *mol, unsigned char *mask, int *big)
+{
+  int neg;
+  scan(total, db->ncomp, water_kg, mol, mask, &neg, big);
   return mask_finish(ctx, db, mol, mask, neg);
 }
 
