@@ -22,13 +22,15 @@ static eqp_result *check_result(lua_State *L, int idx)
 ** next result. */
 void eqpl_push_result(lua_State *L, eqp_result *r)
 {
-  eqpl_ctx *c = lua_touserdata(L, lua_upvalueindex(1));
+  eqpl_ctx *c = eqpl_self(L);
   if (!c || !c->ctx) {
     eqp_result_free(r);
     luaL_error(L, "equipoise: context is closed");
   }
   /* the allocations below may raise (a memory limit): until it is placed
-  ** the context owns r, and frees one left over by such an error */
+  ** the context owns r, and frees one left over by such an error (an
+  ** eqpl_hold would do the same at the cost of a finalized object per
+  ** result, which is what placing the result saves) */
   if (c->pending) eqp_result_free(c->pending);
   c->pending = r;
   const size_t at = (sizeof(eqpl_result) + 15) / 16 * 16;
